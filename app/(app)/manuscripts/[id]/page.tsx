@@ -1,0 +1,35 @@
+import Link from "next/link";
+import { EmptyState, PageHeader, RoleBadge, Sheet } from "@/components/ui";
+import { loadOrNotFound, requireUser } from "@/lib/http/session";
+import { getManuscript } from "@/lib/server/manuscripts";
+
+export default async function ManuscriptPage({ params }: { params: Promise<{ id: string }> }) {
+  const user = await requireUser();
+  const { id } = await params;
+  const m = await loadOrNotFound(() => getManuscript(user, id));
+  return (
+    <>
+      <PageHeader
+        title={m.title}
+        subtitle={<>{m.labName} · your role <RoleBadge role={m.role!} /></>}
+        actions={<Link href={`/manuscripts/${m.id}/members`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Members ({m.members.length})</Link>}
+      />
+      <div className="grid gap-6 lg:grid-cols-[1fr_280px]">
+        <section aria-labelledby="figures-heading">
+          <h2 id="figures-heading" className="mb-3 text-lg font-semibold">Figures</h2>
+          <EmptyState title="No figures yet">Figures and their panels appear here, each with its review state.</EmptyState>
+        </section>
+        <Sheet>
+          <h2 className="text-sm font-semibold">Data</h2>
+          <p className="mt-1 text-sm text-muted">{m.datasetCount} dataset{m.datasetCount === 1 ? "" : "s"}</p>
+          <h2 className="mt-5 text-sm font-semibold">People</h2>
+          <ul className="mt-2 space-y-1.5 text-sm">
+            {m.members.map((p) => (
+              <li key={p.userId} className="flex items-center justify-between gap-2"><span>{p.name}</span><RoleBadge role={p.role} /></li>
+            ))}
+          </ul>
+        </Sheet>
+      </div>
+    </>
+  );
+}

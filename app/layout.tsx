@@ -1,0 +1,17 @@
+import type { Metadata } from "next";
+import type { ReactNode } from "react";
+import { inter } from "./_fonts/inter";
+import "./globals.css";
+
+export const metadata: Metadata = {
+  title: { default: "Prooflight", template: "%s · Prooflight" },
+  description: "Publication figures every co-author can check, traced to the bytes that were measured.",
+};
+
+export default function RootLayout({ children }: { children: ReactNode }) {
+  return (
+    <html lang="en" className={inter.variable}>
+      <body className="min-h-screen font-sans antialiased">{children}</body>
+    </html>
+  );
+}

@@ -1,0 +1,44 @@
+import type { Role } from "@/db/schema";
+
+const everyone: readonly Role[] = ["pi", "author", "reviewer", "viewer"];
+const writers: readonly Role[] = ["pi", "author"];
+const commenters: readonly Role[] = ["pi", "author", "reviewer"];
+
+/**
+ * The one role → action table. Actions scoped to a manuscript are checked against the caller's
+ * membership role; a caller with no membership gets 404 whatever the action.
+ */
+export const MANUSCRIPT_POLICY = {
+  "manuscript.read": everyone,
+  "manuscript.export": everyone,
+  "member.manage": ["pi"],
+  "dataset.upload": writers,
+  "dataset.edit": writers,
+  "analysis.run": writers,
+  "figure.edit": writers,
+  "comment.write": commenters,
+  "review.decide": commenters,
+  "figure.signoff": ["pi"],
+} as const satisfies Record<string, readonly Role[]>;
+
+/** Actions that need only a signed-in user (they act on the caller's own things). */
+export const USER_ACTIONS = ["self.read", "self.tokens", "manuscript.list", "manuscript.create", "model.list"] as const;
+
+export type ManuscriptAction = keyof typeof MANUSCRIPT_POLICY;
+export type UserAction = (typeof USER_ACTIONS)[number];
+export type Action = ManuscriptAction | UserAction;
+
+export function isManuscriptAction(action: Action): action is ManuscriptAction {
+  return action in MANUSCRIPT_POLICY;
+}
+
+export function roleAllows(role: Role, action: ManuscriptAction): boolean {
+  return (MANUSCRIPT_POLICY[action] as readonly Role[]).includes(role);
+}
+
+export const ROLE_LABELS: Record<Role, string> = {
+  pi: "PI",
+  author: "Author",
+  reviewer: "Reviewer",
+  viewer: "Viewer",
+};

@@ -1,0 +1,73 @@
+import { z } from "zod";
+import type { Action } from "@/lib/authz/policy";
+import { createTokenInput } from "@/lib/server/api-tokens";
+import { createManuscriptInput } from "@/lib/server/manuscripts";
+import { changeRoleInput, inviteInput } from "@/lib/server/members";
+
+export interface ApiOperation {
+  method: "GET" | "POST" | "PATCH" | "DELETE";
+  path: string; // OpenAPI style: /api/manuscripts/{id}
+  permission: Action | "public";
+  summary: string;
+  body?: z.ZodType;
+  multipart?: Record<string, string>;
+  query?: z.ZodType;
+  success: number;
+}
+
+/** Every route of the API, described once; the OpenAPI document and the route × role test read it. */
+export const API_OPERATIONS: ApiOperation[] = [
+  { method: "GET", path: "/api/health", permission: "public", summary: "Readiness: 200 once migrations are applied", success: 200 },
+  { method: "GET", path: "/api/openapi.json", permission: "public", summary: "This document", success: 200 },
+  { method: "POST", path: "/api/sign-in-link", permission: "public", summary: "E-mail a single-use sign-in link", body: z.object({ email: z.string().email() }), success: 202 },
+  { method: "GET", path: "/api/me", permission: "self.read", summary: "The caller and their memberships", success: 200 },
+  { method: "GET", path: "/api/tokens", permission: "self.tokens", summary: "The caller's API tokens", success: 200 },
+  { method: "POST", path: "/api/tokens", permission: "self.tokens", summary: "Create an API token (shown once)", body: createTokenInput, success: 201 },
+  { method: "DELETE", path: "/api/tokens/{id}", permission: "self.tokens", summary: "Revoke an API token", success: 200 },
+  { method: "GET", path: "/api/manuscripts", permission: "manuscript.list", summary: "The caller's manuscripts", success: 200 },
+  { method: "POST", path: "/api/manuscripts", permission: "manuscript.create", summary: "Create a manuscript (the creator becomes PI)", body: createManuscriptInput, success: 201 },
+  { method: "GET", path: "/api/manuscripts/{id}", permission: "manuscript.read", summary: "A manuscript with members, figures and review states", success: 200 },
+  { method: "GET", path: "/api/manuscripts/{id}/members", permission: "manuscript.read", summary: "Members and pending invitations", success: 200 },
+  { method: "POST", path: "/api/manuscripts/{id}/members", permission: "member.manage", summary: "Invite by e-mail with a role (PI only)", body: inviteInput, success: 201 },
+  { method: "PATCH", path: "/api/manuscripts/{id}/members/{userId}", permission: "member.manage", summary: "Change a member's role", body: changeRoleInput, success: 200 },
+  { method: "DELETE", path: "/api/manuscripts/{id}/members/{userId}", permission: "member.manage", summary: "Remove a member", success: 200 },
+];
+
+const errorSchema = {
+  type: "object",
+  required: ["error"],
+  properties: { error: { type: "object", required: ["code", "message"], properties: { code: { type: "string" }, message: { type: "string" }, details: {} } } },
+};
+
+export function buildOpenApi(): Record<string, unknown> {
+  const paths: Record<string, Record<string, unknown>> = {};
+  for (const op of API_OPERATIONS) {
+    const params = [...op.path.matchAll(/\{(\w+)\}/g)].map((m) => ({ name: m[1], in: "path", required: true, schema: { type: "string" } }));
+    const requestBody = op.body
+      ? { required: true, content: { "application/json": { schema: z.toJSONSchema(op.body, { io: "input" }) } } }
+      : op.multipart
+        ? { required: true, content: { "multipart/form-data": { schema: { type: "object", properties: Object.fromEntries(Object.entries(op.multipart).map(([k, d]) => [k, { type: "string", description: d }])) } } } }
+        : undefined;
+    (paths[op.path] ??= {})[op.method.toLowerCase()] = {
+      summary: op.summary,
+      "x-permission": op.permission,
+      ...(params.length ? { parameters: params } : {}),
+      ...(requestBody ? { requestBody } : {}),
+      ...(op.permission === "public" ? { security: [] } : {}),
+      responses: {
+        [String(op.success)]: { description: "Success" },
+        default: { description: "Error", content: { "application/json": { schema: { $ref: "#/components/schemas/Error" } } } },
+      },
+    };
+  }
+  return {
+    openapi: "3.1.0",
+    info: { title: "Prooflight API", version: "0.1.0", description: "Send `Authorization: Bearer <token>` (create one with `npm run token -- <email>` or on the API tokens page). Non-members get 404." },
+    components: {
+      securitySchemes: { bearer: { type: "http", scheme: "bearer" }, session: { type: "apiKey", in: "cookie", name: "authjs.session-token" } },
+      schemas: { Error: errorSchema },
+    },
+    security: [{ bearer: [] }, { session: [] }],
+    paths,
+  };
+}

@@ -1,0 +1,92 @@
+import type { z } from "zod";
+import { authorize, type Action, type SessionUser } from "@/lib/authz";
+import type { Role } from "@/db/schema";
+import { env } from "@/lib/env";
+import { badRequest, forbidden, unauthorized } from "@/lib/server/errors";
+import { toErrorResponse } from "./errors";
+import { resolveCaller } from "./request-user";
+
+export type Params = Record<string, string>;
+type RouteContext = { params: Promise<Params> };
+export type RouteHandler = ((req: Request, ctx: RouteContext) => Promise<Response>) & { gate?: GateInfo };
+export interface GateInfo { permission: Action | "public"; }
+
+export interface HandlerArgs<B, Q> {
+  req: Request; user: SessionUser; role: Role | null; params: Params; body: B; query: Q; manuscriptId?: string;
+}
+
+interface Options<B, Q> {
+  /** Which manuscript the request touches; resolved before the permission check (404 when unknown). */
+  scope?: (a: { params: Params; body: B; query: Q; user: SessionUser }) => Promise<string> | string;
+  body?: z.ZodType<B>;
+  query?: z.ZodType<Q>;
+  /** Multipart or streaming routes read the body themselves. */
+  rawBody?: boolean;
+}
+
+const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
+
+/** Cookie-authenticated writes must come from our own pages; route handlers have no CSRF check of their own. */
+function checkOrigin(req: Request) {
+  const origin = req.headers.get("origin");
+  const site = req.headers.get("sec-fetch-site");
+  if (origin) {
+    const allowed = new Set([new URL(env().appUrl).host, req.headers.get("host")]);
+    if (!allowed.has(new URL(origin).host)) throw forbidden("Cross-site request refused.");
+    return;
+  }
+  if (site && site !== "same-origin") throw forbidden("Cross-site request refused.");
+  if (!site) throw forbidden("Requests signed in with a cookie must carry an Origin header; scripts should use an API token.");
+}
+
+async function readJson(req: Request): Promise<unknown> {
+  const text = await req.text();
+  if (!text.trim()) return {};
+  try {
+    return JSON.parse(text);
+  } catch (e) {
+    throw badRequest(`The request body is not valid JSON: ${(e as Error).message}.`);
+  }
+}
+
+/** The one wrapper for route handlers: states the permission, authenticates, validates, authorizes. */
+export function withPermission<B = undefined, Q = undefined>(
+  permission: Action,
+  options: Options<B, Q>,
+  handler: (a: HandlerArgs<B, Q>) => Promise<Response | unknown>,
+): RouteHandler {
+  const fn: RouteHandler = async (req, ctx) => {
+    try {
+      const caller = await resolveCaller(req);
+      if (!caller) throw unauthorized();
+      if (caller.via === "session" && !SAFE_METHODS.has(req.method)) checkOrigin(req);
+      const params = ((await ctx?.params) ?? {}) as Params;
+      const url = new URL(req.url);
+      const query = (options.query ? options.query.parse(Object.fromEntries(url.searchParams)) : undefined) as Q;
+      const body = (options.body && !options.rawBody ? options.body.parse(await readJson(req)) : undefined) as B;
+      const manuscriptId = options.scope ? await options.scope({ params, body, query, user: caller.user }) : undefined;
+      const role = await authorize(caller.user, permission, manuscriptId);
+      const out = await handler({ req, user: caller.user, role, params, body, query, manuscriptId });
+      return out instanceof Response ? out : Response.json(out);
+    } catch (err) {
+      return toErrorResponse(err);
+    }
+  };
+  fn.gate = { permission };
+  return fn;
+}
+
+/** For the short allow-list of public endpoints (health, OpenAPI, auth). */
+export function publicRoute(handler: (req: Request, ctx: RouteContext) => Promise<Response>): RouteHandler {
+  const fn: RouteHandler = async (req, ctx) => {
+    try {
+      return await handler(req, ctx);
+    } catch (err) {
+      return toErrorResponse(err);
+    }
+  };
+  fn.gate = { permission: "public" };
+  return fn;
+}
+
+export const created = (body: unknown) => Response.json(body, { status: 201 });

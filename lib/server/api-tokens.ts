@@ -1,0 +1,48 @@
+import { and, desc, eq, isNull } from "drizzle-orm";
+import { z } from "zod";
+import { getDb } from "@/db/client";
+import { apiTokens, users } from "@/db/schema";
+import type { SessionUser } from "@/lib/authz";
+import { appendAudit } from "./audit";
+import { newId, newSecret, sha256Hex } from "./crypto";
+import { notFound } from "./errors";
+
+export const createTokenInput = z.object({ name: z.string().trim().min(1, "Give the token a name.").max(80) });
+
+export async function createApiToken(user: SessionUser, input: z.infer<typeof createTokenInput>) {
+  const { name } = createTokenInput.parse(input);
+  const { secret, hash } = newSecret("plt");
+  const id = newId();
+  await getDb().transaction(async (tx) => {
+    await tx.insert(apiTokens).values({ id, userId: user.id, name, tokenHash: hash, prefix: secret.slice(0, 10) });
+    await appendAudit(tx, { actorId: user.id, action: "token.create", target: `token:${id}`, data: { name } });
+  });
+  return { id, name, token: secret };
+}
+
+export async function listApiTokens(user: SessionUser) {
+  return getDb().select({
+    id: apiTokens.id, name: apiTokens.name, prefix: apiTokens.prefix, createdAt: apiTokens.createdAt,
+    lastUsedAt: apiTokens.lastUsedAt, revokedAt: apiTokens.revokedAt,
+  }).from(apiTokens).where(eq(apiTokens.userId, user.id)).orderBy(desc(apiTokens.createdAt));
+}
+
+export async function revokeApiToken(user: SessionUser, tokenId: string): Promise<void> {
+  await getDb().transaction(async (tx) => {
+    const done = await tx.update(apiTokens).set({ revokedAt: new Date() })
+      .where(and(eq(apiTokens.id, tokenId), eq(apiTokens.userId, user.id), isNull(apiTokens.revokedAt)))
+      .returning({ id: apiTokens.id });
+    if (!done[0]) throw notFound("No such active token.");
+    await appendAudit(tx, { actorId: user.id, action: "token.revoke", target: `token:${tokenId}` });
+  });
+}
+
+export async function userForApiToken(token: string): Promise<SessionUser | null> {
+  const db = getDb();
+  const [row] = await db.select({ tokenId: apiTokens.id, id: users.id, email: users.email, name: users.name })
+    .from(apiTokens).innerJoin(users, eq(users.id, apiTokens.userId))
+    .where(and(eq(apiTokens.tokenHash, sha256Hex(token)), isNull(apiTokens.revokedAt)));
+  if (!row) return null;
+  await db.update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, row.tokenId));
+  return { id: row.id, email: row.email, name: row.name };
+}

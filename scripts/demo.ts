@@ -1,0 +1,38 @@
+import { ensureLocalEnv } from "./lib/local-env";
+ensureLocalEnv();
+
+const { applyMigrations } = await import("@/db/migrate");
+const { seedDemo, DEMO_ACCOUNTS, DEMO_PASSWORD } = await import("@/db/seed");
+const { env } = await import("@/lib/env");
+const { startMailSink } = await import("@/lib/server/mail/sink-server");
+const { buildIsStale, runNextSync, spawnNext, waitForHttp } = await import("./lib/processes");
+const { closeDb } = await import("@/db/client");
+
+await applyMigrations();
+await seedDemo();
+closeDb();
+console.log("Database migrated and demo data seeded.");
+
+if (process.argv.includes("--rebuild") || buildIsStale()) {
+  console.log("Building the application (next build)…");
+  await runNextSync(["build"]);
+}
+
+try {
+  await startMailSink({ port: env().smtpPort, dir: env().mailSinkDir });
+  console.log(`Mail sink: smtp://127.0.0.1:${env().smtpPort} → ${env().mailSinkDir}`);
+} catch (err) {
+  console.warn(`Mail sink NOT started: ${(err as Error).message}`);
+}
+
+spawnNext(["start", "-p", String(env().port)]);
+await waitForHttp(`http://localhost:${env().port}/api/health`, 90_000);
+
+console.log(`
+Prooflight is running at ${env().appUrl}
+Mail outbox (demo): ${env().appUrl}/dev/mail
+
+Demo accounts (password for all: ${DEMO_PASSWORD}):
+${DEMO_ACCOUNTS.map((a) => `  ${a.email.padEnd(34)} ${a.role ?? "no membership (second lab only)"}`).join("\n")}
+
+Press Ctrl+C to stop.`);

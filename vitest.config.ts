@@ -1,0 +1,17 @@
+import { defineConfig } from "vitest/config";
+import { fileURLToPath } from "node:url";
+
+export default defineConfig({
+  resolve: { alias: { "@": fileURLToPath(new URL("./", import.meta.url)) } },
+  test: {
+    include: ["tests/unit/**/*.test.ts", "tests/reference/**/*.test.ts", "tests/api/**/*.test.ts"],
+    environment: "node",
+    testTimeout: 60_000,
+    hookTimeout: 60_000,
+    pool: "forks",
+    fileParallelism: true,
+    maxWorkers: 2,
+    // next-auth imports "next/server" without an extension; let Vite resolve it.
+    server: { deps: { inline: ["next-auth"] } },
+  },
+});
