@@ -16,6 +16,8 @@ export async function resolveCaller(req: Request): Promise<Caller | null> {
     if (!user) throw unauthorized("This API token is unknown or revoked.");
     return { user, via: "token" };
   }
+  // Without a session cookie there is nothing for Auth.js to read; skip it.
+  if (!/(?:^|;\s*)(?:__Secure-)?authjs\.session-token(?:\.\d+)?=/.test(req.headers.get("cookie") ?? "")) return null;
   const session = await auth();
   const uid = session?.user?.id;
   if (!uid) return null;

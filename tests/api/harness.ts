@@ -17,7 +17,7 @@ export async function setupTestApp(): Promise<{ dir: string; tokens: Record<Who,
     UPLOADS_DIR: path.join(dir, "uploads"),
     MAIL_SINK_DIR: path.join(dir, "mail"),
     AUTH_SECRET: "test-secret-test-secret-test-secret-0123",
-    SMTP_PORT: process.env.TEST_SMTP_PORT ?? "2599",
+    SMTP_PORT: String(20_000 + Math.floor(Math.random() * 20_000)),
   });
   delete process.env.SMTP_URL;
   resetEnvForTests();

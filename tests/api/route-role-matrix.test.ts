@@ -1,0 +1,78 @@
+import { beforeAll, describe, expect, it } from "vitest";
+import { getDb } from "@/db/client";
+import { manuscriptMembers, users } from "@/db/schema";
+import { DEMO_ACCOUNTS, DEMO_MANUSCRIPT_ID } from "@/db/seed";
+import { isManuscriptAction, MANUSCRIPT_POLICY, type Action } from "@/lib/authz/policy";
+import { API_OPERATIONS, type ApiOperation } from "@/lib/http/api-catalogue";
+import { createApiToken } from "@/lib/server/api-tokens";
+import { newId } from "@/lib/server/crypto";
+import { call, setupTestApp, type Who } from "./harness";
+import { routeFiles } from "./route-files";
+
+type Caller = Who | "anonymous";
+const CALLERS: Caller[] = ["pi", "author", "reviewer", "viewer", "outsider", "anonymous"];
+type Fixture = (who: Caller) => Promise<{ params?: Record<string, string>; body?: unknown }>;
+
+const userOf = (who: Caller) => DEMO_ACCOUNTS.find((a) => a.email.startsWith(`${who}@`))!;
+
+async function freshMember(): Promise<string> {
+  const id = newId();
+  await getDb().insert(users).values({ id, email: `${id.toLowerCase()}@walk.example.org`, name: "Walk Member" });
+  await getDb().insert(manuscriptMembers).values({ manuscriptId: DEMO_MANUSCRIPT_ID, userId: id, role: "viewer" });
+  return id;
+}
+
+/** A valid request for each operation; a new route fails this test until it is given one. */
+const FIXTURES: Record<string, Fixture> = {
+  "GET /api/me": async () => ({}),
+  "GET /api/tokens": async () => ({}),
+  "POST /api/tokens": async () => ({ body: { name: "walk" } }),
+  "DELETE /api/tokens/{id}": async (who) => {
+    if (who === "anonymous") return { params: { id: "none" } };
+    const a = userOf(who);
+    const t = await createApiToken({ id: a.id, email: a.email, name: a.name }, { name: "to revoke" });
+    return { params: { id: t.id } };
+  },
+  "GET /api/manuscripts": async () => ({}),
+  "POST /api/manuscripts": async () => ({ body: { title: "Walk", labId: "demo-lab" } }),
+  "GET /api/manuscripts/{id}": async () => ({ params: { id: DEMO_MANUSCRIPT_ID } }),
+  "GET /api/manuscripts/{id}/members": async () => ({ params: { id: DEMO_MANUSCRIPT_ID } }),
+  "POST /api/manuscripts/{id}/members": async () => ({ params: { id: DEMO_MANUSCRIPT_ID }, body: { email: `${newId().toLowerCase()}@walk.example.org`, role: "viewer" } }),
+  "PATCH /api/manuscripts/{id}/members/{userId}": async () => ({ params: { id: DEMO_MANUSCRIPT_ID, userId: await freshMember() }, body: { role: "reviewer" } }),
+  "DELETE /api/manuscripts/{id}/members/{userId}": async () => ({ params: { id: DEMO_MANUSCRIPT_ID, userId: await freshMember() } }),
+};
+
+/** What the policy says each caller must get. Lab-scoped creation: only lab members may create in the demo lab. */
+function expected(op: ApiOperation, who: Caller): "ok" | 401 | 403 | 404 {
+  if (op.permission === "public") return "ok";
+  if (who === "anonymous") return 401;
+  const action = op.permission as Action;
+  if (action === "manuscript.create") return ["pi", "author", "viewer"].includes(who) ? "ok" : 404;
+  if (!isManuscriptAction(action)) return "ok";
+  if (who === "outsider") return 404;
+  return (MANUSCRIPT_POLICY[action] as readonly string[]).includes(who) ? "ok" : 403;
+}
+
+let tokens: Record<Who, string>;
+beforeAll(async () => { ({ tokens } = await setupTestApp()); });
+
+describe("every route × every role", () => {
+  const files = routeFiles();
+  for (const op of API_OPERATIONS.filter((o) => o.permission !== "public")) {
+    const key = `${op.method} ${op.path}`;
+    it(key, async () => {
+      const fixture = FIXTURES[key];
+      expect(fixture, `add a fixture for ${key}`).toBeTruthy();
+      const file = files.find((f) => f.apiPath === op.path)!.file;
+      const handler = (await import(file))[op.method];
+      for (const who of CALLERS) {
+        const { params, body } = await fixture!(who);
+        const r = await call(handler, { method: op.method, token: who === "anonymous" ? null : tokens[who], params, body });
+        const want = expected(op, who);
+        const got = r.status >= 200 && r.status < 300 ? "ok" : r.status;
+        expect(got, `${key} as ${who}: ${JSON.stringify(r.json)}`).toBe(want);
+        if (want === "ok") expect(r.status).toBe(op.success);
+      }
+    });
+  }
+});
