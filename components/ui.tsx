@@ -1,4 +1,4 @@
-import type { ReactNode, ButtonHTMLAttributes, InputHTMLAttributes, SelectHTMLAttributes } from "react";
+import { cloneElement, isValidElement, useId, type ReactElement, type ReactNode, type ButtonHTMLAttributes, type InputHTMLAttributes, type SelectHTMLAttributes } from "react";
 import type { Role } from "@/db/schema";
 import { ROLE_LABELS } from "@/lib/authz/policy";
 
@@ -27,14 +27,18 @@ export function Button({ variant = "primary", className = "", ...rest }: ButtonH
   return <button className={`inline-flex items-center gap-2 rounded-sm px-3 py-1.5 text-sm font-medium ${look} ${className}`} {...rest} />;
 }
 
-export function Field({ label, hint, error, children }: { label: string; hint?: string; error?: string; children: ReactNode }) {
+/** A label bound by id (not by wrapping), so a select's options never leak into its accessible name. */
+export function Field({ label, hint, error, children }: { label: string; hint?: string; error?: string; children: ReactElement<{ id?: string; "aria-describedby"?: string }> }) {
+  const id = useId();
+  const hintId = `${id}-hint`;
+  const control = isValidElement(children) ? cloneElement(children, { id, "aria-describedby": hint ? hintId : undefined }) : children;
   return (
-    <label className="block text-sm">
-      <span className="mb-1 block font-medium">{label}</span>
-      {children}
-      {hint ? <span className="mt-1 block text-xs text-muted">{hint}</span> : null}
+    <div className="block text-sm">
+      <label htmlFor={id} className="mb-1 block font-medium">{label}</label>
+      {control}
+      {hint ? <span id={hintId} className="mt-1 block text-xs text-muted">{hint}</span> : null}
       {error ? <span role="alert" className="mt-1 block text-xs text-bad">✕ {error}</span> : null}
-    </label>
+    </div>
   );
 }
 

@@ -22,7 +22,7 @@ export async function enqueueMail(tx: Executor, m: MailMessage): Promise<string>
 
 let transporter: Transporter | undefined;
 function transport(): Transporter {
-  transporter ??= nodemailer.createTransport(env().smtpUrl);
+  transporter ??= nodemailer.createTransport(env().smtpUrl, { connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 30_000 });
   return transporter;
 }
 

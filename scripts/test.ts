@@ -1,0 +1,91 @@
+// `npm test`: every test — unit, reference, API on real SQLite files, then the browser tests in Chromium
+// against `next start` on a freshly seeded database with the SMTP sink running.
+import { spawn, spawnSync } from "node:child_process";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { ensureLocalEnv } from "./lib/local-env";
+
+ensureLocalEnv();
+const root = process.cwd();
+const work = path.join(root, ".test-work");
+fs.rmSync(work, { recursive: true, force: true });
+fs.mkdirSync(work, { recursive: true });
+
+function run(cmd: string, args: string[], env: Record<string, string> = {}): number {
+  const r = spawnSync(cmd, args, { stdio: "inherit", env: { ...process.env, NEXT_TELEMETRY_DISABLED: "1", ...env } });
+  return r.status ?? 1;
+}
+
+/** Asynchronous, so the mail sink living in this process keeps answering while the browser tests run. */
+function runAsync(cmd: string, args: string[], env: Record<string, string> = {}): Promise<number> {
+  return new Promise((resolve) => {
+    const child = spawn(cmd, args, { stdio: "inherit", env: { ...process.env, NEXT_TELEMETRY_DISABLED: "1", ...env } });
+    child.on("exit", (code) => resolve(code ?? 1));
+  });
+}
+
+function counts(file: string, kind: "vitest" | "playwright"): { passed: number; failed: number; skipped: number } {
+  if (!fs.existsSync(file)) return { passed: 0, failed: 1, skipped: 0 };
+  const j = JSON.parse(fs.readFileSync(file, "utf8"));
+  if (kind === "vitest") return { passed: j.numPassedTests, failed: j.numFailedTests + (j.numFailedTestSuites ?? 0), skipped: j.numPendingTests + j.numTodoTests };
+  return { passed: j.stats.expected, failed: j.stats.unexpected + j.stats.flaky, skipped: j.stats.skipped };
+}
+
+const vitestJson = path.join(work, "vitest.json");
+const vitestCode = run(process.execPath, ["node_modules/vitest/vitest.mjs", "run", "--reporter=default", "--reporter=json", `--outputFile.json=${vitestJson}`]);
+const total = counts(vitestJson, "vitest");
+let e2eCode = 0;
+
+const chromium = process.env.CHROMIUM_PATH ?? "/usr/bin/chromium";
+if (!fs.existsSync(chromium)) {
+  if (process.env.CI) {
+    console.error(`\n✕ Chromium not found at ${chromium}; CI must install Debian's chromium (see .ci/run).`);
+    e2eCode = 1;
+  } else {
+    console.warn(`\n!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!\n!! BROWSER TESTS SKIPPED: no Chromium at ${chromium}.\n!! Install it (apt-get install -y chromium) to run tests/e2e.\n!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!\n`);
+  }
+} else {
+  e2eCode = await runBrowserTests();
+  const e2e = counts(path.join(work, "playwright.json"), "playwright");
+  total.passed += e2e.passed; total.failed += e2e.failed; total.skipped += e2e.skipped;
+}
+
+async function runBrowserTests(): Promise<number> {
+  const { buildIsStale, runNextSync, spawnNext, waitForHttp } = await import("./lib/processes");
+  if (buildIsStale()) {
+    console.log("\nBuilding the application for the browser tests…");
+    await runNextSync(["build"]);
+  }
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "prooflight-e2e-"));
+  const port = process.env.E2E_PORT ?? "3100";
+  const env = {
+    PORT: port,
+    DATABASE_URL: `file:${path.join(dir, "e2e.db")}`,
+    UPLOADS_DIR: path.join(dir, "uploads"),
+    MAIL_SINK_DIR: path.join(dir, "mail"),
+    SMTP_PORT: process.env.E2E_SMTP_PORT ?? "2626",
+    APP_URL: `http://localhost:${port}`,
+  };
+  Object.assign(process.env, env);
+  const { applyMigrations } = await import("@/db/migrate");
+  const { seedDemo } = await import("@/db/seed");
+  const { closeDb } = await import("@/db/client");
+  const { startMailSink } = await import("@/lib/server/mail/sink-server");
+  await applyMigrations();
+  await seedDemo();
+  closeDb();
+  const sink = await startMailSink({ port: Number(env.SMTP_PORT), dir: env.MAIL_SINK_DIR, quiet: true });
+  const server = spawnNext(["start", "-p", port], env);
+  try {
+    await waitForHttp(`http://localhost:${port}/api/health`, 90_000);
+    return await runAsync(process.execPath, ["node_modules/@playwright/test/cli.js", "test", ...process.argv.slice(2)], { ...env, BASE_URL: `http://localhost:${port}` });
+  } finally {
+    if (server.pid) try { process.kill(-server.pid, "SIGTERM"); } catch { /* gone */ }
+    await sink.close();
+  }
+}
+
+console.log(`\nunit, reference, API and browser tests`);
+console.log(`Total: ${total.passed} passed, ${total.failed} failed, ${total.skipped} skipped`);
+process.exit(vitestCode !== 0 || e2eCode !== 0 ? 1 : 0);

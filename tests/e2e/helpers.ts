@@ -1,0 +1,36 @@
+import fs from "node:fs";
+import path from "node:path";
+import { expect, type Page } from "@playwright/test";
+
+export const PASSWORD = "prooflight-demo";
+export const DEMO_MANUSCRIPT = "demo-manuscript";
+
+export async function signIn(page: Page, email: string, password = PASSWORD) {
+  await page.goto("/sign-in");
+  await page.getByLabel("E-mail", { exact: true }).fill(email);
+  await page.getByLabel("Password").fill(password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page).toHaveURL(/\/manuscripts/);
+}
+
+/** Screenshots land in screenshots/ so a person can look at every page the tests pass through. */
+export async function shoot(page: Page, name: string) {
+  fs.mkdirSync("screenshots", { recursive: true });
+  await page.screenshot({ path: path.join("screenshots", `${name}.png`), fullPage: true });
+}
+
+interface SinkMessage { id: string; envelope: { to: string[] }; subject: string; text: string }
+
+/** Waits for the sink (started by the test runner) to hold a message to `to` matching `subject`. */
+export async function waitForMail(to: string, subject: RegExp, timeoutMs = 20_000): Promise<SinkMessage> {
+  const dir = process.env.MAIL_SINK_DIR!;
+  const until = Date.now() + timeoutMs;
+  while (Date.now() < until) {
+    const found = fs.existsSync(dir) ? fs.readdirSync(dir).filter((f) => f.endsWith(".json") && !f.startsWith("."))
+      .map((f) => JSON.parse(fs.readFileSync(path.join(dir, f), "utf8")) as SinkMessage)
+      .find((m) => m.envelope.to.includes(to) && subject.test(m.subject)) : undefined;
+    if (found) return found;
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`No mail to ${to} matching ${subject} within ${timeoutMs} ms`);
+}
