@@ -158,7 +158,11 @@ export const datasets = sqliteTable(
 );
 
 export interface StoredColumn { name: string; unit: string | null; type: "number" | "string" }
-export interface ParseInfo { format: string; encoding: string; delimiter: string | null; decimal: string; warnings: string[] }
+export interface ParseInfo {
+  format: string; encoding: string; delimiter: string | null; decimal: string; warnings: string[];
+  headerMetadata: Record<string, string>;
+}
+export interface StoredSummary { column: string; unit: string | null; count: number; missing: number; min: number | null; max: number | null; mean: number | null; sd: number | null }
 
 export const versions = sqliteTable(
   "versions",
@@ -172,6 +176,7 @@ export const versions = sqliteTable(
     rowCount: integer("row_count").notNull(),
     columns: text("columns", { mode: "json" }).$type<StoredColumn[]>().notNull(),
     parseInfo: text("parse_info", { mode: "json" }).$type<ParseInfo>().notNull(),
+    summary: text("summary", { mode: "json" }).$type<StoredSummary[]>().notNull().default([]),
     derivedFromAnalysisId: text("derived_from_analysis_id"),
     createdBy: text("created_by").notNull().references(() => users.id),
     createdAt: createdAt(),

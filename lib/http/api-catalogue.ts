@@ -3,6 +3,7 @@ import type { Action } from "@/lib/authz/policy";
 import { createTokenInput } from "@/lib/server/api-tokens";
 import { createManuscriptInput } from "@/lib/server/manuscripts";
 import { changeRoleInput, inviteInput } from "@/lib/server/members";
+import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schemas";
 
 export interface ApiOperation {
   method: "GET" | "POST" | "PATCH" | "DELETE";
@@ -31,6 +32,24 @@ export const API_OPERATIONS: ApiOperation[] = [
   { method: "POST", path: "/api/manuscripts/{id}/members", permission: "member.manage", summary: "Invite by e-mail with a role (PI only)", body: inviteInput, success: 201 },
   { method: "PATCH", path: "/api/manuscripts/{id}/members/{userId}", permission: "member.manage", summary: "Change a member's role", body: changeRoleInput, success: 200 },
   { method: "DELETE", path: "/api/manuscripts/{id}/members/{userId}", permission: "member.manage", summary: "Remove a member", success: 200 },
+  { method: "GET", path: "/api/manuscripts/{id}/datasets", permission: "manuscript.read", summary: "Datasets with their latest version", success: 200 },
+  {
+    method: "POST", path: "/api/manuscripts/{id}/datasets", permission: "dataset.upload", success: 201,
+    summary: "Upload a file: a new dataset, or a new version with datasetId (identical bytes to the current version answer 200 with it)",
+    multipart: {
+      file: "the instrument file (CSV, TSV, text with # header, JSON, 2-D map); binary",
+      name: "dataset name (default: the file name)",
+      metadata: "JSON: { kind, sample, instrument, measuredAt, notes, tags }",
+      datasetId: "make this upload a new version of that dataset",
+      delimiter: "override: , ; tab whitespace", decimal: "override: . or ,", format: "override: csv tsv text json matrix",
+    },
+  },
+  { method: "GET", path: "/api/datasets/{id}", permission: "manuscript.read", summary: "A dataset with its versions", success: 200 },
+  { method: "PATCH", path: "/api/datasets/{id}", permission: "dataset.edit", summary: "Edit metadata (audited, no new version)", body: metadataInput, success: 200 },
+  { method: "GET", path: "/api/versions/{id}", permission: "manuscript.read", summary: "Version: sha256, size, rows, columns with units, warnings, summary", success: 200 },
+  { method: "GET", path: "/api/versions/{id}/raw", permission: "manuscript.export", summary: "The original bytes", success: 200 },
+  { method: "GET", path: "/api/versions/{id}/rows", permission: "manuscript.read", summary: "Parsed rows, paged", query: rowsQuery, success: 200 },
+  { method: "GET", path: "/api/versions/{id}/plot", permission: "manuscript.read", summary: "Two columns downsampled for display", query: plotQuery, success: 200 },
 ];
 
 const errorSchema = {
@@ -42,7 +61,10 @@ const errorSchema = {
 export function buildOpenApi(): Record<string, unknown> {
   const paths: Record<string, Record<string, unknown>> = {};
   for (const op of API_OPERATIONS) {
-    const params = [...op.path.matchAll(/\{(\w+)\}/g)].map((m) => ({ name: m[1], in: "path", required: true, schema: { type: "string" } }));
+    const pathParams = [...op.path.matchAll(/\{(\w+)\}/g)].map((m) => ({ name: m[1], in: "path", required: true, schema: { type: "string" } }));
+    const querySchema = op.query ? (z.toJSONSchema(op.query, { io: "input" }) as { properties?: Record<string, unknown>; required?: string[] }) : null;
+    const queryParams = Object.entries(querySchema?.properties ?? {}).map(([name, schema]) => ({ name, in: "query", required: querySchema?.required?.includes(name) ?? false, schema }));
+    const params = [...pathParams, ...queryParams];
     const requestBody = op.body
       ? { required: true, content: { "application/json": { schema: z.toJSONSchema(op.body, { io: "input" }) } } }
       : op.multipart

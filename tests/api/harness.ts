@@ -44,6 +44,7 @@ export async function call(handler: RouteHandler | undefined, o: CallOptions = {
   const headers = new Headers(o.headers);
   if (o.token) headers.set("authorization", `Bearer ${o.token}`);
   let body: BodyInit | undefined = o.rawBody;
+  if (o.rawBody instanceof FormData) headers.delete("content-type");
   if (o.body !== undefined) {
     body = typeof o.body === "string" ? o.body : JSON.stringify(o.body);
     headers.set("content-type", "application/json");
@@ -54,4 +55,12 @@ export async function call(handler: RouteHandler | undefined, o: CallOptions = {
   let json: any = null;
   try { json = text ? JSON.parse(text) : null; } catch { json = text; }
   return { status: res.status, json, headers: res.headers };
+}
+
+/** A multipart upload body as a browser or curl would send it. */
+export function uploadForm(fileName: string, content: string | Uint8Array, fields: Record<string, string> = {}): FormData {
+  const form = new FormData();
+  for (const [k, v] of Object.entries(fields)) form.set(k, v);
+  form.set("file", new Blob([content as BlobPart]), fileName);
+  return form;
 }

@@ -6,12 +6,12 @@ import { isManuscriptAction, MANUSCRIPT_POLICY, type Action } from "@/lib/authz/
 import { API_OPERATIONS, type ApiOperation } from "@/lib/http/api-catalogue";
 import { createApiToken } from "@/lib/server/api-tokens";
 import { newId } from "@/lib/server/crypto";
-import { call, setupTestApp, type Who } from "./harness";
+import { call, setupTestApp, uploadForm, type Who } from "./harness";
 import { routeFiles } from "./route-files";
 
 type Caller = Who | "anonymous";
 const CALLERS: Caller[] = ["pi", "author", "reviewer", "viewer", "outsider", "anonymous"];
-type Fixture = (who: Caller) => Promise<{ params?: Record<string, string>; body?: unknown }>;
+type Fixture = (who: Caller) => Promise<{ params?: Record<string, string>; body?: unknown; rawBody?: FormData; query?: string }>;
 
 const userOf = (who: Caller) => DEMO_ACCOUNTS.find((a) => a.email.startsWith(`${who}@`))!;
 
@@ -40,6 +40,14 @@ const FIXTURES: Record<string, Fixture> = {
   "POST /api/manuscripts/{id}/members": async () => ({ params: { id: DEMO_MANUSCRIPT_ID }, body: { email: `${newId().toLowerCase()}@walk.example.org`, role: "viewer" } }),
   "PATCH /api/manuscripts/{id}/members/{userId}": async () => ({ params: { id: DEMO_MANUSCRIPT_ID, userId: await freshMember() }, body: { role: "reviewer" } }),
   "DELETE /api/manuscripts/{id}/members/{userId}": async () => ({ params: { id: DEMO_MANUSCRIPT_ID, userId: await freshMember() } }),
+  "GET /api/manuscripts/{id}/datasets": async () => ({ params: { id: DEMO_MANUSCRIPT_ID } }),
+  "POST /api/manuscripts/{id}/datasets": async () => ({ params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm(`${newId()}.csv`, `t (µs),s\n1,${Math.random()}\n2,3\n`) }),
+  "GET /api/datasets/{id}": async () => ({ params: { id: sample.datasetId } }),
+  "PATCH /api/datasets/{id}": async () => ({ params: { id: sample.datasetId }, body: { notes: "walked" } }),
+  "GET /api/versions/{id}": async () => ({ params: { id: sample.versionId } }),
+  "GET /api/versions/{id}/raw": async () => ({ params: { id: sample.versionId } }),
+  "GET /api/versions/{id}/rows": async () => ({ params: { id: sample.versionId } }),
+  "GET /api/versions/{id}/plot": async () => ({ params: { id: sample.versionId }, query: "x=tau&y=signal" }),
 };
 
 /** What the policy says each caller must get. Lab-scoped creation: only lab members may create in the demo lab. */
@@ -54,7 +62,13 @@ function expected(op: ApiOperation, who: Caller): "ok" | 401 | 403 | 404 {
 }
 
 let tokens: Record<Who, string>;
-beforeAll(async () => { ({ tokens } = await setupTestApp()); });
+const sample = { datasetId: "", versionId: "" };
+beforeAll(async () => {
+  ({ tokens } = await setupTestApp());
+  const upload = (await import("@/app/api/manuscripts/[id]/datasets/route")).POST;
+  const r = await call(upload, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm("echo.csv", "tau (µs),signal\n1,0.9\n2,0.8\n4,0.6\n") });
+  Object.assign(sample, { datasetId: r.json.datasetId, versionId: r.json.id });
+});
 
 describe("every route × every role", () => {
   const files = routeFiles();
@@ -66,8 +80,9 @@ describe("every route × every role", () => {
       const file = files.find((f) => f.apiPath === op.path)!.file;
       const handler = (await import(file))[op.method];
       for (const who of CALLERS) {
-        const { params, body } = await fixture!(who);
-        const r = await call(handler, { method: op.method, token: who === "anonymous" ? null : tokens[who], params, body });
+        const { params, body, rawBody, query } = await fixture!(who);
+        const path = `${op.path}${query ? `?${query}` : ""}`;
+        const r = await call(handler, { method: op.method, path, token: who === "anonymous" ? null : tokens[who], params, body, rawBody });
         const want = expected(op, who);
         const got = r.status >= 200 && r.status < 300 ? "ok" : r.status;
         expect(got, `${key} as ${who}: ${JSON.stringify(r.json)}`).toBe(want);

@@ -1,0 +1,1 @@
+ALTER TABLE `versions` ADD `summary` text DEFAULT '[]' NOT NULL;

@@ -1,0 +1,138 @@
+/**
+ * Turns a curve model y = f(x; p), data with per-point σ and a set of fixed parameters into a
+ * weighted least-squares problem over the free parameters: rᵢ = (f(xᵢ; p) − yᵢ)/σᵢ.
+ * The Jacobian is the model's analytic one when it has it, otherwise central differences.
+ */
+import type { LeastSquaresProblem } from "./levenberg-marquardt";
+
+/** A curve y = f(x; p); FitModel satisfies this shape. */
+export interface CurveFunction {
+  evaluate(x: number, p: Float64Array | number[]): number;
+  /** Writes ∂f/∂pⱼ at x into out (length = number of parameters). */
+  jacobian?(x: number, p: ArrayLike<number>, out: Float64Array): void;
+  /** Optional: f(x) with ∂f/∂pⱼ written into out, in one pass (saves a sweep per step). */
+  valueAndJacobian?(x: number, p: ArrayLike<number>, out: Float64Array): number;
+}
+
+export interface CurveData {
+  x: ArrayLike<number>;
+  y: ArrayLike<number>;
+  /** Per-point standard deviation of y (same units as y); all ones when absent. */
+  sigma?: ArrayLike<number>;
+}
+
+export interface CurveProblem extends LeastSquaresProblem {
+  /** Indices (into the full parameter vector) of the free parameters, in solver order. */
+  freeIndex: Int32Array;
+  /** Full parameter vector with the fixed values in place, updated by expand(). */
+  full: Float64Array;
+  /** Copies the free values into the full vector and returns it. */
+  expand(free: ArrayLike<number>): Float64Array;
+}
+
+/** Relative central-difference step ≈ ε^(1/3), balancing truncation and rounding error. */
+const CENTRAL_STEP = 6.0554544523933395e-6;
+
+export function buildCurveProblem(
+  model: CurveFunction,
+  data: CurveData,
+  startFull: ArrayLike<number>,
+  fixed: ArrayLike<boolean>,
+  lowerFull: ArrayLike<number>,
+  upperFull: ArrayLike<number>,
+): CurveProblem {
+  const m = data.x.length;
+  const nAll = startFull.length;
+  const freeList: number[] = [];
+  for (let j = 0; j < nAll; j++) if (!fixed[j]) freeList.push(j);
+  const n = freeList.length;
+  const freeIndex = Int32Array.from(freeList);
+  const x = Float64Array.from(data.x);
+  const y = Float64Array.from(data.y);
+  const weight = new Float64Array(m);
+  for (let i = 0; i < m; i++) weight[i] = data.sigma ? 1 / data.sigma[i] : 1;
+  const full = Float64Array.from(startFull);
+  const lower = new Float64Array(n);
+  const upper = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    lower[k] = lowerFull[freeIndex[k]];
+    upper[k] = upperFull[freeIndex[k]];
+  }
+  const row = new Float64Array(nAll);
+
+  const expand = (free: ArrayLike<number>): Float64Array => {
+    for (let k = 0; k < n; k++) full[freeIndex[k]] = free[k];
+    return full;
+  };
+
+  const evaluateInto = (p: Float64Array, out: Float64Array): void => {
+    for (let i = 0; i < m; i++) out[i] = model.evaluate(x[i], p);
+  };
+
+  const residuals = (free: Float64Array, out: Float64Array): void => {
+    const p = expand(free);
+    for (let i = 0; i < m; i++) out[i] = (model.evaluate(x[i], p) - y[i]) * weight[i];
+  };
+
+  const analyticJacobian = (free: Float64Array, out: Float64Array): void => {
+    const p = expand(free);
+    for (let i = 0; i < m; i++) {
+      model.jacobian!(x[i], p, row);
+      const w = weight[i];
+      for (let k = 0; k < n; k++) out[k * m + i] = row[freeIndex[k]] * w;
+    }
+  };
+
+  const valueAndJacobian = model.valueAndJacobian;
+  const residualsAndJacobian = (free: Float64Array, out: Float64Array, jac: Float64Array): void => {
+    const p = expand(free);
+    for (let i = 0; i < m; i++) {
+      const w = weight[i];
+      out[i] = (valueAndJacobian!(x[i], p, row) - y[i]) * w;
+      for (let k = 0; k < n; k++) jac[k * m + i] = row[freeIndex[k]] * w;
+    }
+  };
+
+  let plus: Float64Array | undefined;
+  let minus: Float64Array | undefined;
+  const finiteDifferenceJacobian = (free: Float64Array, out: Float64Array): void => {
+    plus ??= new Float64Array(m);
+    minus ??= new Float64Array(m);
+    const p = expand(free);
+    for (let k = 0; k < n; k++) {
+      const j = freeIndex[k];
+      const value = p[j];
+      const h = CENTRAL_STEP * (value !== 0 ? Math.abs(value) : 1);
+      let hi = value + h;
+      let lo = value - h;
+      // Stay inside the box: a model may be undefined beyond its bounds.
+      if (hi > upper[k]) hi = value;
+      if (lo < lower[k]) lo = value;
+      if (hi === lo) {
+        hi = value + h;
+        lo = value;
+      }
+      p[j] = hi;
+      evaluateInto(p, plus);
+      p[j] = lo;
+      evaluateInto(p, minus);
+      p[j] = value;
+      const span = hi - lo;
+      const c = k * m;
+      for (let i = 0; i < m; i++) out[c + i] = ((plus[i] - minus[i]) / span) * weight[i];
+    }
+  };
+
+  return {
+    m,
+    n,
+    lower,
+    upper,
+    freeIndex,
+    full,
+    expand,
+    residuals,
+    jacobian: model.jacobian ? analyticJacobian : finiteDifferenceJacobian,
+    ...(valueAndJacobian ? { residualsAndJacobian } : {}),
+  };
+}

@@ -1,0 +1,190 @@
+/**
+ * ODMR spectra as Lorentzian dips on a baseline, y = B·(1 − Σₖ cₖ·Lₖ(f)) with the
+ * peak-normalised Lorentzian L(f) = (w/2)²/((f − f₀)² + (w/2)²): f, f₀, w and the splitting
+ * |A∥| are in the x column's unit (MHz in typical data; ¹⁴N |A∥| ≈ 2.16 MHz, ¹⁵N ≈ 3.03 MHz),
+ * B in y units, the contrast c dimensionless (0 … 1).
+ *
+ * Models with k independent dips have ids odmr_lorentzian_1 … odmr_lorentzian_4, with
+ * parameters B, f1, w1, c1, f2, w2, c2, … in ascending f order of the start values.
+ */
+import { contrastAt, dipProfile, findDips, type Dip } from "./guess/dip-guess";
+import { matchLinePattern } from "./guess/line-pattern";
+import { median, xScale } from "./guess/signal-features";
+import type { FitModel, ModelParam } from "./types";
+
+/** Peak-normalised Lorentzian with full width `width` at half maximum. */
+function lorentzian(f: number, centre: number, width: number): number {
+  const q = (2 * (f - centre)) / width;
+  return 1 / (1 + q * q);
+}
+
+function dipsOrDefault(x: ArrayLike<number>, y: ArrayLike<number>, count: number): { baseline: number; dips: Dip[] } {
+  const profile = dipProfile(x, y);
+  const { span, min } = xScale(x);
+  const dips = findDips(profile, count);
+  const widths = dips.map((d) => d.width).filter(Number.isFinite);
+  const typicalWidth = widths.length > 0 ? median(widths) : span / 10;
+  if (dips.length === 0) dips.push({ position: min + span / 2, depth: 0.01, width: typicalWidth });
+  for (const dip of dips) if (!Number.isFinite(dip.width)) dip.width = typicalWidth;
+  // Not enough separate dips: split the deepest ones, as overlapping lines would be.
+  for (let k = 0; dips.length < count; k++) {
+    const source = dips[k % dips.length];
+    dips.push({ position: source.position + source.width / 2, depth: source.depth / 2, width: source.width / 2 });
+    source.position -= source.width / 2;
+    source.width /= 2;
+  }
+  return { baseline: profile.baseline, dips: dips.slice(0, count).sort((a, b) => a.position - b.position) };
+}
+
+function dipBounds(x: ArrayLike<number>): { position: [number, number]; width: [number, number]; depth: [number, number] } {
+  const { min, max, span, step } = xScale(x);
+  return { position: [min, max], width: [step / 10, span], depth: [0, 1] };
+}
+
+function multiDipModel(id: string, title: string, kinds: string[], names: Array<[string, string, string]>): FitModel {
+  const count = names.length;
+  const params: ModelParam[] = [{ name: "B", unit: "y", description: "baseline signal off resonance" }];
+  names.forEach(([f, w, c], k) => {
+    params.push({ name: f, unit: "x", description: `centre frequency of dip ${k + 1}` });
+    params.push({ name: w, unit: "x", description: `full width at half depth of dip ${k + 1}` });
+    params.push({ name: c, unit: "1", description: `contrast (fractional depth) of dip ${k + 1}` });
+  });
+  const terms = names.map(([f, w, c]) => `${c}·L(f; ${f}, ${w})`).join(" + ");
+  const valueAndJacobian = (f: number, p: ArrayLike<number>, out: Float64Array): number => {
+    const b = p[0];
+    let sum = 0;
+    for (let k = 0; k < count; k++) {
+      const width = p[3 * k + 2];
+      const c = p[3 * k + 3];
+      const q = (2 * (f - p[3 * k + 1])) / width;
+      const l = 1 / (1 + q * q);
+      sum += c * l;
+      out[3 * k + 1] = (-b * c * 4 * q * l * l) / width;
+      out[3 * k + 2] = (-b * c * 2 * q * q * l * l) / width;
+      out[3 * k + 3] = -b * l;
+    }
+    out[0] = 1 - sum;
+    return b * (1 - sum);
+  };
+  return {
+    id,
+    title,
+    formula: `y = B·(1 − ${terms}),  L = (w/2)²/((f − f₀)² + (w/2)²)`,
+    version: "1.0.0",
+    kinds,
+    params,
+    evaluate(f, p) {
+      let sum = 0;
+      for (let k = 0; k < count; k++) sum += p[3 * k + 3] * lorentzian(f, p[3 * k + 1], p[3 * k + 2]);
+      return p[0] * (1 - sum);
+    },
+    jacobian: valueAndJacobian,
+    valueAndJacobian,
+    guess(x, y) {
+      const { baseline, dips } = dipsOrDefault(x, y, count);
+      const { span } = xScale(x);
+      return [baseline, ...dips.flatMap((d) => [d.position, Math.min(d.width, span), Math.min(1, Math.max(1e-3, d.depth))])];
+    },
+    bounds(x) {
+      const b = dipBounds(x);
+      return [[0, Infinity], ...names.flatMap(() => [b.position, b.width, b.depth])];
+    },
+  };
+}
+
+function patternDipModel(id: string, title: string, nucleus: string, pattern: readonly number[]): FitModel {
+  const lines = pattern.map((k) => (k === 0 ? "f₀" : `f₀ ${k < 0 ? "−" : "+"} ${Math.abs(k) === 1 ? "" : "½"}|A∥|`));
+  const valueAndJacobian = (f: number, p: ArrayLike<number>, out: Float64Array): number => {
+    const b = p[0];
+    const width = p[3];
+    const c = p[4];
+    let sum = 0;
+    let dCentre = 0;
+    let dSplit = 0;
+    let dWidth = 0;
+    for (const k of pattern) {
+      const q = (2 * (f - p[1] - k * p[2])) / width;
+      const l = 1 / (1 + q * q);
+      const slope = (4 * q * l * l) / width;
+      sum += l;
+      dCentre += slope;
+      dSplit += k * slope;
+      dWidth += (2 * q * q * l * l) / width;
+    }
+    out[0] = 1 - c * sum;
+    out[1] = -b * c * dCentre;
+    out[2] = -b * c * dSplit;
+    out[3] = -b * c * dWidth;
+    out[4] = -b * sum;
+    return b * (1 - c * sum);
+  };
+  return {
+    id,
+    title,
+    formula: `y = B·(1 − c·Σ L(f; fₘ, w)),  fₘ ∈ {${lines.join(", ")}}`,
+    version: "1.0.0",
+    kinds: ["odmr"],
+    params: [
+      { name: "B", unit: "y", description: "baseline signal off resonance" },
+      { name: "f0", unit: "x", description: "centre of the hyperfine group" },
+      { name: "Apar", unit: "x", description: `${nucleus} hyperfine splitting |A∥| between lines` },
+      { name: "w", unit: "x", description: "full width at half depth of each line" },
+      { name: "c", unit: "1", description: "contrast (fractional depth) of each line" },
+    ],
+    evaluate(f, p) {
+      let sum = 0;
+      for (const k of pattern) sum += lorentzian(f, p[1] + k * p[2], p[3]);
+      return p[0] * (1 - p[4] * sum);
+    },
+    jacobian: valueAndJacobian,
+    valueAndJacobian,
+    guess(x, y) {
+      const profile = dipProfile(x, y);
+      const { span } = xScale(x);
+      const dips = findDips(profile, 6);
+      const score = (centre: number, spacing: number): number =>
+        pattern.reduce((total, k) => total + contrastAt(profile, centre + k * spacing), 0);
+      const match = matchLinePattern(
+        dips.map((d) => d.position),
+        pattern,
+        score,
+        3 * profile.step,
+      );
+      const widths = dips.map((d) => d.width).filter(Number.isFinite);
+      const typicalWidth = widths.length > 0 ? median(widths) : span / 10;
+      if (!match) {
+        const position = dips[0]?.position ?? profile.x[0] + span / 2;
+        return [profile.baseline, position, typicalWidth / 3, typicalWidth / 3, Math.max(1e-3, dips[0]?.depth ?? 0.01)];
+      }
+      const depth = score(match.centre, match.spacing) / pattern.length;
+      const width = Math.min(typicalWidth, match.spacing);
+      return [profile.baseline, match.centre, match.spacing, width, Math.min(1, Math.max(1e-3, depth))];
+    },
+    bounds(x) {
+      const b = dipBounds(x);
+      const { span } = xScale(x);
+      return [[0, Infinity], b.position, [0, span], b.width, b.depth];
+    },
+  };
+}
+
+const indexedNames = (count: number): Array<[string, string, string]> =>
+  Array.from({ length: count }, (_, k) => [`f${k + 1}`, `w${k + 1}`, `c${k + 1}`]);
+
+export const odmrLorentzianModels: FitModel[] = [1, 2, 3, 4].map((count) =>
+  multiDipModel(`odmr_lorentzian_${count}`, `ODMR, ${count} Lorentzian dip${count > 1 ? "s" : ""}`, ["odmr"], indexedNames(count)),
+);
+
+export const odmrTwoResonancesModel: FitModel = multiDipModel(
+  "odmr_two_resonances",
+  "ODMR, f₋ and f₊ resonances",
+  ["odmr"],
+  [
+    ["fMinus", "wMinus", "cMinus"],
+    ["fPlus", "wPlus", "cPlus"],
+  ],
+);
+
+export const odmr14nTripletModel: FitModel = patternDipModel("odmr_14n_triplet", "ODMR, ¹⁴N hyperfine triplet", "¹⁴N", [-1, 0, 1]);
+
+export const odmr15nDoubletModel: FitModel = patternDipModel("odmr_15n_doublet", "ODMR, ¹⁵N hyperfine doublet", "¹⁵N", [-0.5, 0.5]);

@@ -1,0 +1,42 @@
+/**
+ * A parameter's unit in terms of the data's x and y column units. "1" is dimensionless
+ * (radians for phases). The polynomial roles ("y/x", "y/x^2", "y/x^3") extend the original
+ * five so that slopes and curvatures can be labelled.
+ */
+export type UnitRole = "x" | "y" | "1/x" | "1" | "x*y" | "y/x" | "y/x^2" | "y/x^3";
+
+export interface ModelParam {
+  name: string;
+  unit: UnitRole;
+  description: string;
+}
+
+export type MeasurementKind = "hahn_echo" | "relaxation" | "ramsey" | "odmr" | "pl_spectrum" | "nv_nmr" | "other";
+
+/**
+ * A curve model y = f(x; p). Everything is in the data's own units: the model never assumes
+ * that x is in µs or MHz, so start values come from the data (extrema, periodograms,
+ * log-linear regressions), not from physical constants.
+ */
+export interface FitModel {
+  id: string;
+  title: string;
+  /** Readable formula with Unicode. */
+  formula: string;
+  /** Bumped whenever the mathematics changes; stored with every analysis run. */
+  version: string;
+  kinds: string[];
+  params: ModelParam[];
+  evaluate(x: number, p: Float64Array | number[]): number;
+  /** Writes ∂f/∂pⱼ at x into out (length params.length). */
+  jacobian?(x: number, p: ArrayLike<number>, out: Float64Array): void;
+  /**
+   * Optional fast path: returns f(x) and writes ∂f/∂pⱼ into out in one pass, so the fitter
+   * needs one model sweep per step instead of two. Must agree with evaluate and jacobian.
+   */
+  valueAndJacobian?(x: number, p: ArrayLike<number>, out: Float64Array): number;
+  /** Automatic start values from the data, one per parameter. */
+  guess(x: ArrayLike<number>, y: ArrayLike<number>): number[];
+  /** Sensible default bounds for the data, one [lo, hi] per parameter (±Infinity allowed). */
+  bounds?(x: ArrayLike<number>, y: ArrayLike<number>): Array<[number, number]>;
+}

@@ -1,0 +1,96 @@
+import fs from "node:fs/promises";
+import { and, desc, eq, max } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { datasets, versions, type ParseInfo, type StoredSummary } from "@/db/schema";
+import type { SessionUser } from "@/lib/authz";
+import { encodeColumnar } from "@/lib/data/columnar";
+import { parseTable, type ParsedTable } from "@/lib/data/parse";
+import { summarizeColumn } from "@/lib/data/summary";
+import { env } from "@/lib/env";
+import { appendAudit } from "../audit";
+import { newId } from "../crypto";
+import { badRequest, notFound } from "../errors";
+import { commitBlob, removeTemp, writeCache } from "../storage/blob-store";
+import { readMultipartUpload, type UploadedFile } from "../storage/multipart";
+import { primeColumns } from "./columns-cache";
+import { metadataInput, uploadFields, type MetadataInput } from "./schemas";
+import { toVersionDto } from "./version-dto";
+
+function parseMetadata(raw: string | undefined): MetadataInput {
+  if (!raw) return {};
+  let json: unknown;
+  try {
+    json = JSON.parse(raw);
+  } catch (e) {
+    throw badRequest(`metadata: not valid JSON (${(e as Error).message}).`);
+  }
+  const r = metadataInput.safeParse(json);
+  if (!r.success) throw badRequest(`metadata: ${r.error.issues.map((i) => `${i.path.join(".") || "(object)"}: ${i.message}`).join("; ")}`);
+  return r.data;
+}
+
+function summarise(t: ParsedTable): StoredSummary[] {
+  return t.columns.flatMap((c, i) => {
+    if (c.type !== "number") return [];
+    const s = summarizeColumn(t.data[i] as Float64Array);
+    const fin = (v: number) => (Number.isFinite(v) ? v : null);
+    return [{ column: c.name, unit: c.unit, count: s.count, missing: s.missing, min: fin(s.min), max: fin(s.max), mean: fin(s.mean), sd: fin(s.sd) }];
+  });
+}
+
+/**
+ * Upload → temporary file (hashed while streaming) → parse (exact errors, nothing stored on failure)
+ * → atomic rename under the hash → one transaction for the rows and the audit entry.
+ */
+export async function uploadDataset(user: SessionUser, manuscriptId: string, req: Request) {
+  const { fields, file } = await readMultipartUpload(req, env().uploadMaxBytes);
+  try {
+    if (!file) throw badRequest("file: the multipart body has no `file` part.");
+    const f = uploadFields.parse(fields);
+    const metadata = parseMetadata(f.metadata);
+    const delimiter = f.delimiter === "tab" ? "\t" : f.delimiter;
+    const table = parseTable(new Uint8Array(await fs.readFile(file.tmp)), { fileName: file.fileName, delimiter, decimal: f.decimal, format: f.format });
+    const columnar = encodeColumnar(table);
+    await commitBlob(file.tmp, file.sha256);
+    await writeCache(file.sha256, columnar);
+    primeColumns(file.sha256, columnar);
+    return await recordVersion(user, manuscriptId, file, table, f.datasetId, f.name, metadata);
+  } finally {
+    if (file) await removeTemp(file.tmp);
+  }
+}
+
+async function recordVersion(user: SessionUser, manuscriptId: string, file: UploadedFile, table: ParsedTable,
+  datasetId: string | undefined, name: string | undefined, metadata: MetadataInput) {
+  const parseInfo: ParseInfo = {
+    format: table.format, encoding: table.encoding, delimiter: table.delimiter, decimal: table.decimal,
+    warnings: table.warnings, headerMetadata: table.metadata,
+  };
+  return getDb().transaction(async (tx) => {
+    let dsId = datasetId;
+    if (dsId) {
+      const [ds] = await tx.select({ id: datasets.id }).from(datasets).where(and(eq(datasets.id, dsId), eq(datasets.manuscriptId, manuscriptId)));
+      if (!ds) throw notFound("datasetId: no such dataset in this manuscript.");
+      const [latest] = await tx.select().from(versions).where(eq(versions.datasetId, dsId)).orderBy(desc(versions.number)).limit(1);
+      if (latest?.sha256 === file.sha256) return { ...toVersionDto(latest), deduplicated: true };
+    } else {
+      dsId = newId();
+      await tx.insert(datasets).values({
+        id: dsId, manuscriptId, name: name ?? file.fileName, createdBy: user.id,
+        kind: metadata.kind ?? "other", sample: metadata.sample ?? null, instrument: metadata.instrument ?? null,
+        measuredAt: metadata.measuredAt ?? null, notes: metadata.notes ?? null, tags: metadata.tags ?? {},
+      });
+    }
+    const [{ n } = { n: 0 }] = await tx.select({ n: max(versions.number) }).from(versions).where(eq(versions.datasetId, dsId));
+    const [row] = await tx.insert(versions).values({
+      id: newId(), datasetId: dsId, number: (n ?? 0) + 1, sha256: file.sha256, byteSize: file.byteSize, fileName: file.fileName,
+      rowCount: table.rowCount, columns: table.columns.map((c) => ({ name: c.name, unit: c.unit, type: c.type })),
+      parseInfo, summary: summarise(table), createdBy: user.id,
+    }).returning();
+    await appendAudit(tx, {
+      actorId: user.id, manuscriptId, action: "dataset.upload", target: `version:${row!.id}`,
+      data: { datasetId: dsId, number: row!.number, sha256: file.sha256, fileName: file.fileName, byteSize: file.byteSize },
+    });
+    return { ...toVersionDto(row!), deduplicated: false };
+  });
+}

@@ -1,0 +1,88 @@
+import { createHash, randomBytes } from "node:crypto";
+import fs from "node:fs";
+import fsp from "node:fs/promises";
+import path from "node:path";
+import { env } from "@/lib/env";
+
+const SHA256 = /^[0-9a-f]{64}$/;
+
+/** uploads/ab/cd/<sha256>: content-addressed, so identical bytes are stored once. */
+export function blobPath(sha256: string): string {
+  if (!SHA256.test(sha256)) throw new Error("not a sha256");
+  return path.join(env().uploadsDir, sha256.slice(0, 2), sha256.slice(2, 4), sha256);
+}
+
+export function cachePath(sha256: string): string {
+  if (!SHA256.test(sha256)) throw new Error("not a sha256");
+  return path.join(env().uploadsDir, "cache", `${sha256}.columns`);
+}
+
+export function tempPath(): string {
+  const dir = path.join(env().uploadsDir, "tmp");
+  fs.mkdirSync(dir, { recursive: true });
+  return path.join(dir, `${Date.now()}-${randomBytes(8).toString("hex")}.part`);
+}
+
+export class TooLargeError extends Error {
+  constructor(readonly limit: number) { super(`larger than ${limit} bytes`); }
+}
+
+/** Streams into a temporary file while hashing; stops as soon as the limit is passed. */
+export async function writeStreamToTemp(source: AsyncIterable<Uint8Array>, maxBytes: number): Promise<{ tmp: string; sha256: string; byteSize: number }> {
+  const tmp = tempPath();
+  const hash = createHash("sha256");
+  const out = fs.createWriteStream(tmp, { flags: "wx" });
+  let byteSize = 0;
+  try {
+    // Past the limit the rest is drained, not written: leaving the loop early would stall the multipart parser.
+    for await (const chunk of source) {
+      byteSize += chunk.byteLength;
+      if (byteSize > maxBytes) continue;
+      hash.update(chunk);
+      if (!out.write(chunk)) await new Promise<void>((r) => out.once("drain", () => r()));
+    }
+    if (byteSize > maxBytes) throw new TooLargeError(maxBytes);
+    await new Promise<void>((resolve, reject) => out.end((err?: Error | null) => (err ? reject(err) : resolve())));
+    return { tmp, sha256: hash.digest("hex"), byteSize };
+  } catch (err) {
+    out.destroy();
+    await fsp.rm(tmp, { force: true });
+    throw err;
+  }
+}
+
+/** Atomic rename into place (fsync first); when the blob already exists the temporary copy is dropped. */
+export async function commitBlob(tmp: string, sha256: string): Promise<void> {
+  const dest = blobPath(sha256);
+  if (fs.existsSync(dest)) {
+    await fsp.rm(tmp, { force: true });
+    return;
+  }
+  await fsp.mkdir(path.dirname(dest), { recursive: true });
+  const fh = await fsp.open(tmp, "r");
+  await fh.sync();
+  await fh.close();
+  await fsp.rename(tmp, dest);
+  await fsp.chmod(dest, 0o444);
+}
+
+/** Writes a derived file (rebuildable) atomically. */
+export async function writeCache(sha256: string, bytes: Uint8Array): Promise<void> {
+  const dest = cachePath(sha256);
+  await fsp.mkdir(path.dirname(dest), { recursive: true });
+  const tmp = `${dest}.${randomBytes(4).toString("hex")}.tmp`;
+  await fsp.writeFile(tmp, bytes);
+  await fsp.rename(tmp, dest);
+}
+
+export async function readCache(sha256: string): Promise<Uint8Array | null> {
+  try {
+    return new Uint8Array(await fsp.readFile(cachePath(sha256)));
+  } catch {
+    return null;
+  }
+}
+
+export async function removeTemp(tmp: string): Promise<void> {
+  await fsp.rm(tmp, { force: true });
+}
