@@ -2,14 +2,15 @@ import { ensureLocalEnv } from "./lib/local-env";
 ensureLocalEnv();
 
 const { applyMigrations } = await import("@/db/migrate");
-const { seedDemo, DEMO_ACCOUNTS, DEMO_PASSWORD } = await import("@/db/seed");
+const { DEMO_ACCOUNTS, DEMO_PASSWORD } = await import("@/db/seed");
+const { seedDemoWithData } = await import("@/lib/server/demo/seed-demo");
 const { env } = await import("@/lib/env");
 const { startMailSink } = await import("@/lib/server/mail/sink-server");
 const { buildIsStale, runNextSync, spawnNext, waitForHttp } = await import("./lib/processes");
 const { closeDb } = await import("@/db/client");
 
 await applyMigrations();
-await seedDemo();
+await seedDemoWithData();
 closeDb();
 console.log("Database migrated and demo data seeded.");
 

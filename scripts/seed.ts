@@ -1,6 +1,8 @@
-import { applyMigrations } from "@/db/migrate";
-import { seedDemo } from "@/db/seed";
+import { ensureLocalEnv } from "./lib/local-env";
+ensureLocalEnv();
 
+const { applyMigrations } = await import("@/db/migrate");
+const { seedDemoWithData } = await import("@/lib/server/demo/seed-demo");
 await applyMigrations();
-await seedDemo();
-console.log("Demo data seeded.");
+const { filesAdded } = await seedDemoWithData();
+console.log(`Demo data seeded (${filesAdded} measurement files added).`);

@@ -69,11 +69,11 @@ async function runBrowserTests(): Promise<number> {
   };
   Object.assign(process.env, env);
   const { applyMigrations } = await import("@/db/migrate");
-  const { seedDemo } = await import("@/db/seed");
+  const { seedDemoWithData } = await import("@/lib/server/demo/seed-demo");
   const { closeDb } = await import("@/db/client");
   const { startMailSink } = await import("@/lib/server/mail/sink-server");
   await applyMigrations();
-  await seedDemo();
+  await seedDemoWithData();
   closeDb();
   const sink = await startMailSink({ port: Number(env.SMTP_PORT), dir: env.MAIL_SINK_DIR, quiet: true });
   const server = spawnNext(["start", "-p", port], env);

@@ -10,7 +10,7 @@ import { env } from "@/lib/env";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
 import { badRequest, notFound } from "../errors";
-import { commitBlob, removeTemp, writeCache } from "../storage/blob-store";
+import { commitBlob, removeTemp, writeCache, writeStreamToTemp } from "../storage/blob-store";
 import { readMultipartUpload, type UploadedFile } from "../storage/multipart";
 import { primeColumns } from "./columns-cache";
 import { metadataInput, uploadFields, type MetadataInput } from "./schemas";
@@ -44,8 +44,18 @@ function summarise(t: ParsedTable): StoredSummary[] {
  */
 export async function uploadDataset(user: SessionUser, manuscriptId: string, req: Request) {
   const { fields, file } = await readMultipartUpload(req, env().uploadMaxBytes);
+  if (!file) throw badRequest("file: the multipart body has no `file` part.");
+  return ingestFile(user, manuscriptId, file, fields);
+}
+
+/** Stores bytes that are already in memory (seed, scripts) through the same path as an upload. */
+export async function importDatasetFromBytes(user: SessionUser, manuscriptId: string, fileName: string, bytes: Uint8Array, fields: Record<string, string>) {
+  const stored = await writeStreamToTemp([bytes], env().uploadMaxBytes);
+  return ingestFile(user, manuscriptId, { ...stored, fileName }, fields);
+}
+
+async function ingestFile(user: SessionUser, manuscriptId: string, file: UploadedFile, fields: Record<string, string>) {
   try {
-    if (!file) throw badRequest("file: the multipart body has no `file` part.");
     const f = uploadFields.parse(fields);
     const metadata = parseMetadata(f.metadata);
     const delimiter = f.delimiter === "tab" ? "\t" : f.delimiter;
@@ -56,7 +66,7 @@ export async function uploadDataset(user: SessionUser, manuscriptId: string, req
     primeColumns(file.sha256, columnar);
     return await recordVersion(user, manuscriptId, file, table, f.datasetId, f.name, metadata);
   } finally {
-    if (file) await removeTemp(file.tmp);
+    await removeTemp(file.tmp);
   }
 }
 

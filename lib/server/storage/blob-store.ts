@@ -28,7 +28,7 @@ export class TooLargeError extends Error {
 }
 
 /** Streams into a temporary file while hashing; stops as soon as the limit is passed. */
-export async function writeStreamToTemp(source: AsyncIterable<Uint8Array>, maxBytes: number): Promise<{ tmp: string; sha256: string; byteSize: number }> {
+export async function writeStreamToTemp(source: AsyncIterable<Uint8Array> | Iterable<Uint8Array>, maxBytes: number): Promise<{ tmp: string; sha256: string; byteSize: number }> {
   const tmp = tempPath();
   const hash = createHash("sha256");
   const out = fs.createWriteStream(tmp, { flags: "wx" });
