@@ -4,6 +4,7 @@ import { createTokenInput } from "@/lib/server/api-tokens";
 import { createManuscriptInput } from "@/lib/server/manuscripts";
 import { changeRoleInput, inviteInput } from "@/lib/server/members";
 import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schemas";
+import { analysisInput, calculatorInput, statisticsQuery } from "@/lib/server/analyses/schemas";
 
 export interface ApiOperation {
   method: "GET" | "POST" | "PATCH" | "DELETE";
@@ -50,6 +51,13 @@ export const API_OPERATIONS: ApiOperation[] = [
   { method: "GET", path: "/api/versions/{id}/raw", permission: "manuscript.export", summary: "The original bytes", success: 200 },
   { method: "GET", path: "/api/versions/{id}/rows", permission: "manuscript.read", summary: "Parsed rows, paged", query: rowsQuery, success: 200 },
   { method: "GET", path: "/api/versions/{id}/plot", permission: "manuscript.read", summary: "Two columns downsampled for display", query: plotQuery, success: 200 },
+  { method: "GET", path: "/api/versions/{id}/analyses", permission: "manuscript.read", summary: "Analysis runs on a version", success: 200 },
+  { method: "GET", path: "/api/analysis-models", permission: "model.list", summary: "Fit models and calculators with parameters and units", success: 200 },
+  { method: "POST", path: "/api/analyses", permission: "analysis.run", summary: "Run and store a fit; answers parameters ± standard errors, χ²ᵣ and the derived version", body: analysisInput, success: 201 },
+  { method: "POST", path: "/api/analyses/preview", permission: "analysis.run", summary: "Run a fit without storing it", body: analysisInput, success: 200 },
+  { method: "GET", path: "/api/analyses/{id}", permission: "manuscript.read", summary: "A stored analysis run", success: 200 },
+  { method: "GET", path: "/api/manuscripts/{id}/statistics", permission: "manuscript.read", summary: "Population statistics of a fitted parameter by group", query: statisticsQuery, success: 200 },
+  { method: "POST", path: "/api/calculators/{id}", permission: "model.list", summary: "Run a calculator (an estimate, not a calibration)", body: calculatorInput, success: 200 },
 ];
 
 const errorSchema = {

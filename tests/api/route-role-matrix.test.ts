@@ -48,9 +48,17 @@ const FIXTURES: Record<string, Fixture> = {
   "GET /api/versions/{id}/raw": async () => ({ params: { id: sample.versionId } }),
   "GET /api/versions/{id}/rows": async () => ({ params: { id: sample.versionId } }),
   "GET /api/versions/{id}/plot": async () => ({ params: { id: sample.versionId }, query: "x=tau&y=signal" }),
+  "GET /api/versions/{id}/analyses": async () => ({ params: { id: sample.fitVersionId } }),
+  "GET /api/analysis-models": async () => ({}),
+  "POST /api/analyses": async () => ({ body: fitBody() }),
+  "POST /api/analyses/preview": async () => ({ body: fitBody() }),
+  "GET /api/analyses/{id}": async () => ({ params: { id: sample.analysisId } }),
+  "GET /api/manuscripts/{id}/statistics": async () => ({ params: { id: DEMO_MANUSCRIPT_ID }, query: "model=relaxation&parameter=T1&groupBy=group" }),
+  "POST /api/calculators/{id}": async () => ({ params: { id: "odmr-field-from-pair" }, body: { inputs: { f_minus: 2750, f_plus: 2990 } } }),
 };
 
 /** What the policy says each caller must get. Lab-scoped creation: only lab members may create in the demo lab. */
+// Body-scoped routes (POST /api/analyses) resolve the manuscript from the body: outsiders get 404 there too.
 function expected(op: ApiOperation, who: Caller): "ok" | 401 | 403 | 404 {
   if (op.permission === "public") return "ok";
   if (who === "anonymous") return 401;
@@ -62,12 +70,18 @@ function expected(op: ApiOperation, who: Caller): "ok" | 401 | 403 | 404 {
 }
 
 let tokens: Record<Who, string>;
-const sample = { datasetId: "", versionId: "" };
+const sample = { datasetId: "", versionId: "", fitVersionId: "", analysisId: "" };
+const T1_CSV = "wait (ms),p\n" + Array.from({ length: 30 }, (_, i) => { const t = 0.05 * 1.25 ** i; return `${t},${(0.7 + 0.3 * Math.exp(-t / 4) + 0.002 * Math.sin(7 * i)).toFixed(5)}`; }).join("\n");
+const fitBody = () => ({ versionId: sample.fitVersionId, model: "relaxation", options: { x: "wait", y: "p" } });
 beforeAll(async () => {
   ({ tokens } = await setupTestApp());
   const upload = (await import("@/app/api/manuscripts/[id]/datasets/route")).POST;
   const r = await call(upload, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm("echo.csv", "tau (µs),signal\n1,0.9\n2,0.8\n4,0.6\n") });
   Object.assign(sample, { datasetId: r.json.datasetId, versionId: r.json.id });
+  const t1 = await call(upload, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm("t1.csv", T1_CSV, { metadata: JSON.stringify({ kind: "relaxation", tags: { group: "a" } }) }) });
+  sample.fitVersionId = t1.json.id;
+  const run = await call((await import("@/app/api/analyses/route")).POST, { method: "POST", token: tokens.author, body: fitBody() });
+  sample.analysisId = run.json.id;
 });
 
 describe("every route × every role", () => {

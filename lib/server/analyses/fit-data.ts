@@ -1,0 +1,42 @@
+import { eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { datasets, versions } from "@/db/schema";
+import { decodeColumnar } from "@/lib/data/columnar";
+import { badRequest, notFound } from "../errors";
+import { columnsFor } from "../datasets/columns-cache";
+import type { FitOptions } from "./schemas";
+
+export interface FitData {
+  version: typeof versions.$inferSelect; dataset: typeof datasets.$inferSelect;
+  x: Float64Array; y: Float64Array; sigma?: Float64Array;
+  xUnit: string | null; yUnit: string | null; dropped: number;
+}
+
+/** The x, y (and σ) columns of a version, rows with a missing value or outside xRange left out. */
+export async function loadFitData(versionId: string, options: FitOptions): Promise<FitData> {
+  const [row] = await getDb().select({ v: versions, d: datasets }).from(versions)
+    .innerJoin(datasets, eq(datasets.id, versions.datasetId)).where(eq(versions.id, versionId));
+  if (!row) throw notFound();
+  const table = decodeColumnar(await columnsFor(row.v.sha256, row.v.fileName));
+  const numeric = table.columns.filter((c) => c.type === "number").map((c) => c.name);
+  const column = (name: string, field: string) => {
+    const i = table.columns.findIndex((c) => c.name === name);
+    if (i < 0 || table.columns[i]!.type !== "number")
+      throw badRequest(`options.${field}: no numeric column named "${name}" in version ${row.v.number} (numeric columns: ${numeric.join(", ")}).`);
+    return { data: table.data[i] as Float64Array, unit: table.columns[i]!.unit };
+  };
+  const xs = column(options.x, "x");
+  const ys = column(options.y, "y");
+  const ss = options.sigma ? column(options.sigma, "sigma") : null;
+  const [lo, hi] = options.xRange ?? [-Infinity, Infinity];
+  const keep: number[] = [];
+  for (let i = 0; i < xs.data.length; i++) {
+    const ok = Number.isFinite(xs.data[i]!) && Number.isFinite(ys.data[i]!) && (!ss || (ss.data[i]! > 0 && Number.isFinite(ss.data[i]!)));
+    if (ok && xs.data[i]! >= lo && xs.data[i]! <= hi) keep.push(i);
+  }
+  const pick = (a: Float64Array) => Float64Array.from(keep, (i) => a[i]!);
+  return {
+    version: row.v, dataset: row.d, x: pick(xs.data), y: pick(ys.data), sigma: ss ? pick(ss.data) : undefined,
+    xUnit: xs.unit, yUnit: ys.unit, dropped: xs.data.length - keep.length,
+  };
+}

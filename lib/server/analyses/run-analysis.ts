@@ -1,0 +1,131 @@
+import { and, desc, eq, isNull, sql } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { analyses, datasets, versions } from "@/db/schema";
+import { FitInputError, fitModel, getModel, sampleCurve, type ModelFitResult } from "@/lib/analysis";
+import { authorize, type SessionUser } from "@/lib/authz";
+import { appendAudit } from "../audit";
+import { newId } from "../crypto";
+import { badRequest, notFound } from "../errors";
+import { manuscriptOfVersion } from "../datasets/scope";
+import { importDatasetFromBytes } from "../datasets/upload-dataset";
+import { derivedCsv } from "./derived-file";
+import { loadFitData, type FitData } from "./fit-data";
+import { analysisInput, type AnalysisInput } from "./schemas";
+import { resolveUnit } from "./units";
+
+const CURVE_POINTS = 400;
+const nullIfNaN = (v: number) => (Number.isFinite(v) ? v : null);
+
+function fitOrExplain(input: AnalysisInput, data: FitData): ModelFitResult {
+  if (!getModel(input.model)) throw badRequest(`model: unknown model "${input.model}"; GET /api/analysis-models lists them.`);
+  try {
+    return fitModel(input.model, {
+      x: data.x, y: data.y, sigma: data.sigma, start: input.options.start, fixed: input.options.fixed,
+      bounds: input.options.bounds, maxIterations: input.options.maxIterations,
+    });
+  } catch (err) {
+    if (err instanceof FitInputError) throw badRequest(`options.${err.field}: ${err.message}.`);
+    throw err;
+  }
+}
+
+function curveFor(modelId: string, fit: ModelFitResult, x: Float64Array) {
+  let lo = Infinity, hi = -Infinity;
+  for (const v of x) { if (v < lo) lo = v; if (v > hi) hi = v; }
+  const log = lo > 0 && hi / lo > 100;
+  return sampleCurve(modelId, fit.values, lo, hi, CURVE_POINTS, log);
+}
+
+/** Runs a model on a version's columns; nothing is stored (for adjusting before saving). */
+export async function previewAnalysis(user: SessionUser, raw: AnalysisInput) {
+  const input = analysisInput.parse(raw);
+  await authorize(user, "analysis.run", await manuscriptOfVersion(input.versionId));
+  const data = await loadFitData(input.versionId, input.options);
+  const fit = fitOrExplain(input, data);
+  return describeRun(input, data, fit, curveFor(input.model, fit, data.x));
+}
+
+function describeRun(input: AnalysisInput, data: FitData, fit: ModelFitResult, curve: { x: number[]; y: number[] }) {
+  const parameters = fit.params.map((p) => ({
+    name: p.name, value: nullIfNaN(p.value), stderr: nullIfNaN(p.stderr), unit: resolveUnit(p.unit, data.xUnit, data.yUnit),
+    fixed: p.fixed, atBound: p.atBound, start: nullIfNaN(p.start), bounds: p.bounds.map(nullIfNaN),
+  }));
+  return {
+    model: input.model, modelVersion: fit.modelVersion, versionId: input.versionId, inputSha256: data.version.sha256,
+    options: input.options, parameters, chi2: nullIfNaN(fit.chi2), chi2red: nullIfNaN(fit.chi2red), dof: fit.dof,
+    r2: nullIfNaN(fit.r2), aic: nullIfNaN(fit.aic), bic: nullIfNaN(fit.bic), converged: fit.converged, reason: fit.reason,
+    iterations: fit.iterations, warnings: [...fit.warnings, ...(data.dropped ? [`${data.dropped} rows left out (missing values or outside the x range)`] : [])],
+    covariance: fit.covariance.map((r) => r.map(nullIfNaN)), correlation: fit.correlation.map((r) => r.map(nullIfNaN)),
+    points: data.x.length, units: { x: data.xUnit, y: data.yUnit },
+    data: { x: Array.from(data.x), y: Array.from(data.y), residuals: fit.residuals.map(nullIfNaN) }, curve,
+  };
+}
+
+/** Finds (or creates) the dataset that holds the derived versions of one source dataset and model. */
+async function derivedDatasetId(manuscriptId: string, source: FitData["dataset"], modelId: string): Promise<string | undefined> {
+  const [d] = await getDb().select({ id: datasets.id }).from(datasets).where(and(
+    eq(datasets.manuscriptId, manuscriptId),
+    sql`json_extract(${datasets.tags}, '$.derivedFrom') = ${source.id}`,
+    sql`json_extract(${datasets.tags}, '$.model') = ${modelId}`,
+  ));
+  return d?.id;
+}
+
+/**
+ * Runs and stores: the run records the input hash, model id and code version, options and the
+ * full result, and writes a derived version (curve, data, residuals) that figures can bind to.
+ */
+export async function runAnalysis(user: SessionUser, raw: AnalysisInput) {
+  const input = analysisInput.parse(raw);
+  const manuscriptId = await manuscriptOfVersion(input.versionId);
+  await authorize(user, "analysis.run", manuscriptId);
+  const data = await loadFitData(input.versionId, input.options);
+  const fit = fitOrExplain(input, data);
+  const run = describeRun(input, data, fit, curveFor(input.model, fit, data.x));
+  const id = newId();
+  const csv = derivedCsv({
+    sourceVersionId: input.versionId, sourceSha256: data.version.sha256, modelId: input.model, modelVersion: fit.modelVersion,
+    xName: input.options.x, xUnit: data.xUnit, yName: input.options.y, yUnit: data.yUnit,
+    parameters: run.parameters.map((p) => ({ name: p.name, value: p.value ?? NaN, stderr: p.stderr ?? NaN, unit: p.unit })),
+    chi2red: fit.chi2red, curve: run.curve, dataX: data.x, dataY: data.y, residuals: fit.residuals,
+  });
+  const existing = await derivedDatasetId(manuscriptId, data.dataset, input.model);
+  const derived = await importDatasetFromBytes(user, manuscriptId, `fit-${input.model}-${data.version.fileName.replace(/\.[^.]+$/, "")}.csv`, new TextEncoder().encode(csv), {
+    ...(existing ? { datasetId: existing } : {
+      name: `${data.dataset.name} — fit: ${getModel(input.model)!.title}`,
+      metadata: JSON.stringify({ kind: data.dataset.kind, sample: data.dataset.sample, tags: { ...data.dataset.tags, derivedFrom: data.dataset.id, model: input.model } }),
+    }),
+  });
+  const { data: _points, curve: _curve, ...stored } = run;
+  await getDb().transaction(async (tx) => {
+    await tx.insert(analyses).values({
+      id, manuscriptId, versionId: input.versionId, inputSha256: data.version.sha256, model: input.model, modelVersion: fit.modelVersion,
+      options: input.options, result: { ...stored, residuals: run.data.residuals }, derivedVersionId: derived.id, createdBy: user.id,
+    });
+    await tx.update(versions).set({ derivedFromAnalysisId: id }).where(and(eq(versions.id, derived.id), isNull(versions.derivedFromAnalysisId)));
+    await appendAudit(tx, {
+      actorId: user.id, manuscriptId, action: "analysis.run", target: `analysis:${id}`,
+      data: { versionId: input.versionId, model: input.model, modelVersion: fit.modelVersion, derivedVersionId: derived.id },
+    });
+  });
+  return { id, ...run, derivedVersionId: derived.id };
+}
+
+async function manuscriptOfAnalysis(analysisId: string): Promise<string> {
+  const [a] = await getDb().select({ m: analyses.manuscriptId }).from(analyses).where(eq(analyses.id, analysisId));
+  if (!a) throw notFound();
+  return a.m;
+}
+
+export async function getAnalysis(user: SessionUser, analysisId: string) {
+  await authorize(user, "manuscript.read", await manuscriptOfAnalysis(analysisId));
+  const [a] = await getDb().select().from(analyses).where(eq(analyses.id, analysisId));
+  return a!;
+}
+
+export { manuscriptOfAnalysis };
+
+export async function listAnalysesForVersion(user: SessionUser, versionId: string) {
+  await authorize(user, "manuscript.read", await manuscriptOfVersion(versionId));
+  return getDb().select().from(analyses).where(eq(analyses.versionId, versionId)).orderBy(desc(analyses.createdAt));
+}
