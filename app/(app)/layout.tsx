@@ -2,6 +2,7 @@ import Link from "next/link";
 import type { ReactNode } from "react";
 import { signOutAction } from "@/app/actions/auth";
 import { ActionForm } from "@/components/action-form";
+import { Providers } from "@/components/providers";
 import { env } from "@/lib/env";
 import { requireUser } from "@/lib/http/session";
 
@@ -15,6 +16,7 @@ export default async function AppLayout({ children }: { children: ReactNode }) {
         <nav aria-label="Main" className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-6 py-3 text-sm">
           <Link href="/manuscripts" className="font-semibold uppercase tracking-[0.18em] text-accent">Prooflight</Link>
           <Link href="/manuscripts" className="hover:underline">Manuscripts</Link>
+          <Link href="/calculators" className="hover:underline">Calculators</Link>
           <Link href="/settings/tokens" className="hover:underline">API tokens</Link>
           {env().mailSinkPage ? <Link href="/dev/mail" className="hover:underline">Mail outbox</Link> : null}
           <span className="ml-auto text-muted" data-testid="signed-in-as">{user.name} · {user.email}</span>
@@ -23,7 +25,7 @@ export default async function AppLayout({ children }: { children: ReactNode }) {
           </ActionForm>
         </nav>
       </header>
-      <main className="mx-auto max-w-6xl px-6 py-8">{children}</main>
+      <main className="mx-auto max-w-6xl px-6 py-8"><Providers>{children}</Providers></main>
     </div>
   );
 }

@@ -28,7 +28,7 @@ function failure(err: unknown): ActionState {
 /** The same gate as route handlers, for server actions: states the permission, validates the form, authorizes. */
 export function withAction<I>(
   permission: Action,
-  options: { input: z.ZodType<I>; scope?: (input: I) => string },
+  options: { input: z.ZodType<I>; scope?: (input: I) => string | Promise<string> },
   handler: (a: { user: SessionUser; input: I }) => Promise<ActionState | void>,
 ): FormAction {
   const fn: FormAction = async (_prev, form) => {
@@ -36,7 +36,7 @@ export function withAction<I>(
       const user = await currentUser();
       if (!user) return { ok: false, message: "Your session has ended. Sign in again." };
       const input = options.input.parse(formToObject(form));
-      await authorize(user, permission, options.scope?.(input));
+      await authorize(user, permission, options.scope ? await options.scope(input) : undefined);
       return (await handler({ user, input })) ?? { ok: true, message: "Saved." };
     } catch (err) {
       return failure(err);

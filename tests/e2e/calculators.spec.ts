@@ -1,0 +1,19 @@
+import { expect, test } from "@playwright/test";
+import { shoot, signIn } from "./helpers";
+
+test("calculators: ODMR pair → field, with the caution and assumptions", async ({ page }) => {
+  await signIn(page, "reviewer@partner.example.org");
+  await page.getByRole("link", { name: "Calculators" }).click();
+  await expect(page.getByText("An estimate, not a calibration.").first()).toBeVisible();
+  const card = page.getByRole("region", { name: "ODMR resonances → axial field and D" });
+  await card.getByLabel(/Lower resonance/).fill("2750");
+  await card.getByLabel(/Upper resonance/).fill("2990");
+  await card.getByRole("button", { name: "Calculate" }).click();
+  // REFERENCES.md worked example 2: f₋ = 2750 MHz, f₊ = 2990 MHz → B = 4.2809 mT, D = 2870 MHz.
+  await expect(card.getByTestId("result-odmr-field-from-pair")).toContainText("4.28091 mT");
+  await expect(card.getByTestId("result-odmr-field-from-pair")).toContainText("2870 MHz");
+  await card.getByLabel(/Lower resonance/).fill("-5");
+  await card.getByRole("button", { name: "Calculate" }).click();
+  await expect(card.getByRole("alert")).toContainText("f_minus");
+  await shoot(page, "calculators");
+});
