@@ -5,6 +5,7 @@ import { createManuscriptInput } from "@/lib/server/manuscripts";
 import { changeRoleInput, inviteInput } from "@/lib/server/members";
 import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schemas";
 import { analysisInput, calculatorInput, statisticsQuery } from "@/lib/server/analyses/schemas";
+import { addPanelInput, createFigureInput, reorderInput, updateFigureInput } from "@/lib/server/figures/schemas";
 
 export interface ApiOperation {
   method: "GET" | "POST" | "PATCH" | "DELETE";
@@ -58,6 +59,13 @@ export const API_OPERATIONS: ApiOperation[] = [
   { method: "GET", path: "/api/analyses/{id}", permission: "manuscript.read", summary: "A stored analysis run", success: 200 },
   { method: "GET", path: "/api/manuscripts/{id}/statistics", permission: "manuscript.read", summary: "Population statistics of a fitted parameter by group", query: statisticsQuery, success: 200 },
   { method: "POST", path: "/api/calculators/{id}", permission: "model.list", summary: "Run a calculator (an estimate, not a calibration)", body: calculatorInput, success: 200 },
+  { method: "GET", path: "/api/manuscripts/{id}/figures", permission: "manuscript.read", summary: "Figures with their panels", success: 200 },
+  { method: "POST", path: "/api/figures", permission: "figure.edit", summary: "Create a figure", body: createFigureInput, success: 201 },
+  { method: "GET", path: "/api/figures/{id}", permission: "manuscript.read", summary: "A figure with its lettered panels", success: 200 },
+  { method: "PATCH", path: "/api/figures/{id}", permission: "figure.edit", summary: "Change title, width, columns, required reviewers", body: updateFigureInput, success: 200 },
+  { method: "POST", path: "/api/figures/{id}/panels", permission: "figure.edit", summary: "Add a panel (answers its letter)", body: addPanelInput, success: 201 },
+  { method: "POST", path: "/api/figures/{id}/order", permission: "figure.edit", summary: "Reorder panels (re-lettered)", body: reorderInput, success: 200 },
+  { method: "GET", path: "/api/panels/{id}", permission: "manuscript.read", summary: "A panel with current revision, review state and decisions", success: 200 },
 ];
 
 const errorSchema = {

@@ -54,6 +54,17 @@ const FIXTURES: Record<string, Fixture> = {
   "POST /api/analyses/preview": async () => ({ body: fitBody() }),
   "GET /api/analyses/{id}": async () => ({ params: { id: sample.analysisId } }),
   "GET /api/manuscripts/{id}/statistics": async () => ({ params: { id: DEMO_MANUSCRIPT_ID }, query: "model=relaxation&parameter=T1&groupBy=group" }),
+  "GET /api/manuscripts/{id}/figures": async () => ({ params: { id: DEMO_MANUSCRIPT_ID } }),
+  "POST /api/figures": async () => ({ body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Walk" } }),
+  "GET /api/figures/{id}": async () => ({ params: { id: sample.figureId } }),
+  "PATCH /api/figures/{id}": async () => ({ params: { id: sample.figureId }, body: { widthMm: 120 } }),
+  "POST /api/figures/{id}/panels": async () => ({ params: { id: sample.figureId }, body: { title: "walk" } }),
+  "POST /api/figures/{id}/order": async () => {
+    const fig = (await import("@/app/api/figures/[id]/route")).GET;
+    const ids = (await call(fig, { token: tokens.pi, params: { id: sample.figureId } })).json.panels.map((p: any) => p.id).reverse();
+    return { params: { id: sample.figureId }, body: { panelIds: ids } };
+  },
+  "GET /api/panels/{id}": async () => ({ params: { id: sample.panelIds[0]! } }),
   "POST /api/calculators/{id}": async () => ({ params: { id: "odmr-field-from-pair" }, body: { inputs: { f_minus: 2750, f_plus: 2990 } } }),
 };
 
@@ -70,7 +81,7 @@ function expected(op: ApiOperation, who: Caller): "ok" | 401 | 403 | 404 {
 }
 
 let tokens: Record<Who, string>;
-const sample = { datasetId: "", versionId: "", fitVersionId: "", analysisId: "" };
+const sample = { datasetId: "", versionId: "", fitVersionId: "", analysisId: "", figureId: "", panelIds: [] as string[] };
 const T1_CSV = "wait (ms),p\n" + Array.from({ length: 30 }, (_, i) => { const t = 0.05 * 1.25 ** i; return `${t},${(0.7 + 0.3 * Math.exp(-t / 4) + 0.002 * Math.sin(7 * i)).toFixed(5)}`; }).join("\n");
 const fitBody = () => ({ versionId: sample.fitVersionId, model: "relaxation", options: { x: "wait", y: "p" } });
 beforeAll(async () => {
@@ -82,6 +93,10 @@ beforeAll(async () => {
   sample.fitVersionId = t1.json.id;
   const run = await call((await import("@/app/api/analyses/route")).POST, { method: "POST", token: tokens.author, body: fitBody() });
   sample.analysisId = run.json.id;
+  const fig = await call((await import("@/app/api/figures/route")).POST, { method: "POST", token: tokens.author, body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Coherence" } });
+  sample.figureId = fig.json.id;
+  const addPanel = (await import("@/app/api/figures/[id]/panels/route")).POST;
+  for (let i = 0; i < 2; i++) sample.panelIds.push((await call(addPanel, { method: "POST", token: tokens.author, params: { id: sample.figureId }, body: {} })).json.id);
 });
 
 describe("every route × every role", () => {

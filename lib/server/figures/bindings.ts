@@ -1,0 +1,55 @@
+import { eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { analyses, datasets, versions, type Binding, type BoundInput } from "@/db/schema";
+import { decodeColumnar } from "@/lib/data/columnar";
+import { canonicalJson, sha256Hex } from "../crypto";
+import { badRequest } from "../errors";
+import { columnsFor } from "../datasets/columns-cache";
+
+/** Checks every binding belongs to this manuscript and records what it points at, by content hash. */
+export async function resolveBindings(manuscriptId: string, bindings: Record<string, Binding>): Promise<Record<string, BoundInput>> {
+  const out: Record<string, BoundInput> = {};
+  for (const [name, b] of Object.entries(bindings)) {
+    if ("versionId" in b) {
+      const [v] = await getDb().select({ id: versions.id, sha: versions.sha256, m: datasets.manuscriptId }).from(versions)
+        .innerJoin(datasets, eq(datasets.id, versions.datasetId)).where(eq(versions.id, b.versionId));
+      if (!v || v.m !== manuscriptId) throw badRequest(`bindings.${name}.versionId: no such version in this manuscript.`);
+      out[name] = { kind: "version", id: v.id, versionId: v.id, sha256: v.sha };
+    } else {
+      const [a] = await getDb().select({ id: analyses.id, m: analyses.manuscriptId, derived: analyses.derivedVersionId }).from(analyses).where(eq(analyses.id, b.analysisId));
+      if (!a || a.m !== manuscriptId || !a.derived) throw badRequest(`bindings.${name}.analysisId: no such analysis in this manuscript.`);
+      const [v] = await getDb().select({ sha: versions.sha256 }).from(versions).where(eq(versions.id, a.derived));
+      out[name] = { kind: "analysis", id: a.id, versionId: a.derived, sha256: v!.sha, output: b.output };
+    }
+  }
+  return out;
+}
+
+/** SHA-256 of the canonical spec plus the content hashes of everything it binds: what approvals sign. */
+export function revisionContentHash(spec: unknown, bound: Record<string, BoundInput>): string {
+  const hashes = Object.fromEntries(Object.entries(bound).map(([n, b]) => [n, `${b.kind}:${b.sha256}${b.output ? `:${b.output}` : ""}`]));
+  return sha256Hex(canonicalJson({ spec, bindings: hashes }));
+}
+
+const SERIES: Record<string, string> = { curve: "curve", residuals: "residual", data: "data" };
+
+/** The rows each data name resolves to (records keyed by column name), full resolution. */
+export async function loadBoundData(bound: Record<string, BoundInput>): Promise<Record<string, Array<Record<string, number | string | null>>>> {
+  const out: Record<string, Array<Record<string, number | string | null>>> = {};
+  for (const [name, b] of Object.entries(bound)) {
+    const [v] = await getDb().select({ sha: versions.sha256, fileName: versions.fileName }).from(versions).where(eq(versions.id, b.versionId));
+    const t = decodeColumnar(await columnsFor(v!.sha, v!.fileName));
+    const names = t.columns.map((c) => c.name);
+    const rows: Array<Record<string, number | string | null>> = [];
+    const wanted = b.output ? SERIES[b.output] : null;
+    const seriesCol = wanted ? names.indexOf("series") : -1;
+    for (let r = 0; r < t.rowCount; r++) {
+      if (seriesCol >= 0 && t.data[seriesCol]![r] !== wanted) continue;
+      const row: Record<string, number | string | null> = {};
+      names.forEach((n, i) => { const val = t.data[i]![r]!; row[n] = typeof val === "number" && !Number.isFinite(val) ? null : val; });
+      rows.push(row);
+    }
+    out[name] = rows;
+  }
+  return out;
+}

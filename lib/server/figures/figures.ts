@@ -1,0 +1,80 @@
+import { and, asc, eq, inArray, max } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { figures, panels, revisions } from "@/db/schema";
+import { authorize, type SessionUser } from "@/lib/authz";
+import { appendAudit } from "../audit";
+import { newId } from "../crypto";
+import { badRequest, notFound } from "../errors";
+import { createFigureInput, reorderInput, updateFigureInput } from "./schemas";
+import { letterFor, manuscriptOfFigure } from "./scope";
+import { z } from "zod";
+
+export async function createFigure(user: SessionUser, raw: z.infer<typeof createFigureInput>) {
+  const input = createFigureInput.parse(raw);
+  await authorize(user, "figure.edit", input.manuscriptId);
+  const id = newId();
+  await getDb().transaction(async (tx) => {
+    const [{ n } = { n: 0 }] = await tx.select({ n: max(figures.number) }).from(figures).where(eq(figures.manuscriptId, input.manuscriptId));
+    await tx.insert(figures).values({
+      id, manuscriptId: input.manuscriptId, number: (n ?? 0) + 1, title: input.title, widthMm: input.widthMm ?? 183,
+      maxHeightMm: input.maxHeightMm ?? 170, columns: input.columns ?? 2, createdBy: user.id,
+    });
+    await appendAudit(tx, { actorId: user.id, manuscriptId: input.manuscriptId, action: "figure.create", target: `figure:${id}`, data: { title: input.title } });
+  });
+  return getFigure(user, id);
+}
+
+export async function updateFigure(user: SessionUser, figureId: string, raw: z.infer<typeof updateFigureInput>) {
+  const manuscriptId = await manuscriptOfFigure(figureId);
+  await authorize(user, "figure.edit", manuscriptId);
+  const patch = updateFigureInput.parse(raw);
+  await getDb().transaction(async (tx) => {
+    await tx.update(figures).set(patch).where(eq(figures.id, figureId));
+    await appendAudit(tx, { actorId: user.id, manuscriptId, action: "figure.update", target: `figure:${figureId}`, data: patch });
+  });
+  return getFigure(user, figureId);
+}
+
+/** A figure with its panels in order, each with its letter and current revision. */
+export async function getFigure(user: SessionUser, figureId: string) {
+  const manuscriptId = await manuscriptOfFigure(figureId);
+  const role = await authorize(user, "manuscript.read", manuscriptId);
+  const [f] = await getDb().select().from(figures).where(eq(figures.id, figureId));
+  if (!f) throw notFound();
+  const ps = await getDb().select().from(panels).where(eq(panels.figureId, figureId)).orderBy(asc(panels.position));
+  const revIds = ps.map((p) => p.currentRevisionId).filter((x): x is string => Boolean(x));
+  const revs = revIds.length ? await getDb().select().from(revisions).where(inArray(revisions.id, revIds)) : [];
+  return {
+    ...f, role,
+    panels: ps.map((p, i) => {
+      const rev = revs.find((r) => r.id === p.currentRevisionId);
+      return {
+        id: p.id, letter: letterFor(i), title: p.title, colSpan: p.colSpan, position: p.position,
+        currentRevision: rev ? { id: rev.id, number: rev.number, contentHash: rev.contentHash, message: rev.message, createdAt: rev.createdAt, createdBy: rev.createdBy } : null,
+        reviewState: rev ? ("in_review" as const) : ("draft" as const),
+      };
+    }),
+  };
+}
+
+export async function listFiguresForManuscript(user: SessionUser, manuscriptId: string) {
+  await authorize(user, "manuscript.read", manuscriptId);
+  const fs = await getDb().select({ id: figures.id }).from(figures).where(eq(figures.manuscriptId, manuscriptId)).orderBy(asc(figures.number));
+  return Promise.all(fs.map((f) => getFigure(user, f.id)));
+}
+
+/** Reorders panels; letters follow the new order. */
+export async function reorderPanels(user: SessionUser, figureId: string, raw: z.infer<typeof reorderInput>) {
+  const manuscriptId = await manuscriptOfFigure(figureId);
+  await authorize(user, "figure.edit", manuscriptId);
+  const { panelIds } = reorderInput.parse(raw);
+  await getDb().transaction(async (tx) => {
+    const existing = await tx.select({ id: panels.id }).from(panels).where(eq(panels.figureId, figureId));
+    const ids = new Set(existing.map((p) => p.id));
+    if (panelIds.length !== ids.size || !panelIds.every((p) => ids.has(p)))
+      throw badRequest("panelIds: list every panel of the figure exactly once.");
+    for (const [i, pid] of panelIds.entries()) await tx.update(panels).set({ position: i }).where(and(eq(panels.id, pid), eq(panels.figureId, figureId)));
+    await appendAudit(tx, { actorId: user.id, manuscriptId, action: "figure.reorder", target: `figure:${figureId}`, data: { panelIds } });
+  });
+  return getFigure(user, figureId);
+}

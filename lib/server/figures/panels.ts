@@ -1,0 +1,39 @@
+import { asc, eq, max } from "drizzle-orm";
+import { z } from "zod";
+import { getDb } from "@/db/client";
+import { panels, revisions } from "@/db/schema";
+import { authorize, type SessionUser } from "@/lib/authz";
+import { appendAudit } from "../audit";
+import { newId } from "../crypto";
+import { notFound } from "../errors";
+import { addPanelInput } from "./schemas";
+import { letterFor, manuscriptOfFigure, manuscriptOfPanel } from "./scope";
+
+export async function addPanel(user: SessionUser, figureId: string, raw: z.infer<typeof addPanelInput>) {
+  const manuscriptId = await manuscriptOfFigure(figureId);
+  await authorize(user, "figure.edit", manuscriptId);
+  const input = addPanelInput.parse(raw);
+  const id = newId();
+  await getDb().transaction(async (tx) => {
+    const [{ n } = { n: null }] = await tx.select({ n: max(panels.position) }).from(panels).where(eq(panels.figureId, figureId));
+    await tx.insert(panels).values({ id, figureId, position: (n ?? -1) + 1, title: input.title ?? "", colSpan: input.colSpan ?? 1, createdBy: user.id });
+    await appendAudit(tx, { actorId: user.id, manuscriptId, action: "panel.create", target: `panel:${id}`, data: { figureId } });
+  });
+  return getPanel(user, id);
+}
+
+export async function getPanel(user: SessionUser, panelId: string) {
+  const manuscriptId = await manuscriptOfPanel(panelId);
+  const role = await authorize(user, "manuscript.read", manuscriptId);
+  const [p] = await getDb().select().from(panels).where(eq(panels.id, panelId));
+  if (!p) throw notFound();
+  const siblings = await getDb().select({ id: panels.id }).from(panels).where(eq(panels.figureId, p.figureId)).orderBy(asc(panels.position));
+  const [rev] = p.currentRevisionId ? await getDb().select().from(revisions).where(eq(revisions.id, p.currentRevisionId)) : [];
+  return {
+    ...p, manuscriptId, role, letter: letterFor(siblings.findIndex((s) => s.id === p.id)),
+    currentRevision: rev ? { ...rev, spec: JSON.parse(rev.spec) as unknown } : null,
+    reviewState: rev ? "in_review" : "draft",
+    decisions: [] as unknown[],
+  };
+}
+

@@ -1,0 +1,31 @@
+import { eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { figures, panels, revisions } from "@/db/schema";
+import { notFound } from "../errors";
+
+export async function manuscriptOfFigure(figureId: string): Promise<string> {
+  const [f] = await getDb().select({ m: figures.manuscriptId }).from(figures).where(eq(figures.id, figureId));
+  if (!f) throw notFound();
+  return f.m;
+}
+
+export async function manuscriptOfPanel(panelId: string): Promise<string> {
+  const [p] = await getDb().select({ m: figures.manuscriptId }).from(panels).innerJoin(figures, eq(figures.id, panels.figureId)).where(eq(panels.id, panelId));
+  if (!p) throw notFound();
+  return p.m;
+}
+
+export async function manuscriptOfRevision(revisionId: string): Promise<string> {
+  const [r] = await getDb().select({ m: figures.manuscriptId }).from(revisions)
+    .innerJoin(panels, eq(panels.id, revisions.panelId)).innerJoin(figures, eq(figures.id, panels.figureId)).where(eq(revisions.id, revisionId));
+  if (!r) throw notFound();
+  return r.m;
+}
+
+/** Panel letters follow the order: a, b, …, z, aa, ab … */
+export function letterFor(index: number): string {
+  let n = index;
+  let s = "";
+  do { s = String.fromCharCode(97 + (n % 26)) + s; n = Math.floor(n / 26) - 1; } while (n >= 0);
+  return s;
+}
