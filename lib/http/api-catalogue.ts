@@ -5,7 +5,7 @@ import { createManuscriptInput } from "@/lib/server/manuscripts";
 import { changeRoleInput, inviteInput } from "@/lib/server/members";
 import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schemas";
 import { analysisInput, calculatorInput, statisticsQuery } from "@/lib/server/analyses/schemas";
-import { addPanelInput, createFigureInput, reorderInput, updateFigureInput } from "@/lib/server/figures/schemas";
+import { addPanelInput, createFigureInput, reorderInput, revisionInput, updateFigureInput } from "@/lib/server/figures/schemas";
 
 export interface ApiOperation {
   method: "GET" | "POST" | "PATCH" | "DELETE";
@@ -66,6 +66,10 @@ export const API_OPERATIONS: ApiOperation[] = [
   { method: "POST", path: "/api/figures/{id}/panels", permission: "figure.edit", summary: "Add a panel (answers its letter)", body: addPanelInput, success: 201 },
   { method: "POST", path: "/api/figures/{id}/order", permission: "figure.edit", summary: "Reorder panels (re-lettered)", body: reorderInput, success: 200 },
   { method: "GET", path: "/api/panels/{id}", permission: "manuscript.read", summary: "A panel with current revision, review state and decisions", success: 200 },
+  { method: "GET", path: "/api/panels/{id}/revisions", permission: "manuscript.read", summary: "A panel's revisions, newest first", success: 200 },
+  { method: "POST", path: "/api/panels/{id}/revisions", permission: "figure.edit", summary: "New revision (409 when baseRevisionId is not current)", body: revisionInput, success: 201 },
+  { method: "GET", path: "/api/revisions/{id}", permission: "manuscript.read", summary: "One revision with its canonical spec and bindings", success: 200 },
+  { method: "GET", path: "/api/figures/{id}/trace", permission: "manuscript.read", summary: "Provenance chain with every hash", success: 200 },
 ];
 
 const errorSchema = {

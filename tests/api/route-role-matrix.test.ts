@@ -65,6 +65,14 @@ const FIXTURES: Record<string, Fixture> = {
     return { params: { id: sample.figureId }, body: { panelIds: ids } };
   },
   "GET /api/panels/{id}": async () => ({ params: { id: sample.panelIds[0]! } }),
+  "GET /api/panels/{id}/revisions": async () => ({ params: { id: sample.panelIds[0]! } }),
+  "POST /api/panels/{id}/revisions": async () => {
+    const panel = (await import("@/app/api/panels/[id]/route")).GET;
+    const current = (await call(panel, { token: tokens.pi, params: { id: sample.panelIds[1]! } })).json.currentRevision;
+    return { params: { id: sample.panelIds[1]! }, body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: current?.id ?? null, message: "walk" } };
+  },
+  "GET /api/revisions/{id}": async () => ({ params: { id: sample.revisionId } }),
+  "GET /api/figures/{id}/trace": async () => ({ params: { id: sample.figureId } }),
   "POST /api/calculators/{id}": async () => ({ params: { id: "odmr-field-from-pair" }, body: { inputs: { f_minus: 2750, f_plus: 2990 } } }),
 };
 
@@ -81,7 +89,8 @@ function expected(op: ApiOperation, who: Caller): "ok" | 401 | 403 | 404 {
 }
 
 let tokens: Record<Who, string>;
-const sample = { datasetId: "", versionId: "", fitVersionId: "", analysisId: "", figureId: "", panelIds: [] as string[] };
+const sample = { datasetId: "", versionId: "", fitVersionId: "", analysisId: "", figureId: "", panelIds: [] as string[], revisionId: "" };
+const SPEC = { $schema: "https://vega.github.io/schema/vega-lite/v6.json", data: { name: "t1" }, mark: "point", encoding: { x: { field: "wait", type: "quantitative" }, y: { field: "p", type: "quantitative" } } };
 const T1_CSV = "wait (ms),p\n" + Array.from({ length: 30 }, (_, i) => { const t = 0.05 * 1.25 ** i; return `${t},${(0.7 + 0.3 * Math.exp(-t / 4) + 0.002 * Math.sin(7 * i)).toFixed(5)}`; }).join("\n");
 const fitBody = () => ({ versionId: sample.fitVersionId, model: "relaxation", options: { x: "wait", y: "p" } });
 beforeAll(async () => {
@@ -97,6 +106,9 @@ beforeAll(async () => {
   sample.figureId = fig.json.id;
   const addPanel = (await import("@/app/api/figures/[id]/panels/route")).POST;
   for (let i = 0; i < 2; i++) sample.panelIds.push((await call(addPanel, { method: "POST", token: tokens.author, params: { id: sample.figureId }, body: {} })).json.id);
+  const revise = (await import("@/app/api/panels/[id]/revisions/route")).POST;
+  const rev = await call(revise, { method: "POST", token: tokens.author, params: { id: sample.panelIds[0]! }, body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null } });
+  sample.revisionId = rev.json.id;
 });
 
 describe("every route × every role", () => {
