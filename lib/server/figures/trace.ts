@@ -3,14 +3,10 @@ import { getDb } from "@/db/client";
 import { analyses, datasets, versions } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { canonicalJson, sha256Hex } from "../crypto";
+import { figureContentHash } from "./figure-hash";
 import { getFigure } from "./figures";
 import { getRevision } from "./revisions";
 import { manuscriptOfFigure } from "./scope";
-
-/** The figure hash signs the layout plus every panel's content hash, in order. */
-export function figureContentHash(f: { widthMm: number; maxHeightMm: number; columns: number; title: string }, panelHashes: Array<{ letter: string; colSpan: number; contentHash: string | null }>): string {
-  return sha256Hex(canonicalJson({ layout: { widthMm: f.widthMm, maxHeightMm: f.maxHeightMm, columns: f.columns, title: f.title }, panels: panelHashes }));
-}
 
 /**
  * Raw file → analysis → revision → figure, with every hash: what a referee's "which file made panel 3c?" needs.

@@ -1,0 +1,35 @@
+import type { VersionView } from "./api";
+import { formatCount, formatNumber } from "./format";
+
+/** Per numeric column: how many values, how many missing, and their range, mean and spread. */
+export function ColumnSummaryTable({ version }: { version: VersionView }) {
+  const textColumns = version.columns.filter((c) => c.type !== "number");
+  return (
+    <div>
+      <div className="relative overflow-x-auto border border-rule bg-sheet">
+        <table className="w-full text-sm">
+          <caption className="sr-only">Column summary of version {version.number}</caption>
+          <thead className="bg-paper text-xs uppercase tracking-wide text-muted">
+            <tr>
+              <th scope="col" className="px-3 py-2 text-left">Column</th>
+              <th scope="col" className="px-3 py-2 text-left">Unit</th>
+              {["Count", "Missing", "Min", "Max", "Mean", "SD"].map((h) => <th key={h} scope="col" className="px-3 py-2 text-right">{h}</th>)}
+            </tr>
+          </thead>
+          <tbody className="divide-y divide-rule">
+            {version.summary.map((s) => (
+              <tr key={s.column}>
+                <th scope="row" className="px-3 py-1.5 text-left font-medium">{s.column}</th>
+                <td className="px-3 py-1.5 text-muted">{s.unit ?? "—"}</td>
+                <td className="px-3 py-1.5 text-right tabular">{formatCount(s.count)}</td>
+                <td className="px-3 py-1.5 text-right tabular">{s.missing ? <span className="text-warn"><span aria-hidden>⚠ </span>{formatCount(s.missing)}</span> : "0"}</td>
+                {[s.min, s.max, s.mean, s.sd].map((v, i) => <td key={i} className="px-3 py-1.5 text-right tabular">{formatNumber(v)}</td>)}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      {textColumns.length ? <p className="mt-1 text-xs text-muted">Text columns, not summarised: {textColumns.map((c) => c.name).join(", ")}.</p> : null}
+    </div>
+  );
+}

@@ -1,0 +1,60 @@
+"use client";
+import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import { useState } from "react";
+import { Field, Select } from "@/components/ui";
+import { fetchJson, type PlotData, type VersionView } from "./api";
+import { axisTitle, formatCount } from "./format";
+import { extent, isAscending } from "./plot-scales";
+import { QuickPlot } from "./quick-plot";
+
+const POINTS = 1200;
+
+/** Two column pickers, a log-x switch and the plot; the server downsamples, keeping extremes. */
+export function QuickPlotPanel({ version }: { version: VersionView }) {
+  const numeric = version.columns.filter((c) => c.type === "number");
+  const [x, setX] = useState(numeric[0]?.name ?? "");
+  const [y, setY] = useState(numeric[1]?.name ?? numeric[0]?.name ?? "");
+  const [logX, setLogX] = useState(false);
+  const { data, isFetching, isError, error } = useQuery({
+    queryKey: ["plot", version.id, x, y, POINTS],
+    queryFn: () => fetchJson<PlotData>(`/api/versions/${version.id}/plot?${new URLSearchParams({ x, y, points: String(POINTS) })}`),
+    enabled: numeric.length >= 1 && Boolean(x && y),
+    placeholderData: keepPreviousData,
+    staleTime: Infinity,
+  });
+
+  if (numeric.length < 2) return <p className="text-sm text-muted">A quick plot needs two numeric columns; this version has {numeric.length}.</p>;
+  const xRange = data ? extent(data.points.x) : null;
+  const canLog = xRange !== null && xRange[1] > 0;
+  const logShown = logX && canLog;
+  const ordered = data ? isAscending(data.points.x) : true;
+
+  return (
+    <div>
+      <div className="mb-3 flex flex-wrap items-end gap-3">
+        <div className="w-44"><Field label="x axis"><Select value={x} onChange={(e) => setX(e.target.value)}>{numeric.map((c) => <option key={c.name} value={c.name}>{axisTitle(c.name, c.unit)}</option>)}</Select></Field></div>
+        <div className="w-44"><Field label="y axis"><Select value={y} onChange={(e) => setY(e.target.value)}>{numeric.map((c) => <option key={c.name} value={c.name}>{axisTitle(c.name, c.unit)}</option>)}</Select></Field></div>
+        <label className="flex items-center gap-2 pb-1.5 text-sm">
+          <input type="checkbox" checked={logShown} disabled={!canLog} onChange={(e) => setLogX(e.target.checked)} className="h-4 w-4 accent-accent" />
+          log x
+          {!canLog && data ? <span className="text-xs text-muted">(needs positive x values)</span> : null}
+        </label>
+        <span className="pb-1.5 text-xs text-muted" aria-live="polite">{isFetching ? "loading…" : ""}</span>
+      </div>
+      {isError ? <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>{(error as Error).message}</p> : null}
+      {data ? <QuickPlot data={data} logX={logShown} /> : <div className="h-64 animate-pulse rounded-sm bg-paper" aria-hidden />}
+      {data ? (
+        <p className="mt-1 text-xs text-muted">
+          {formatCount(data.rowCount)} rows · {formatCount(data.points.x.length)} points drawn
+          {logShown && xRange && xRange[0] <= 0 ? " · points with x ≤ 0 are left out on log x" : ""}
+          {data.downsampled ? (
+            <span className="block" data-testid="downsampled-note">
+              <span aria-hidden>◇ </span>
+              {ordered ? "downsampled for display: min/max per pixel column, extremes kept" : "downsampled for display: x is not in order, so every k-th row is shown"}
+            </span>
+          ) : null}
+        </p>
+      ) : null}
+    </div>
+  );
+}
