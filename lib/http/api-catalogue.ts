@@ -5,6 +5,7 @@ import { createManuscriptInput } from "@/lib/server/manuscripts";
 import { changeRoleInput, inviteInput } from "@/lib/server/members";
 import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schemas";
 import { analysisInput, calculatorInput, statisticsQuery } from "@/lib/server/analyses/schemas";
+import { decisionInput, editCommentInput, newThreadInput, replyInput, resolveInput, signoffInput } from "@/lib/server/review/schemas";
 import { addPanelInput, createFigureInput, reorderInput, revisionInput, updateFigureInput } from "@/lib/server/figures/schemas";
 
 export interface ApiOperation {
@@ -70,6 +71,16 @@ export const API_OPERATIONS: ApiOperation[] = [
   { method: "POST", path: "/api/panels/{id}/revisions", permission: "figure.edit", summary: "New revision (409 when baseRevisionId is not current)", body: revisionInput, success: 201 },
   { method: "GET", path: "/api/revisions/{id}", permission: "manuscript.read", summary: "One revision with its canonical spec and bindings", success: 200 },
   { method: "GET", path: "/api/figures/{id}/trace", permission: "manuscript.read", summary: "Provenance chain with every hash", success: 200 },
+  { method: "GET", path: "/api/panels/{id}/threads", permission: "manuscript.read", summary: "Threads on a panel with their comments", success: 200 },
+  { method: "POST", path: "/api/panels/{id}/threads", permission: "comment.write", summary: "Start a thread on a revision (optional anchor)", body: newThreadInput, success: 201 },
+  { method: "POST", path: "/api/threads/{id}/comments", permission: "comment.write", summary: "Reply in a thread", body: replyInput, success: 201 },
+  { method: "POST", path: "/api/threads/{id}/resolve", permission: "comment.write", summary: "Resolve (or reopen) a thread", body: resolveInput, success: 200 },
+  { method: "PATCH", path: "/api/comments/{id}", permission: "comment.write", summary: "Edit one's comment within 15 minutes", body: editCommentInput, success: 200 },
+  { method: "DELETE", path: "/api/comments/{id}", permission: "comment.write", summary: "Delete one's comment while nobody replied", success: 200 },
+  { method: "POST", path: "/api/panels/{id}/approvals", permission: "review.decide", summary: "Approve or ask for revision on the current content hash", body: decisionInput, success: 201 },
+  { method: "POST", path: "/api/figures/{id}/signoff", permission: "figure.signoff", summary: "PI sign-off of the figure hash", body: signoffInput, success: 201 },
+  { method: "GET", path: "/api/review-queue", permission: "self.read", summary: "What waits on the caller", success: 200 },
+  { method: "GET", path: "/api/manuscripts/{id}/activity", permission: "manuscript.read", summary: "The audit log in words", success: 200 },
 ];
 
 const errorSchema = {

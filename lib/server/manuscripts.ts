@@ -60,7 +60,8 @@ export async function getManuscript(user: SessionUser, manuscriptId: string) {
   }).from(manuscripts).innerJoin(labs, eq(labs.id, manuscripts.labId)).where(eq(manuscripts.id, manuscriptId));
   if (!m) throw notFound();
   const [dataCount] = await getDb().select({ n: count() }).from(datasets).where(eq(datasets.manuscriptId, manuscriptId));
-  return { ...m, role, members: await listMembers(manuscriptId), figures: [] as unknown[], datasetCount: dataCount?.n ?? 0 };
+  const { listFiguresForManuscript } = await import("./figures/figures");
+  return { ...m, role, members: await listMembers(manuscriptId), figures: await listFiguresForManuscript(user, manuscriptId), datasetCount: dataCount?.n ?? 0 };
 }
 
 export async function getManuscriptTitle(manuscriptId: string): Promise<string> {

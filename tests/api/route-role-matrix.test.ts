@@ -7,6 +7,8 @@ import { API_OPERATIONS, type ApiOperation } from "@/lib/http/api-catalogue";
 import { createApiToken } from "@/lib/server/api-tokens";
 import { newId } from "@/lib/server/crypto";
 import { call, setupTestApp, uploadForm, type Who } from "./harness";
+import { plainDoc } from "@/lib/review/rich-text";
+import { createThread, replyToThread } from "@/lib/server/review/threads";
 import { routeFiles } from "./route-files";
 
 type Caller = Who | "anonymous";
@@ -73,8 +75,29 @@ const FIXTURES: Record<string, Fixture> = {
   },
   "GET /api/revisions/{id}": async () => ({ params: { id: sample.revisionId } }),
   "GET /api/figures/{id}/trace": async () => ({ params: { id: sample.figureId } }),
+  "GET /api/panels/{id}/threads": async () => ({ params: { id: sample.reviewPanelId } }),
+  "POST /api/panels/{id}/threads": async () => ({ params: { id: sample.reviewPanelId }, body: { body: plainDoc("walk"), revisionId: sample.reviewRevisionId } }),
+  "POST /api/threads/{id}/comments": async () => ({ params: { id: sample.threadId }, body: { body: plainDoc("reply") } }),
+  "POST /api/threads/{id}/resolve": async () => ({ params: { id: sample.threadId }, body: { reopen: true } }),
+  "PATCH /api/comments/{id}": async (who) => ({ params: { id: await commentBy(who) }, body: { body: plainDoc("edited") } }),
+  "DELETE /api/comments/{id}": async (who) => ({ params: { id: await commentBy(who) } }),
+  "POST /api/panels/{id}/approvals": async () => ({ params: { id: sample.reviewPanelId }, body: { revisionId: sample.reviewRevisionId, decision: "approved" } }),
+  "POST /api/figures/{id}/signoff": async () => {
+    const f = (await call((await import("@/app/api/figures/[id]/route")).GET, { token: tokens.pi, params: { id: sample.reviewFigureId } })).json;
+    return { params: { id: sample.reviewFigureId }, body: { figureHash: f.figureHash, reason: "walk" } };
+  },
+  "GET /api/review-queue": async () => ({}),
+  "GET /api/manuscripts/{id}/activity": async () => ({ params: { id: DEMO_MANUSCRIPT_ID } }),
   "POST /api/calculators/{id}": async () => ({ params: { id: "odmr-field-from-pair" }, body: { inputs: { f_minus: 2750, f_plus: 2990 } } }),
 };
+
+const PI = { id: "demo-pi", email: "pi@lab.example.org", name: "Mira Halvorsen" };
+/** A fresh comment written by the caller when their role may comment (else by the PI), so edits and deletes act on one's own. */
+async function commentBy(who: Caller): Promise<string> {
+  const a = ["pi", "author", "reviewer"].includes(who) ? userOf(who) : PI;
+  const t = await replyToThread({ id: a.id, email: a.email, name: a.name }, sample.threadId, { body: plainDoc(`by ${who}`) });
+  return t.comments.at(-1)!.id;
+}
 
 /** What the policy says each caller must get. Lab-scoped creation: only lab members may create in the demo lab. */
 // Body-scoped routes (POST /api/analyses) resolve the manuscript from the body: outsiders get 404 there too.
@@ -89,7 +112,7 @@ function expected(op: ApiOperation, who: Caller): "ok" | 401 | 403 | 404 {
 }
 
 let tokens: Record<Who, string>;
-const sample = { datasetId: "", versionId: "", fitVersionId: "", analysisId: "", figureId: "", panelIds: [] as string[], revisionId: "" };
+const sample = { datasetId: "", versionId: "", fitVersionId: "", analysisId: "", figureId: "", panelIds: [] as string[], revisionId: "", reviewPanelId: "", reviewRevisionId: "", reviewFigureId: "", threadId: "" };
 const SPEC = { $schema: "https://vega.github.io/schema/vega-lite/v6.json", data: { name: "t1" }, mark: "point", encoding: { x: { field: "wait", type: "quantitative" }, y: { field: "p", type: "quantitative" } } };
 const T1_CSV = "wait (ms),p\n" + Array.from({ length: 30 }, (_, i) => { const t = 0.05 * 1.25 ** i; return `${t},${(0.7 + 0.3 * Math.exp(-t / 4) + 0.002 * Math.sin(7 * i)).toFixed(5)}`; }).join("\n");
 const fitBody = () => ({ versionId: sample.fitVersionId, model: "relaxation", options: { x: "wait", y: "p" } });
@@ -109,6 +132,16 @@ beforeAll(async () => {
   const revise = (await import("@/app/api/panels/[id]/revisions/route")).POST;
   const rev = await call(revise, { method: "POST", token: tokens.author, params: { id: sample.panelIds[0]! }, body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null } });
   sample.revisionId = rev.json.id;
+  // A panel whose revision none of the walking callers made, so every allowed role may decide on it.
+  const walker = { id: "walk-author", email: "walk-author@lab.example.org", name: "Walk Author" };
+  await getDb().insert(users).values(walker);
+  await getDb().insert(manuscriptMembers).values({ manuscriptId: DEMO_MANUSCRIPT_ID, userId: walker.id, role: "author" });
+  const walkerToken = (await createApiToken(walker, { name: "walk" })).token;
+  const fig2 = await call((await import("@/app/api/figures/route")).POST, { method: "POST", token: walkerToken, body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Review walk" } });
+  sample.reviewFigureId = fig2.json.id;
+  sample.reviewPanelId = (await call(addPanel, { method: "POST", token: walkerToken, params: { id: fig2.json.id }, body: {} })).json.id;
+  sample.reviewRevisionId = (await call(revise, { method: "POST", token: walkerToken, params: { id: sample.reviewPanelId }, body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null } })).json.id;
+  sample.threadId = (await createThread(PI, sample.reviewPanelId, { body: plainDoc("Is the baseline flat?"), revisionId: sample.reviewRevisionId })).id;
 });
 
 describe("every route × every role", () => {

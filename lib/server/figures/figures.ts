@@ -1,12 +1,13 @@
-import { and, asc, eq, inArray, max } from "drizzle-orm";
+import { and, eq, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { figures, panels, revisions } from "@/db/schema";
+import { figures, panels, type Role } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
 import { badRequest, notFound } from "../errors";
 import { createFigureInput, reorderInput, updateFigureInput } from "./schemas";
-import { letterFor, manuscriptOfFigure } from "./scope";
+import { manuscriptOfFigure } from "./scope";
+import { loadReviewContext, type FigureReview } from "../review/review-context";
 import { z } from "zod";
 
 export async function createFigure(user: SessionUser, raw: z.infer<typeof createFigureInput>) {
@@ -35,32 +36,29 @@ export async function updateFigure(user: SessionUser, figureId: string, raw: z.i
   return getFigure(user, figureId);
 }
 
-/** A figure with its panels in order, each with its letter and current revision. */
+/** A figure with its panels in order, each with its letter, current revision and derived review state. */
 export async function getFigure(user: SessionUser, figureId: string) {
   const manuscriptId = await manuscriptOfFigure(figureId);
   const role = await authorize(user, "manuscript.read", manuscriptId);
-  const [f] = await getDb().select().from(figures).where(eq(figures.id, figureId));
-  if (!f) throw notFound();
-  const ps = await getDb().select().from(panels).where(eq(panels.figureId, figureId)).orderBy(asc(panels.position));
-  const revIds = ps.map((p) => p.currentRevisionId).filter((x): x is string => Boolean(x));
-  const revs = revIds.length ? await getDb().select().from(revisions).where(inArray(revisions.id, revIds)) : [];
+  const [review] = await loadReviewContext({ figureId });
+  if (!review) throw notFound();
+  return presentFigure(review, role);
+}
+
+function presentFigure(review: FigureReview, role: Role | null) {
   return {
-    ...f, role,
-    panels: ps.map((p, i) => {
-      const rev = revs.find((r) => r.id === p.currentRevisionId);
-      return {
-        id: p.id, letter: letterFor(i), title: p.title, colSpan: p.colSpan, position: p.position,
-        currentRevision: rev ? { id: rev.id, number: rev.number, contentHash: rev.contentHash, message: rev.message, createdAt: rev.createdAt, createdBy: rev.createdBy } : null,
-        reviewState: rev ? ("in_review" as const) : ("draft" as const),
-      };
-    }),
+    ...review.figure, role, figureHash: review.figureHash, reviewState: review.state, signoffs: review.signoffs,
+    panels: review.panels.map((p) => ({
+      id: p.panel.id, letter: p.letter, title: p.panel.title, colSpan: p.panel.colSpan, position: p.panel.position,
+      currentRevision: p.revision ? { id: p.revision.id, number: p.revision.number, contentHash: p.revision.contentHash, message: p.revision.message, createdAt: p.revision.createdAt, createdBy: p.revision.createdBy } : null,
+      reviewState: p.state, approvedBy: p.approvedBy, needsRevisionBy: p.needsRevisionBy, waitingOn: p.waitingOn, openThreads: p.openThreads,
+    })),
   };
 }
 
 export async function listFiguresForManuscript(user: SessionUser, manuscriptId: string) {
-  await authorize(user, "manuscript.read", manuscriptId);
-  const fs = await getDb().select({ id: figures.id }).from(figures).where(eq(figures.manuscriptId, manuscriptId)).orderBy(asc(figures.number));
-  return Promise.all(fs.map((f) => getFigure(user, f.id)));
+  const role = await authorize(user, "manuscript.read", manuscriptId);
+  return (await loadReviewContext({ manuscriptId })).map((r) => presentFigure(r, role));
 }
 
 /** Reorders panels; letters follow the new order. */

@@ -8,6 +8,8 @@ import { newId } from "../crypto";
 import { notFound } from "../errors";
 import { addPanelInput } from "./schemas";
 import { letterFor, manuscriptOfFigure, manuscriptOfPanel } from "./scope";
+import { loadReviewContext } from "../review/review-context";
+import { describeChanges } from "../review/what-changed";
 
 export async function addPanel(user: SessionUser, figureId: string, raw: z.infer<typeof addPanelInput>) {
   const manuscriptId = await manuscriptOfFigure(figureId);
@@ -29,11 +31,19 @@ export async function getPanel(user: SessionUser, panelId: string) {
   if (!p) throw notFound();
   const siblings = await getDb().select({ id: panels.id }).from(panels).where(eq(panels.figureId, p.figureId)).orderBy(asc(panels.position));
   const [rev] = p.currentRevisionId ? await getDb().select().from(revisions).where(eq(revisions.id, p.currentRevisionId)) : [];
+  const [review] = await loadReviewContext({ figureId: p.figureId });
+  const view = review!.panels.find((x) => x.panel.id === panelId)!;
+  const decided = await Promise.all(view.decisions.map(async (d) => {
+    if (!d.stale || !rev) return { ...d, changes: [] };
+    const [old] = await getDb().select().from(revisions).where(eq(revisions.id, d.revisionId));
+    return { ...d, changes: await describeChanges(old!, rev) };
+  }));
   return {
     ...p, manuscriptId, role, letter: letterFor(siblings.findIndex((s) => s.id === p.id)),
     currentRevision: rev ? { ...rev, spec: JSON.parse(rev.spec) as unknown } : null,
-    reviewState: rev ? "in_review" : "draft",
-    decisions: [] as unknown[],
+    reviewState: view.state, approvedBy: view.approvedBy, needsRevisionBy: view.needsRevisionBy, waitingOn: view.waitingOn,
+    openThreads: view.openThreads, figure: { id: review!.figure.id, number: review!.figure.number, title: review!.figure.title, figureHash: review!.figureHash, state: review!.state },
+    decisions: decided,
   };
 }
 

@@ -1,0 +1,17 @@
+/**
+ * A whole figure as one SVG: panels on a grid, each with its letter in bold 8 pt Inter at the top
+ * left, root sized in mm. Implementation in ./worker/compose-core.mjs (shared with the worker).
+ */
+import { composeFigureCore, type ComposedFigure, type FigureLayout, type PanelSvg } from "./worker/compose-core.mjs";
+
+export { cellWidthMm, type ComposedFigure, type FigureLayout, type PanelSvg } from "./worker/compose-core.mjs";
+
+/** The composed figure with its physical size. */
+export function composeFigure(panels: PanelSvg[], layout: FigureLayout, widthMm: number): ComposedFigure {
+  return composeFigureCore(panels, layout, widthMm);
+}
+
+/** The composed figure's SVG text. */
+export function composeFigureSvg(panels: PanelSvg[], layout: FigureLayout, widthMm: number): string {
+  return composeFigureCore(panels, layout, widthMm).svg;
+}

@@ -1,0 +1,210 @@
+/**
+ * Vega-Lite → SVG at physical size. Plain JavaScript (typed by render-core.d.mts) because the
+ * render worker loads it directly with Node, in tests and in the Next.js production server alike.
+ *
+ * Safety: the loader refuses every load (recorded, then the render fails), expressions run in
+ * vega-interpreter (no code generation), and the caller runs this in a worker with a time and
+ * memory budget. Units: SVG user units are points (1 mm = 72/25.4 pt); the root element carries
+ * the physical size in mm and a viewBox in pt.
+ */
+import * as vega from "vega";
+import { compile } from "vega-lite";
+import { expressionInterpreter } from "vega-interpreter";
+
+export const PT_PER_MM = 72 / 25.4;
+
+export class RenderError extends Error {
+  /** @param {string} code @param {string} message */
+  constructor(code, message) {
+    super(message);
+    this.name = "RenderError";
+    this.code = code;
+  }
+}
+
+const COMPOSITE_KEYS = ["vconcat", "hconcat", "concat", "facet", "repeat"];
+
+/** A Vega loader whose every entry point refuses, remembering what was asked for. */
+export function refusingLoader(refusals) {
+  const loader = vega.loader();
+  const refuse = (what) => async (uri) => {
+    refusals.push(`${what}: ${typeof uri === "string" ? uri : JSON.stringify(uri)}`);
+    throw new Error("Prooflight renders bound data only; loading is disabled");
+  };
+  loader.load = refuse("load");
+  loader.sanitize = refuse("sanitize");
+  loader.http = refuse("http");
+  loader.file = refuse("file");
+  return loader;
+}
+
+function collectingLogger(messages) {
+  let level = 2;
+  const logger = {
+    level(l) {
+      if (l === undefined) return level;
+      level = l;
+      return logger;
+    },
+    error(...args) { messages.push(args.map(String).join(" ")); return logger; },
+    warn(...args) { messages.push(args.map(String).join(" ")); return logger; },
+    info() { return logger; },
+    debug() { return logger; },
+  };
+  return logger;
+}
+
+const isSpecNode = (o) => o && typeof o === "object" && !Array.isArray(o) &&
+  ["mark", "layer", "spec", ...COMPOSITE_KEYS].some((k) => k in o);
+
+/** Copies a Vega-Lite spec with every view's numeric width/height multiplied (composite specs). */
+function scaleViewSizes(node, kx, ky) {
+  if (Array.isArray(node)) return node.map((n) => scaleViewSizes(n, kx, ky));
+  if (!node || typeof node !== "object") return node;
+  const out = {};
+  for (const [k, v] of Object.entries(node)) {
+    if (k === "config" || k === "data" || k === "datasets" || k === "usermeta" || k === "encoding" || k === "mark" || k === "transform") out[k] = v;
+    else if (k === "width" && typeof v === "number" && isSpecNode(node)) out[k] = v * kx;
+    else if (k === "height" && typeof v === "number" && isSpecNode(node)) out[k] = v * ky;
+    else out[k] = scaleViewSizes(v, kx, ky);
+  }
+  return out;
+}
+
+function withFont(spec) {
+  return { ...spec, config: { ...(spec.config ?? {}), font: "Inter" } };
+}
+
+/** Names the Vega-Lite spec reads from bound data: `{ "name": … }` sources not defined in `datasets`. */
+export function boundDataNames(vlSpec) {
+  const out = new Set();
+  const walk = (node) => {
+    if (Array.isArray(node)) return node.forEach(walk);
+    if (!node || typeof node !== "object") return;
+    for (const [k, v] of Object.entries(node)) {
+      if (k === "usermeta" || k === "datasets" || k === "values") continue;
+      if (k === "data" && v && typeof v === "object" && typeof v.name === "string" && !("values" in v) && !("url" in v) && !("sequence" in v)) out.add(v.name);
+      walk(v);
+    }
+  };
+  walk(vlSpec);
+  const defined = vlSpec.datasets && typeof vlSpec.datasets === "object" ? Object.keys(vlSpec.datasets) : [];
+  return [...out].filter((n) => !defined.includes(n));
+}
+
+/** One Vega render of a Vega-Lite spec: SVG text and its natural size in user units. */
+export async function renderOnce(vlSpec, data, { warnings = [], refusals = [] } = {}) {
+  let vgSpec;
+  try {
+    vgSpec = compile(vlSpec, { logger: collectingLogger(warnings) }).spec;
+  } catch (err) {
+    throw new RenderError("invalid-spec", `Vega-Lite could not compile the spec: ${err?.message ?? err}`);
+  }
+  const names = boundDataNames(vlSpec);
+  const missing = names.filter((n) => !Array.isArray(data?.[n]));
+  if (missing.length) throw new RenderError("missing-data", `no rows are bound to ${missing.map((n) => `"${n}"`).join(", ")}`);
+  let view;
+  try {
+    const runtime = vega.parse(vgSpec, undefined, { ast: true });
+    view = new vega.View(runtime, {
+      renderer: "none", loader: refusingLoader(refusals), expr: expressionInterpreter, logger: collectingLogger(warnings),
+    });
+    for (const n of names) view.data(n, data[n]);
+    await view.runAsync();
+    if (refusals.length) throw refused(refusals);
+    const svg = await view.toSVG();
+    if (refusals.length) throw refused(refusals);
+    const size = rootSize(svg);
+    return { svg, width: size.width, height: size.height, warnings };
+  } catch (err) {
+    if (err instanceof RenderError) throw err;
+    if (refusals.length) throw refused(refusals);
+    throw new RenderError("render-failed", `Vega could not render the spec: ${err?.message ?? err}`);
+  } finally {
+    view?.finalize();
+  }
+}
+
+function refused(refusals) {
+  return new RenderError("load-refused", `the spec tried to load external resources, which is not allowed (${refusals.slice(0, 3).join("; ")})`);
+}
+
+/** width/height of the root <svg> element, in user units. */
+export function rootSize(svg) {
+  const root = /^\s*<svg\b[^>]*>/.exec(svg)?.[0] ?? "";
+  const vb = /viewBox="([^"]+)"/.exec(root)?.[1]?.trim().split(/[\s,]+/).map(Number);
+  if (vb?.length === 4 && vb.every(Number.isFinite)) return { width: vb[2], height: vb[3] };
+  const width = Number(/\swidth="([\d.]+)(?:px|pt)?"/.exec(root)?.[1]);
+  const height = Number(/\sheight="([\d.]+)(?:px|pt)?"/.exec(root)?.[1]);
+  return { width, height };
+}
+
+const fmt = (v) => String(Math.round(v * 1000) / 1000);
+
+/** Sets the root element's physical size (mm) and a viewBox of the natural size in pt. */
+export function setPhysicalSize(svg, width, height, widthMm, heightMm) {
+  return svg.replace(/^\s*<svg\b[^>]*>/, (root) => {
+    const rest = root.replace(/\s(?:width|height|viewBox)="[^"]*"/g, "").replace(/^<svg/, "").replace(/>$/, "");
+    return `<svg${rest} width="${fmt(widthMm)}mm" height="${fmt(heightMm)}mm" viewBox="0 0 ${fmt(width)} ${fmt(height)}">`;
+  });
+}
+
+function checkSize(widthMm, heightMm) {
+  if (!Number.isFinite(widthMm) || widthMm < 10 || widthMm > 1000) throw new RenderError("bad-size", "widthMm must be between 10 and 1000");
+  if (heightMm !== undefined && (!Number.isFinite(heightMm) || heightMm < 10 || heightMm > 1000)) {
+    throw new RenderError("bad-size", "heightMm must be between 10 and 1000");
+  }
+}
+
+/**
+ * Renders a Vega-Lite spec with bound data at a physical width (and optionally height).
+ * Single and layered views are sized exactly with autosize "fit"; composite views (concat,
+ * facet, repeat) are resized by scaling their view sizes (up to three renders), and any
+ * remaining difference is absorbed by the viewBox.
+ */
+export async function renderSpecToSvgCore(spec, data, { widthMm, heightMm } = {}) {
+  if (!spec || typeof spec !== "object" || Array.isArray(spec)) throw new RenderError("invalid-spec", "a spec must be a JSON object");
+  checkSize(widthMm, heightMm);
+  const targetW = widthMm * PT_PER_MM;
+  const targetH = heightMm === undefined ? undefined : heightMm * PT_PER_MM;
+  const warnings = [];
+  const base = withFont(spec);
+  let out;
+  if (!COMPOSITE_KEYS.some((k) => k in spec)) {
+    const sized = { ...base, width: targetW, autosize: { type: "fit", contains: "padding" } };
+    if (targetH !== undefined) sized.height = targetH;
+    out = await renderOnce(sized, data, { warnings });
+  } else {
+    out = await fitComposite(base, data, targetW, targetH, warnings);
+  }
+  const physicalHeightMm = heightMm ?? (out.height * widthMm) / out.width;
+  return {
+    svg: setPhysicalSize(out.svg, out.width, out.height, widthMm, physicalHeightMm),
+    widthPx: out.width,
+    heightPx: out.height,
+    widthMm,
+    heightMm: physicalHeightMm,
+    warnings: [...new Set(warnings)],
+  };
+}
+
+async function fitComposite(base, data, targetW, targetH, warnings) {
+  const render = (kx, ky) => renderOnce(scaleViewSizes(base, kx, ky), data, { warnings });
+  let k = [1, 1];
+  let r = await render(1, 1);
+  const close = (x) => Math.abs(x.width - targetW) < 0.5 && (targetH === undefined || Math.abs(x.height - targetH) < 0.5);
+  let prev = null;
+  for (let i = 0; i < 2 && !close(r); i++) {
+    const next = [secant(prev?.k[0], prev?.r.width, k[0], r.width, targetW), targetH === undefined ? 1 : secant(prev?.k[1], prev?.r.height, k[1], r.height, targetH)];
+    prev = { k, r };
+    k = next;
+    r = await render(k[0], k[1]);
+  }
+  return r;
+}
+
+/** Next guess of a size factor: proportional from one point, secant from two. */
+function secant(k0, v0, k1, v1, target) {
+  const guess = k0 === undefined || v1 === v0 ? (k1 * target) / v1 : k1 + ((target - v1) * (k1 - k0)) / (v1 - v0);
+  return Number.isFinite(guess) && guess > 0.05 ? Math.min(guess, 20) : k1;
+}

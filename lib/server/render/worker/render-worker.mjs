@@ -1,0 +1,45 @@
+/**
+ * Render worker: a child Node process (child_process.fork with IPC) that renders panels and
+ * composes figures, so the parent can kill a hostile or huge spec at its time budget and the
+ * child's --max-old-space-size caps its heap. A process rather than a worker thread: V8 aborts
+ * the whole process on some out-of-memory paths even inside a worker with resourceLimits
+ * (nodejs/node#47224), which would take the server down with the render.
+ * Started by ../render-in-worker.ts from process.cwd(); plain JavaScript, no path aliases.
+ *
+ * Messages in:  { id, kind: "panel", spec, data, size }
+ *               { id, kind: "figure", panels: [{ letter, spec, data, span? }], layout, widthMm }
+ * Messages out: { type: "ready" } once, then { id, ok: true, result } | { id, ok: false, error: { code, message } }
+ */
+import { renderSpecToSvgCore } from "./render-core.mjs";
+import { cellWidthMm, composeFigureCore } from "./compose-core.mjs";
+
+async function run(job) {
+  if (job.kind === "panel") return renderSpecToSvgCore(job.spec, job.data, job.size);
+  if (job.kind === "figure") {
+    const columns = job.layout?.columns ?? 1;
+    const rendered = [];
+    for (const p of job.panels) {
+      const widthMm = cellWidthMm(job.widthMm, columns, p.span ?? 1, job.layout?.gapMm);
+      const r = await renderSpecToSvgCore(p.spec, p.data, { widthMm, heightMm: p.heightMm });
+      rendered.push({ letter: p.letter, span: p.span, svg: r.svg, widthPx: r.widthPx, heightPx: r.heightPx, warnings: r.warnings });
+    }
+    const figure = composeFigureCore(rendered, job.layout, job.widthMm);
+    return { ...figure, warnings: rendered.flatMap((r) => r.warnings.map((w) => `${r.letter}: ${w}`)) };
+  }
+  throw Object.assign(new Error(`unknown job kind ${job.kind}`), { code: "worker-failed" });
+}
+
+if (typeof process.send !== "function") {
+  console.error("render-worker.mjs runs as a forked child process with an IPC channel");
+  process.exit(2);
+}
+process.on("message", async (job) => {
+  try {
+    const result = await run(job);
+    process.send({ id: job.id, ok: true, result });
+  } catch (err) {
+    process.send({ id: job.id, ok: false, error: { code: err?.code ?? "render-failed", message: err?.message ?? String(err) } });
+  }
+});
+process.on("disconnect", () => process.exit(0));
+process.send({ type: "ready" });

@@ -1,0 +1,26 @@
+import sanitizeHtml from "sanitize-html";
+import { RichTextError, renderRichText } from "@/lib/review/rich-text";
+import { badRequest } from "../errors";
+
+const POLICY: sanitizeHtml.IOptions = {
+  allowedTags: ["p", "ul", "ol", "li", "pre", "code", "blockquote", "strong", "em", "s", "a", "br", "span"],
+  allowedAttributes: { a: ["href", "rel", "target"], span: ["class", "data-user"] },
+  allowedSchemes: ["http", "https", "mailto"],
+  allowProtocolRelative: false,
+  disallowedTagsMode: "escape",
+};
+
+/** Checks a Tiptap document, renders it, and passes the HTML through the allow-list sanitiser as a second wall. */
+export function prepareCommentBody(body: unknown, memberIds: Set<string>): { html: string; mentions: string[] } {
+  let rendered;
+  try {
+    rendered = renderRichText(body);
+  } catch (err) {
+    if (err instanceof RichTextError) throw badRequest(err.message);
+    throw err;
+  }
+  if (rendered.plainLength === 0) throw badRequest("body: the comment is empty.");
+  const stranger = rendered.mentions.find((m) => !memberIds.has(m));
+  if (stranger) throw badRequest(`body: @mention of "${stranger}", who is not a member of this manuscript.`);
+  return { html: sanitizeHtml(rendered.html, POLICY), mentions: rendered.mentions };
+}

@@ -1,0 +1,56 @@
+import { eq } from "drizzle-orm";
+import { z } from "zod";
+import { getDb } from "@/db/client";
+import { decisions, panels, revisions, signoffs } from "@/db/schema";
+import { authorize, type SessionUser } from "@/lib/authz";
+import { appendAudit } from "../audit";
+import { newId } from "../crypto";
+import { badRequest, conflict, forbidden, notFound } from "../errors";
+import { enqueueMail } from "../mail/outbox";
+import { manuscriptOfFigure, manuscriptOfPanel } from "../figures/scope";
+import { loadReviewContext } from "./review-context";
+import { decisionInput, signoffInput } from "./schemas";
+import { reviewMail } from "./review-mail";
+
+/**
+ * A review decision on a revision's content hash. Reviewers, the PI and authors other than the
+ * revision's creator decide; nobody approves their own revision; only the current revision counts.
+ */
+export async function recordDecision(user: SessionUser, panelId: string, raw: z.infer<typeof decisionInput>) {
+  const manuscriptId = await manuscriptOfPanel(panelId);
+  await authorize(user, "review.decide", manuscriptId);
+  const input = decisionInput.parse(raw);
+  const id = newId();
+  await getDb().transaction(async (tx) => {
+    const [p] = await tx.select().from(panels).where(eq(panels.id, panelId));
+    const [rev] = await tx.select().from(revisions).where(eq(revisions.id, input.revisionId));
+    if (!rev || rev.panelId !== panelId) throw badRequest("revisionId: not a revision of this panel.");
+    if (p!.currentRevisionId !== rev.id) throw conflict(`Revision ${rev.number} is no longer current; review the current revision instead.`, { currentRevisionId: p!.currentRevisionId });
+    if (rev.createdBy === user.id) throw forbidden("You made this revision; someone else must review it.");
+    await tx.insert(decisions).values({ id, panelId, revisionId: rev.id, contentHash: rev.contentHash, decision: input.decision, note: input.note ?? "", userId: user.id });
+    await appendAudit(tx, { actorId: user.id, manuscriptId, action: `review.${input.decision}`, target: `panel:${panelId}`, data: { revisionId: rev.id, contentHash: rev.contentHash, note: input.note ?? "" } });
+    if (input.decision === "needs_revision") await enqueueMail(tx, await reviewMail.needsRevision(rev.createdBy, user, panelId, input.note ?? ""));
+  });
+  return { id, panelId, revisionId: input.revisionId, decision: input.decision };
+}
+
+/** PI sign-off of the figure's current hash; with open issues only with a recorded reason. */
+export async function signOffFigure(user: SessionUser, figureId: string, raw: z.infer<typeof signoffInput>) {
+  const manuscriptId = await manuscriptOfFigure(figureId);
+  await authorize(user, "figure.signoff", manuscriptId);
+  const input = signoffInput.parse(raw);
+  const [review] = await loadReviewContext({ figureId });
+  if (!review) throw notFound();
+  if (review.figureHash !== input.figureHash)
+    throw conflict("The figure changed since you looked at it; review the current figure and sign off its new hash.", { figureHash: review.figureHash });
+  if (!review.panels.length || review.panels.some((p) => !p.revision)) throw badRequest("Every panel needs a revision before the figure can be signed off.");
+  const open = review.panels.filter((p) => p.state !== "approved").map((p) => `panel ${p.letter} is ${p.state.replace("_", " ")}`);
+  if (open.length && !input.reason) throw badRequest(`reason: open issues (${open.join("; ")}); signing off anyway needs a recorded reason.`, { open });
+  const id = newId();
+  await getDb().transaction(async (tx) => {
+    await tx.insert(signoffs).values({ id, figureId, figureHash: input.figureHash, reason: input.reason ?? "", userId: user.id });
+    await appendAudit(tx, { actorId: user.id, manuscriptId, action: "figure.signoff", target: `figure:${figureId}`, data: { figureHash: input.figureHash, reason: input.reason ?? "", open } });
+  });
+  return { id, figureId, figureHash: input.figureHash, openIssues: open };
+}
+

@@ -1,0 +1,152 @@
+import { and, asc, eq, inArray } from "drizzle-orm";
+import { z } from "zod";
+import type { Transaction } from "@/db/client";
+import { getDb } from "@/db/client";
+import { commentEdits, comments, manuscriptMembers, revisions, threads, users } from "@/db/schema";
+import { authorize, type SessionUser } from "@/lib/authz";
+import { appendAudit } from "../audit";
+import { newId } from "../crypto";
+import { badRequest, conflict, forbidden, notFound } from "../errors";
+import { deliverOutbox, enqueueMail } from "../mail/outbox";
+import { manuscriptOfPanel } from "../figures/scope";
+import { prepareCommentBody } from "./comment-body";
+import { reviewMail } from "./review-mail";
+import { editCommentInput, newThreadInput, replyInput } from "./schemas";
+
+const EDIT_WINDOW_MS = 15 * 60 * 1000;
+
+async function memberIds(manuscriptId: string) {
+  const rows = await getDb().select({ id: manuscriptMembers.userId }).from(manuscriptMembers).where(eq(manuscriptMembers.manuscriptId, manuscriptId));
+  return new Set(rows.map((r) => r.id));
+}
+
+export async function threadContext(threadId: string) {
+  const [t] = await getDb().select().from(threads).where(eq(threads.id, threadId));
+  if (!t) throw notFound();
+  return { thread: t, manuscriptId: await manuscriptOfPanel(t.panelId) };
+}
+export const manuscriptOfThread = async (threadId: string) => (await threadContext(threadId)).manuscriptId;
+
+async function insertComment(tx: Transaction, user: SessionUser, threadId: string, panelId: string, manuscriptId: string, prepared: { html: string; mentions: string[] }, body: Record<string, unknown>, clientKey?: string) {
+  const id = newId();
+  await tx.insert(comments).values({ id, threadId, body, html: prepared.html, mentions: prepared.mentions, clientKey: clientKey ?? null, createdBy: user.id });
+  await appendAudit(tx, { actorId: user.id, manuscriptId, action: "comment.create", target: `comment:${id}`, data: { threadId, mentions: prepared.mentions } });
+  const excerpt = prepared.html.replace(/<[^>]+>/g, " ").replace(/\s+/g, " ").trim().slice(0, 300);
+  for (const m of prepared.mentions.filter((m) => m !== user.id)) await enqueueMail(tx, await reviewMail.mention(m, user, panelId, excerpt));
+  return id;
+}
+
+/** A retried post with the same clientKey answers the comment already stored instead of a duplicate. */
+async function existingByClientKey(user: SessionUser, clientKey?: string) {
+  if (!clientKey) return null;
+  const [c] = await getDb().select().from(comments).where(and(eq(comments.createdBy, user.id), eq(comments.clientKey, clientKey)));
+  return c ?? null;
+}
+
+export async function createThread(user: SessionUser, panelId: string, raw: z.infer<typeof newThreadInput>) {
+  const manuscriptId = await manuscriptOfPanel(panelId);
+  await authorize(user, "comment.write", manuscriptId);
+  const input = newThreadInput.parse(raw);
+  const again = await existingByClientKey(user, input.clientKey);
+  if (again) return getThread(user, again.threadId);
+  const [rev] = await getDb().select({ panelId: revisions.panelId }).from(revisions).where(eq(revisions.id, input.revisionId));
+  if (!rev || rev.panelId !== panelId) throw badRequest("revisionId: not a revision of this panel.");
+  if (input.anchor?.type === "xrange" && !(input.anchor.x0 < input.anchor.x1)) throw badRequest("anchor: x0 must be below x1.");
+  const prepared = prepareCommentBody(input.body, await memberIds(manuscriptId));
+  const id = newId();
+  await getDb().transaction(async (tx) => {
+    await tx.insert(threads).values({ id, panelId, revisionId: input.revisionId, anchor: input.anchor ?? null, createdBy: user.id });
+    await insertComment(tx, user, id, panelId, manuscriptId, prepared, input.body, input.clientKey);
+  });
+  void deliverOutbox().catch(() => undefined);
+  return getThread(user, id);
+}
+
+export async function replyToThread(user: SessionUser, threadId: string, raw: z.infer<typeof replyInput>) {
+  const { thread, manuscriptId } = await threadContext(threadId);
+  await authorize(user, "comment.write", manuscriptId);
+  const input = replyInput.parse(raw);
+  const again = await existingByClientKey(user, input.clientKey);
+  if (again) return getThread(user, threadId);
+  const prepared = prepareCommentBody(input.body, await memberIds(manuscriptId));
+  await getDb().transaction(async (tx) => {
+    await insertComment(tx, user, threadId, thread.panelId, manuscriptId, prepared, input.body, input.clientKey);
+  });
+  void deliverOutbox().catch(() => undefined);
+  return getThread(user, threadId);
+}
+
+export async function setThreadResolved(user: SessionUser, threadId: string, resolved: boolean) {
+  const { manuscriptId } = await threadContext(threadId);
+  await authorize(user, "comment.write", manuscriptId);
+  await getDb().transaction(async (tx) => {
+    await tx.update(threads).set(resolved ? { resolvedAt: new Date(), resolvedBy: user.id } : { resolvedAt: null, resolvedBy: null }).where(eq(threads.id, threadId));
+    await appendAudit(tx, { actorId: user.id, manuscriptId, action: resolved ? "thread.resolve" : "thread.reopen", target: `thread:${threadId}` });
+  });
+  return getThread(user, threadId);
+}
+
+async function ownComment(user: SessionUser, commentId: string) {
+  const [c] = await getDb().select().from(comments).where(eq(comments.id, commentId));
+  if (!c || c.deletedAt) throw notFound();
+  const { manuscriptId } = await threadContext(c.threadId);
+  await authorize(user, "comment.write", manuscriptId);
+  if (c.createdBy !== user.id) throw forbidden("Only the author of a comment may change it.");
+  return { c, manuscriptId };
+}
+
+/** Edits within 15 minutes of posting; the previous text is kept in the edit history. */
+export async function editComment(user: SessionUser, commentId: string, raw: z.infer<typeof editCommentInput>) {
+  const { c, manuscriptId } = await ownComment(user, commentId);
+  const input = editCommentInput.parse(raw);
+  if (Date.now() - c.createdAt.getTime() > EDIT_WINDOW_MS) throw forbidden("Comments can be edited for 15 minutes after posting; reply instead.");
+  if (input.baseEditedAt !== undefined && (c.editedAt?.getTime() ?? null) !== input.baseEditedAt) throw conflict("This comment was edited since you opened it. Reload to see the current text.");
+  const prepared = prepareCommentBody(input.body, await memberIds(manuscriptId));
+  await getDb().transaction(async (tx) => {
+    await tx.insert(commentEdits).values({ id: newId(), commentId, body: c.body, html: c.html, replacedAt: new Date() });
+    await tx.update(comments).set({ body: input.body, html: prepared.html, mentions: prepared.mentions, editedAt: new Date() }).where(eq(comments.id, commentId));
+    await appendAudit(tx, { actorId: user.id, manuscriptId, action: "comment.edit", target: `comment:${commentId}` });
+  });
+  return getThread(user, c.threadId);
+}
+
+/** Only the author, and only while nobody has replied after it. */
+export async function deleteComment(user: SessionUser, commentId: string) {
+  const { c, manuscriptId } = await ownComment(user, commentId);
+  const later = await getDb().select({ id: comments.id, at: comments.createdAt }).from(comments).where(eq(comments.threadId, c.threadId));
+  if (later.some((o) => o.id !== c.id && o.at >= c.createdAt)) throw conflict("Someone has replied, so this comment stays; edit it or reply instead.");
+  await getDb().transaction(async (tx) => {
+    await tx.update(comments).set({ deletedAt: new Date() }).where(eq(comments.id, commentId));
+    await appendAudit(tx, { actorId: user.id, manuscriptId, action: "comment.delete", target: `comment:${commentId}` });
+  });
+  return { ok: true };
+}
+
+export async function getThread(user: SessionUser, threadId: string) {
+  const { thread } = await threadContext(threadId);
+  return (await listThreadsWhere(user, thread.panelId, [threadId]))[0]!;
+}
+
+export async function listThreads(user: SessionUser, panelId: string) {
+  return listThreadsWhere(user, panelId);
+}
+
+async function listThreadsWhere(user: SessionUser, panelId: string, only?: string[]) {
+  await authorize(user, "manuscript.read", await manuscriptOfPanel(panelId));
+  const ts = await getDb().select({ t: threads, rev: revisions.number }).from(threads).innerJoin(revisions, eq(revisions.id, threads.revisionId))
+    .where(only ? inArray(threads.id, only) : eq(threads.panelId, panelId)).orderBy(asc(threads.createdAt));
+  const cs = ts.length ? await getDb().select({ c: comments, name: users.name }).from(comments).innerJoin(users, eq(users.id, comments.createdBy))
+    .where(inArray(comments.threadId, ts.map((t) => t.t.id))).orderBy(asc(comments.createdAt)) : [];
+  return ts.map(({ t, rev }) => ({
+    ...t, revisionNumber: rev, status: t.resolvedAt ? "resolved" : "open",
+    comments: cs.filter(({ c }) => c.threadId === t.id && !c.deletedAt).map(({ c, name }) => ({
+      id: c.id, body: c.body, html: c.html, mentions: c.mentions, createdBy: c.createdBy, authorName: name, createdAt: c.createdAt, editedAt: c.editedAt,
+    })),
+  }));
+}
+
+export async function manuscriptOfComment(commentId: string): Promise<string> {
+  const [c] = await getDb().select({ threadId: comments.threadId }).from(comments).where(eq(comments.id, commentId));
+  if (!c) throw notFound();
+  return manuscriptOfThread(c.threadId);
+}
