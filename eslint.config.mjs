@@ -1,12 +1,14 @@
 import js from "@eslint/js";
 import tseslint from "typescript-eslint";
 import drizzle from "eslint-plugin-drizzle";
+import globals from "globals";
 
 const pureCore = ["lib/analysis/**", "lib/physics/**", "lib/data/**"];
 
 export default tseslint.config(
   { ignores: [".next/**", "node_modules/**", "bench/results/**", "test-results/**", "playwright-report/**", ".test-work/**", "next-env.d.ts", "db/migrations/**"] },
   js.configs.recommended,
+  { files: ["**/*.mjs", "scripts/**", "bench/**"], languageOptions: { globals: { ...globals.node } } },
   ...tseslint.configs.recommended,
   {
     rules: {
