@@ -70,6 +70,7 @@ export const API_OPERATIONS: ApiOperation[] = [
   { method: "GET", path: "/api/panels/{id}/revisions", permission: "manuscript.read", summary: "A panel's revisions, newest first", success: 200 },
   { method: "POST", path: "/api/panels/{id}/revisions", permission: "figure.edit", summary: "New revision (409 when baseRevisionId is not current)", body: revisionInput, success: 201 },
   { method: "GET", path: "/api/revisions/{id}", permission: "manuscript.read", summary: "One revision with its canonical spec and bindings", success: 200 },
+  { method: "GET", path: "/api/revisions/{id}/data", permission: "manuscript.read", summary: "Bound rows for display (long series reduced, extremes kept)", success: 200 },
   { method: "GET", path: "/api/figures/{id}/trace", permission: "manuscript.read", summary: "Provenance chain with every hash", success: 200 },
   { method: "GET", path: "/api/panels/{id}/threads", permission: "manuscript.read", summary: "Threads on a panel with their comments", success: 200 },
   { method: "POST", path: "/api/panels/{id}/threads", permission: "comment.write", summary: "Start a thread on a revision (optional anchor)", body: newThreadInput, success: 201 },

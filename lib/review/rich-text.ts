@@ -89,6 +89,6 @@ export function renderRichText(doc: unknown): { html: string; mentions: string[]
 }
 
 /** A plain-text comment as a document, for scripts and tests. */
-export function plainDoc(text: string): RichTextNode {
+export function plainDoc(text: string): RichTextNode & Record<string, unknown> {
   return { type: "doc", content: text.split(/\n{2,}/).map((p) => ({ type: "paragraph", content: p ? [{ type: "text", text: p }] : [] })) };
 }

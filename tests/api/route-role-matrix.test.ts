@@ -74,6 +74,7 @@ const FIXTURES: Record<string, Fixture> = {
     return { params: { id: sample.panelIds[1]! }, body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: current?.id ?? null, message: "walk" } };
   },
   "GET /api/revisions/{id}": async () => ({ params: { id: sample.revisionId } }),
+  "GET /api/revisions/{id}/data": async () => ({ params: { id: sample.revisionId } }),
   "GET /api/figures/{id}/trace": async () => ({ params: { id: sample.figureId } }),
   "GET /api/panels/{id}/threads": async () => ({ params: { id: sample.reviewPanelId } }),
   "POST /api/panels/{id}/threads": async () => ({ params: { id: sample.reviewPanelId }, body: { body: plainDoc("walk"), revisionId: sample.reviewRevisionId } }),

@@ -1,0 +1,19 @@
+import { describe, expect, it } from "vitest";
+import { reduceRowsForDisplay } from "@/lib/server/figures/display-data";
+
+describe("rows reduced for display", () => {
+  it("keeps short tables whole", () => {
+    const rows = Array.from({ length: 100 }, (_, i) => ({ f: i, pl: 1 }));
+    expect(reduceRowsForDisplay(rows)).toMatchObject({ reduced: false, sourceRows: 100 });
+  });
+
+  it("keeps a one-point ODMR dip in 200,000 rows and every column's extremes", () => {
+    const rows = Array.from({ length: 200_000 }, (_, i) => ({ f: 2800 + i * 1e-3, pl: i === 123_457 ? 0.7 : 1 + 1e-4 * Math.sin(i), other: i === 5 ? 9 : 0 }));
+    const r = reduceRowsForDisplay(rows);
+    expect(r.reduced).toBe(true);
+    expect(r.rows.length).toBeLessThanOrEqual(8002);
+    expect(Math.min(...r.rows.map((x) => x.pl))).toBe(0.7);
+    expect(Math.max(...r.rows.map((x) => x.other))).toBe(9);
+    expect(r.rows.every((x, i) => i === 0 || x.f >= r.rows[i - 1]!.f)).toBe(true);
+  });
+});
