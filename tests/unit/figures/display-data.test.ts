@@ -12,8 +12,8 @@ describe("rows reduced for display", () => {
     const r = reduceRowsForDisplay(rows);
     expect(r.reduced).toBe(true);
     expect(r.rows.length).toBeLessThanOrEqual(8002);
-    expect(Math.min(...r.rows.map((x) => x.pl))).toBe(0.7);
-    expect(Math.max(...r.rows.map((x) => x.other))).toBe(9);
-    expect(r.rows.every((x, i) => i === 0 || x.f >= r.rows[i - 1]!.f)).toBe(true);
+    expect(Math.min(...r.rows.map((x) => x.pl as number))).toBe(0.7);
+    expect(Math.max(...r.rows.map((x) => x.other as number))).toBe(9);
+    expect(r.rows.every((x, i) => i === 0 || (x.f as number) >= (r.rows[i - 1]!.f as number))).toBe(true);
   });
 });
