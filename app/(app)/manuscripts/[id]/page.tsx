@@ -12,7 +12,10 @@ export default async function ManuscriptPage({ params }: { params: Promise<{ id:
       <PageHeader
         title={m.title}
         subtitle={<>{m.labName} · your role <RoleBadge role={m.role!} /></>}
-        actions={<Link href={`/manuscripts/${m.id}/members`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Members ({m.members.length})</Link>}
+        actions={<>
+          <Link href={`/manuscripts/${m.id}/analyses`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Analyses</Link>
+          <Link href={`/manuscripts/${m.id}/members`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Members ({m.members.length})</Link>
+        </>}
       />
       <div className="grid gap-6 lg:grid-cols-[1fr_280px]">
         <section aria-labelledby="figures-heading">
@@ -21,7 +24,7 @@ export default async function ManuscriptPage({ params }: { params: Promise<{ id:
         </section>
         <Sheet>
           <h2 className="text-sm font-semibold">Data</h2>
-          <p className="mt-1 text-sm text-muted">{m.datasetCount} dataset{m.datasetCount === 1 ? "" : "s"}</p>
+          <p className="mt-1 text-sm"><Link href={`/manuscripts/${m.id}/data`} className="text-accent underline">{m.datasetCount} dataset{m.datasetCount === 1 ? "" : "s"} — open the Data page →</Link></p>
           <h2 className="mt-5 text-sm font-semibold">People</h2>
           <ul className="mt-2 space-y-1.5 text-sm">
             {m.members.map((p) => (

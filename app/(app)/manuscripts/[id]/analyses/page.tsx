@@ -1,0 +1,39 @@
+import Link from "next/link";
+import { AnalysesWorkspace } from "@/components/analysis/analyses-workspace";
+import type { BatchDataset } from "@/components/analysis/batch-types";
+import { EstimateCaution } from "@/components/analysis/estimate-caution";
+import { PageHeader, RoleBadge } from "@/components/ui";
+import { roleAllows } from "@/lib/authz/policy";
+import { loadOrNotFound, requireUser } from "@/lib/http/session";
+import { analysisCatalogue } from "@/lib/server/analyses/catalogue";
+import { listDatasets } from "@/lib/server/datasets/read-datasets";
+import { getManuscript } from "@/lib/server/manuscripts";
+
+export const metadata = { title: "Analyses" };
+
+/** Tags the service writes on derived datasets; they say where a fit came from, not how to group centres. */
+const DERIVED_TAGS = new Set(["derivedFrom", "model"]);
+
+export default async function AnalysesPage({ params }: { params: Promise<{ id: string }> }) {
+  const user = await requireUser();
+  const { id } = await params;
+  const m = await loadOrNotFound(() => getManuscript(user, id));
+  const all = await listDatasets(user, id);
+  const sources: BatchDataset[] = all.filter((d) => !d.tags.derivedFrom && d.latestVersion).map((d) => ({
+    id: d.id, name: d.name, kind: d.kind, sample: d.sample, instrument: d.instrument, tags: d.tags,
+    versionId: d.latestVersion!.id, versionNumber: d.latestVersion!.number, columns: d.latestVersion!.columns,
+  }));
+  const tagKeys = [...new Set(sources.flatMap((d) => Object.keys(d.tags)))].filter((k) => !DERIVED_TAGS.has(k)).sort();
+  const groupings = [...tagKeys, ...["kind", "sample", "instrument"].filter((k) => !tagKeys.includes(k))];
+  const mayRun = m.role ? roleAllows(m.role, "analysis.run") : false;
+  return (
+    <>
+      <PageHeader
+        title="Analyses"
+        subtitle={<><Link href={`/manuscripts/${m.id}`} className="underline">← {m.title}</Link>{m.role ? <> · your role <RoleBadge role={m.role} /></> : null}</>}
+      />
+      <EstimateCaution />
+      <AnalysesWorkspace manuscriptId={m.id} datasets={sources} models={analysisCatalogue().items} groupings={groupings} mayRun={mayRun} />
+    </>
+  );
+}

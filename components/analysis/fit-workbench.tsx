@@ -1,0 +1,148 @@
+"use client";
+import Link from "next/link";
+import { useQuery, useQueryClient } from "@tanstack/react-query";
+import { useMemo, useState } from "react";
+import { Button, Notice, Sheet } from "@/components/ui";
+import { resolveUnit } from "@/lib/server/analyses/units";
+import { ApiError, fetchJson, postJson, type FitOptions, type FitResult, type ModelInfo, type SavedRun, type StoredRun } from "./api";
+import { buildOptions, defaultColumns, defaultsFrom, orderModels, type Column, type DefaultBounds, type ParamDraft } from "./fit-options";
+import { FitResultView } from "./fit-result";
+import { ColumnSelects, ModelSelect } from "./model-and-columns";
+import { ParameterInputs } from "./parameter-inputs";
+import { StoredRuns } from "./stored-runs";
+
+interface Props {
+  versionId: string; kind: string; columns: Column[]; models: ModelInfo[]; mayRun: boolean; initialRuns: StoredRun[];
+}
+
+interface Shown { key: string; run: FitResult; modelTitle: string; xName: string; yName: string }
+
+/** Choose a model and columns, adjust the parameters, fit (nothing stored), then save the run with its derived version. */
+export function FitWorkbench({ versionId, kind, columns, models, mayRun, initialRuns }: Props) {
+  const queryClient = useQueryClient();
+  const runsKey = ["version-analyses", versionId];
+  const runs = useQuery({
+    queryKey: runsKey, initialData: { items: initialRuns },
+    queryFn: () => fetchJson<{ items: StoredRun[] }>(`/api/versions/${versionId}/analyses`),
+  });
+  const [modelId, setModelId] = useState(() => (orderModels(models, kind).suggested[0] ?? models[0])?.id ?? "");
+  const [cols, setCols] = useState(() => defaultColumns(columns));
+  const [drafts, setDrafts] = useState<Record<string, ParamDraft>>({});
+  const [defaults, setDefaults] = useState<{ key: string; bounds: DefaultBounds } | null>(null);
+  const [shown, setShown] = useState<Shown | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState<"fit" | "save" | null>(null);
+  const [saved, setSaved] = useState<{ number: number; datasetId: string; id: string } | null>(null);
+
+  const model = models.find((m) => m.id === modelId);
+  const unitOf = (name: string) => columns.find((c) => c.name === name)?.unit ?? null;
+  const rows = (model?.parameters ?? []).map((p) => ({ name: p.name, description: p.description, unit: resolveUnit(p.unit, unitOf(cols.x), unitOf(cols.y)) }));
+  const dataKey = `${modelId}|${cols.x}|${cols.y}`;
+  const knownDefaults = defaults?.key === dataKey ? defaults.bounds : undefined;
+  const built = useMemo(() => buildOptions(model?.parameters ?? [], drafts, cols, knownDefaults), [model, drafts, cols, knownDefaults]);
+  const currentKey = "options" in built ? JSON.stringify({ modelId, options: built.options }) : null;
+  const lastValues = shown?.run.model === modelId ? Object.fromEntries(shown.run.parameters.map((p) => [p.name, p.value])) : undefined;
+
+  const preview = (options: FitOptions) => postJson<FitResult>("/api/analyses/preview", { versionId, model: modelId, options });
+  const learn = (run: FitResult, options: FitOptions, base: DefaultBounds | undefined): DefaultBounds => {
+    const fresh = defaultsFrom(run.parameters.filter((p) => !options.bounds?.[p.name]));
+    const merged = { ...base, ...fresh };
+    setDefaults({ key: dataKey, bounds: merged });
+    return merged;
+  };
+
+  async function fit() {
+    setBusy("fit"); setError(null); setSaved(null);
+    try {
+      let request = built;
+      let base = knownDefaults;
+      if ("needDefaults" in request) {
+        const plain = Object.fromEntries(Object.entries(drafts).map(([k, d]) => [k, { ...d, lower: "", upper: "" }]));
+        const probeOptions = buildOptions(model?.parameters ?? [], plain, cols);
+        if (!("options" in probeOptions)) throw new Error("error" in probeOptions ? probeOptions.error : "Could not read the form.");
+        const probe = await preview(probeOptions.options);
+        base = learn(probe, probeOptions.options, base);
+        request = buildOptions(model?.parameters ?? [], drafts, cols, base);
+      }
+      if ("error" in request) { setError(request.error); return; }
+      if (!("options" in request)) return;
+      const run = await preview(request.options);
+      learn(run, request.options, base);
+      setShown({ key: JSON.stringify({ modelId, options: request.options }), run, modelTitle: model?.title ?? modelId, xName: cols.x, yName: cols.y });
+    } catch (err) {
+      setError((err as Error).message);
+    } finally {
+      setBusy(null);
+    }
+  }
+
+  async function save() {
+    if (!shown) return;
+    setBusy("save"); setError(null);
+    try {
+      const run = await postJson<SavedRun>("/api/analyses", { versionId, model: shown.run.model, options: shown.run.options });
+      setShown({ ...shown, run });
+      const derived = await fetchJson<{ number: number; datasetId: string }>(`/api/versions/${run.derivedVersionId}`);
+      setSaved({ number: derived.number, datasetId: derived.datasetId, id: run.derivedVersionId });
+      await queryClient.invalidateQueries({ queryKey: runsKey });
+    } catch (err) {
+      setError(err instanceof ApiError ? err.message : (err as Error).message);
+    } finally {
+      setBusy(null);
+    }
+  }
+
+  const pickModel = (id: string) => { setModelId(id); setDrafts({}); setSaved(null); };
+  const stale = shown !== null && shown.key !== currentKey;
+
+  return (
+    <div className="space-y-6">
+      {mayRun ? (
+        <Sheet>
+          <h2 className="sr-only">Fit settings</h2>
+          <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1.3fr)]">
+            <ModelSelect models={models} kind={kind} value={modelId} onChange={pickModel} />
+            <ColumnSelects columns={columns} value={cols} onChange={(v) => { setCols(v); setSaved(null); }} />
+          </div>
+          <h3 className="mb-1 mt-5 text-sm font-semibold">Parameters</h3>
+          <p className="mb-2 text-xs text-muted">Blank start = automatic guess from the data; blank bound = the model&apos;s default (shown once you have fitted).</p>
+          <ParameterInputs rows={rows} drafts={drafts} defaults={knownDefaults} lastValues={lastValues}
+            onChange={(name, d) => { setDrafts((all) => ({ ...all, [name]: d })); setSaved(null); }} />
+          <div className="mt-4 flex flex-wrap items-center gap-3">
+            <Button type="button" onClick={fit} disabled={busy !== null || !model}>{busy === "fit" ? "Fitting…" : "Fit"}</Button>
+            <Button type="button" variant="quiet" onClick={save} disabled={busy !== null || !shown || stale}>{busy === "save" ? "Saving…" : "Save run"}</Button>
+            <span className="text-xs text-muted">
+              {!shown ? "Fit first: nothing is stored until you save." : stale ? "The settings changed since this fit; fit again before saving." : "Save stores exactly the fit shown, with a derived version."}
+            </span>
+          </div>
+          {error ? <Notice ok={false}>{error}</Notice> : null}
+          {saved ? (
+            <Notice ok>
+              Saved — <Link href={`/datasets/${saved.datasetId}?v=${saved.id}`} className="underline">derived version {saved.number}</Link> (fitted curve, data and residuals, traceable to this version).
+            </Notice>
+          ) : null}
+        </Sheet>
+      ) : (
+        <Sheet>
+          <p className="text-sm text-muted"><span aria-hidden>○ </span>You can look at the stored fits on this version. Only the PI and authors run analyses.</p>
+        </Sheet>
+      )}
+      {shown ? (
+        <section aria-labelledby="fit-result-heading">
+          <Sheet>
+            <h2 id="fit-result-heading" className="mb-3 text-lg font-semibold">
+              {shown.modelTitle}
+              <span className="ml-2 text-sm font-normal text-muted">{"id" in shown.run ? "— stored run" : "— preview, not stored"}</span>
+              {stale ? <span className="ml-2 text-sm font-normal text-warn"><span aria-hidden>⚠ </span>settings changed since this fit</span> : null}
+            </h2>
+            <FitResultView result={shown.run} modelTitle={shown.modelTitle} xName={shown.xName} yName={shown.yName} />
+          </Sheet>
+        </section>
+      ) : null}
+      <section aria-labelledby="stored-runs-heading">
+        <h2 id="stored-runs-heading" className="mb-2 text-lg font-semibold">Stored runs on this version</h2>
+        <StoredRuns runs={runs.data.items} models={models} />
+      </section>
+    </div>
+  );
+}

@@ -1,0 +1,65 @@
+"use client";
+import Link from "next/link";
+import { useQuery } from "@tanstack/react-query";
+import { EmptyState } from "@/components/ui";
+import { fetchJson, type FitParameter, type ModelInfo, type StoredResult, type StoredRun } from "./api";
+import { Converged } from "./fit-result";
+import { formatNumber, formatValueError, formatWhen } from "./format";
+
+/** The parameters worth a glance (times, rates, positions, exponents), not baselines and amplitudes in y units. */
+export function keyParameters(model: ModelInfo | undefined, params: readonly FitParameter[]): FitParameter[] {
+  if (!model) return [...params];
+  const roles = new Map(model.parameters.map((p) => [p.name, p.unit as string]));
+  const key = params.filter((p) => roles.get(p.name) !== "y");
+  return key.length ? key : [...params];
+}
+
+export function ParameterSummary({ params }: { params: readonly FitParameter[] }) {
+  return (
+    <span className="flex flex-wrap gap-x-4 gap-y-0.5">
+      {params.map((p) => (
+        <span key={p.name} className="whitespace-nowrap tabular-nums">
+          <span className="font-mono">{p.name}</span> = {formatValueError(p.value, p.fixed ? null : p.stderr)}{p.unit ? ` ${p.unit}` : ""}{p.fixed ? " (fixed)" : ""}
+        </span>
+      ))}
+    </span>
+  );
+}
+
+/** Runs stored on this version, newest first. */
+export function StoredRuns({ runs, models }: { runs: StoredRun[]; models: readonly ModelInfo[] }) {
+  if (!runs.length) return <EmptyState title="No stored runs on this version yet">A saved fit appears here with its parameters and a derived version.</EmptyState>;
+  const byId = new Map(models.map((m) => [m.id, m]));
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full border border-rule bg-sheet text-sm" aria-label="Stored runs on this version">
+        <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
+          <tr><th className="px-3 py-2">When</th><th className="px-3 py-2">Model</th><th className="px-3 py-2">Result</th><th className="px-3 py-2 normal-case">χ²ᵣ</th><th className="px-3 py-2">Solver</th><th className="px-3 py-2">Derived</th></tr>
+        </thead>
+        <tbody className="divide-y divide-rule">
+          {runs.map((r) => {
+            const result = r.result as StoredResult;
+            const model = byId.get(r.model);
+            return (
+              <tr key={r.id}>
+                <td className="whitespace-nowrap px-3 py-2 text-muted">{formatWhen(r.createdAt)}</td>
+                <td className="px-3 py-2">{model?.title ?? r.model}<span className="block text-xs text-muted">{r.model} · v{r.modelVersion}</span></td>
+                <td className="px-3 py-2"><ParameterSummary params={keyParameters(model, result.parameters ?? [])} /></td>
+                <td className="px-3 py-2 tabular-nums">{formatNumber(result.chi2red, 3)}</td>
+                <td className="whitespace-nowrap px-3 py-2"><Converged ok={result.converged} /></td>
+                <td className="whitespace-nowrap px-3 py-2">{r.derivedVersionId ? <DerivedLink versionId={r.derivedVersionId} /> : "—"}</td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+/** The derived version of a run (curve, data, residuals), linked on its dataset page. */
+function DerivedLink({ versionId }: { versionId: string }) {
+  const v = useQuery({ queryKey: ["version", versionId], queryFn: () => fetchJson<{ number: number; datasetId: string }>(`/api/versions/${versionId}`), staleTime: Infinity });
+  if (!v.data) return <span className="text-muted">…</span>;
+  return <Link href={`/datasets/${v.data.datasetId}?v=${versionId}`} className="underline">version {v.data.number}</Link>;
+}
