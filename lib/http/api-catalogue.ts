@@ -5,6 +5,7 @@ import { createManuscriptInput } from "@/lib/server/manuscripts";
 import { changeRoleInput, inviteInput } from "@/lib/server/members";
 import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schemas";
 import { analysisInput, calculatorInput, statisticsQuery } from "@/lib/server/analyses/schemas";
+import { exportQuery } from "@/lib/server/export/export-figure";
 import { decisionInput, editCommentInput, newThreadInput, replyInput, resolveInput, signoffInput } from "@/lib/server/review/schemas";
 import { addPanelInput, createFigureInput, reorderInput, revisionInput, updateFigureInput } from "@/lib/server/figures/schemas";
 
@@ -71,6 +72,7 @@ export const API_OPERATIONS: ApiOperation[] = [
   { method: "POST", path: "/api/panels/{id}/revisions", permission: "figure.edit", summary: "New revision (409 when baseRevisionId is not current)", body: revisionInput, success: 201 },
   { method: "GET", path: "/api/revisions/{id}", permission: "manuscript.read", summary: "One revision with its canonical spec and bindings", success: 200 },
   { method: "GET", path: "/api/revisions/{id}/data", permission: "manuscript.read", summary: "Bound rows for display (long series reduced, extremes kept)", success: 200 },
+  { method: "GET", path: "/api/figures/{id}/export", permission: "manuscript.export", summary: "The figure as SVG, PDF or PNG at print size; its source data; the RO-Crate bundle", query: exportQuery, success: 200 },
   { method: "GET", path: "/api/figures/{id}/trace", permission: "manuscript.read", summary: "Provenance chain with every hash", success: 200 },
   { method: "GET", path: "/api/panels/{id}/threads", permission: "manuscript.read", summary: "Threads on a panel with their comments", success: 200 },
   { method: "POST", path: "/api/panels/{id}/threads", permission: "comment.write", summary: "Start a thread on a revision (optional anchor)", body: newThreadInput, success: 201 },

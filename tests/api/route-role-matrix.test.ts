@@ -76,6 +76,7 @@ const FIXTURES: Record<string, Fixture> = {
   "GET /api/revisions/{id}": async () => ({ params: { id: sample.revisionId } }),
   "GET /api/revisions/{id}/data": async () => ({ params: { id: sample.revisionId } }),
   "GET /api/figures/{id}/trace": async () => ({ params: { id: sample.figureId } }),
+  "GET /api/figures/{id}/export": async () => ({ params: { id: sample.reviewFigureId }, query: "format=source-data" }),
   "GET /api/panels/{id}/threads": async () => ({ params: { id: sample.reviewPanelId } }),
   "POST /api/panels/{id}/threads": async () => ({ params: { id: sample.reviewPanelId }, body: { body: plainDoc("walk"), revisionId: sample.reviewRevisionId } }),
   "POST /api/threads/{id}/comments": async () => ({ params: { id: sample.threadId }, body: { body: plainDoc("reply") } }),

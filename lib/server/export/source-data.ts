@@ -1,0 +1,48 @@
+import { strToU8, zipSync } from "fflate";
+import { inArray } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { revisions } from "@/db/schema";
+import { loadBoundData } from "../figures/bindings";
+import type { FigureReview } from "../review/review-context";
+
+function csvCell(v: unknown): string {
+  if (v === null || v === undefined) return "";
+  const s = String(v);
+  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+export function rowsToCsv(rows: Array<Record<string, unknown>>): string {
+  if (!rows.length) return "";
+  const cols = Object.keys(rows[0]!);
+  return [cols.map(csvCell).join(","), ...rows.map((r) => cols.map((c) => csvCell(r[c])).join(","))].join("\n") + "\n";
+}
+
+/**
+ * The per-figure source data journals ask for: one CSV per panel and data name, every point
+ * (never downsampled), and a README naming each file's origin by hash.
+ */
+export async function sourceDataFiles(review: FigureReview): Promise<Record<string, Uint8Array>> {
+  const files: Record<string, Uint8Array> = {};
+  const readme = [`Source data for Figure ${review.figure.number}: ${review.figure.title}`, `Figure hash: ${review.figureHash}`, ""];
+  const revIds = review.panels.map((p) => p.revision?.id).filter((x): x is string => Boolean(x));
+  const revs = revIds.length ? await getDb().select().from(revisions).where(inArray(revisions.id, revIds)) : [];
+  for (const p of review.panels) {
+    const rev = revs.find((r) => r.id === p.revision?.id);
+    if (!rev) { readme.push(`Panel ${p.letter}: no revision yet.`); continue; }
+    const data = await loadBoundData(rev.bound);
+    readme.push(`Panel ${p.letter} — revision ${rev.number}, content hash ${rev.contentHash}`);
+    for (const [name, rows] of Object.entries(data)) {
+      const file = `figure-${review.figure.number}-panel-${p.letter}-${name}.csv`;
+      files[file] = strToU8(rowsToCsv(rows));
+      const b = rev.bound[name]!;
+      readme.push(`  ${file}: ${rows.length} rows from ${b.kind} ${b.id}${b.output ? ` (${b.output})` : ""}, source sha256 ${b.sha256}`);
+    }
+  }
+  files["README.txt"] = strToU8(readme.join("\n") + "\n");
+  return files;
+}
+
+export function zip(files: Record<string, Uint8Array>): Uint8Array {
+  return zipSync(Object.fromEntries(Object.entries(files).map(([k, v]) => [k, [v, { level: 6, mtime: new Date("2000-01-01T00:00:00Z") }]])));
+}
+

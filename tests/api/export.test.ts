@@ -1,0 +1,90 @@
+import { unzipSync, strFromU8 } from "fflate";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { DEMO_MANUSCRIPT_ID } from "@/db/seed";
+import { hahnEchoFiles } from "@/db/demo-data/hahn-echo";
+import { stopRenderWorkers } from "@/lib/server/render/render-in-worker";
+import * as upload from "@/app/api/manuscripts/[id]/datasets/route";
+import * as analyses from "@/app/api/analyses/route";
+import * as figuresRoute from "@/app/api/figures/route";
+import * as panelsRoute from "@/app/api/figures/[id]/panels/route";
+import * as revisions from "@/app/api/panels/[id]/revisions/route";
+import { call, setupTestApp, uploadForm, type Who } from "./harness";
+
+let tokens: Record<Who, string>;
+let figureId: string;
+const VL = "https://vega.github.io/schema/vega-lite/v6.json";
+
+async function download(path: string, who: Who = "viewer") {
+  const { GET } = await import("@/app/api/figures/[id]/export/route");
+  const res = await GET(new Request(`http://localhost${path}`, { headers: { authorization: `Bearer ${tokens[who]}` } }), { params: Promise.resolve({ id: figureId }) });
+  return { status: res.status, headers: res.headers, bytes: new Uint8Array(await res.arrayBuffer()) };
+}
+
+beforeAll(async () => {
+  ({ tokens } = await setupTestApp());
+  const echo = hahnEchoFiles()[0]!;
+  const v = (await call(upload.POST, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm(echo.fileName, echo.content) })).json;
+  const fit = (await call(analyses.POST, { method: "POST", token: tokens.author, body: { versionId: v.id, model: "hahn_echo", options: { x: "tau", y: "signal", sigma: "sigma" } } })).json;
+  figureId = (await call(figuresRoute.POST, { method: "POST", token: tokens.author, body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Coherence", widthMm: 183, columns: 2 } })).json.id;
+  const add = async () => (await call(panelsRoute.POST, { method: "POST", token: tokens.author, params: { id: figureId }, body: {} })).json.id;
+  const a = await add();
+  const b = await add();
+  const enc = { x: { field: "tau", type: "quantitative", title: "τ (µs)", scale: { type: "log" } }, y: { field: "signal", type: "quantitative", title: "signal (norm.)" } };
+  await call(revisions.POST, { method: "POST", token: tokens.author, params: { id: a }, body: { baseRevisionId: null, bindings: { echo: { versionId: v.id }, fit: { analysisId: fit.id, output: "curve" } },
+    spec: { $schema: VL, width: 200, height: 140, layer: [{ data: { name: "echo" }, mark: "point", encoding: enc }, { data: { name: "fit" }, mark: "line", encoding: enc }] } } });
+  await call(revisions.POST, { method: "POST", token: tokens.author, params: { id: b }, body: { baseRevisionId: null, bindings: { res: { analysisId: fit.id, output: "residuals" } },
+    spec: { $schema: VL, width: 200, height: 140, data: { name: "res" }, mark: "point", encoding: { x: { field: "tau", type: "quantitative", scale: { type: "log" } }, y: { field: "signal", type: "quantitative", title: "residual" } } } } });
+}, 120_000);
+afterAll(async () => { await stopRenderWorkers(); });
+
+describe("figure exports", () => {
+  it("SVG at the physical width with the panel letters and our font", async () => {
+    const r = await download(`/x?format=svg`);
+    expect(r.status).toBe(200);
+    const svg = strFromU8(r.bytes);
+    expect(svg).toMatch(/<svg[^>]*width="183mm"/);
+    expect(svg).toMatch(/font-family="?[^">]*Inter/);
+    expect(svg).toMatch(/>a<\/text>/);
+    expect(svg).toMatch(/>b<\/text>/);
+    expect(r.headers.get("x-figure-hash")).toMatch(/^[0-9a-f]{64}$/);
+  });
+
+  it("PDF sized in points, PNG with the right pixels and DPI", async () => {
+    const pdf = await download(`/x?format=pdf`);
+    expect(strFromU8(pdf.bytes.slice(0, 5))).toBe("%PDF-");
+    const mediaBox = /\/MediaBox \[0 0 ([\d.]+) ([\d.]+)\]/.exec(strFromU8(pdf.bytes))!;
+    expect(Number(mediaBox[1])).toBeCloseTo((183 / 25.4) * 72, 1); // 183 mm = 518.74 pt
+    const png = await download(`/x?format=png&dpi=600`);
+    const view = new DataView(png.bytes.buffer, png.bytes.byteOffset);
+    expect(view.getUint32(16)).toBe(Math.round((183 / 25.4) * 600)); // IHDR width: 4323 px
+    const phys = Buffer.from(png.bytes).indexOf("pHYs");
+    expect(view.getUint32(phys + 4)).toBe(Math.round(600 / 0.0254)); // 23622 px/m
+    expect((await download(`/x?format=png&dpi=72`)).status).toBe(400);
+  });
+
+  it("source data: every point, one CSV per panel and data name, with a README of hashes", async () => {
+    const r = await download(`/x?format=source-data`);
+    const files = unzipSync(r.bytes);
+    expect(Object.keys(files).sort()).toEqual(["README.txt", "figure-1-panel-a-echo.csv", "figure-1-panel-a-fit.csv", "figure-1-panel-b-res.csv"]);
+    expect(strFromU8(files["figure-1-panel-a-echo.csv"]!).trim().split("\n")).toHaveLength(81); // 80 points + header
+    expect(strFromU8(files["README.txt"]!)).toMatch(/Figure hash: [0-9a-f]{64}/);
+  });
+
+  it("the bundle is an RO-Crate naming every file by hash and each analysis as a CreateAction", async () => {
+    const files = unzipSync((await download(`/x?format=bundle`, "reviewer")).bytes);
+    const crate = JSON.parse(strFromU8(files["ro-crate-metadata.json"]!));
+    expect(crate["@context"]).toBe("https://w3id.org/ro/crate/1.1/context");
+    const graph: any[] = crate["@graph"];
+    const rawFile = graph.find((e) => e["@type"] === "File" && String(e["@id"]).startsWith("raw/"));
+    expect(rawFile.sha256).toMatch(/^[0-9a-f]{64}$/);
+    expect(files[rawFile["@id"]]).toBeTruthy();
+    expect(graph.find((e) => e["@type"] === "CreateAction")).toMatchObject({ name: "hahn_echo fit" });
+    for (const f of ["figure.svg", "figure.pdf", "trace.json", "specs/panel-a.vl.json"]) expect(files[f], f).toBeTruthy();
+  });
+
+  it("outsiders get 404; an unknown format names the field", async () => {
+    expect((await download(`/x?format=svg`, "outsider")).status).toBe(404);
+    const bad = await download(`/x?format=tiff`);
+    expect(bad.status).toBe(400);
+  });
+});
