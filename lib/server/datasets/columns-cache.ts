@@ -1,9 +1,8 @@
-import fs from "node:fs/promises";
 import { encodeColumnar } from "@/lib/data/columnar";
 import { parseTable } from "@/lib/data/parse";
-import { blobPath, readCache, writeCache } from "../storage/blob-store";
+import { blobPath, readCache, readFileBytes, writeCache } from "../storage/blob-store";
 
-const MAX_BYTES = 256 * 1024 * 1024;
+const MAX_BYTES = 96 * 1024 * 1024;
 const lru = new Map<string, Uint8Array>();
 let held = 0;
 
@@ -31,14 +30,10 @@ export async function columnsFor(sha256: string, fileName: string, parseOptions:
   }
   let blob = await readCache(sha256);
   if (!blob) {
-    const raw = new Uint8Array(await fs.readFile(blobPath(sha256)));
+    const raw = await readFileBytes(blobPath(sha256));
     blob = encodeColumnar(parseTable(raw, { fileName, ...parseOptions }));
     await writeCache(sha256, blob);
   }
   remember(sha256, blob);
   return blob;
-}
-
-export function primeColumns(sha256: string, blob: Uint8Array): void {
-  remember(sha256, blob);
 }

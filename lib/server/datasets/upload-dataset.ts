@@ -1,4 +1,3 @@
-import fs from "node:fs/promises";
 import { and, desc, eq, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasets, versions, type ParseInfo, type StoredSummary } from "@/db/schema";
@@ -10,9 +9,8 @@ import { env } from "@/lib/env";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
 import { badRequest, notFound } from "../errors";
-import { commitBlob, removeTemp, writeCache, writeStreamToTemp } from "../storage/blob-store";
+import { commitBlob, readFileBytes, removeTemp, writeCache, writeStreamToTemp } from "../storage/blob-store";
 import { readMultipartUpload, type UploadedFile } from "../storage/multipart";
-import { primeColumns } from "./columns-cache";
 import { metadataInput, uploadFields, type MetadataInput } from "./schemas";
 import { toVersionDto } from "./version-dto";
 
@@ -59,11 +57,11 @@ async function ingestFile(user: SessionUser, manuscriptId: string, file: Uploade
     const f = uploadFields.parse(fields);
     const metadata = parseMetadata(f.metadata);
     const delimiter = f.delimiter === "tab" ? "\t" : f.delimiter;
-    const table = parseTable(new Uint8Array(await fs.readFile(file.tmp)), { fileName: file.fileName, delimiter, decimal: f.decimal, format: f.format });
+    const table = parseTable(await readFileBytes(file.tmp), { fileName: file.fileName, delimiter, decimal: f.decimal, format: f.format });
     const columnar = encodeColumnar(table);
     await commitBlob(file.tmp, file.sha256);
+    // Not kept in memory here: a large upload would otherwise stay resident until evicted; the first read loads it.
     await writeCache(file.sha256, columnar);
-    primeColumns(file.sha256, columnar);
     return await recordVersion(user, manuscriptId, file, table, f.datasetId, f.name, metadata);
   } finally {
     await removeTemp(file.tmp);

@@ -77,7 +77,7 @@ export async function writeCache(sha256: string, bytes: Uint8Array): Promise<voi
 
 export async function readCache(sha256: string): Promise<Uint8Array | null> {
   try {
-    return new Uint8Array(await fsp.readFile(cachePath(sha256)));
+    return asBytes(await fsp.readFile(cachePath(sha256)));
   } catch {
     return null;
   }
@@ -85,4 +85,16 @@ export async function readCache(sha256: string): Promise<Uint8Array | null> {
 
 export async function removeTemp(tmp: string): Promise<void> {
   await fsp.rm(tmp, { force: true });
+}
+
+/**
+ * A plain Uint8Array view of a Buffer, without copying. Buffer#slice returns a view, not a copy,
+ * so code written for Uint8Array (where slice copies) must never be handed a Buffer.
+ */
+export function asBytes(buf: Buffer): Uint8Array {
+  return new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength);
+}
+
+export async function readFileBytes(file: string): Promise<Uint8Array> {
+  return asBytes(await fsp.readFile(file));
 }
