@@ -24,6 +24,7 @@ export interface ApiOperation {
 export const API_OPERATIONS: ApiOperation[] = [
   { method: "GET", path: "/api/health", permission: "public", summary: "Readiness: 200 once migrations are applied", success: 200 },
   { method: "GET", path: "/api/openapi.json", permission: "public", summary: "This document", success: 200 },
+  { method: "GET", path: "/api/ping", permission: "public", summary: "Fixed JSON, no work (benchmark anchor)", success: 200 },
   { method: "POST", path: "/api/sign-in-link", permission: "public", summary: "E-mail a single-use sign-in link", body: z.object({ email: z.string().email() }), success: 202 },
   { method: "GET", path: "/api/me", permission: "self.read", summary: "The caller and their memberships", success: 200 },
   { method: "GET", path: "/api/tokens", permission: "self.tokens", summary: "The caller's API tokens", success: 200 },
