@@ -3,7 +3,7 @@ import tseslint from "typescript-eslint";
 import drizzle from "eslint-plugin-drizzle";
 import globals from "globals";
 
-const pureCore = ["lib/analysis/**", "lib/physics/**", "lib/data/**"];
+const pureCore = ["lib/analysis/**", "lib/physics/**", "lib/data/**", "lib/review/**", "lib/figures/**"];
 
 export default tseslint.config(
   { ignores: [".next/**", "node_modules/**", "bench/results/**", "test-results/**", "playwright-report/**", ".test-work/**", "next-env.d.ts", "db/migrations/**"] },
