@@ -3,7 +3,7 @@ import type { NextConfig } from "next";
 const nextConfig: NextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
-  serverExternalPackages: ["@libsql/client", "libsql", "smtp-server", "mailparser", "bcryptjs"],
+  serverExternalPackages: ["@libsql/client", "libsql", "smtp-server", "mailparser", "bcryptjs", "@resvg/resvg-js", "pdfkit", "svg-to-pdfkit", "vega", "vega-lite", "vega-interpreter"],
   typedRoutes: false,
   async headers() {
     return [{

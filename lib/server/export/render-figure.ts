@@ -1,8 +1,7 @@
 import { getDb } from "@/db/client";
 import { revisions } from "@/db/schema";
 import { inArray } from "drizzle-orm";
-import { RenderError } from "../render/render-spec-svg";
-import { renderFigureInWorker } from "../render/render-in-worker";
+import { RenderError, renderFigureInWorker } from "../render/render-in-worker";
 import { badRequest, unprocessable } from "../errors";
 import { loadBoundData } from "../figures/bindings";
 import { reduceRowsForDisplay } from "../figures/display-data";

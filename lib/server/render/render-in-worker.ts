@@ -19,7 +19,13 @@
 import { fork, type ChildProcess } from "node:child_process";
 import path from "node:path";
 import type { ComposedFigure, FigureLayout } from "./worker/compose-core.mjs";
-import { RenderError, type BoundData, type PhysicalSize, type RenderedSvg, type RenderErrorCode } from "./worker/render-core.mjs";
+import type { BoundData, PhysicalSize, RenderedSvg } from "./worker/render-core.mjs";
+import { RenderError, type RenderErrorCode } from "./worker/render-error.mjs";
+
+// Route handlers can take everything they need from here without pulling Vega into the bundle.
+export { RenderError, type RenderErrorCode } from "./worker/render-error.mjs";
+export type { BoundData, PhysicalSize, RenderedSvg } from "./worker/render-core.mjs";
+export type { FigureLayout } from "./worker/compose-core.mjs";
 
 export interface RenderBudget {
   /** Wall-clock budget of one job once the worker is ready, ms (default 10 000). */
@@ -43,6 +49,8 @@ const DEFAULT_HEAP_MB = 512;
 const STARTUP_TIMEOUT_MS = 20_000;
 const MAX_IDLE_WORKERS = 2;
 const JOBS_PER_WORKER = 100;
+/** An idle worker (≈ 100 MB) is stopped after this long without work. */
+const IDLE_MS = 60_000;
 
 export function renderWorkerPath(root: string = process.cwd()): string {
   return path.join(root, "lib", "server", "render", "worker", "render-worker.mjs");
@@ -55,9 +63,13 @@ interface PooledWorker {
   ready: Promise<void>;
   /** The tail of the child's stderr: tells an out-of-memory abort from other crashes. */
   stderr: string;
+  idleTimer?: ReturnType<typeof setTimeout>;
 }
 
-type Reply = { type?: string; id?: number; ok?: boolean; result?: unknown; error?: { code: RenderErrorCode; message: string } };
+type Reply = { type?: string; id?: number; ok?: boolean; result?: unknown; workMs?: number; error?: { code: RenderErrorCode; message: string } };
+
+/** Time the last job spent rendering inside the worker, ms (the rest of its wall time is IPC). */
+export let lastWorkerRenderMs = 0;
 
 const idle: PooledWorker[] = [];
 let nextId = 1;
@@ -70,7 +82,7 @@ function setRef(child: ChildProcess, on: boolean): void {
 function spawn(heapMb: number): PooledWorker {
   const child = fork(renderWorkerPath(), [], {
     execArgv: [`--max-old-space-size=${heapMb}`],
-    env: {},
+    env: { NODE_ENV: "production" },
     serialization: "advanced",
     stdio: ["ignore", "ignore", "pipe", "ipc"],
   });
@@ -105,13 +117,21 @@ function exitError(w: PooledWorker, code: number | null, signal: NodeJS.Signals 
 
 function acquire(heapMb: number): PooledWorker {
   const i = idle.findIndex((w) => w.heapMb === heapMb);
-  if (i >= 0) return idle.splice(i, 1)[0];
-  return spawn(heapMb);
+  if (i < 0) return spawn(heapMb);
+  const w = idle.splice(i, 1)[0];
+  clearTimeout(w.idleTimer);
+  return w;
 }
 
 function release(w: PooledWorker): void {
   if (w.jobs < JOBS_PER_WORKER && idle.length < MAX_IDLE_WORKERS && w.child.connected) {
     setRef(w.child, false); // an idle worker must not keep the server (or a test run) alive
+    w.idleTimer = setTimeout(() => {
+      const i = idle.indexOf(w);
+      if (i >= 0) idle.splice(i, 1);
+      w.child.kill("SIGKILL");
+    }, IDLE_MS);
+    w.idleTimer.unref();
     idle.push(w);
   } else {
     w.child.kill("SIGKILL");
@@ -145,6 +165,7 @@ async function runJob<T>(job: Record<string, unknown>, budget: RenderBudget = {}
     };
     const onMessage = (m: Reply) => {
       if (m?.id !== id) return;
+      lastWorkerRenderMs = m.workMs ?? 0;
       if (m.ok) finish(() => resolve(m.result as T), true);
       else finish(() => reject(new RenderError(m.error?.code ?? "render-failed", m.error?.message ?? "render failed")), true);
     };
@@ -179,6 +200,7 @@ export function renderFigureInWorker(
 /** Stops the idle workers (tests, graceful shutdown). */
 export async function stopRenderWorkers(): Promise<void> {
   const all = idle.splice(0);
+  for (const w of all) clearTimeout(w.idleTimer);
   await Promise.all(all.map((w) => new Promise<void>((resolve) => {
     if (w.child.exitCode !== null || w.child.signalCode !== null) return resolve();
     w.child.once("exit", () => resolve());

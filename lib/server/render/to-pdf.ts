@@ -7,7 +7,7 @@ import PDFDocument from "pdfkit";
 import SVGtoPDF from "svg-to-pdfkit";
 import { interFontPath } from "./fonts";
 import { assertPrintableSvg, svgSizeMm } from "./svg-safety";
-import { PT_PER_MM, RenderError } from "./worker/render-core.mjs";
+import { PT_PER_MM, RenderError } from "./worker/render-error.mjs";
 
 export interface PdfOptions {
   widthMm?: number;

@@ -5,7 +5,7 @@
 import { Resvg } from "@resvg/resvg-js";
 import { FONT_FAMILY, interFontFiles } from "./fonts";
 import { assertPrintableSvg, svgSizeMm } from "./svg-safety";
-import { RenderError } from "./worker/render-core.mjs";
+import { RenderError } from "./worker/render-error.mjs";
 
 export interface PngOptions {
   /** Dots per inch; 300 and 600 are the journal resolutions. */

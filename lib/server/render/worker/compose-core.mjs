@@ -3,7 +3,7 @@
  * each panel's letter in bold 8 pt Inter above its top-left corner, the root sized in mm.
  * Plain JavaScript (typed by compose-core.d.mts) so the render worker can load it.
  */
-import { PT_PER_MM, RenderError, rootSize } from "./render-core.mjs";
+import { PT_PER_MM, RenderError, rootSize } from "./render-error.mjs";
 
 const DEFAULT_GAP_MM = 2;
 const DEFAULT_LETTER_BAND_MM = 3;

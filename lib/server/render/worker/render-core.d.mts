@@ -1,22 +1,6 @@
 /** Types of render-core.mjs (plain JavaScript so the render worker can load it without a build step). */
 
-export declare const PT_PER_MM: number;
-
-export type RenderErrorCode =
-  | "invalid-spec"
-  | "missing-data"
-  | "load-refused"
-  | "render-failed"
-  | "bad-size"
-  | "unsafe-svg"
-  | "timeout"
-  | "out-of-memory"
-  | "worker-failed";
-
-export declare class RenderError extends Error {
-  constructor(code: RenderErrorCode, message: string);
-  readonly code: RenderErrorCode;
-}
+export { PT_PER_MM, RenderError, rootSize, type RenderErrorCode } from "./render-error.mjs";
 
 export interface PhysicalSize {
   /** Printed width, mm. */
@@ -48,5 +32,5 @@ export declare function renderOnce(
 
 export declare function boundDataNames(vlSpec: unknown): string[];
 export declare function refusingLoader(refusals: string[]): unknown;
-export declare function rootSize(svg: string): { width: number; height: number };
 export declare function setPhysicalSize(svg: string, width: number, height: number, widthMm: number, heightMm: number): string;
+export declare function normaliseIds(svg: string): string;

@@ -2,25 +2,18 @@
  * Vega-Lite → SVG at physical size. Plain JavaScript (typed by render-core.d.mts) because the
  * render worker loads it directly with Node, in tests and in the Next.js production server alike.
  *
- * Safety: the loader refuses every load (recorded, then the render fails), expressions run in
- * vega-interpreter (no code generation), and the caller runs this in a worker with a time and
- * memory budget. Units: SVG user units are points (1 mm = 72/25.4 pt); the root element carries
- * the physical size in mm and a viewBox in pt.
+ * Safety: the loader refuses every load (recorded, then the render fails), expressions are
+ * evaluated without code generation (./expression-compiler.mjs: vega-interpreter's semantics and
+ * checks, closures built once per expression), and the caller runs this in a worker process with
+ * a time and memory budget. Units: SVG user units are points (1 mm = 72/25.4 pt); the root
+ * element carries the physical size in mm and a viewBox in pt.
  */
 import * as vega from "vega";
 import { compile } from "vega-lite";
-import { expressionInterpreter } from "vega-interpreter";
+import { compiledExpressions } from "./expression-compiler.mjs";
+import { PT_PER_MM, RenderError, rootSize } from "./render-error.mjs";
 
-export const PT_PER_MM = 72 / 25.4;
-
-export class RenderError extends Error {
-  /** @param {string} code @param {string} message */
-  constructor(code, message) {
-    super(message);
-    this.name = "RenderError";
-    this.code = code;
-  }
-}
+export { PT_PER_MM, RenderError, rootSize } from "./render-error.mjs";
 
 const COMPOSITE_KEYS = ["vconcat", "hconcat", "concat", "facet", "repeat"];
 
@@ -57,22 +50,47 @@ function collectingLogger(messages) {
 const isSpecNode = (o) => o && typeof o === "object" && !Array.isArray(o) &&
   ["mark", "layer", "spec", ...COMPOSITE_KEYS].some((k) => k in o);
 
-/** Copies a Vega-Lite spec with every view's numeric width/height multiplied (composite specs). */
-function scaleViewSizes(node, kx, ky) {
-  if (Array.isArray(node)) return node.map((n) => scaleViewSizes(n, kx, ky));
+/** Vega-Lite's size of a continuous view that sets none (config.view), pt. */
+const DEFAULT_CONTINUOUS = 300;
+
+/**
+ * Copies a Vega-Lite spec with every view's numeric width/height multiplied (composite specs),
+ * including the default size of views that set none (config.view.continuousWidth/Height).
+ */
+function scaleViewSizes(spec, kx, ky) {
+  const view = spec.config?.view ?? {};
+  const scaled = scaleNode(spec, kx, ky);
+  scaled.config = {
+    ...(spec.config ?? {}),
+    view: {
+      ...view,
+      continuousWidth: (view.continuousWidth ?? DEFAULT_CONTINUOUS) * kx,
+      continuousHeight: (view.continuousHeight ?? DEFAULT_CONTINUOUS) * ky,
+    },
+  };
+  return scaled;
+}
+
+function scaleNode(node, kx, ky) {
+  if (Array.isArray(node)) return node.map((n) => scaleNode(n, kx, ky));
   if (!node || typeof node !== "object") return node;
   const out = {};
   for (const [k, v] of Object.entries(node)) {
     if (k === "config" || k === "data" || k === "datasets" || k === "usermeta" || k === "encoding" || k === "mark" || k === "transform") out[k] = v;
     else if (k === "width" && typeof v === "number" && isSpecNode(node)) out[k] = v * kx;
     else if (k === "height" && typeof v === "number" && isSpecNode(node)) out[k] = v * ky;
-    else out[k] = scaleViewSizes(v, kx, ky);
+    else out[k] = scaleNode(v, kx, ky);
   }
   return out;
 }
 
-function withFont(spec) {
-  return { ...spec, config: { ...(spec.config ?? {}), font: "Inter" } };
+/**
+ * Inter for all text; ARIA attributes off unless the spec asks for them (a print file has no
+ * reader for them, and per-mark descriptions double the SVG of a dense panel).
+ */
+function withPrintConfig(spec) {
+  const config = spec.config ?? {};
+  return { ...spec, config: { aria: false, ...config, font: "Inter" } };
 }
 
 /** Names the Vega-Lite spec reads from bound data: `{ "name": … }` sources not defined in `datasets`. */
@@ -107,12 +125,12 @@ export async function renderOnce(vlSpec, data, { warnings = [], refusals = [] } 
   try {
     const runtime = vega.parse(vgSpec, undefined, { ast: true });
     view = new vega.View(runtime, {
-      renderer: "none", loader: refusingLoader(refusals), expr: expressionInterpreter, logger: collectingLogger(warnings),
+      renderer: "none", loader: refusingLoader(refusals), expr: compiledExpressions, logger: collectingLogger(warnings),
     });
     for (const n of names) view.data(n, data[n]);
     await view.runAsync();
     if (refusals.length) throw refused(refusals);
-    const svg = await view.toSVG();
+    const svg = normaliseIds(await view.toSVG());
     if (refusals.length) throw refused(refusals);
     const size = rootSize(svg);
     return { svg, width: size.width, height: size.height, warnings };
@@ -129,17 +147,30 @@ function refused(refusals) {
   return new RenderError("load-refused", `the spec tried to load external resources, which is not allowed (${refusals.slice(0, 3).join("; ")})`);
 }
 
-/** width/height of the root <svg> element, in user units. */
-export function rootSize(svg) {
-  const root = /^\s*<svg\b[^>]*>/.exec(svg)?.[0] ?? "";
-  const vb = /viewBox="([^"]+)"/.exec(root)?.[1]?.trim().split(/[\s,]+/).map(Number);
-  if (vb?.length === 4 && vb.every(Number.isFinite)) return { width: vb[2], height: vb[3] };
-  const width = Number(/\swidth="([\d.]+)(?:px|pt)?"/.exec(root)?.[1]);
-  const height = Number(/\sheight="([\d.]+)(?:px|pt)?"/.exec(root)?.[1]);
-  return { width, height };
-}
-
 const fmt = (v) => String(Math.round(v * 1000) / 1000);
+
+/**
+ * Vega numbers gradient and clip ids from a process-wide counter, so the same panel would get
+ * different ids on each render. Renumbers them in order of appearance (gradient_0, clip1 → clip0)
+ * so an export is byte-for-byte the same every time.
+ */
+export function normaliseIds(svg) {
+  const map = new Map();
+  const counters = new Map();
+  for (const m of svg.matchAll(/\sid="([^"]+)"/g)) {
+    const id = m[1];
+    if (map.has(id)) continue;
+    const base = id.replace(/\d+$/, "");
+    const n = counters.get(base) ?? 0;
+    counters.set(base, n + 1);
+    map.set(id, `${base}${n}`);
+  }
+  if (!map.size) return svg;
+  return svg
+    .replace(/(\sid=")([^"]+)"/g, (_, a, id) => `${a}${map.get(id) ?? id}"`)
+    .replace(/url\(\s*#([^)\s]+)\s*\)/g, (m, id) => (map.has(id) ? `url(#${map.get(id)})` : m))
+    .replace(/((?:xlink:)?href=")#([^"]+)"/g, (m, a, id) => (map.has(id) ? `${a}#${map.get(id)}"` : m));
+}
 
 /** Sets the root element's physical size (mm) and a viewBox of the natural size in pt. */
 export function setPhysicalSize(svg, width, height, widthMm, heightMm) {
@@ -168,7 +199,7 @@ export async function renderSpecToSvgCore(spec, data, { widthMm, heightMm } = {}
   const targetW = widthMm * PT_PER_MM;
   const targetH = heightMm === undefined ? undefined : heightMm * PT_PER_MM;
   const warnings = [];
-  const base = withFont(spec);
+  const base = withPrintConfig(spec);
   let out;
   if (!COMPOSITE_KEYS.some((k) => k in spec)) {
     const sized = { ...base, width: targetW, autosize: { type: "fit", contains: "padding" } };

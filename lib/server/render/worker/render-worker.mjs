@@ -34,9 +34,10 @@ if (typeof process.send !== "function") {
   process.exit(2);
 }
 process.on("message", async (job) => {
+  const t0 = performance.now();
   try {
     const result = await run(job);
-    process.send({ id: job.id, ok: true, result });
+    process.send({ id: job.id, ok: true, result, workMs: performance.now() - t0 });
   } catch (err) {
     process.send({ id: job.id, ok: false, error: { code: err?.code ?? "render-failed", message: err?.message ?? String(err) } });
   }

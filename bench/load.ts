@@ -1,0 +1,122 @@
+/**
+ * A small closed-loop HTTP load generator (what autocannon does, without the dependency): N
+ * clients, each with one request in flight at a time over keep-alive connections of one undici
+ * Agent, for a fixed time after an untimed warm-up. Bounded in requests and time, loopback only.
+ *
+ * Latency is client side, from just before fetch() to the whole body read. A request counts as an
+ * error when it throws (connection error, per-request timeout) or its status is not the expected
+ * one; its latency is still recorded, so slow failures show in the percentiles.
+ */
+import type { Dispatcher } from "undici-types";
+import { percentile, round } from "./report";
+
+export interface LoadRequest { url: string; init?: RequestInit }
+
+export interface LoadOptions {
+  /** Closed-loop clients (concurrent requests); the agent keeps at most this many connections. */
+  connections: number;
+  durationMs: number;
+  warmupMs: number;
+  /** Hard bound on the requests of the timed phase (and again of the warm-up). */
+  maxRequests?: number;
+  /** Per-request timeout; a request past it is aborted and counted as an error. */
+  timeoutMs?: number;
+  expectStatus: number;
+  /** Builds request number `seq` (0, 1, … over the phase) of client `client`. */
+  request: (seq: number, client: number, phase: "warmup" | "timed") => LoadRequest;
+}
+
+export interface LoadResult {
+  requests: number;
+  errors: number;
+  statuses: Record<string, number>;
+  errorSamples: string[];
+  durationS: number;
+  rps: number;
+  latencyMs: { p50: number; p95: number; p99: number; mean: number; max: number; min: number };
+  bytesPerResponse: number;
+  /** The untimed warm-up: how many requests, with which statuses. */
+  warmup: { requests: number; errors: number; statuses: Record<string, number> };
+}
+
+const LOOPBACK = new Set(["localhost", "127.0.0.1", "[::1]"]);
+
+type FetchInit = RequestInit & { dispatcher?: Dispatcher };
+
+/**
+ * undici's Agent as bundled with Node's fetch (Node ≥ 18 ships undici but does not export it): the
+ * global dispatcher is one, created by the first fetch. Our own agent keeps the bench's
+ * connections apart from any other fetch and caps their number.
+ */
+async function makeAgent(probeUrl: string, connections: number): Promise<Dispatcher | undefined> {
+  await fetch(probeUrl).then((r) => r.arrayBuffer()).catch(() => undefined);
+  const global = (globalThis as Record<symbol, unknown>)[Symbol.for("undici.globalDispatcher.1")] as { constructor: new (o: object) => Dispatcher } | undefined;
+  if (!global || global.constructor.name !== "Agent") return undefined; // fall back to the global dispatcher (also keep-alive)
+  return new global.constructor({ connections, pipelining: 1, keepAliveTimeout: 30_000, keepAliveMaxTimeout: 60_000 });
+}
+
+async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationMs: number, kind: "warmup" | "timed") {
+  const latencies: number[] = [];
+  const statuses: Record<string, number> = {};
+  const errorSamples: string[] = [];
+  let errors = 0;
+  let bytes = 0;
+  let seq = 0;
+  const max = opts.maxRequests ?? 200_000;
+  const t0 = performance.now();
+  const end = t0 + durationMs;
+  const client = async (c: number) => {
+    while (performance.now() < end && seq < max) {
+      const { url, init } = opts.request(seq++, c, kind);
+      const started = performance.now();
+      let status = "error";
+      let detail = "";
+      try {
+        const res = await fetch(url, { ...init, dispatcher: agent, signal: AbortSignal.timeout(opts.timeoutMs ?? 15_000) } as FetchInit);
+        const body = await res.arrayBuffer();
+        bytes += body.byteLength;
+        status = String(res.status);
+        if (res.status !== opts.expectStatus) detail = `HTTP ${res.status}: ${Buffer.from(body).toString("utf8").slice(0, 200)}`;
+      } catch (err) {
+        detail = `${(err as Error).name}: ${(err as Error).message}`;
+      }
+      latencies.push(performance.now() - started);
+      statuses[status] = (statuses[status] ?? 0) + 1;
+      if (detail) {
+        errors++;
+        if (errorSamples.length < 5) errorSamples.push(detail);
+      }
+    }
+  };
+  await Promise.all(Array.from({ length: opts.connections }, (_, c) => client(c)));
+  return { latencies, statuses, errors, errorSamples, bytes, elapsedMs: performance.now() - t0 };
+}
+
+/** Warm-up (results dropped), then the timed phase. */
+export async function runLoad(opts: LoadOptions): Promise<LoadResult> {
+  const first = new URL(opts.request(0, 0, "warmup").url);
+  if (!LOOPBACK.has(first.hostname)) throw new Error(`the load generator only targets loopback, not ${first.hostname}`);
+  const agent = await makeAgent(`${first.origin}/api/ping`, opts.connections);
+  try {
+    const w = opts.warmupMs > 0 ? await phase(opts, agent, opts.warmupMs, "warmup") : null;
+    const r = await phase(opts, agent, opts.durationMs, "timed");
+    const l = r.latencies;
+    const n = l.length;
+    return {
+      requests: n,
+      errors: r.errors,
+      statuses: r.statuses,
+      errorSamples: r.errorSamples,
+      durationS: round(r.elapsedMs / 1000, 2),
+      rps: round(n / (r.elapsedMs / 1000)),
+      latencyMs: n ? {
+        p50: round(percentile(l, 50), 2), p95: round(percentile(l, 95), 2), p99: round(percentile(l, 99), 2),
+        mean: round(l.reduce((a, b) => a + b, 0) / n, 2), max: round(l.reduce((a, b) => Math.max(a, b), 0), 2), min: round(l.reduce((a, b) => Math.min(a, b), Infinity), 2),
+      } : { p50: NaN, p95: NaN, p99: NaN, mean: NaN, max: NaN, min: NaN },
+      bytesPerResponse: n ? Math.round(r.bytes / n) : 0,
+      warmup: { requests: w?.latencies.length ?? 0, errors: w?.errors ?? 0, statuses: w?.statuses ?? {} },
+    };
+  } finally {
+    await agent?.close();
+  }
+}

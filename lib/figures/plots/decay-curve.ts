@@ -1,0 +1,126 @@
+/**
+ * Decay curve (Hahn echo, T1, Ramsey envelope): measured points with optional ±σ error bars, the
+ * fitted curve from an analysis output, and a residual strip below sharing the time axis.
+ */
+import type { TopLevelSpec } from "vega-lite";
+import {
+  axisTitle, concatFrame, innerWidthPt, mmToPt, OKABE_ITO, SCALE_CHOICES, type ScaleKind, scaleFor, seriesFilter,
+  singleViewFrame, type Spec, vlField, withPrint,
+} from "./print";
+import type { CommonOptions, FigureTemplate } from "./types";
+
+export interface DecayCurveOptions extends CommonOptions {
+  dataName: string;
+  xField: string;
+  yField: string;
+  /** Column of 1σ uncertainties of y; empty for none. */
+  sigmaField?: string;
+  /** Analysis output (curve rows) to draw as the fitted line; empty for none. */
+  fitName?: string;
+  /** Analysis output (residual rows) for the strip; empty for none. */
+  residualName?: string;
+  /** Column names in the analysis output (default: the same as the data's). */
+  fitXField?: string;
+  fitYField?: string;
+  seriesField?: string;
+  xName: string;
+  xUnit: string;
+  yName: string;
+  yUnit: string;
+  xScale: ScaleKind;
+}
+
+export const DECAY_CURVE_DEFAULTS: DecayCurveOptions = {
+  dataName: "echo", xField: "tau", yField: "signal", sigmaField: "", fitName: "fit", residualName: "residuals",
+  seriesField: "series", xName: "τ", xUnit: "µs", yName: "coherence", yUnit: "", xScale: "linear",
+};
+
+function build(input: Partial<DecayCurveOptions>): TopLevelSpec {
+  const o = { ...DECAY_CURVE_DEFAULTS, ...input };
+  const p = withPrint(o.print);
+  const fitX = o.fitXField || o.xField;
+  const fitY = o.fitYField || o.yField;
+  const series = o.seriesField || "series";
+  const xTitle = axisTitle(o.xName, o.xUnit);
+  const yTitle = axisTitle(o.yName, o.yUnit);
+  const withStrip = !!o.residualName;
+  const x = (field: string, showAxis: boolean): Spec => ({
+    field: vlField(field), type: "quantitative", title: xTitle, scale: scaleFor(o.xScale, { nice: false }),
+    ...(showAxis ? {} : { axis: { labels: false, title: null } }),
+  });
+  const y: Spec = { field: vlField(o.yField), type: "quantitative", title: yTitle, scale: { zero: false } };
+
+  const layers: Spec[] = [];
+  if (o.sigmaField) {
+    layers.push({
+      data: { name: o.dataName },
+      mark: { type: "errorbar", color: OKABE_ITO.blue, thickness: 0.6 },
+      encoding: { x: x(o.xField, !withStrip), y, yError: { field: vlField(o.sigmaField) } },
+    });
+  }
+  layers.push({
+    data: { name: o.dataName },
+    mark: { type: "point", color: OKABE_ITO.blue },
+    encoding: { x: x(o.xField, !withStrip), y },
+  });
+  if (o.fitName) {
+    layers.push({
+      data: { name: o.fitName },
+      transform: [{ filter: seriesFilter(series, "curve") }],
+      mark: { type: "line", color: OKABE_ITO.vermillion, strokeWidth: 1 },
+      encoding: { x: x(fitX, !withStrip), y: { ...y, field: vlField(fitY) } },
+    });
+  }
+  const description = `Decay curve of ${o.yName} against ${o.xName}`;
+  if (!withStrip) return { ...singleViewFrame(p, description), layer: layers } as unknown as TopLevelSpec;
+
+  const inner = innerWidthPt(p);
+  const total = mmToPt(p.heightMm);
+  const residuals: Spec = {
+    width: inner,
+    height: Math.round(total * 0.2),
+    data: { name: o.residualName },
+    transform: [{ filter: seriesFilter(series, "residual") }],
+    layer: [
+      { mark: { type: "rule", color: "#777777", strokeDash: [2, 2] }, encoding: { y: { datum: 0, type: "quantitative" } } },
+      {
+        mark: { type: "point", color: OKABE_ITO.blue },
+        encoding: {
+          x: x(fitX, true),
+          y: { field: vlField(fitY), type: "quantitative", title: "residual", axis: { tickCount: 3 } },
+        },
+      },
+    ],
+  };
+  return {
+    ...concatFrame(p, description),
+    vconcat: [{ width: inner, height: Math.round(total * 0.62), layer: layers }, residuals],
+    resolve: { scale: { x: "shared" } },
+  } as unknown as TopLevelSpec;
+}
+
+export const decayCurveTemplate: FigureTemplate<DecayCurveOptions> = {
+  id: "decay-curve",
+  title: "Decay curve with fit and residuals",
+  description: "Hahn-echo, T1 or Ramsey decay: points (± σ), fitted curve and a residual strip on a linear or log time axis.",
+  options: [
+    { key: "dataName", label: "Measured points", kind: "data-name", binds: "dataset", required: true, default: "echo" },
+    { key: "xField", label: "Time column", kind: "column", dataKey: "dataName", required: true, default: "tau" },
+    { key: "yField", label: "Signal column", kind: "column", dataKey: "dataName", required: true, default: "signal" },
+    { key: "sigmaField", label: "σ column (error bars)", kind: "column", dataKey: "dataName" },
+    { key: "fitName", label: "Fitted curve", kind: "data-name", binds: "analysis-curve", default: "fit", help: "leave empty for no fit" },
+    { key: "residualName", label: "Residuals", kind: "data-name", binds: "analysis-residuals", default: "residuals", help: "leave empty for no residual strip" },
+    { key: "fitXField", label: "Time column of the fit", kind: "column", dataKey: "fitName", help: "default: as the data" },
+    { key: "fitYField", label: "Value column of the fit", kind: "column", dataKey: "fitName", help: "default: as the data" },
+    { key: "xName", label: "Time axis name", kind: "text", default: "τ" },
+    { key: "xUnit", label: "Time unit", kind: "text", default: "µs" },
+    { key: "yName", label: "Signal axis name", kind: "text", default: "coherence" },
+    { key: "yUnit", label: "Signal unit", kind: "text", default: "" },
+    { key: "xScale", label: "Time axis", kind: "select", choices: SCALE_CHOICES, default: "linear" },
+  ],
+  dataNames: (input) => {
+    const o = { ...DECAY_CURVE_DEFAULTS, ...input };
+    return [...new Set([o.dataName, o.fitName, o.residualName].filter((n): n is string => !!n))];
+  },
+  build,
+};

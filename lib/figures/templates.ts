@@ -1,0 +1,31 @@
+/**
+ * Builder templates for the field's plots. Each produces ordinary Vega-Lite (v6 schema) that the
+ * user can then edit; data is referenced by name only and bound per revision. Sizes are in
+ * points at print size (see ./plots/print).
+ */
+import { decayCurveTemplate } from "./plots/decay-curve";
+import { groupStripTemplate } from "./plots/group-strip";
+import { plMapTemplate } from "./plots/pl-map";
+import { scatterLineTemplate } from "./plots/scatter-line";
+import { nvNmrTemplate, spectrumTemplate } from "./plots/spectrum";
+import type { CommonOptions, FigureTemplate } from "./plots/types";
+
+export * from "./plots/print";
+export * from "./plots/types";
+export { DECAY_CURVE_DEFAULTS, decayCurveTemplate, type DecayCurveOptions } from "./plots/decay-curve";
+export { GROUP_STRIP_DEFAULTS, groupStripTemplate, type GroupStripOptions } from "./plots/group-strip";
+export { PL_MAP_DEFAULTS, plMapTemplate, type PlMapOptions } from "./plots/pl-map";
+export { SCATTER_LINE_DEFAULTS, scatterLineTemplate, type ScatterLineOptions } from "./plots/scatter-line";
+export {
+  expectedNucleusMarker, NV_NMR_DEFAULTS, nvNmrTemplate, type NvNmrOptions, SPECTRUM_DEFAULTS, spectrumTemplate,
+  type SpectrumOptions, ZPL_MARKERS,
+} from "./plots/spectrum";
+
+// The registry is heterogeneous: each template fills and checks its own options when it builds.
+export const FIGURE_TEMPLATES: ReadonlyArray<FigureTemplate<any>> = [
+  decayCurveTemplate, spectrumTemplate, plMapTemplate, groupStripTemplate, nvNmrTemplate, scatterLineTemplate,
+];
+
+export function getTemplate(id: string): FigureTemplate<CommonOptions> | undefined {
+  return FIGURE_TEMPLATES.find((t) => t.id === id);
+}
