@@ -6,18 +6,7 @@
 import Papa from "papaparse";
 import { inferSchema, initParser } from "udsv";
 import { parseTable } from "@/lib/data/parse";
-
-/** Deterministic PRNG (mulberry32), so the benchmark file is the same on every run. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 } from "@/db/demo-data/prng";
 
 /**
  * A numeric CSV like an echo or ODMR export: `t_us` rising in 1 ns steps, then noisy signal

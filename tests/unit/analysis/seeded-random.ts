@@ -1,4 +1,6 @@
 /** Deterministic pseudo-random numbers for synthetic-data tests: mulberry32 and Box–Muller. */
+import { mulberry32 } from "@/db/demo-data/prng";
+
 export interface SeededRandom {
   /** Uniform in [0, 1). */
   uniform(): number;
@@ -7,14 +9,7 @@ export interface SeededRandom {
 }
 
 export function seededRandom(seed: number): SeededRandom {
-  let state = seed >>> 0;
-  const uniform = (): number => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  const uniform = mulberry32(seed);
   let spare: number | undefined;
   const normal = (): number => {
     if (spare !== undefined) {
