@@ -53,7 +53,7 @@ const JOBS_PER_WORKER = 100;
 const IDLE_MS = 60_000;
 
 export function renderWorkerPath(root: string = process.cwd()): string {
-  return path.join(root, "lib", "server", "render", "worker", "render-worker.mjs");
+  return path.join(/* turbopackIgnore: true */ root, "lib", "server", "render", "worker", "render-worker.mjs");
 }
 
 interface PooledWorker {
