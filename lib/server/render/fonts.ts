@@ -18,7 +18,7 @@ export type InterFace = keyof typeof INTER_FILES;
 
 /** Absolute path of one Inter face. */
 export function interFontPath(face: InterFace, root: string = process.cwd()): string {
-  return path.join(root, ...INTER_DIR, ...INTER_FILES[face].split("/"));
+  return path.join(/* turbopackIgnore: true */ root, ...INTER_DIR, ...INTER_FILES[face].split("/"));
 }
 
 /** Absolute paths of every shipped Inter face. */
