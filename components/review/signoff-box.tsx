@@ -1,5 +1,11 @@
 "use client";
-// Placeholder: the review overview work fills this in (sign-off of a figure by its PI).
+import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useRouter } from "next/navigation";
+import { useState, useTransition } from "react";
+import { Button, Field, formatDate, Notice } from "@/components/ui";
+import type { ManuscriptView } from "./review-api";
+import { StateBadge } from "./state-badge";
+
 export interface SignoffBoxProps {
   figureId: string;
   figureHash: string;
@@ -7,6 +13,139 @@ export interface SignoffBoxProps {
   canSignOff: boolean;
   signoffs: Array<{ id: string; userId: string; figureHash: string; reason: string; createdAt: string | Date; stale: boolean }>;
 }
-export function SignoffBox(_props: SignoffBoxProps) {
-  return null;
+
+/** An answer of the sign-off route that is not a success, with the server's own words and details. */
+class SignoffError extends Error {
+  constructor(readonly status: number, message: string, readonly open: string[] | null) { super(message); }
+}
+
+async function postSignoff(figureId: string, body: { figureHash: string; reason?: string }) {
+  const res = await fetch(`/api/figures/${figureId}/signoff`, {
+    method: "POST", headers: { "content-type": "application/json", accept: "application/json" }, body: JSON.stringify(body),
+  });
+  const json = await res.json().catch(() => null) as { error?: { message?: string; details?: { open?: unknown } } } | null;
+  if (!res.ok) {
+    const open = Array.isArray(json?.error?.details?.open) ? (json.error.details.open as string[]) : null;
+    throw new SignoffError(res.status, json?.error?.message ?? `The server answered ${res.status}.`, open);
+  }
+  return json as unknown as { id: string; figureHash: string; openIssues: string[] };
+}
+
+/** Names of the manuscript's members, for saying who signed off (the props carry only user ids). */
+function useMemberNames(figureId: string, enabled: boolean) {
+  const queryClient = useQueryClient();
+  return useQuery({
+    queryKey: ["figure-member-names", figureId],
+    enabled, staleTime: 5 * 60_000,
+    // A page that already holds the manuscript (the board) answers from its cache without a request.
+    initialData: () => {
+      for (const [, m] of queryClient.getQueriesData<ManuscriptView>({ queryKey: ["manuscript"] })) {
+        if (m?.figures.some((f) => f.id === figureId)) return Object.fromEntries(m.members.map((u) => [u.userId, u.name])) as Record<string, string>;
+      }
+      return undefined;
+    },
+    queryFn: async () => {
+      const fig = await fetch(`/api/figures/${figureId}`).then((r) => (r.ok ? r.json() : null)) as { manuscriptId?: string } | null;
+      if (!fig?.manuscriptId) return {} as Record<string, string>;
+      const m = await fetch(`/api/manuscripts/${fig.manuscriptId}/members`).then((r) => (r.ok ? r.json() : { items: [] })) as { items: Array<{ userId: string; name: string }> };
+      return Object.fromEntries(m.items.map((u) => [u.userId, u.name])) as Record<string, string>;
+    },
+  });
+}
+
+/** The server names the field first ("reason: open issues …"); a person reads the sentence. */
+const sentence = (m: string) => { const t = m.replace(/^reason:\s*/, ""); return t.charAt(0).toUpperCase() + t.slice(1); };
+const short = (h: string) => `${h.slice(0, 12)}…`;
+
+/** The figure's review state, its current hash, its sign-offs (stale ones marked) and, for the PI, the sign-off itself. */
+export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, signoffs }: SignoffBoxProps) {
+  const router = useRouter();
+  const queryClient = useQueryClient();
+  const [, startTransition] = useTransition();
+  const [reason, setReason] = useState("");
+  const names = useMemberNames(figureId, signoffs.length > 0).data ?? {};
+  const sign = useMutation({
+    mutationFn: (withReason: boolean) => postSignoff(figureId, withReason ? { figureHash, reason: reason.trim() } : { figureHash }),
+    onSuccess: () => {
+      setReason("");
+      startTransition(() => router.refresh());
+      void queryClient.invalidateQueries();
+    },
+  });
+  const err = sign.error instanceof SignoffError ? sign.error : null;
+  const needsReason = err?.status === 400 && err.open !== null;
+  const changed = err?.status === 409;
+  const signedOff = reviewState === "signed_off";
+
+  const reload = async () => {
+    startTransition(() => router.refresh());
+    await queryClient.invalidateQueries();
+    sign.reset();
+  };
+
+  return (
+    <div className="text-sm" data-testid={`signoff-box-${figureId}`}>
+      <p className="flex flex-wrap items-center gap-2 text-xs text-muted">
+        <StateBadge state={reviewState} />
+        <span>figure hash <code className="rounded-sm bg-paper px-1 font-mono text-ink" title={figureHash} data-testid="figure-hash">{short(figureHash)}</code></span>
+      </p>
+
+      {signoffs.length ? (
+        <ul className="mt-3 space-y-2" aria-label="Sign-offs">
+          {signoffs.map((s) => (
+            <li key={s.id} className={`border-l-2 pl-2 ${s.stale ? "border-dashed border-warn" : "border-ink"}`}>
+              <p className="flex items-start gap-1.5">
+                <span aria-hidden className="w-3 text-center">{s.stale ? "◇" : "◆"}</span>
+                <span><span className="font-medium">{names[s.userId] ?? "The PI"}</span> signed off</span>
+              </p>
+              <p className="ml-[1.125rem] text-xs text-muted">
+                <time dateTime={new Date(s.createdAt).toISOString()}>{formatDate(s.createdAt)}</time> · hash <code className="font-mono" title={s.figureHash}>{short(s.figureHash)}</code>
+              </p>
+              {s.stale ? (
+                <p className="ml-[1.125rem] text-xs font-medium text-warn">Stale — signed off an earlier version of this figure</p>
+              ) : (
+                <p className="ml-[1.125rem] text-xs text-good">on the current version</p>
+              )}
+              {s.reason ? <p className="ml-[1.125rem] text-xs">Reason: “{s.reason}”</p> : null}
+            </li>
+          ))}
+        </ul>
+      ) : (
+        <p className="mt-3 text-xs text-muted"><span aria-hidden>○ </span>Not signed off yet.</p>
+      )}
+
+      {!canSignOff ? (
+        signedOff ? null : <p className="mt-3 text-xs text-muted">Only the PI signs off a figure.</p>
+      ) : signedOff ? null : changed ? (
+        <div className="mt-3">
+          <Notice ok={false}>The figure changed since this page loaded: the hash you saw is no longer current. Look at the figure as it is now before signing off.</Notice>
+          <Button type="button" variant="quiet" className="mt-2" onClick={() => void reload()}>Reload the figure</Button>
+        </div>
+      ) : needsReason ? (
+        <form className="mt-3 space-y-2" onSubmit={(e) => { e.preventDefault(); sign.mutate(true); }}>
+          <div role="alert" className="text-sm text-bad">
+            <p className="flex gap-2"><span aria-hidden className="font-bold">✕</span><span>{sentence(err!.message)}</span></p>
+            {err!.open!.length ? <ul className="ml-5 mt-1 list-disc text-ink">{err!.open!.map((o) => <li key={o}>{o}</li>)}</ul> : null}
+          </div>
+          <Field label="Reason for signing off with open issues">
+            <textarea
+              required value={reason} onChange={(e) => setReason(e.target.value)} rows={3} maxLength={5000}
+              className="w-full rounded-sm border border-rule bg-white px-2.5 py-1.5 text-sm focus:border-accent"
+            />
+          </Field>
+          <div className="flex flex-wrap gap-2">
+            <Button type="submit" disabled={sign.isPending || !reason.trim()}>{sign.isPending ? "Signing off…" : "Sign off with this reason"}</Button>
+            <Button type="button" variant="quiet" onClick={() => { sign.reset(); setReason(""); }}>Cancel</Button>
+          </div>
+        </form>
+      ) : (
+        <div className="mt-3">
+          {reviewState !== "approved" ? <p className="mb-2 text-xs text-muted">Not every panel is approved on its current revision; signing off now asks for a reason.</p> : null}
+          <Button type="button" onClick={() => sign.mutate(false)} disabled={sign.isPending}>{sign.isPending ? "Signing off…" : "Sign off this figure"}</Button>
+          {err ? <Notice ok={false}>{err.message}</Notice> : sign.error ? <Notice ok={false}>{(sign.error as Error).message}</Notice> : null}
+        </div>
+      )}
+      {sign.isSuccess && !err ? <Notice ok>Signed off hash {short(sign.data.figureHash)}.</Notice> : null}
+    </div>
+  );
 }
