@@ -1,5 +1,8 @@
 import Link from "next/link";
+import { FigureList } from "@/components/figures/figure-list";
+import { NewFigureForm } from "@/components/figures/new-figure-form";
 import { EmptyState, PageHeader, RoleBadge, Sheet } from "@/components/ui";
+import { roleAllows } from "@/lib/authz/policy";
 import { loadOrNotFound, requireUser } from "@/lib/http/session";
 import { getManuscript } from "@/lib/server/manuscripts";
 
@@ -13,6 +16,8 @@ export default async function ManuscriptPage({ params }: { params: Promise<{ id:
         title={m.title}
         subtitle={<>{m.labName} · your role <RoleBadge role={m.role!} /></>}
         actions={<>
+          <Link href={`/manuscripts/${m.id}/board`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Board</Link>
+          <Link href={`/manuscripts/${m.id}/activity`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Activity</Link>
           <Link href={`/manuscripts/${m.id}/analyses`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Analyses</Link>
           <Link href={`/manuscripts/${m.id}/members`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Members ({m.members.length})</Link>
         </>}
@@ -20,7 +25,10 @@ export default async function ManuscriptPage({ params }: { params: Promise<{ id:
       <div className="grid gap-6 lg:grid-cols-[1fr_280px]">
         <section aria-labelledby="figures-heading">
           <h2 id="figures-heading" className="mb-3 text-lg font-semibold">Figures</h2>
-          <EmptyState title="No figures yet">Figures and their panels appear here, each with its review state.</EmptyState>
+          {m.figures.length ? <FigureList figures={m.figures} /> : (
+            <EmptyState title="No figures yet">Figures and their panels appear here, each with its review state.</EmptyState>
+          )}
+          {m.role && roleAllows(m.role, "figure.edit") ? <NewFigureForm manuscriptId={m.id} /> : null}
         </section>
         <Sheet>
           <h2 className="text-sm font-semibold">Data</h2>

@@ -1,0 +1,71 @@
+"use client";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { useState, type FormEvent } from "react";
+import { queryKeys, sendJson, type FigureView, type MemberView } from "@/components/figures/api";
+import { presetFor, WIDTH_PRESETS } from "@/components/figures/format";
+import { Button, Field, Select, TextInput } from "@/components/ui";
+
+/** Title, width, maximum height, columns and required reviewers (PI and authors change them). */
+export function FigureSettings({ figure, members, editable }: { figure: FigureView; members: MemberView[]; editable: boolean }) {
+  const qc = useQueryClient();
+  const [title, setTitle] = useState(figure.title);
+  const [preset, setPreset] = useState(presetFor(figure.widthMm));
+  const [customMm, setCustomMm] = useState(String(figure.widthMm));
+  const [maxHeight, setMaxHeight] = useState(String(figure.maxHeightMm));
+  const [columns, setColumns] = useState(String(figure.columns));
+  const [reviewers, setReviewers] = useState<string[]>(figure.requiredReviewers);
+  const save = useMutation({
+    mutationFn: (patch: Record<string, unknown>) => sendJson<FigureView>(`/api/figures/${figure.id}`, "PATCH", patch),
+    onSuccess: (f) => qc.setQueryData(queryKeys.figure(figure.id), f),
+  });
+  const candidates = members.filter((m) => m.role !== "viewer");
+  const name = (id: string) => members.find((m) => m.userId === id)?.name ?? id;
+
+  if (!editable) {
+    return (
+      <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-sm">
+        <dt className="text-muted">Width</dt><dd className="tabular">{figure.widthMm} mm</dd>
+        <dt className="text-muted">Max height</dt><dd className="tabular">{figure.maxHeightMm} mm</dd>
+        <dt className="text-muted">Columns</dt><dd>{figure.columns}</dd>
+        <dt className="text-muted">Reviewers</dt><dd>{figure.requiredReviewers.length ? figure.requiredReviewers.map(name).join(", ") : "any one approval"}</dd>
+      </dl>
+    );
+  }
+
+  function submit(e: FormEvent) {
+    e.preventDefault();
+    const widthMm = preset === "custom" ? Number(customMm) : WIDTH_PRESETS.find((p) => p.id === preset)!.mm;
+    save.mutate({ title, widthMm, maxHeightMm: Number(maxHeight), columns: Number(columns), requiredReviewers: reviewers });
+  }
+
+  return (
+    <form onSubmit={submit} aria-label="Figure settings" className="space-y-3">
+      <Field label="Title"><TextInput required value={title} onChange={(e) => setTitle(e.target.value)} /></Field>
+      <Field label="Width">
+        <Select value={preset} onChange={(e) => setPreset(e.target.value)}>
+          {WIDTH_PRESETS.map((p) => <option key={p.id} value={p.id}>{p.label}</option>)}
+          <option value="custom">Custom…</option>
+        </Select>
+      </Field>
+      {preset === "custom" ? <Field label="Custom width (mm)"><TextInput type="number" min={30} max={300} value={customMm} onChange={(e) => setCustomMm(e.target.value)} /></Field> : null}
+      <div className="grid grid-cols-2 gap-3">
+        <Field label="Max height (mm)"><TextInput type="number" min={30} max={300} value={maxHeight} onChange={(e) => setMaxHeight(e.target.value)} /></Field>
+        <Field label="Columns"><Select value={columns} onChange={(e) => setColumns(e.target.value)}>{[1, 2, 3, 4, 5, 6].map((n) => <option key={n}>{n}</option>)}</Select></Field>
+      </div>
+      <fieldset className="text-sm">
+        <legend className="mb-1 font-medium">Required reviewers</legend>
+        <p className="mb-1 text-xs text-muted">With none chosen, one approval by anyone completes a panel.</p>
+        {candidates.map((m) => (
+          <label key={m.userId} className="flex items-center gap-2 py-0.5">
+            <input type="checkbox" className="h-4 w-4 accent-accent" checked={reviewers.includes(m.userId)}
+              onChange={(e) => setReviewers((r) => (e.target.checked ? [...r, m.userId] : r.filter((x) => x !== m.userId)))} />
+            {m.name} <span className="text-xs text-muted">({m.role === "pi" ? "PI" : m.role})</span>
+          </label>
+        ))}
+      </fieldset>
+      <Button type="submit" disabled={save.isPending}>{save.isPending ? "Saving…" : "Save settings"}</Button>
+      {save.isError ? <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>{(save.error as Error).message}</p> : null}
+      {save.isSuccess && !save.isPending ? <p role="status" className="text-sm text-good"><span aria-hidden>✓ </span>Saved.</p> : null}
+    </form>
+  );
+}

@@ -1,0 +1,27 @@
+import Link from "next/link";
+import { RoleBadge } from "@/components/ui";
+import { loadOrNotFound, requireUser } from "@/lib/http/session";
+import { getFigure } from "@/lib/server/figures/figures";
+import { getManuscriptTitle, listMembers } from "@/lib/server/manuscripts";
+import { FigureWorkspace } from "./_components/figure-workspace";
+
+export const metadata = { title: "Figure" };
+
+export default async function FigurePage({ params }: { params: Promise<{ id: string }> }) {
+  const user = await requireUser();
+  const { id } = await params;
+  const figure = await loadOrNotFound(() => getFigure(user, id));
+  const [title, members] = await Promise.all([getManuscriptTitle(figure.manuscriptId), listMembers(figure.manuscriptId)]);
+  return (
+    <>
+      <nav aria-label="Breadcrumb" className="mb-2 text-sm text-muted">
+        <ol className="flex flex-wrap gap-1">
+          <li><Link href={`/manuscripts/${figure.manuscriptId}`} className="underline">{title}</Link><span aria-hidden> /</span></li>
+          <li aria-current="page" className="text-ink">Figure {figure.number}</li>
+          {figure.role ? <li className="ml-2"><RoleBadge role={figure.role} /></li> : null}
+        </ol>
+      </nav>
+      <FigureWorkspace initial={JSON.parse(JSON.stringify(figure))} members={members.map(({ userId, name, email, role }) => ({ userId, name, email, role }))} />
+    </>
+  );
+}

@@ -1,0 +1,49 @@
+"use client";
+import { useQueries, useQuery } from "@tanstack/react-query";
+import type { VersionView } from "@/components/data/api";
+import { fetchJson, queryKeys, type AnalysisItem, type DatasetItem } from "@/components/figures/api";
+import type { ColumnInfo } from "./option-input";
+
+/** What a data name can be bound to: the current version of a dataset, or an output of a stored analysis. */
+export type Source =
+  | { kind: "version"; versionId: string; label: string; columns: ColumnInfo[] }
+  | { kind: "analysis"; analysisId: string; derivedVersionId: string; label: string; versionId: string; createdAt: string };
+
+export const sourceKey = (s: Source) => (s.kind === "version" ? `v:${s.versionId}` : `a:${s.analysisId}`);
+
+/** Datasets of the manuscript (measurements first; derived fit tables are reached through their analyses). */
+export function useBuilderSources(manuscriptId: string, initialDatasets: DatasetItem[], analysedVersionIds: string[], derivedVersionIds: string[]) {
+  const datasets = useQuery({
+    queryKey: queryKeys.datasets(manuscriptId),
+    queryFn: async () => (await fetchJson<{ items: DatasetItem[] }>(`/api/manuscripts/${manuscriptId}/datasets`)).items,
+    initialData: initialDatasets,
+  }).data;
+  const versionSources: Source[] = datasets
+    .filter((d) => d.latestVersion && !d.tags?.derivedFrom)
+    .map((d) => ({ kind: "version", versionId: d.latestVersion!.id, label: `${d.name} · version ${d.latestVersion!.number}`, columns: d.latestVersion!.columns }));
+  const nameOfVersion = new Map(versionSources.map((s) => [(s as { versionId: string }).versionId, s.label]));
+
+  const ids = [...new Set(analysedVersionIds)].sort();
+  const analyses = useQueries({
+    queries: ids.map((id) => ({
+      queryKey: queryKeys.analyses(id),
+      queryFn: async () => (await fetchJson<{ items: AnalysisItem[] }>(`/api/versions/${id}/analyses`)).items,
+    })),
+  });
+  const analysisSources: Source[] = analyses.flatMap((q, i) => (q.data ?? []).filter((a) => a.derivedVersionId).map((a) => ({
+    kind: "analysis" as const, analysisId: a.id, derivedVersionId: a.derivedVersionId!, versionId: ids[i]!, createdAt: String(a.createdAt),
+    label: `${a.model} fit of ${(nameOfVersion.get(ids[i]!) ?? "").replace(/^.* · /, "") || "the data"}, run ${String(a.createdAt).replace("T", " ").slice(0, 16)}`,
+  })));
+
+  const derived = [...new Set(derivedVersionIds)].sort();
+  const derivedVersions = useQueries({
+    queries: derived.map((id) => ({ queryKey: ["version", id], queryFn: () => fetchJson<VersionView>(`/api/versions/${id}`), staleTime: Infinity })),
+  });
+  const columnsOf = (s: Source | undefined): ColumnInfo[] => {
+    if (!s) return [];
+    if (s.kind === "version") return s.columns;
+    const v = derivedVersions[derived.indexOf(s.derivedVersionId)]?.data;
+    return (v?.columns ?? []).filter((c) => c.name !== "series");
+  };
+  return { versionSources, analysisSources, columnsOf, loadingAnalyses: analyses.some((q) => q.isLoading) };
+}

@@ -1,0 +1,116 @@
+"use client";
+import { useQuery } from "@tanstack/react-query";
+import { useEffect, useMemo, useRef, useState } from "react";
+import type { Result } from "vega-embed";
+import embed from "vega-embed";
+import { expressionInterpreter } from "vega-interpreter";
+import { fetchJson, queryKeys, type BoundRows, type RevisionData, type ThreadAnchor } from "./api";
+import { ChartAnchors, type ChartAnchor, type PickMode } from "./chart-anchors";
+import { dataNamesOf, plotGeometry, prepareSpec, PX_PER_MM, refusingLoader, shippedFontFamily, svgNaturalSize, type PlotGeometry } from "./vega-render";
+
+export interface PanelChartProps {
+  spec: unknown;
+  /** Rows per data name; when absent, the rows of `revisionId` are fetched. */
+  data?: Record<string, BoundRows>;
+  revisionId?: string | null;
+  /** Printed width of the panel, mm. */
+  widthMm: number;
+  /** 1 = print size at 96 CSS px per inch. */
+  zoom?: number;
+  anchors?: ChartAnchor[];
+  pickMode?: PickMode;
+  onPick?: (anchor: ThreadAnchor) => void;
+  /** Accessible name of the rendered figure. */
+  label?: string;
+  className?: string;
+}
+
+interface Rendered { natural: { width: number; height: number }; geometry: PlotGeometry | null }
+
+/**
+ * A panel's Vega-Lite spec rendered in the browser at its printed size, with bound data only
+ * (the loader refuses every load), expressions through the CSP-safe interpreter, and review
+ * anchors drawn over the plot. Load it with next/dynamic (ssr: false): Vega is large.
+ */
+export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors = [], pickMode = "none", onPick, label, className = "" }: PanelChartProps) {
+  const fetched = useQuery({
+    queryKey: queryKeys.revisionData(revisionId ?? ""),
+    queryFn: () => fetchJson<RevisionData>(`/api/revisions/${revisionId}/data`),
+    enabled: !data && Boolean(revisionId),
+    staleTime: Infinity,
+  });
+  const rows = data ?? fetched.data?.data;
+  const host = useRef<HTMLDivElement>(null);
+  const [rendered, setRendered] = useState<Rendered | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const specKey = useMemo(() => JSON.stringify(spec ?? null), [spec]);
+  const names = useMemo(() => dataNamesOf(JSON.parse(specKey)), [specKey]);
+  const ready = Boolean(rows) || names.length === 0;
+
+  useEffect(() => {
+    const parsed = JSON.parse(specKey) as unknown;
+    if (!ready || !host.current) return;
+    if (!parsed || typeof parsed !== "object" || Array.isArray(parsed)) return setError("The spec is not a JSON object.");
+    let cancelled = false;
+    let result: Result | null = null;
+    const refusals: string[] = [];
+    // Bound rows go in as named datasets, so the first layout (axes, autosize) already sees the data.
+    const withData = { ...(parsed as Record<string, unknown>), datasets: { ...((parsed as { datasets?: object }).datasets ?? {}), ...Object.fromEntries(names.map((n) => [n, rows?.[n]?.rows ?? []])) } };
+    const prepared = prepareSpec(withData, widthMm, shippedFontFamily());
+    (async () => {
+      try {
+        result = await embed(host.current!, prepared as never, {
+          mode: "vega-lite", renderer: "svg", actions: false, tooltip: false, defaultStyle: false, logLevel: 0,
+          ast: true, expr: expressionInterpreter, loader: refusingLoader(refusals),
+        });
+        if (cancelled) return result.finalize();
+        await result.view.runAsync();
+        if (refusals.length) throw new Error(`the spec tried to load external resources, which is not allowed (${refusals.slice(0, 2).join("; ")})`);
+        const svg = host.current?.querySelector("svg");
+        if (!cancelled && svg) {
+          setError(null);
+          setRendered({ natural: svgNaturalSize(svg), geometry: plotGeometry(result.view) });
+        }
+      } catch (e) {
+        if (!cancelled) { setError((e as Error).message); setRendered(null); }
+      }
+    })();
+    return () => {
+      cancelled = true;
+      result?.finalize();
+    };
+  }, [specKey, widthMm, ready, rows]); // `names` derives from specKey
+
+  const targetPx = widthMm * PX_PER_MM * zoom;
+  const scale = rendered ? targetPx / rendered.natural.width : 1;
+  const heightPx = rendered ? rendered.natural.height * scale : undefined;
+  useEffect(() => {
+    const svg = host.current?.querySelector("svg");
+    if (!svg || !rendered) return;
+    svg.style.width = `${targetPx}px`;
+    svg.style.height = `${heightPx}px`;
+    svg.style.display = "block";
+  }, [rendered, targetPx, heightPx]);
+
+  const reduced = Object.entries(rows ?? {}).filter(([, v]) => v.reduced);
+  const missing = rows ? names.filter((n) => !rows[n]) : [];
+  return (
+    <figure className={`m-0 ${className}`} aria-label={label} data-testid="panel-chart">
+      <div className="relative bg-white" style={{ width: targetPx, minHeight: rendered ? heightPx : 80 }}>
+        <div ref={host} className={error ? "hidden" : ""} />
+        {!rendered && !error ? <div className="absolute inset-0 animate-pulse bg-paper" aria-hidden /> : null}
+        {rendered?.geometry && !error ? (
+          <ChartAnchors geometry={rendered.geometry} scale={scale} width={targetPx} height={heightPx ?? 0} anchors={anchors} pickMode={pickMode} onPick={onPick} />
+        ) : null}
+        {error ? <p role="alert" className="p-3 text-sm text-bad"><span aria-hidden>✕ </span>This spec cannot be drawn: {error}</p> : null}
+      </div>
+      {fetched.isError ? <p role="alert" className="mt-1 text-xs text-bad">✕ {(fetched.error as Error).message}</p> : null}
+      {missing.length ? <p className="mt-1 text-xs text-warn"><span aria-hidden>△ </span>No data bound to {missing.map((n) => `“${n}”`).join(", ")}</p> : null}
+      {reduced.length ? (
+        <figcaption className="mt-1 text-xs text-muted" data-testid="reduced-note">
+          <span aria-hidden>◇ </span>reduced for display: {reduced.map(([n, v]) => `${n} ${v.rows.length.toLocaleString("en")} of ${v.sourceRows.toLocaleString("en")} rows`).join(", ")} — exports use every row
+        </figcaption>
+      ) : null}
+    </figure>
+  );
+}

@@ -1,0 +1,76 @@
+"use client";
+import { useQueries, useQuery } from "@tanstack/react-query";
+import { useMemo } from "react";
+import type { RowsPage } from "@/components/data/api";
+import { fetchJson, queryKeys, type Binding, type BoundRows, type RevisionData, type Row } from "./api";
+
+/** A binding plus the version whose rows it reads (an analysis output lives in its derived version). */
+export type BindingChoice = ({ versionId: string } | { analysisId: string; output: "curve" | "residuals" | "data" }) & { rowsVersionId: string };
+
+const SERIES: Record<string, string> = { curve: "curve", residuals: "residual", data: "data" };
+const PREVIEW_LIMIT = 10_000;
+
+export function toBinding(c: BindingChoice): Binding {
+  return "analysisId" in c ? { analysisId: c.analysisId, output: c.output } : { versionId: c.versionId };
+}
+
+export function choicesFromRevision(rev: { bindings: Record<string, Binding>; bound: Record<string, { versionId: string }> } | null | undefined): Record<string, BindingChoice> {
+  if (!rev) return {};
+  return Object.fromEntries(Object.entries(rev.bindings).map(([n, b]) => [n, { ...b, rowsVersionId: rev.bound[n]?.versionId ?? ("versionId" in b ? b.versionId : "") }]));
+}
+
+export function sameBindings(a: Record<string, BindingChoice>, b: Record<string, Binding>): boolean {
+  const ka = Object.keys(a).sort(), kb = Object.keys(b).sort();
+  return ka.length === kb.length && ka.every((k, i) => k === kb[i] && JSON.stringify(toBinding(a[k]!)) === JSON.stringify(b[k]));
+}
+
+function toRecords(page: RowsPage, series: string | null): Row[] {
+  const s = series ? page.names.indexOf("series") : -1;
+  const out: Row[] = [];
+  for (const r of page.rows) {
+    if (s >= 0 && r[s] !== series) continue;
+    const row: Row = {};
+    page.names.forEach((n, i) => { row[n] = r[i] ?? null; });
+    out.push(row);
+  }
+  return out;
+}
+
+/**
+ * Rows for a preview. When the bindings are the saved revision's, its display data is used;
+ * unsaved bindings read the bound versions' rows (first 10,000) in the browser.
+ */
+export function usePreviewData(choices: Record<string, BindingChoice>, revision: { id: string; bindings: Record<string, Binding> } | null) {
+  const saved = Boolean(revision) && sameBindings(choices, revision!.bindings);
+  const rev = useQuery({
+    queryKey: queryKeys.revisionData(revision?.id ?? ""),
+    queryFn: () => fetchJson<RevisionData>(`/api/revisions/${revision!.id}/data`),
+    enabled: saved,
+    staleTime: Infinity,
+  });
+  const ids = [...new Set(Object.values(choices).map((c) => c.rowsVersionId).filter(Boolean))].sort();
+  const pages = useQueries({
+    queries: ids.map((id) => ({
+      queryKey: queryKeys.versionRows(id),
+      queryFn: () => fetchJson<RowsPage>(`/api/versions/${id}/rows?limit=${PREVIEW_LIMIT}`),
+      enabled: !saved,
+      staleTime: Infinity,
+    })),
+  });
+  const pageData = pages.map((p) => p.data);
+  const failed = pages.find((p) => p.isError)?.error as Error | undefined;
+  const key = JSON.stringify(choices);
+  const pagesKey = pages.map((p) => p.dataUpdatedAt).join(",");
+  const data = useMemo(() => {
+    if (saved) return rev.data?.data;
+    const out: Record<string, BoundRows> = {};
+    for (const [name, c] of Object.entries(choices)) {
+      const page = pageData[ids.indexOf(c.rowsVersionId)];
+      if (!page) return undefined;
+      const rows = toRecords(page, "analysisId" in c ? SERIES[c.output]! : null);
+      out[name] = { rows, reduced: page.rowCount > page.rows.length, sourceRows: page.rowCount };
+    }
+    return out;
+  }, [saved, rev.data, key, pagesKey]); // choices and pageData are read through their keys
+  return { data, error: saved ? (rev.error as Error | null) : failed ?? null, saved };
+}

@@ -1,0 +1,187 @@
+import { expect, test, type Locator, type Page } from "@playwright/test";
+import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
+
+interface ListedDataset { id: string; name: string; kind: string; tags: Record<string, string>; latestVersion: { id: string; number: number } | null }
+
+/** Replaces text in the CodeMirror spec editor through its own search-and-replace panel, as a person would. */
+async function replaceInSpec(page: Page, find: string, replace: string) {
+  await page.locator(".cm-content").click();
+  await page.keyboard.press("Control+f");
+  const search = page.locator(".cm-search input[name=search]");
+  await search.fill(find);
+  await page.locator(".cm-search input[name=replace]").fill(replace);
+  await page.locator(".cm-search button[name=replaceAll]").click();
+  await page.locator(".cm-search button[name=close]").click();
+}
+
+async function expectRendered(chart: Locator) {
+  await expect(chart.locator("svg.marks")).toBeVisible();
+  await expect(chart.getByRole("alert")).toHaveCount(0);
+}
+
+test("the author builds a Hahn-echo panel with its fit, revises it twice and compares; the reviewer marks an x-range, comments and approves", async ({ page, browser, baseURL }) => {
+  test.setTimeout(240_000);
+  await signIn(page, "author@lab.example.org");
+
+  // A stored fit of one demo echo measurement, through the API as a script would run it.
+  const list = await page.request.get(`/api/manuscripts/${DEMO_MANUSCRIPT}/datasets`);
+  const echo = ((await list.json()) as { items: ListedDataset[] }).items.find((d) => d.kind === "hahn_echo" && !d.tags.derivedFrom && d.latestVersion)!;
+  const fit = await page.request.post("/api/analyses", {
+    headers: { origin: baseURL! },
+    data: { versionId: echo.latestVersion!.id, model: "hahn_echo", options: { x: "tau", y: "signal", sigma: "sigma" } },
+  });
+  expect(fit.status()).toBe(201);
+
+  // A new figure on the demo manuscript, double column with two columns.
+  await page.goto(`/manuscripts/${DEMO_MANUSCRIPT}`);
+  const form = page.getByRole("form", { name: "New figure" });
+  await form.getByLabel("Title").fill("Coherence of shallow NV centres");
+  await form.getByLabel("Width").selectOption("double");
+  await form.getByLabel("Columns").selectOption("2");
+  await form.getByRole("button", { name: "Create figure" }).click();
+  await expect(page).toHaveURL(/\/figures\/[\w-]+$/);
+  const figureUrl = page.url();
+  await expect(page.getByRole("heading", { level: 1 })).toContainText("Coherence of shallow NV centres");
+
+  const add = page.getByRole("form", { name: "Add panel" });
+  await add.getByLabel("Panel title").fill("Hahn echo");
+  await add.getByRole("button", { name: "Add panel" }).click();
+  await page.getByRole("list", { name: "Panels in order" }).getByRole("link", { name: "Hahn echo" }).click();
+  await expect(page).toHaveURL(/\/panels\/[\w-]+$/);
+  const panelUrl = page.url();
+
+  // Builder: the decay-curve template, the echo data and the stored fit's curve and residuals.
+  const builder = page.getByTestId("builder");
+  await expect(builder.getByLabel("Template")).toHaveValue("decay-curve");
+  await builder.getByLabel("Measured points").selectOption({ label: `${echo.name} · version ${echo.latestVersion!.number}` });
+  await expect(builder.getByLabel("Fitted curve")).toHaveValue(/^a:/);
+  await expect(builder.getByLabel("Residuals")).toHaveValue(/^a:/);
+  await expect(builder.getByLabel("σ column (error bars)")).toHaveValue("sigma");
+  await builder.getByLabel("Time axis", { exact: true }).selectOption("log");
+  await shoot(page, "panel-builder");
+  await builder.getByRole("button", { name: "Generate spec" }).click();
+
+  // Spec editor: valid, previewed with the chosen data; an edit, then revision 1.
+  await expect(page.getByRole("tab", { name: "Spec editor" })).toHaveAttribute("aria-selected", "true");
+  await expect(page.getByTestId("spec-status")).toContainText('Valid Vega-Lite · data “echo”, “fit”, “residuals”');
+  await expectRendered(page.getByTestId("preview"));
+  await replaceInSpec(page, '"title": "coherence"', '"title": "echo amplitude"');
+  await expect(page.getByTestId("preview").locator("svg.marks")).toContainText("echo amplitude");
+  await page.getByLabel("What changed (commit message)").fill("Echo with stretched-exponential fit; y axis named");
+  await page.getByRole("button", { name: "Save revision 1" }).click();
+  await expect(page.getByRole("status").filter({ hasText: "Saved revision 1" })).toBeVisible();
+  const current = page.getByRole("region", { name: "Current revision" });
+  await expectRendered(current);
+  await expect(current).toContainText("Revision 1");
+  await shoot(page, "panel-editor");
+
+  // A second tab opened on revision 1 will be out of date once revision 2 is saved.
+  const stale = await page.context().newPage();
+  await stale.goto(panelUrl);
+  await expect(stale.getByRole("region", { name: "Current revision" })).toContainText("Revision 1");
+
+  // A broken edit shows inline errors (the lint marks and the list); undo takes it back. Then revision 2.
+  await replaceInSpec(page, '"font": "Inter"', '"font": 7');
+  await expect(page.getByTestId("spec-status")).toContainText("problems in the spec");
+  await expect(page.getByTestId("spec-status")).toContainText("config.font: must be a string");
+  await expect(page.locator(".cm-lintRange-error").first()).toBeAttached();
+  await expect(page.getByRole("button", { name: "Save as revision 2" })).toBeDisabled();
+  await shoot(page, "panel-editor-errors");
+  await page.getByRole("button", { name: "Undo" }).click();
+  await expect(page.getByTestId("spec-status")).toContainText("Valid Vega-Lite");
+  await replaceInSpec(page, '"title": "echo amplitude"', '"title": "normalised echo"');
+  await page.getByLabel("What changed (commit message)").fill("y axis: normalised echo");
+  await page.getByRole("button", { name: "Save as revision 2" }).click();
+  await expect(page.getByRole("status").filter({ hasText: "Saved revision 2" })).toBeVisible();
+  await expect(current).toContainText("Revision 2");
+
+  // The other tab still edits on revision 1: the server answers 409 and the page says so plainly.
+  await stale.getByRole("tab", { name: "Spec editor" }).click();
+  await replaceInSpec(stale, '"title": "echo amplitude"', '"title": "amplitude"');
+  await stale.getByRole("button", { name: /^Save as revision/ }).click();
+  await expect(stale.getByRole("alert").filter({ hasText: "This panel changed since you opened it — reload" })).toBeVisible();
+  await stale.close();
+
+  // Revisions: the list and the comparison of 1 and 2, as a diff and two renders.
+  await page.getByRole("tab", { name: "Revisions" }).click();
+  const revisions = page.getByRole("table", { name: "Revisions" });
+  await expect(revisions.getByRole("row")).toHaveCount(3);
+  await expect(revisions).toContainText("y axis: normalised echo");
+  const diff = page.getByTestId("spec-diff");
+  await expect(diff.locator('[data-kind="removed"]').filter({ hasText: "echo amplitude" }).first()).toBeVisible();
+  await expect(diff.locator('[data-kind="added"]').filter({ hasText: "normalised echo" }).first()).toBeVisible();
+  await expect(page.getByTestId("diff-summary")).toContainText("revision 1 → 2");
+  const renders = page.getByTestId("compare-renders").getByTestId("panel-chart");
+  await expect(renders).toHaveCount(2);
+  await expectRendered(renders.nth(0));
+  await expectRendered(renders.nth(1));
+  await expect(renders.nth(0)).toContainText("echo amplitude");
+  await expect(renders.nth(1)).toContainText("normalised echo");
+  await page.getByRole("heading", { name: "Compare" }).scrollIntoViewIfNeeded();
+  await shoot(page, "panel-compare");
+
+  // The figure at print size: 183 mm at 96 dpi, panel letter a; a second panel b, and reordering re-letters.
+  await page.goto(figureUrl);
+  await add.getByLabel("Panel title").fill("PL spectrum");
+  await add.getByRole("button", { name: "Add panel" }).click();
+  const order = page.getByRole("list", { name: "Panels in order" });
+  await expect(order.getByRole("listitem")).toHaveText([/^a\s*Hahn echo/, /^b\s*PL spectrum/]);
+  await page.getByRole("button", { name: "Move panel b up" }).click();
+  await expect(order.getByRole("listitem")).toHaveText([/^a\s*PL spectrum/, /^b\s*Hahn echo/]);
+  await page.getByRole("button", { name: "Move panel b up" }).click();
+  await expect(order.getByRole("listitem")).toHaveText([/^a\s*Hahn echo/, /^b\s*PL spectrum/]);
+  await expect(page.getByTestId("panel-tile-b")).toContainText("no revision yet");
+  const tile = page.getByTestId("panel-tile-a");
+  await expect(tile.getByTestId("panel-letter")).toHaveText("a");
+  await expectRendered(tile);
+  const sheet = await page.getByTestId("figure-sheet").boundingBox();
+  expect(Math.abs(sheet!.width - (183 / 25.4) * 96)).toBeLessThan(1.5);
+  await expect(page.getByTestId("zoom-level")).toHaveText("100 %");
+  await shoot(page, "figure");
+  await page.getByRole("button", { name: "Show the trace" }).click();
+  const trace = page.getByRole("table", { name: "Trace" });
+  await expect(trace).toContainText(`${echo.name} v${echo.latestVersion!.number}`);
+  await expect(trace).toContainText("hahn_echo fit");
+  await expect(trace.getByRole("row")).toHaveCount(5); // header, echo / fit / residuals of a, and b with no revision
+
+  // The reviewer marks an x-range on the plot, comments in bold, and approves.
+  const reviewerContext = await browser.newContext();
+  const reviewer = await reviewerContext.newPage();
+  await signIn(reviewer, "reviewer@partner.example.org");
+  await reviewer.goto(panelUrl);
+  const chart = reviewer.getByRole("region", { name: "Current revision" });
+  await expectRendered(chart);
+  await reviewer.getByRole("button", { name: "↔ Mark an x-range" }).click();
+  const overlay = chart.getByTestId("pick-overlay");
+  const box = (await overlay.boundingBox())!;
+  await reviewer.mouse.move(box.x + box.width * 0.55, box.y + box.height * 0.5);
+  await reviewer.mouse.down();
+  await reviewer.mouse.move(box.x + box.width * 0.7, box.y + box.height * 0.5, { steps: 5 });
+  await reviewer.mouse.move(box.x + box.width * 0.85, box.y + box.height * 0.5, { steps: 5 });
+  await reviewer.mouse.up();
+  await expect(reviewer.getByTestId("draft-anchor")).toContainText("x-range");
+  const composer = reviewer.getByRole("textbox", { name: "New comment" });
+  await composer.click();
+  await reviewer.getByRole("button", { name: "Bold" }).click();
+  await reviewer.keyboard.type("Tail looks flat");
+  await reviewer.getByRole("button", { name: "Bold" }).click();
+  await reviewer.keyboard.type(" — are there enough points beyond 1 ms?");
+  await reviewer.getByRole("button", { name: "Post comment" }).click();
+  const thread = reviewer.getByRole("list", { name: "Open threads" }).getByTestId("thread").first();
+  await expect(thread.locator("strong", { hasText: "Tail looks flat" })).toBeVisible();
+  await expect(thread.getByTestId("thread-anchor")).toContainText("x-range");
+  await expect(thread).toContainText("written on revision 2 (current)");
+  await expect(chart.locator("[data-anchor]")).toHaveCount(1);
+  await reviewer.getByRole("button", { name: "✓ Approve revision 2" }).click();
+  await expect(reviewer.getByTestId("panel-review-state")).toContainText("Approved");
+  await expect(reviewer.getByRole("list", { name: "Decisions" })).toContainText("Ines Varga");
+  await shoot(reviewer, "panel-review");
+  await reviewerContext.close();
+
+  // The author sees the panel approved, here and on the figure.
+  await page.goto(panelUrl);
+  await expect(page.getByTestId("panel-review-state")).toContainText("Approved");
+  await expect(page.getByRole("list", { name: "Open threads" })).toContainText("Tail looks flat");
+  await page.goto(figureUrl);
+  await expect(page.getByTestId("panel-tile-a")).toContainText("Approved");
+});
