@@ -3,6 +3,8 @@
  * clients, each with one request in flight at a time over keep-alive connections of one undici
  * Agent, for a fixed time after an untimed warm-up. Bounded in requests and time, loopback only.
  *
+ * runInterleaved alternates several targets in rounds so that they share the machine's state.
+ *
  * Latency is client side, from just before fetch() to the whole body read. A request counts as an
  * error when it throws (connection error, per-request timeout) or its status is not the expected
  * one; its latency is still recorded, so slow failures show in the percentiles.
@@ -55,19 +57,23 @@ async function makeAgent(probeUrl: string, connections: number): Promise<Dispatc
   return new global.constructor({ connections, pipelining: 1, keepAliveTimeout: 30_000, keepAliveMaxTimeout: 60_000 });
 }
 
-async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationMs: number, kind: "warmup" | "timed") {
+interface Raw { latencies: number[]; statuses: Record<string, number>; errors: number; errorSamples: string[]; bytes: number; elapsedMs: number }
+
+/** One closed-loop slice of `durationMs`; `seq` numbers requests across the slices of one target. */
+async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationMs: number, kind: "warmup" | "timed", counter: { seq: number }): Promise<Raw> {
   const latencies: number[] = [];
   const statuses: Record<string, number> = {};
   const errorSamples: string[] = [];
   let errors = 0;
   let bytes = 0;
-  let seq = 0;
+  let issued = 0;
   const max = opts.maxRequests ?? 200_000;
   const t0 = performance.now();
   const end = t0 + durationMs;
   const client = async (c: number) => {
-    while (performance.now() < end && seq < max) {
-      const { url, init } = opts.request(seq++, c, kind);
+    while (performance.now() < end && issued < max) {
+      issued++;
+      const { url, init } = opts.request(counter.seq++, c, kind);
       const started = performance.now();
       let status = "error";
       let detail = "";
@@ -92,31 +98,65 @@ async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationM
   return { latencies, statuses, errors, errorSamples, bytes, elapsedMs: performance.now() - t0 };
 }
 
-/** Warm-up (results dropped), then the timed phase. */
-export async function runLoad(opts: LoadOptions): Promise<LoadResult> {
-  const first = new URL(opts.request(0, 0, "warmup").url);
-  if (!LOOPBACK.has(first.hostname)) throw new Error(`the load generator only targets loopback, not ${first.hostname}`);
-  const agent = await makeAgent(`${first.origin}/api/ping`, opts.connections);
+function merge(raws: Raw[]): Raw {
+  const statuses: Record<string, number> = {};
+  for (const r of raws) for (const [k, v] of Object.entries(r.statuses)) statuses[k] = (statuses[k] ?? 0) + v;
+  return {
+    latencies: raws.flatMap((r) => r.latencies), statuses, errors: raws.reduce((a, r) => a + r.errors, 0),
+    errorSamples: raws.flatMap((r) => r.errorSamples).slice(0, 5), bytes: raws.reduce((a, r) => a + r.bytes, 0), elapsedMs: raws.reduce((a, r) => a + r.elapsedMs, 0),
+  };
+}
+
+function summarize(r: Raw, w: Raw | null): LoadResult {
+  const l = r.latencies;
+  const n = l.length;
+  return {
+    requests: n,
+    errors: r.errors,
+    statuses: r.statuses,
+    errorSamples: r.errorSamples,
+    durationS: round(r.elapsedMs / 1000, 2),
+    rps: round(n / (r.elapsedMs / 1000)),
+    latencyMs: n ? {
+      p50: round(percentile(l, 50), 2), p95: round(percentile(l, 95), 2), p99: round(percentile(l, 99), 2),
+      mean: round(l.reduce((a, b) => a + b, 0) / n, 2), max: round(l.reduce((a, b) => Math.max(a, b), 0), 2), min: round(l.reduce((a, b) => Math.min(a, b), Infinity), 2),
+    } : { p50: NaN, p95: NaN, p99: NaN, mean: NaN, max: NaN, min: NaN },
+    bytesPerResponse: n ? Math.round(r.bytes / n) : 0,
+    warmup: { requests: w?.latencies.length ?? 0, errors: w?.errors ?? 0, statuses: w?.statuses ?? {} },
+  };
+}
+
+/**
+ * Several targets measured in alternation: each warms up once, then `rounds` rounds run every
+ * target for durationMs / rounds in turn, so that other work on the machine weighs on all of them
+ * alike. `around` is called before and after each timed slice (e.g. to read the server's CPU time).
+ */
+export async function runInterleaved(targets: LoadOptions[], rounds: number, around?: (target: number, when: "before" | "after") => void): Promise<LoadResult[]> {
+  const agents: Array<Dispatcher | undefined> = [];
   try {
-    const w = opts.warmupMs > 0 ? await phase(opts, agent, opts.warmupMs, "warmup") : null;
-    const r = await phase(opts, agent, opts.durationMs, "timed");
-    const l = r.latencies;
-    const n = l.length;
-    return {
-      requests: n,
-      errors: r.errors,
-      statuses: r.statuses,
-      errorSamples: r.errorSamples,
-      durationS: round(r.elapsedMs / 1000, 2),
-      rps: round(n / (r.elapsedMs / 1000)),
-      latencyMs: n ? {
-        p50: round(percentile(l, 50), 2), p95: round(percentile(l, 95), 2), p99: round(percentile(l, 99), 2),
-        mean: round(l.reduce((a, b) => a + b, 0) / n, 2), max: round(l.reduce((a, b) => Math.max(a, b), 0), 2), min: round(l.reduce((a, b) => Math.min(a, b), Infinity), 2),
-      } : { p50: NaN, p95: NaN, p99: NaN, mean: NaN, max: NaN, min: NaN },
-      bytesPerResponse: n ? Math.round(r.bytes / n) : 0,
-      warmup: { requests: w?.latencies.length ?? 0, errors: w?.errors ?? 0, statuses: w?.statuses ?? {} },
-    };
+    for (const t of targets) {
+      const first = new URL(t.request(0, 0, "warmup").url);
+      if (!LOOPBACK.has(first.hostname)) throw new Error(`the load generator only targets loopback, not ${first.hostname}`);
+      agents.push(await makeAgent(`${first.origin}/api/ping`, t.connections));
+    }
+    const counters = targets.map(() => ({ seq: 0 }));
+    const warm: Array<Raw | null> = [];
+    for (const [i, t] of targets.entries()) warm.push(t.warmupMs > 0 ? await phase(t, agents[i], t.warmupMs, "warmup", counters[i]!) : null);
+    const timed: Raw[][] = targets.map(() => []);
+    for (let r = 0; r < rounds; r++) {
+      for (const [i, t] of targets.entries()) {
+        around?.(i, "before");
+        timed[i]!.push(await phase(t, agents[i], t.durationMs / rounds, "timed", counters[i]!));
+        around?.(i, "after");
+      }
+    }
+    return targets.map((_, i) => summarize(merge(timed[i]!), warm[i]!));
   } finally {
-    await agent?.close();
+    await Promise.all(agents.map((a) => a?.close()));
   }
+}
+
+/** One target: warm-up (results dropped), then the timed phase. */
+export async function runLoad(opts: LoadOptions): Promise<LoadResult> {
+  return (await runInterleaved([opts], 1))[0]!;
 }
