@@ -1,7 +1,7 @@
 import { asc, count, eq } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { datasets, labMembers, labs, manuscriptMembers, manuscripts, users } from "@/db/schema";
+import { datasets, labMembers, labs, manuscriptMembers, manuscripts, users, type Role } from "@/db/schema";
 import { authorize, authorizeLab, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "./audit";
 import { newId } from "./crypto";
@@ -53,15 +53,20 @@ export async function listMembers(manuscriptId: string) {
 }
 
 /** The manuscript with its figures, panels and derived review states (figures arrive with the figure work). */
-export async function getManuscript(user: SessionUser, manuscriptId: string) {
-  const role = await authorize(user, "manuscript.read", manuscriptId);
+/** `knownRole` is the role the route gate already established for this request, so it is not looked up twice. */
+export async function getManuscript(user: SessionUser, manuscriptId: string, knownRole?: Role | null) {
+  const role = knownRole ?? (await authorize(user, "manuscript.read", manuscriptId));
   const [m] = await getDb().select({
     id: manuscripts.id, title: manuscripts.title, labId: manuscripts.labId, labName: labs.name, createdAt: manuscripts.createdAt,
   }).from(manuscripts).innerJoin(labs, eq(labs.id, manuscripts.labId)).where(eq(manuscripts.id, manuscriptId));
   if (!m) throw notFound();
-  const [dataCount] = await getDb().select({ n: count() }).from(datasets).where(eq(datasets.manuscriptId, manuscriptId));
   const { listFiguresForManuscript } = await import("./figures/figures");
-  return { ...m, role, members: await listMembers(manuscriptId), figures: await listFiguresForManuscript(user, manuscriptId), datasetCount: dataCount?.n ?? 0 };
+  const [[dataCount], members, figures] = await Promise.all([
+    getDb().select({ n: count() }).from(datasets).where(eq(datasets.manuscriptId, manuscriptId)),
+    listMembers(manuscriptId),
+    listFiguresForManuscript(user, manuscriptId, role),
+  ]);
+  return { ...m, role, members, figures, datasetCount: dataCount?.n ?? 0 };
 }
 
 export async function getManuscriptTitle(manuscriptId: string): Promise<string> {

@@ -56,8 +56,8 @@ function presentFigure(review: FigureReview, role: Role | null) {
   };
 }
 
-export async function listFiguresForManuscript(user: SessionUser, manuscriptId: string) {
-  const role = await authorize(user, "manuscript.read", manuscriptId);
+export async function listFiguresForManuscript(user: SessionUser, manuscriptId: string, knownRole?: Role | null) {
+  const role = knownRole ?? (await authorize(user, "manuscript.read", manuscriptId));
   return (await loadReviewContext({ manuscriptId })).map((r) => presentFigure(r, role));
 }
 

@@ -29,7 +29,10 @@ export const manuscriptOfThread = async (threadId: string) => (await threadConte
 
 async function insertComment(tx: Transaction, user: SessionUser, threadId: string, panelId: string, manuscriptId: string, prepared: { html: string; mentions: string[] }, body: Record<string, unknown>, clientKey?: string) {
   const id = newId();
-  await tx.insert(comments).values({ id, threadId, body, html: prepared.html, mentions: prepared.mentions, clientKey: clientKey ?? null, createdBy: user.id });
+  // Two retries racing on a networked database meet at the unique (author, clientKey) index: the loser stores nothing.
+  const inserted = await tx.insert(comments).values({ id, threadId, body, html: prepared.html, mentions: prepared.mentions, clientKey: clientKey ?? null, createdBy: user.id })
+    .onConflictDoNothing().returning({ id: comments.id });
+  if (!inserted[0]) return null;
   await appendAudit(tx, { actorId: user.id, manuscriptId, action: "comment.create", target: `comment:${id}`, data: { threadId, mentions: prepared.mentions } });
   const excerpt = prepared.html.replace(/<[^>]+>/g, " ").replace(/\s+/g, " ").trim().slice(0, 300);
   for (const m of prepared.mentions.filter((m) => m !== user.id)) await enqueueMail(tx, await reviewMail.mention(m, user, panelId, excerpt));
@@ -54,10 +57,15 @@ export async function createThread(user: SessionUser, panelId: string, raw: z.in
   if (input.anchor?.type === "xrange" && !(input.anchor.x0 < input.anchor.x1)) throw badRequest("anchor: x0 must be below x1.");
   const prepared = prepareCommentBody(input.body, await memberIds(manuscriptId));
   const id = newId();
+  let raced = false;
   await getDb().transaction(async (tx) => {
     await tx.insert(threads).values({ id, panelId, revisionId: input.revisionId, anchor: input.anchor ?? null, createdBy: user.id });
-    await insertComment(tx, user, id, panelId, manuscriptId, prepared, input.body, input.clientKey);
-  });
+    if (!(await insertComment(tx, user, id, panelId, manuscriptId, prepared, input.body, input.clientKey))) {
+      raced = true;
+      tx.rollback(); // a concurrent retry stored this comment first: keep its thread, not an empty one
+    }
+  }).catch((err) => { if (!raced) throw err; });
+  if (raced) return getThread(user, (await existingByClientKey(user, input.clientKey))!.threadId);
   void deliverOutbox().catch(() => undefined);
   return getThread(user, id);
 }
