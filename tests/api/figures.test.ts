@@ -48,6 +48,14 @@ describe("figures, panels and revisions", () => {
     expect(bad.status).toBe(400);
   });
 
+  it("required reviewers must be members who may review", async () => {
+    const { figureId } = await newPanel();
+    const bad = await call(figure.PATCH, { method: "PATCH", token: tokens.pi, params: { id: figureId }, body: { requiredReviewers: ["demo-viewer"] } });
+    expect(bad.status).toBe(400);
+    expect(bad.json.error.message).toMatch(/^requiredReviewers: "demo-viewer"/);
+    expect((await call(figure.PATCH, { method: "PATCH", token: tokens.pi, params: { id: figureId }, body: { requiredReviewers: ["demo-reviewer"] } })).status).toBe(200);
+  });
+
   it("a revision's content hash covers spec and bound data, not key order", async () => {
     const { panelId } = await newPanel();
     const r1 = await revise(panelId, { spec: spec(), baseRevisionId: null });

@@ -1,6 +1,6 @@
 import { and, eq, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { figures, panels, type Role } from "@/db/schema";
+import { figures, manuscriptMembers, panels, type Role } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
@@ -29,6 +29,11 @@ export async function updateFigure(user: SessionUser, figureId: string, raw: z.i
   const manuscriptId = await manuscriptOfFigure(figureId);
   await authorize(user, "figure.edit", manuscriptId);
   const patch = updateFigureInput.parse(raw);
+  if (patch.requiredReviewers?.length) {
+    const members = await getDb().select({ id: manuscriptMembers.userId, role: manuscriptMembers.role }).from(manuscriptMembers).where(eq(manuscriptMembers.manuscriptId, manuscriptId));
+    const bad = patch.requiredReviewers.find((u) => !members.some((m) => m.id === u && m.role !== "viewer"));
+    if (bad) throw badRequest(`requiredReviewers: "${bad}" is not a member who may review (PI, author or reviewer).`);
+  }
   await getDb().transaction(async (tx) => {
     await tx.update(figures).set(patch).where(eq(figures.id, figureId));
     await appendAudit(tx, { actorId: user.id, manuscriptId, action: "figure.update", target: `figure:${figureId}`, data: patch });
