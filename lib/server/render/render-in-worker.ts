@@ -204,6 +204,8 @@ export async function stopRenderWorkers(): Promise<void> {
   await Promise.all(all.map((w) => new Promise<void>((resolve) => {
     if (w.child.exitCode !== null || w.child.signalCode !== null) return resolve();
     w.child.once("exit", () => resolve());
+    // Idle workers are unref'd; without a ref the process may leave before the exit event arrives.
+    w.child.ref();
     w.child.kill("SIGKILL");
   })));
 }
