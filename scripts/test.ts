@@ -28,7 +28,8 @@ function runAsync(cmd: string, args: string[], env: Record<string, string> = {})
 function counts(file: string, kind: "vitest" | "playwright"): { passed: number; failed: number; skipped: number } {
   if (!fs.existsSync(file)) return { passed: 0, failed: 1, skipped: 0 };
   const j = JSON.parse(fs.readFileSync(file, "utf8"));
-  if (kind === "vitest") return { passed: j.numPassedTests, failed: j.numFailedTests + (j.numFailedTestSuites ?? 0), skipped: j.numPendingTests + j.numTodoTests };
+  // A suite that fails to load has no failed tests of its own; count it only then.
+  if (kind === "vitest") return { passed: j.numPassedTests, failed: j.numFailedTests || (j.numFailedTestSuites ?? 0), skipped: j.numPendingTests + j.numTodoTests };
   return { passed: j.stats.expected, failed: j.stats.unexpected + j.stats.flaky, skipped: j.stats.skipped };
 }
 

@@ -184,4 +184,54 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await expect(page.getByRole("list", { name: "Open threads" })).toContainText("Tail looks flat");
   await page.goto(figureUrl);
   await expect(page.getByTestId("panel-tile-a")).toContainText("Approved");
+
+  // The vector PDF downloads from the figure page.
+  const pdfHref = await page.getByRole("link", { name: "PDF (vector)" }).getAttribute("href");
+  const pdf = await page.request.get(pdfHref!);
+  expect(pdf.status()).toBe(200);
+  expect(pdf.headers()["content-type"]).toBe("application/pdf");
+  expect((await pdf.body()).subarray(0, 5).toString()).toBe("%PDF-");
+
+  // A new measurement version arrives; the author rebinds in one click and the approval turns stale with the data change.
+  const raw = await page.request.get(`/api/versions/${echo.latestVersion!.id}/raw`);
+  const remeasured = (await raw.text()).replace(/\n(\d[^,\n]*),([\d.]+)/, (_m, t: string, y: string) => `\n${t},${(Number(y) + 1e-4).toFixed(6)}`);
+  const upload = await page.request.post(`/api/manuscripts/${DEMO_MANUSCRIPT}/datasets`, {
+    headers: { origin: baseURL! },
+    multipart: { file: { name: "echo-remeasured.csv", mimeType: "text/csv", buffer: Buffer.from(remeasured) }, datasetId: echo.id },
+  });
+  expect(upload.status()).toBe(201);
+  const next = (await upload.json()) as { number: number };
+  await page.goto(panelUrl);
+  await page.getByRole("tab", { name: "Bindings" }).click();
+  await page.getByRole("button", { name: `rebind to version ${next.number}` }).click();
+  await expect(page.getByRole("status").filter({ hasText: "Rebound" })).toContainText("revision 3 saved");
+
+  const again = await browser.newContext();
+  const reviewer2 = await again.newPage();
+  await signIn(reviewer2, "reviewer@partner.example.org");
+  await reviewer2.goto(panelUrl);
+  const staleDecision = reviewer2.getByRole("list", { name: "Decisions" }).getByTestId("decision").filter({ hasText: "Stale" });
+  await expect(staleDecision).toContainText(`version ${echo.latestVersion!.number} → ${next.number}`);
+  await expect(reviewer2.getByTestId("panel-review-state")).toContainText("In review");
+  await reviewer2.getByRole("button", { name: "✓ Approve revision 3" }).click();
+  await expect(reviewer2.getByTestId("panel-review-state")).toContainText("Approved");
+  await again.close();
+
+  // The PI signs off; panel b is still open, so the sign-off asks for a reason and records it.
+  const piContext = await browser.newContext();
+  const pi = await piContext.newPage();
+  await signIn(pi, "pi@lab.example.org");
+  await pi.goto(figureUrl);
+  const panelB = await pi.request.get(`/api/figures/${figureUrl.split("/").pop()}`);
+  const b = ((await panelB.json()) as { panels: Array<{ id: string; letter: string }> }).panels.find((p) => p.letter === "b")!;
+  const specA = ((await (await pi.request.get(`/api/panels/${panelUrl.split("/").pop()}`)).json()) as { currentRevision: { spec: unknown; bindings: unknown } }).currentRevision;
+  expect((await page.request.post(`/api/panels/${b.id}/revisions`, { headers: { origin: baseURL! }, data: { spec: specA.spec, bindings: specA.bindings, baseRevisionId: null, message: "draft" } })).status()).toBe(201);
+  await pi.reload();
+  await pi.getByRole("button", { name: "Sign off this figure" }).click();
+  await pi.getByLabel("Reason for signing off with open issues").fill("Panel b is a supplementary view; the reviewer saw it in the meeting.");
+  await pi.getByRole("button", { name: "Sign off with this reason" }).click();
+  await expect(pi.getByRole("list", { name: "Sign-offs" })).toContainText("Mira Halvorsen");
+  await expect(pi.getByRole("list", { name: "Sign-offs" })).toContainText("Reason:");
+  await shoot(pi, "figure-signed-off");
+  await piContext.close();
 });

@@ -45,7 +45,12 @@ export async function writeStreamToTemp(source: AsyncIterable<Uint8Array> | Iter
     await new Promise<void>((resolve, reject) => out.end((err?: Error | null) => (err ? reject(err) : resolve())));
     return { tmp, sha256: hash.digest("hex"), byteSize };
   } catch (err) {
-    out.destroy();
+    // The file may still be opening; remove it only once the stream has closed, or it reappears.
+    await new Promise<void>((resolve) => {
+      if (out.closed) return resolve();
+      out.once("close", () => resolve());
+      out.destroy();
+    });
     await fsp.rm(tmp, { force: true });
     throw err;
   }
