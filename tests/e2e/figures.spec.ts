@@ -185,13 +185,6 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await page.goto(figureUrl);
   await expect(page.getByTestId("panel-tile-a")).toContainText("Approved");
 
-  // The vector PDF downloads from the figure page.
-  const pdfHref = await page.getByRole("link", { name: "PDF (vector)" }).getAttribute("href");
-  const pdf = await page.request.get(pdfHref!);
-  expect(pdf.status()).toBe(200);
-  expect(pdf.headers()["content-type"]).toBe("application/pdf");
-  expect((await pdf.body()).subarray(0, 5).toString()).toBe("%PDF-");
-
   // A new measurement version arrives; the author rebinds in one click and the approval turns stale with the data change.
   const raw = await page.request.get(`/api/versions/${echo.latestVersion!.id}/raw`);
   const remeasured = (await raw.text()).replace(/\n(\d[^,\n]*),([\d.]+)/, (_m, t: string, y: string) => `\n${t},${(Number(y) + 1e-4).toFixed(6)}`);
@@ -227,6 +220,14 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   const specA = ((await (await pi.request.get(`/api/panels/${panelUrl.split("/").pop()}`)).json()) as { currentRevision: { spec: unknown; bindings: unknown } }).currentRevision;
   expect((await page.request.post(`/api/panels/${b.id}/revisions`, { headers: { origin: baseURL! }, data: { spec: specA.spec, bindings: specA.bindings, baseRevisionId: null, message: "draft" } })).status()).toBe(201);
   await pi.reload();
+
+  // Every panel has a revision now, so the vector PDF downloads from the figure page.
+  const pdfHref = await pi.getByRole("link", { name: "PDF (vector)" }).getAttribute("href");
+  const pdf = await pi.request.get(pdfHref!);
+  expect(pdf.status()).toBe(200);
+  expect(pdf.headers()["content-type"]).toBe("application/pdf");
+  expect((await pdf.body()).subarray(0, 5).toString()).toBe("%PDF-");
+
   await pi.getByRole("button", { name: "Sign off this figure" }).click();
   await pi.getByLabel("Reason for signing off with open issues").fill("Panel b is a supplementary view; the reviewer saw it in the meeting.");
   await pi.getByRole("button", { name: "Sign off with this reason" }).click();
