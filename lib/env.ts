@@ -16,6 +16,15 @@ const schema = z.object({
   AUTH_SECRET: z.string().optional(),
   UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(200 * 1024 * 1024),
   MAIL_SINK_PAGE: z.enum(["on", "off", "auto"]).default("auto"),
+  /** "demo" is set by `npm run demo`; `next dev` runs as development; anything else is production. */
+  PROOFLIGHT_INSTANCE: z.enum(["demo", "development", "production"]).optional(),
+  /** Comma-separated addresses of reverse proxies whose X-Forwarded-For is believed. */
+  TRUSTED_PROXIES: z.string().default(""),
+  /** A stalled upload is aborted after this many milliseconds without a byte. */
+  UPLOAD_IDLE_TIMEOUT_MS: z.coerce.number().int().positive().default(60_000),
+  UPLOADS_PER_USER: z.coerce.number().int().positive().default(2),
+  UPLOADS_IN_TOTAL: z.coerce.number().int().positive().default(4),
+  JSON_BODY_MAX_BYTES: z.coerce.number().int().positive().default(1024 * 1024),
 });
 
 function load() {
@@ -29,6 +38,7 @@ function load() {
   const appUrl = (e.APP_URL ?? `http://localhost:${e.PORT}`).replace(/\/$/, "");
   const smtpUrl = e.SMTP_URL ?? `smtp://127.0.0.1:${e.SMTP_PORT}`;
   const usesLocalSink = e.SMTP_URL === undefined;
+  const instance = e.PROOFLIGHT_INSTANCE ?? (e.NODE_ENV === "development" ? "development" : "production");
   return {
     nodeEnv: e.NODE_ENV,
     port: e.PORT,
@@ -42,10 +52,29 @@ function load() {
     mailFrom: e.MAIL_FROM,
     authSecret: e.AUTH_SECRET,
     uploadMaxBytes: e.UPLOAD_MAX_BYTES,
-    /** The outbox page shows the local sink's messages; only meaningful when mail goes there. */
-    mailSinkPage: e.MAIL_SINK_PAGE === "on" || (e.MAIL_SINK_PAGE === "auto" && usesLocalSink),
+    instance,
+    usesLocalSink,
+    /**
+     * Who may read the local sink's messages at /dev/mail: "loopback" (demo and development
+     * instances, anonymous requests from this machine only), "members" (production with
+     * MAIL_SINK_PAGE=on: signed-in lab members, their own mail only) or nobody.
+     */
+    mailSinkPage: mailSinkAudience(e.MAIL_SINK_PAGE, instance, usesLocalSink),
+    trustedProxies: e.TRUSTED_PROXIES.split(",").map((a) => a.trim()).filter(Boolean),
+    uploadIdleTimeoutMs: e.UPLOAD_IDLE_TIMEOUT_MS,
+    uploadsPerUser: e.UPLOADS_PER_USER,
+    uploadsInTotal: e.UPLOADS_IN_TOTAL,
+    jsonBodyMaxBytes: e.JSON_BODY_MAX_BYTES,
     secureCookies: appUrl.startsWith("https://"),
   };
+}
+
+export type MailSinkAudience = "loopback" | "members" | "nobody";
+
+function mailSinkAudience(setting: "on" | "off" | "auto", instance: string, usesLocalSink: boolean): MailSinkAudience {
+  if (setting === "off") return "nobody";
+  if (instance !== "production") return setting === "on" || usesLocalSink ? "loopback" : "nobody";
+  return setting === "on" ? "members" : "nobody";
 }
 
 export type Env = ReturnType<typeof load>;

@@ -94,6 +94,30 @@ export const signInFailures = sqliteTable(
   (t) => [index("sign_in_failures_email").on(t.email, t.at), index("sign_in_failures_ip").on(t.ip, t.at)],
 );
 
+/** One row per browser sign-in; the session cookie names it, and sign-out revokes it. */
+export const sessions = sqliteTable(
+  "sessions",
+  {
+    id: id(),
+    userId: text("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+    createdAt: createdAt(),
+    expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
+    revokedAt: integer("revoked_at", { mode: "timestamp_ms" }),
+  },
+  (t) => [index("sessions_user").on(t.userId)],
+);
+
+/** Events counted by rate limits (sign-in links, invitations, comments, uploads), keyed by bucket. */
+export const rateEvents = sqliteTable(
+  "rate_events",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    bucket: text("bucket").notNull(),
+    at: integer("at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [index("rate_events_bucket").on(t.bucket, t.at)],
+);
+
 export const auditLog = sqliteTable(
   "audit_log",
   {

@@ -3,9 +3,10 @@ import { AppError } from "@/lib/server/errors";
 
 export interface ErrorBody { error: { code: string; message: string; details?: unknown } }
 
-export function errorResponse(status: number, code: string, message: string, details?: unknown): Response {
+export function errorResponse(status: number, code: string, message: string, details?: unknown, retryAfterSeconds?: number): Response {
   const body: ErrorBody = { error: { code, message, ...(details === undefined ? {} : { details }) } };
-  return Response.json(body, { status });
+  const headers = retryAfterSeconds ? { "retry-after": String(retryAfterSeconds) } : undefined;
+  return Response.json(body, { status, headers });
 }
 
 /** Names each bad field by its path, e.g. `role: Invalid option: expected one of "pi"|"author"…`. */
@@ -16,7 +17,7 @@ export function describeZodError(err: ZodError): { message: string; details: Arr
 
 /** Every error becomes the contract's JSON shape; only a genuine bug is a 500. */
 export function toErrorResponse(err: unknown): Response {
-  if (err instanceof AppError) return errorResponse(err.status, err.code, err.message, err.details);
+  if (err instanceof AppError) return errorResponse(err.status, err.code, err.message, err.details, err.retryAfterSeconds);
   if (err instanceof ZodError) {
     const { message, details } = describeZodError(err);
     return errorResponse(400, "bad_request", message, details);

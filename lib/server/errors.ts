@@ -5,6 +5,8 @@ export class AppError extends Error {
     readonly code: string,
     message: string,
     readonly details?: unknown,
+    /** For 429 and 503: seconds after which a retry may succeed (sent as Retry-After). */
+    readonly retryAfterSeconds?: number,
   ) {
     super(message);
     this.name = "AppError";
@@ -20,4 +22,5 @@ export const conflict = (message: string, details?: unknown) => new AppError(409
 export const tooLarge = (message: string) => new AppError(413, "too_large", message);
 export const unsupported = (message: string, details?: unknown) => new AppError(415, "unsupported_media_type", message, details);
 export const unprocessable = (message: string, details?: unknown) => new AppError(422, "unprocessable", message, details);
-export const tooManyRequests = (message: string) => new AppError(429, "too_many_requests", message);
+export const tooManyRequests = (message: string, retryAfterSeconds = 60) =>
+  new AppError(429, "too_many_requests", message, undefined, Math.max(1, Math.ceil(retryAfterSeconds)));

@@ -1,0 +1,45 @@
+import { and, count, eq, gt, lt, min } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { rateEvents } from "@/db/schema";
+import { tooManyRequests } from "../errors";
+
+export interface RateRule {
+  /** Bucket key, e.g. `sign-in-link:addr:pi@lab.example.org`. */
+  bucket: string;
+  /** At most this many events per window. */
+  max: number;
+  windowMs: number;
+  /** Sentence shown when the limit is reached; the wait is appended. */
+  message: string;
+}
+
+export interface RateCheck { allowed: boolean; retryAfterSeconds: number }
+
+/** How the bucket stands now, without recording anything. Shared through the database, so every instance counts. */
+export async function peekRate(rule: RateRule, now = Date.now()): Promise<RateCheck> {
+  const since = new Date(now - rule.windowMs);
+  const [row] = await getDb().select({ n: count(), oldest: min(rateEvents.at) }).from(rateEvents)
+    .where(and(eq(rateEvents.bucket, rule.bucket), gt(rateEvents.at, since)));
+  const n = row?.n ?? 0;
+  if (n < rule.max) return { allowed: true, retryAfterSeconds: 0 };
+  const oldest = row?.oldest instanceof Date ? row.oldest.getTime() : now;
+  return { allowed: false, retryAfterSeconds: Math.max(1, Math.ceil((oldest + rule.windowMs - now) / 1000)) };
+}
+
+/** Records one event under every rule, or throws 429 (with Retry-After) naming the first rule that is full. */
+export async function consumeRate(rules: RateRule[], now = Date.now()): Promise<void> {
+  for (const rule of rules) {
+    const check = await peekRate(rule, now);
+    if (!check.allowed) throw tooManyRequests(`${rule.message} Try again in ${describeWait(check.retryAfterSeconds)}.`, check.retryAfterSeconds);
+  }
+  const db = getDb();
+  await db.insert(rateEvents).values(rules.map((r) => ({ bucket: r.bucket, at: new Date(now) })));
+  const longest = Math.max(...rules.map((r) => r.windowMs));
+  await db.delete(rateEvents).where(lt(rateEvents.at, new Date(now - 2 * Math.max(longest, 24 * 3600_000))));
+}
+
+export function describeWait(seconds: number): string {
+  if (seconds < 90) return `${seconds} s`;
+  if (seconds < 5400) return `${Math.ceil(seconds / 60)} min`;
+  return `${Math.ceil(seconds / 3600)} h`;
+}
