@@ -1,7 +1,9 @@
 import NextAuth, { CredentialsSignin } from "next-auth";
 import Credentials from "next-auth/providers/credentials";
 import { env } from "@/lib/env";
-import { clientIp, recordSignInFailure, signInBlockedReason } from "@/lib/server/sign-in-limits";
+import { clientAddress } from "@/lib/server/limits/client-address";
+import { createSession, isSessionActive, revokeSession, SESSION_MAX_AGE_S } from "@/lib/server/sessions";
+import { recordSignInFailure, signInBlockedReason } from "@/lib/server/sign-in-limits";
 import { consumeSignInLink } from "@/lib/server/sign-in-links";
 import { verifyPassword } from "@/lib/server/users";
 
@@ -11,7 +13,7 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
   secret: env().authSecret,
   trustHost: true,
   useSecureCookies: env().secureCookies,
-  session: { strategy: "jwt", maxAge: 14 * 24 * 3600 },
+  session: { strategy: "jwt", maxAge: SESSION_MAX_AGE_S },
   pages: { signIn: "/sign-in", error: "/sign-in" },
   providers: [
     Credentials({
@@ -20,7 +22,7 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
       async authorize(credentials, request) {
         const email = String(credentials?.email ?? "");
         const password = String(credentials?.password ?? "");
-        const ip = clientIp(request.headers);
+        const ip = clientAddress(request.headers);
         if (await signInBlockedReason(email, ip)) throw new RateLimited();
         const user = await verifyPassword(email, password);
         if (!user) await recordSignInFailure(email, ip);
@@ -34,13 +36,19 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
     }),
   ],
   callbacks: {
-    jwt({ token, user }) {
-      if (user?.id) token.uid = user.id;
-      return token;
+    // The cookie names a server-side session row; once sign-out revokes it the cookie is worthless.
+    async jwt({ token, user }) {
+      if (user?.id) return { ...token, uid: user.id, sid: await createSession(user.id) };
+      return (await isSessionActive(token.sid)) ? token : null;
     },
     session({ session, token }) {
       if (token.uid) session.user.id = String(token.uid);
       return session;
+    },
+  },
+  events: {
+    async signOut(message) {
+      if ("token" in message) await revokeSession(message.token?.sid);
     },
   },
 });

@@ -1,4 +1,5 @@
 import type { NextConfig } from "next";
+import { DOWNLOAD_CONTENT_SECURITY_POLICY } from "./lib/http/csp";
 
 const nextConfig: NextConfig = {
   reactStrictMode: true,
@@ -6,14 +7,21 @@ const nextConfig: NextConfig = {
   serverExternalPackages: ["@libsql/client", "libsql", "smtp-server", "mailparser", "bcryptjs", "@resvg/resvg-js", "pdfkit", "svg-to-pdfkit", "vega", "vega-lite", "vega-interpreter"],
   typedRoutes: false,
   async headers() {
-    return [{
-      source: "/:path*",
-      headers: [
-        { key: "X-Content-Type-Options", value: "nosniff" },
-        { key: "Referrer-Policy", value: "same-origin" },
-        { key: "X-Frame-Options", value: "DENY" },
-      ],
-    }];
+    return [
+      {
+        source: "/:path*",
+        headers: [
+          { key: "X-Content-Type-Options", value: "nosniff" },
+          // same-origin, not no-referrer: with no-referrer a browser sends `Origin: null` on our own POSTs.
+          { key: "Referrer-Policy", value: "same-origin" },
+          { key: "X-Frame-Options", value: "DENY" },
+          { key: "Cross-Origin-Opener-Policy", value: "same-origin" },
+          { key: "Permissions-Policy", value: "camera=(), microphone=(), geolocation=(), payment=()" },
+        ],
+      },
+      // Pages get a nonce policy from proxy.ts; API answers and downloads get one that runs nothing.
+      { source: "/api/:path*", headers: [{ key: "Content-Security-Policy", value: DOWNLOAD_CONTENT_SECURITY_POLICY }] },
+    ];
   },
 };
 

@@ -141,6 +141,10 @@ export async function startBenchServer(opts: BenchServerOptions): Promise<BenchS
     UPLOADS_DIR: path.join(dir, "uploads"),
     MAIL_SINK_DIR: path.join(dir, "mail"),
     SMTP_PORT: String(opts.smtpPort),
+    // Load generators post and upload far faster than people; the limits are tested in tests/api.
+    COMMENTS_PER_MINUTE: "1000000",
+    UPLOADS_PER_USER: "64",
+    UPLOADS_IN_TOTAL: "64",
   };
   const savedEnv = Object.fromEntries(Object.keys(benchEnv).map((k) => [k, process.env[k]]));
   let server: ChildProcess | undefined;

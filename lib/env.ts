@@ -25,6 +25,7 @@ const schema = z.object({
   UPLOADS_PER_USER: z.coerce.number().int().positive().default(2),
   UPLOADS_IN_TOTAL: z.coerce.number().int().positive().default(4),
   JSON_BODY_MAX_BYTES: z.coerce.number().int().positive().default(1024 * 1024),
+  COMMENTS_PER_MINUTE: z.coerce.number().int().positive().default(30),
 });
 
 function load() {
@@ -65,6 +66,7 @@ function load() {
     uploadsPerUser: e.UPLOADS_PER_USER,
     uploadsInTotal: e.UPLOADS_IN_TOTAL,
     jsonBodyMaxBytes: e.JSON_BODY_MAX_BYTES,
+    commentsPerMinute: e.COMMENTS_PER_MINUTE,
     secureCookies: appUrl.startsWith("https://"),
   };
 }

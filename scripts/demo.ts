@@ -26,12 +26,15 @@ try {
   console.warn(`Mail sink NOT started: ${(err as Error).message}`);
 }
 
-spawnNext(["start", "-p", String(env().port)]);
+// A demo instance: the mail outbox page is served, to requests from this machine only.
+spawnNext(["start", "-p", String(env().port)], { PROOFLIGHT_INSTANCE: "demo" });
 await waitForHttp(`http://localhost:${env().port}/api/health`, 90_000);
 
 console.log(`
-Prooflight is running at ${env().appUrl}
-Mail outbox (demo): ${env().appUrl}/dev/mail
+Prooflight is running at ${env().appUrl} — a DEMO instance.
+Mail outbox (this machine only): ${env().appUrl}/dev/mail
+  It shows every sign-in link and invitation the app sends: keep a demo off shared networks.
+  A lab's own instance runs \`npm run build && npm start\` with SMTP_URL set; it has no outbox page.
 
 Demo accounts (password for all: ${DEMO_PASSWORD}):
 ${DEMO_ACCOUNTS.map((a) => `  ${a.email.padEnd(34)} ${a.role ?? "no membership (second lab only)"}`).join("\n")}

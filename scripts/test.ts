@@ -67,6 +67,9 @@ async function runBrowserTests(): Promise<number> {
     MAIL_SINK_DIR: path.join(dir, "mail"),
     SMTP_PORT: process.env.E2E_SMTP_PORT ?? "2626",
     APP_URL: `http://localhost:${port}`,
+    PROOFLIGHT_INSTANCE: "demo",
+    // The concurrency test posts 1,000 comments as one reviewer; the limit itself is tested in tests/api.
+    COMMENTS_PER_MINUTE: "5000",
   };
   Object.assign(process.env, env);
   const { applyMigrations } = await import("@/db/migrate");

@@ -4,13 +4,15 @@ import { signOutAction } from "@/app/actions/auth";
 import { ActionForm } from "@/components/action-form";
 import { Providers } from "@/components/providers";
 import { WaitingOnMeLink } from "@/components/review/waiting-on-me-link";
-import { env } from "@/lib/env";
+import { headers } from "next/headers";
 import { requireUser } from "@/lib/http/session";
+import { outboxViewFor } from "@/lib/server/mail/outbox-access";
 
 export const dynamic = "force-dynamic";
 
 export default async function AppLayout({ children }: { children: ReactNode }) {
   const user = await requireUser();
+  const outbox = await outboxViewFor(await headers(), user);
   return (
     <Providers>
       <div className="min-h-screen">
@@ -21,7 +23,7 @@ export default async function AppLayout({ children }: { children: ReactNode }) {
             <WaitingOnMeLink />
             <Link href="/calculators" className="hover:underline">Calculators</Link>
             <Link href="/settings/tokens" className="hover:underline">API tokens</Link>
-            {env().mailSinkPage ? <Link href="/dev/mail" className="hover:underline">Mail outbox</Link> : null}
+            {outbox ? <Link href="/dev/mail" className="hover:underline">Mail outbox</Link> : null}
             <span className="ml-auto text-muted" data-testid="signed-in-as">{user.name} · {user.email}</span>
             <ActionForm action={signOutAction}>
               <button type="submit" className="rounded-sm border border-rule px-2 py-1 hover:bg-paper">Sign out</button>

@@ -5,7 +5,8 @@ import { z } from "zod";
 import { signIn, signOut } from "@/auth";
 import { publicAction } from "@/lib/http/action";
 import { acceptInput, acceptInvitation } from "@/lib/server/members";
-import { clientIp, signInBlockedReason } from "@/lib/server/sign-in-limits";
+import { clientAddress } from "@/lib/server/limits/client-address";
+import { signInBlockedReason } from "@/lib/server/sign-in-limits";
 import { requestSignInLink } from "@/lib/server/sign-in-links";
 
 const safeNext = (next: unknown) => (typeof next === "string" && /^\/(?!\/)/.test(next) ? next : "/manuscripts");
@@ -13,13 +14,13 @@ const safeNext = (next: unknown) => (typeof next === "string" && /^\/(?!\/)/.tes
 export const signInWithPassword = publicAction(
   z.object({ email: z.string().trim().email("Give a valid e-mail address."), password: z.string().min(1, "Enter your password."), next: z.string().optional() }),
   async ({ email, password, next }) => {
-    const blocked = await signInBlockedReason(email, clientIp(await headers()));
+    const blocked = await signInBlockedReason(email, clientAddress(await headers()));
     if (blocked) return { ok: false, message: blocked };
     try {
       await signIn("password", { email, password, redirectTo: safeNext(next) });
     } catch (err) {
       if (err instanceof AuthError) {
-        const again = await signInBlockedReason(email, clientIp(await headers()));
+        const again = await signInBlockedReason(email, clientAddress(await headers()));
         return { ok: false, message: again ?? "That e-mail and password do not match an account." };
       }
       throw err;
@@ -30,7 +31,7 @@ export const signInWithPassword = publicAction(
 export const requestLinkAction = publicAction(
   z.object({ email: z.string().trim().email("Give a valid e-mail address.") }),
   async ({ email }) => {
-    await requestSignInLink(email);
+    await requestSignInLink(email, clientAddress(await headers()));
     return { ok: true, message: "If the address has an account, a sign-in link is on its way. It works once, for 15 minutes." };
   },
 );

@@ -1,6 +1,8 @@
 import type { z } from "zod";
 import { authorize, type Action, type SessionUser } from "@/lib/authz";
-import { AppError } from "@/lib/server/errors";
+import { headers } from "next/headers";
+import { env } from "@/lib/env";
+import { AppError, forbidden } from "@/lib/server/errors";
 import { ZodError } from "zod";
 import { describeZodError } from "./errors";
 import { currentUser } from "./session";
@@ -25,6 +27,22 @@ function failure(err: unknown): ActionState {
   throw err;
 }
 
+/**
+ * Next checks a server action's Origin against the host only when the header is present; a
+ * request without one would pass. Forms here are always posted by a browser, which sends it.
+ */
+export async function requireSameOrigin(h: Headers): Promise<void> {
+  const origin = h.get("origin");
+  if (!origin) throw forbidden("This form must be sent from Prooflight's own pages; the request had no Origin header.");
+  let host: string;
+  try {
+    host = new URL(origin).host;
+  } catch {
+    throw forbidden("Cross-site request refused: the Origin header is not a URL.");
+  }
+  if (host !== h.get("host") && host !== new URL(env().appUrl).host) throw forbidden("Cross-site request refused.");
+}
+
 /** The same gate as route handlers, for server actions: states the permission, validates the form, authorizes. */
 export function withAction<I>(
   permission: Action,
@@ -33,6 +51,7 @@ export function withAction<I>(
 ): FormAction {
   const fn: FormAction = async (_prev, form) => {
     try {
+      await requireSameOrigin(await headers());
       const user = await currentUser();
       if (!user) return { ok: false, message: "Your session has ended. Sign in again." };
       const input = options.input.parse(formToObject(form));
@@ -50,6 +69,7 @@ export function withAction<I>(
 export function publicAction<I>(input: z.ZodType<I>, handler: (input: I) => Promise<ActionState | void>): FormAction {
   const fn: FormAction = async (_prev, form) => {
     try {
+      await requireSameOrigin(await headers());
       return (await handler(input.parse(formToObject(form)))) ?? { ok: true, message: "Done." };
     } catch (err) {
       return failure(err);

@@ -9,10 +9,20 @@ import { newId, newSecret, sha256Hex } from "./crypto";
 import { badRequest, conflict, notFound } from "./errors";
 import { deliverOutbox, enqueueMail } from "./mail/outbox";
 import { invitationMail } from "./mail/templates";
+import { consumeRate, type RateRule } from "./limits/rate-limit";
 import { getManuscriptTitle } from "./manuscripts";
 import { hashPassword, normaliseEmail } from "./users";
 
 const INVITE_TTL_MS = 7 * 24 * 3600 * 1000;
+const HOUR_MS = 3600 * 1000;
+
+/** Invitations are mail to outsiders: a few per address a day, a few dozen per manuscript an hour. */
+export function invitationRateRules(manuscriptId: string, email: string): RateRule[] {
+  return [
+    { bucket: `invite:to:${email}`, max: 3, windowMs: 24 * HOUR_MS, message: `${email} has been invited 3 times today.` },
+    { bucket: `invite:manuscript:${manuscriptId}`, max: 30, windowMs: HOUR_MS, message: "This manuscript has sent 30 invitations in the last hour." },
+  ];
+}
 
 export const inviteInput = z.object({
   email: z.string().trim().email("Give a valid e-mail address."),
@@ -29,6 +39,7 @@ export async function inviteMember(user: SessionUser, manuscriptId: string, inpu
     .innerJoin(users, eq(users.id, manuscriptMembers.userId))
     .where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(users.email, email)));
   if (existing) throw conflict(`${email} is already a member (${existing.role}). Change the role instead.`);
+  await consumeRate(invitationRateRules(manuscriptId, email));
   const { secret, hash } = newSecret("pli");
   const id = newId();
   const expiresAt = new Date(Date.now() + INVITE_TTL_MS);

@@ -12,7 +12,7 @@ import { deliverOutbox } from "@/lib/server/mail/outbox";
 import { startMailSink, type SinkHandle } from "@/lib/server/mail/sink-server";
 import { listSinkMessages } from "@/lib/server/mail/sink-store";
 import { acceptInvitation } from "@/lib/server/members";
-import { MAX_FAILURES_PER_ACCOUNT, recordSignInFailure, signInBlockedReason } from "@/lib/server/sign-in-limits";
+import { recordSignInFailure, signInBlock, signInBlockedReason } from "@/lib/server/sign-in-limits";
 import { consumeSignInLink } from "@/lib/server/sign-in-links";
 import { verifyPassword } from "@/lib/server/users";
 import { call, setupTestApp, type Who } from "./harness";
@@ -77,11 +77,23 @@ describe("sign-in links", () => {
 });
 
 describe("failed sign-ins are rate-limited", () => {
-  it("per account: 429 from the Auth.js endpoint after repeated failures", async () => {
+  it("per account: a growing wait, answered 429 by the Auth.js endpoint, never a lockout", async () => {
     const email = "author@lab.example.org";
-    expect(await signInBlockedReason(email, "10.0.0.1")).toBeNull();
-    for (let i = 0; i < MAX_FAILURES_PER_ACCOUNT; i++) await recordSignInFailure(email, `192.0.2.${i}`);
-    expect(await signInBlockedReason(email, "10.0.0.1")).toMatch(/Too many failed sign-ins for this account/);
+    const t0 = Date.parse("2026-12-02T10:00:00Z");
+    expect(await signInBlockedReason(email, "10.0.0.1", t0)).toBeNull();
+    // Five wrong passwords from five addresses, one second apart.
+    for (let i = 0; i < 5; i++) await recordSignInFailure(email, `192.0.2.${i}`, t0 + i * 1000);
+    const last = t0 + 4000;
+    // Waits: 3 failures → 2 s, 4 → 4 s, 5 → 8 s after the latest (hand-computed from the rule 2^(n-2) s).
+    expect(await signInBlock(email, "10.0.0.1", last + 1000)).toMatchObject({ retryAfterSeconds: 7 });
+    expect(await signInBlockedReason(email, "10.0.0.1", last + 1000)).toMatch(/try again in 7 s, or use an e-mail sign-in link/);
+    // The owner is not locked out: eight seconds after the latest failure the password works again.
+    expect(await signInBlock(email, "10.0.0.1", last + 8000)).toBeNull();
+  });
+
+  it("the Auth.js endpoint answers 429 with Retry-After while an account waits", async () => {
+    const email = "viewer@lab.example.org";
+    for (let i = 0; i < 6; i++) await recordSignInFailure(email, "192.0.2.50");
     const form = new URLSearchParams({ email, password: "wrong" });
     const r = await call(authRoute.POST, {
       method: "POST", path: "/api/auth/callback/password", rawBody: form,
@@ -89,11 +101,13 @@ describe("failed sign-ins are rate-limited", () => {
     });
     expect(r.status).toBe(429);
     expect(r.json.error.code).toBe("too_many_requests");
+    expect(Number(r.headers.get("retry-after"))).toBeGreaterThan(0);
   });
 
   it("per address: many accounts from one IP", async () => {
     for (let i = 0; i < 20; i++) await recordSignInFailure(`user${i}@x.example.org`, "198.51.100.7");
     expect(await signInBlockedReason("someone@x.example.org", "198.51.100.7")).toMatch(/from this address/);
+    expect(await signInBlockedReason("someone@x.example.org", "198.51.100.8")).toBeNull();
   });
 });
 

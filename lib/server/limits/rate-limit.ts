@@ -34,6 +34,8 @@ export async function consumeRate(rules: RateRule[], now = Date.now()): Promise<
   }
   const db = getDb();
   await db.insert(rateEvents).values(rules.map((r) => ({ bucket: r.bucket, at: new Date(now) })));
+  // Old events are pruned now and then, not on every write.
+  if (Math.random() > 0.02) return;
   const longest = Math.max(...rules.map((r) => r.windowMs));
   await db.delete(rateEvents).where(lt(rateEvents.at, new Date(now - 2 * Math.max(longest, 24 * 3600_000))));
 }

@@ -12,6 +12,8 @@ import { manuscriptOfPanel } from "../figures/scope";
 import { prepareCommentBody } from "./comment-body";
 import { reviewMail } from "./review-mail";
 import { editCommentInput, newThreadInput, replyInput } from "./schemas";
+import { env } from "@/lib/env";
+import { consumeRate, type RateRule } from "../limits/rate-limit";
 
 const EDIT_WINDOW_MS = 15 * 60 * 1000;
 
@@ -46,12 +48,18 @@ async function existingByClientKey(user: SessionUser, clientKey?: string) {
   return c ?? null;
 }
 
+/** A retry with the same clientKey is answered above, before this counts. */
+const commentRateRule = (userId: string): RateRule => ({
+  bucket: `comment:user:${userId}`, max: env().commentsPerMinute, windowMs: 60_000, message: "You have posted many comments in the last minute.",
+});
+
 export async function createThread(user: SessionUser, panelId: string, raw: z.infer<typeof newThreadInput>) {
   const manuscriptId = await manuscriptOfPanel(panelId);
   await authorize(user, "comment.write", manuscriptId);
   const input = newThreadInput.parse(raw);
   const again = await existingByClientKey(user, input.clientKey);
   if (again) return getThread(user, again.threadId);
+  await consumeRate([commentRateRule(user.id)]);
   const [rev] = await getDb().select({ panelId: revisions.panelId }).from(revisions).where(eq(revisions.id, input.revisionId));
   if (!rev || rev.panelId !== panelId) throw badRequest("revisionId: not a revision of this panel.");
   if (input.anchor?.type === "xrange" && !(input.anchor.x0 < input.anchor.x1)) throw badRequest("anchor: x0 must be below x1.");
@@ -76,6 +84,7 @@ export async function replyToThread(user: SessionUser, threadId: string, raw: z.
   const input = replyInput.parse(raw);
   const again = await existingByClientKey(user, input.clientKey);
   if (again) return getThread(user, threadId);
+  await consumeRate([commentRateRule(user.id)]);
   const prepared = prepareCommentBody(input.body, await memberIds(manuscriptId));
   await getDb().transaction(async (tx) => {
     await insertComment(tx, user, threadId, thread.panelId, manuscriptId, prepared, input.body, input.clientKey);

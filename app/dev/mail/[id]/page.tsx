@@ -1,15 +1,18 @@
 import Link from "next/link";
+import { headers } from "next/headers";
 import { notFound } from "next/navigation";
 import { PageHeader } from "@/components/ui";
-import { env } from "@/lib/env";
+import { currentUser } from "@/lib/http/session";
+import { outboxViewFor, visibleTo } from "@/lib/server/mail/outbox-access";
 import { getSinkMessage } from "@/lib/server/mail/sink-store";
 
 export const dynamic = "force-dynamic";
 
 export default async function MailMessagePage({ params }: { params: Promise<{ id: string }> }) {
-  if (!env().mailSinkPage) notFound();
+  const view = await outboxViewFor(await headers(), await currentUser());
+  if (!view) notFound();
   const m = getSinkMessage((await params).id);
-  if (!m) notFound();
+  if (!m || !visibleTo(view, m)) notFound();
   const links = [...m.text.matchAll(/https?:\/\/\S+/g)].map((x) => x[0]);
   return (
     <main className="mx-auto max-w-4xl px-6 py-8">
