@@ -6,7 +6,7 @@ import embed from "vega-embed";
 import { expressionInterpreter } from "vega-interpreter";
 import { fetchJson, queryKeys, type BoundRows, type RevisionData, type ThreadAnchor } from "./api";
 import { ChartAnchors, type ChartAnchor, type PickMode } from "./chart-anchors";
-import { dataNamesOf, plotGeometry, prepareSpec, PX_PER_MM, refusingLoader, shippedFontFamily, svgNaturalSize, type PlotGeometry } from "./vega-render";
+import { dataNamesOf, plotGeometry, prepareSpec, PX_PER_MM, refusalOf, refusingLoader, shippedFontFamily, svgNaturalSize, type PlotGeometry } from "./vega-render";
 
 export interface PanelChartProps {
   spec: unknown;
@@ -30,7 +30,10 @@ interface Rendered { natural: { width: number; height: number }; geometry: PlotG
 /**
  * A panel's Vega-Lite spec rendered in the browser at its printed size, with bound data only
  * (the loader refuses every load), expressions through the CSP-safe interpreter, and review
- * anchors drawn over the plot. Load it with next/dynamic (ssr: false): Vega is large.
+ * anchors drawn over the plot. Specs the pure rules refuse (lib/figures/spec-security: display
+ * options in usermeta, settings past the budget) are not drawn; the rest go through prepareSpec,
+ * which drops usermeta, so vega-embed only sees the options below. Load it with next/dynamic
+ * (ssr: false): Vega is large.
  */
 export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors = [], pickMode = "none", onPick, label, className = "" }: PanelChartProps) {
   const fetched = useQuery({
@@ -51,6 +54,9 @@ export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors 
     const parsed = JSON.parse(specKey) as unknown;
     if (!ready || !host.current) return;
     if (!parsed || typeof parsed !== "object" || Array.isArray(parsed)) return setError("The spec is not a JSON object.");
+    // Client-side budget and rules, on the spec as stored (bound rows are not inline data).
+    const refusal = refusalOf(parsed as Record<string, unknown>);
+    if (refusal) { setRendered(null); return setError(refusal); }
     let cancelled = false;
     let result: Result | null = null;
     const refusals: string[] = [];

@@ -5,6 +5,8 @@
  */
 import type { Loader, View } from "vega";
 import { loader as vegaLoader } from "vega";
+import { formatPath } from "@/lib/figures/spec-path";
+import { checkSpecSecurity } from "@/lib/figures/spec-security";
 
 export const PT_PER_MM = 72 / 25.4;
 export const PX_PER_MM = 96 / 25.4;
@@ -41,12 +43,24 @@ function swapFonts(node: unknown, family: string): unknown {
 }
 
 /**
+ * The client-side budget: the same pure rules the server validates with (stored revisions may
+ * predate a rule). Returns the first problem as "path: message", or null when the spec may be drawn.
+ */
+export function refusalOf(spec: Json): string | null {
+  const first = checkSpecSecurity(spec).issues[0];
+  return first ? `${formatPath(first.path)}: ${first.message}` : null;
+}
+
+/**
  * The spec as the browser renders it: like the server, single views are sized to the printed
  * width in points with autosize "fit"; composites keep their sizes and are scaled to the width.
+ * `usermeta` is dropped: vega-embed merges `usermeta.embedOptions` over the options we pass, and
+ * display options are Prooflight's, never the spec author's.
  */
 export function prepareSpec(spec: Json, widthMm: number, family: string): Json {
   const config = swapFonts({ ...((spec.config as Json | undefined) ?? {}), font: "Inter" }, family) as Json;
   const base: Json = { ...spec, config };
+  delete base.usermeta;
   if (isComposite(spec)) return base;
   return { ...base, width: Math.round(widthMm * PT_PER_MM * 100) / 100, autosize: { type: "fit", contains: "padding" } };
 }

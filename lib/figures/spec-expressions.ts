@@ -22,8 +22,9 @@ export const ALLOWED_FUNCTIONS: ReadonlySet<string> = new Set([
   "milliseconds", "time", "timezoneoffset", "utc", "utcdate", "utcday", "utcdayofyear", "utcyear", "utcquarter",
   "utcmonth", "utcweek", "utchours", "utcminutes", "utcseconds", "utcmilliseconds", "timeOffset", "utcOffset",
   // arrays and strings
-  "extent", "clampRange", "indexof", "inrange", "join", "lastindexof", "length", "lerp", "peek", "reverse", "sequence",
-  "slice", "sort", "span", "pad", "parseFloat", "parseInt", "lower", "upper", "substring", "split", "trim", "truncate",
+  "extent", "clampRange", "indexof", "inrange", "join", "lastindexof", "length", "lerp", "peek", "reverse",
+  // not sequence() or pad(): one call with a huge count hangs or exhausts a reviewer's browser
+  "slice", "sort", "span", "parseFloat", "parseInt", "lower", "upper", "substring", "split", "trim", "truncate",
   "replace",
   // formatting
   "format", "timeFormat", "timeParse", "utcFormat", "utcParse", "monthFormat", "monthAbbrevFormat", "dayFormat",

@@ -1,12 +1,42 @@
 /**
  * The security rules for collaborator-written Vega-Lite specs, applied everywhere in the tree
  * (layers, concat, facet, repeat, transforms, lookups, params, config): no URL loads, no links,
- * no images, only bound or small inline data, and expressions limited by ./spec-expressions.
+ * no images, only bound or small inline data, expressions limited by ./spec-expressions, no
+ * display options through `usermeta`, and a budget for settings that would hang a browser.
+ * Pure: the server validates with it and the browser runs it again before drawing a panel.
  */
 import { checkExpression, checkFieldName } from "./spec-expressions";
 import type { SpecPath } from "./spec-path";
 
 export const MAX_INLINE_VALUES = 5_000;
+
+// Budget caps ("common practice" limits: far above what a publication panel uses, far below what
+// makes Vega allocate or loop for minutes in a reviewer's browser).
+/** Axis and legend ticks (Vega-Lite's own default is about one per 40 px). */
+export const MAX_TICK_COUNT = 1_000;
+/** Bins from `maxbins` (bin and timeUnit params), from `step` over a given `extent`, and scale `bins`. */
+export const MAX_BINS = 1_000;
+/** Samples of density (`steps`, `minsteps`, `maxsteps`; Vega's default is 25–200) and quantile (1 / `step`). */
+export const MAX_SAMPLE_STEPS = 1_000;
+/** Polynomial regression order: the fit solves an order × order system; past ~20 it is numerically meaningless. */
+export const MAX_REGRESSION_ORDER = 20;
+/** Key values an impute `keyvals: {start, stop, step}` sequence generates (like inline rows). */
+export const MAX_IMPUTE_KEYS = 5_000;
+/** View width/height, view `step` and config.view sizes, points (10,000 pt ≈ 3.5 m); default ticks grow with the size. */
+export const MAX_VIEW_SIZE = 10_000;
+/** Views from layers, concatenation and repeat (each is compiled and laid out separately). */
+export const MAX_VIEWS = 200;
+
+/**
+ * `usermeta` keys a spec may carry: plain notes. vega-embed reads `usermeta.embedOptions` and
+ * merges it over the app's own options (actions, sourceHeader HTML, i18n, patch, loader, ast …),
+ * so that key, and every key not listed here, is refused. Prooflight itself writes no usermeta.
+ */
+export const USERMETA_KEYS: ReadonlySet<string> = new Set(["description", "note", "notes", "source", "tags"]);
+/** Nesting allowed inside an allowed usermeta key: `{ note: { sample: { id: "B14" } } }`. */
+export const MAX_USERMETA_NESTING = 2;
+export const EMBED_OPTIONS_MESSAGE = "display options (usermeta.embedOptions) are set by Prooflight and cannot come from a spec";
+const PROTO_MESSAGE = "the key \"__proto__\" is not allowed";
 
 export interface SecurityIssue {
   path: SpecPath;
@@ -50,11 +80,18 @@ export function checkSpecSecurity(spec: Record<string, unknown>): SecurityReport
   if (isObject(spec.datasets)) {
     for (const [name, values] of Object.entries(spec.datasets)) {
       ctx.datasetNames.add(name);
-      if (Array.isArray(values)) ctx.inline.push({ path: ["datasets", name], count: values.length });
-      else ctx.issues.push({ path: ["datasets", name], message: "inline datasets must be arrays of rows" });
+      if (Array.isArray(values)) {
+        ctx.inline.push({ path: ["datasets", name], count: values.length });
+        refuseProtoKeys(values, ["datasets", name], ctx);
+      } else ctx.issues.push({ path: ["datasets", name], message: "inline datasets must be arrays of rows" });
     }
   }
   walk(spec as Record<string, Json>, [], ctx);
+  const views = countViews(spec as Json);
+  if (views > MAX_VIEWS) {
+    const key = ["repeat", "vconcat", "hconcat", "concat", "layer", "facet"].find((k) => k in spec);
+    ctx.issues.push({ path: key ? [key] : [], message: `the spec draws ${fmt(views)} views; the limit is ${fmt(MAX_VIEWS)} (each layer, concatenated and repeated view counts)` });
+  }
   const total = ctx.inline.reduce((s, x) => s + x.count, 0);
   if (total > MAX_INLINE_VALUES) {
     const largest = ctx.inline.reduce((a, b) => (b.count > a.count ? b : a));
@@ -80,11 +117,14 @@ function collectParams(node: unknown, out: Set<string>): void {
 function walk(node: Json, path: SpecPath, ctx: Context): void {
   if (Array.isArray(node)) return node.forEach((n, i) => walk(n, [...path, i], ctx));
   if (!isObject(node)) return;
+  transformBudget(node, path, ctx);
   for (const [key, value] of Object.entries(node)) {
     const at = [...path, key];
     const issue = (message: string, where: SpecPath = at) => ctx.issues.push({ path: where, message });
-    if (key === "__proto__") { issue("the key \"__proto__\" is not allowed"); continue; }
-    if (key === "usermeta" || (key === "datasets" && path.length === 0)) continue;
+    if (key === "__proto__") { issue(PROTO_MESSAGE); continue; }
+    if (key === "usermeta") { checkUsermeta(value, at, ctx); continue; }
+    if (key === "datasets" && path.length === 0) continue;
+    if (!budget(key, value, path, ctx)) continue;
     if (key === "url") { issue("images and URLs are not allowed in figures"); continue; }
     if (key === "href") { issue("links (href) are not allowed in figures"); continue; }
     if (key === "mark" && (value === "image" || (isObject(value) && value.type === "image"))) {
@@ -94,14 +134,15 @@ function walk(node: Json, path: SpecPath, ctx: Context): void {
     if (key === "data" && isObject(value)) { checkData(value, at, ctx); continue; }
     if (EXPRESSION_KEYS.has(key) && typeof value === "string") { expression(value, at, ctx); continue; }
     if (PREDICATE_KEYS.has(key)) { predicate(value, at, ctx); continue; }
-    if ((key === "on" || key === "clear") && typeof value === "string") {
+    const onIsField = key === "on" && ("regression" in node || "loess" in node); // the predictor field, not an event
+    if ((key === "on" || key === "clear") && typeof value === "string" && !onIsField) {
       if (!PLAIN_EVENT.test(value)) issue("only plain event names (click, pointerover, …) are allowed; event filters and streams are not");
       continue;
     }
     if (key === "bind" && isObject(value) && "element" in value) { issue("binding inputs to page elements is not allowed", [...at, "element"]); continue; }
     if (key === "formatType" && typeof value === "string" && !FORMAT_TYPES.has(value)) { issue("formatType must be number, time or utc"); continue; }
     if (key === "customFormatTypes" && value === true) { issue("custom format types are not allowed"); continue; }
-    if (FIELD_KEYS.has(key)) {
+    if (FIELD_KEYS.has(key) || onIsField) {
       const fields = typeof value === "string" ? [value] : Array.isArray(value) ? value : [];
       fields.forEach((f, i) => {
         const bad = typeof f === "string" ? checkFieldName(f) : null;
@@ -130,8 +171,10 @@ function checkData(d: Record<string, Json>, at: SpecPath, ctx: Context): void {
   if ("url" in d) ctx.issues.push({ path: [...at, "url"], message: URL_MESSAGE });
   if ("graticule" in d || "sphere" in d) ctx.issues.push({ path: at, message: "generated geographic data is not used in figures" });
   if ("values" in d) {
-    if (Array.isArray(d.values)) ctx.inline.push({ path: [...at, "values"], count: d.values.length });
-    else ctx.issues.push({ path: [...at, "values"], message: "inline values must be an array of rows; bind a dataset version for files" });
+    if (Array.isArray(d.values)) {
+      ctx.inline.push({ path: [...at, "values"], count: d.values.length });
+      refuseProtoKeys(d.values, [...at, "values"], ctx);
+    } else ctx.issues.push({ path: [...at, "values"], message: "inline values must be an array of rows; bind a dataset version for files" });
   }
   if (isObject(d.sequence)) {
     const { start, stop, step = 1 } = d.sequence;
@@ -142,4 +185,138 @@ function checkData(d: Record<string, Json>, at: SpecPath, ctx: Context): void {
   if (typeof d.name === "string" && !("values" in d) && !("sequence" in d) && !("url" in d)) ctx.dataNames.add(d.name);
   const rest = Object.fromEntries(Object.entries(d).filter(([k]) => k !== "values" && k !== "url" && k !== "sequence"));
   walk(rest, at, ctx);
+}
+
+const fmt = (n: number) => n.toLocaleString("en", { maximumFractionDigits: 6 });
+/** How many values start..stop by step gives (a hair of tolerance for decimal steps such as 0.1). */
+const countOf = (start: number, stop: number, step: number) => Math.max(0, Math.ceil((stop - start) / step - 1e-9));
+const isNum = (v: unknown): v is number => typeof v === "number" && Number.isFinite(v);
+
+/** `usermeta` holds only allow-listed notes of plain values; never vega-embed's options. */
+function checkUsermeta(value: Json, at: SpecPath, ctx: Context): void {
+  if (!isObject(value)) {
+    ctx.issues.push({ path: at, message: "usermeta must be an object of notes (description, note, notes, source, tags)" });
+    return;
+  }
+  for (const [key, v] of Object.entries(value)) {
+    const where = [...at, key];
+    if (key === "embedOptions") ctx.issues.push({ path: where, message: EMBED_OPTIONS_MESSAGE });
+    else if (key === "__proto__") ctx.issues.push({ path: where, message: PROTO_MESSAGE });
+    else if (!USERMETA_KEYS.has(key)) {
+      ctx.issues.push({ path: where, message: `usermeta may only hold description, note, notes, source and tags; "${key}" is not one of them (display options are set by Prooflight)` });
+    } else usermetaValue(v, where, 1, ctx);
+  }
+}
+
+function usermetaValue(value: Json, at: SpecPath, level: number, ctx: Context): void {
+  if (value === null || typeof value !== "object") return;
+  if (level > MAX_USERMETA_NESTING) {
+    ctx.issues.push({ path: at, message: `usermeta values must be text, numbers or small lists or objects of them (nested at most ${MAX_USERMETA_NESTING} levels)` });
+    return;
+  }
+  if (Array.isArray(value)) return value.forEach((v, i) => usermetaValue(v, [...at, i], level + 1, ctx));
+  for (const [key, v] of Object.entries(value)) {
+    if (key === "embedOptions") ctx.issues.push({ path: [...at, key], message: EMBED_OPTIONS_MESSAGE });
+    else if (key === "__proto__") ctx.issues.push({ path: [...at, key], message: PROTO_MESSAGE });
+    else usermetaValue(v, [...at, key], level + 1, ctx);
+  }
+}
+
+/** The first `__proto__` key in each row of inline data (rows are not walked otherwise). */
+function refuseProtoKeys(rows: Json[], at: SpecPath, ctx: Context): void {
+  const find = (node: Json, path: SpecPath): SpecPath | null => {
+    if (Array.isArray(node)) {
+      for (let i = 0; i < node.length; i++) { const p = find(node[i]!, [...path, i]); if (p) return p; }
+    } else if (isObject(node)) {
+      for (const [k, v] of Object.entries(node)) {
+        if (k === "__proto__") return [...path, k];
+        const p = find(v, [...path, k]);
+        if (p) return p;
+      }
+    }
+    return null;
+  };
+  const hit = find(rows, at);
+  if (hit) ctx.issues.push({ path: hit, message: PROTO_MESSAGE });
+}
+
+const SIZE_KEYS = new Set(["width", "height", "continuousWidth", "continuousHeight", "discreteWidth", "discreteHeight"]);
+const STEP_KEYS = new Set(["steps", "minsteps", "maxsteps"]);
+
+/**
+ * Count-like settings under `key` (at `[...path, key]`). Returns false when the value was refused
+ * and must not be walked further.
+ */
+function budget(key: string, value: Json, path: SpecPath, ctx: Context): boolean {
+  const at = [...path, key];
+  const over = (where: SpecPath, label: string, v: number, cap: number, suffix = "") =>
+    ctx.issues.push({ path: where, message: `${label} is ${fmt(v)}; the limit is ${fmt(cap)}${suffix}` });
+  if (key === "tickCount") {
+    if (isObject(value) && ("expr" in value || "signal" in value)) {
+      ctx.issues.push({ path: at, message: `tickCount must be a number or a time interval here, not an expression (at most ${fmt(MAX_TICK_COUNT)} ticks)` });
+      return false;
+    }
+    if (isNum(value) && value > MAX_TICK_COUNT) over(at, key, value, MAX_TICK_COUNT);
+  } else if (key === "maxbins") {
+    if (isNum(value) && value > MAX_BINS) over(at, key, value, MAX_BINS);
+  } else if (STEP_KEYS.has(key)) {
+    if (isNum(value) && value > MAX_SAMPLE_STEPS) over(at, key, value, MAX_SAMPLE_STEPS);
+  } else if ((key === "bin" || key === "bins") && isObject(value) && value.step !== undefined) {
+    const { step } = value;
+    const [start, stop] = key === "bin" ? (Array.isArray(value.extent) ? value.extent : []) : [value.start, value.stop];
+    if (!isNum(step) || step <= 0) ctx.issues.push({ path: [...at, "step"], message: `${key} step must be a positive number` });
+    else if (isNum(start) && isNum(stop) && countOf(Math.min(start, stop), Math.max(start, stop), step) > MAX_BINS) {
+      const n = countOf(Math.min(start, stop), Math.max(start, stop), step);
+      ctx.issues.push({ path: [...at, "step"], message: `${key} step ${fmt(step)} from ${fmt(start)} to ${fmt(stop)} makes ${fmt(n)} bins; the limit is ${fmt(MAX_BINS)}` });
+    }
+  } else if (key === "keyvals" && isObject(value)) {
+    const { start = 0, stop } = value;
+    const step = value.step ?? (isNum(stop) && isNum(start) && stop < start ? -1 : 1);
+    if (!isNum(start) || !isNum(stop) || !isNum(step) || step === 0) {
+      ctx.issues.push({ path: at, message: "an impute key sequence needs a numeric stop and a non-zero step" });
+      return false;
+    }
+    const n = countOf(start, stop, step);
+    if (n > MAX_IMPUTE_KEYS) ctx.issues.push({ path: at, message: `the impute key sequence makes ${fmt(n)} key values; the limit is ${fmt(MAX_IMPUTE_KEYS)}` });
+  } else if (SIZE_KEYS.has(key)) {
+    if (isNum(value) && value > MAX_VIEW_SIZE) over(at, key, value, MAX_VIEW_SIZE, " (points)");
+    else if (isObject(value) && isNum(value.step) && value.step > MAX_VIEW_SIZE) over([...at, "step"], `${key} step`, value.step, MAX_VIEW_SIZE, " (points)");
+  } else if (key === "step" && path[path.length - 1] === "view") {
+    if (isNum(value) && value > MAX_VIEW_SIZE) over(at, "view step", value, MAX_VIEW_SIZE, " (points)");
+  }
+  return true;
+}
+
+/** Settings whose meaning depends on the transform they sit in. */
+function transformBudget(node: Record<string, Json>, path: SpecPath, ctx: Context): void {
+  if ("quantile" in node && node.step !== undefined) {
+    const { step } = node;
+    if (!isNum(step) || step <= 0 || step >= 1) ctx.issues.push({ path: [...path, "step"], message: "the quantile step must be a probability between 0 and 1" });
+    else if (Math.ceil(1 / step - 1e-9) > MAX_SAMPLE_STEPS) {
+      ctx.issues.push({ path: [...path, "step"], message: `a quantile step of ${fmt(step)} asks for ${fmt(Math.ceil(1 / step - 1e-9))} quantiles; the limit is ${fmt(MAX_SAMPLE_STEPS)}` });
+    }
+  }
+  if ("regression" in node && isNum(node.order) && node.order > MAX_REGRESSION_ORDER) {
+    ctx.issues.push({ path: [...path, "order"], message: `the regression order is ${fmt(node.order)}; the limit is ${fmt(MAX_REGRESSION_ORDER)}` });
+  }
+}
+
+/** Views the spec compiles to: units and layers, summed over concatenation, multiplied by repeat. */
+function countViews(node: Json): number {
+  if (!isObject(node)) return 0;
+  let n = "mark" in node ? 1 : 0;
+  if (Array.isArray(node.layer)) for (const l of node.layer) n += countViews(l);
+  for (const k of ["concat", "hconcat", "vconcat"]) {
+    const items = node[k];
+    if (Array.isArray(items)) for (const c of items) n += countViews(c);
+  }
+  if (isObject(node.spec)) n += countViews(node.spec) * repeatCount(node.repeat);
+  return n;
+}
+
+function repeatCount(repeat: Json | undefined): number {
+  if (Array.isArray(repeat)) return Math.max(1, repeat.length);
+  if (!isObject(repeat)) return 1;
+  const len = (v: Json | undefined) => (Array.isArray(v) ? Math.max(1, v.length) : 1);
+  return len(repeat.row) * len(repeat.column) * len(repeat.layer);
 }

@@ -46,10 +46,10 @@ describe("validateSpec: good specs", () => {
     }
   });
 
-  it("allows usermeta, small top-level datasets and small inline values, which need no binding", () => {
+  it("allows notes in usermeta, small top-level datasets and small inline values, which need no binding", () => {
     const r = validateSpec({
       ...unit({ data: { name: "table" } }),
-      usermeta: { anything: { url: "https://example.org", href: "x" } },
+      usermeta: { description: "echo table", note: { url: "https://example.org", href: "x" } },
       datasets: { table: [{ tau: 1, signal: 2 }] },
       layer: undefined,
     });
@@ -118,6 +118,13 @@ describe("validateSpec: links and images", () => {
     expectError(unit({ mark: "image", encoding: { url: { field: "u" } } }), "mark", /image marks/);
     expectError({ vconcat: [unit({ mark: { type: "image" } })] }, "vconcat[0].mark.type", /image marks/);
     expectError(unit({ encoding: { url: { value: "file:///etc/passwd" } } }), "encoding.url", /images and URLs/);
+  });
+});
+
+describe("validateSpec: usermeta holds notes only", () => {
+  it("refuses other keys: vega-embed reads usermeta.embedOptions", () => {
+    expectError(unit({ usermeta: { embedOptions: { actions: true } } }), "usermeta.embedOptions", /set by Prooflight and cannot come from a spec/);
+    expectError(unit({ usermeta: { anything: { url: "https://example.org" } } }), "usermeta.anything", /usermeta may only hold/);
   });
 });
 
