@@ -1,7 +1,9 @@
 /**
  * Comment bodies are Tiptap JSON documents. This module checks their shape against an allow-list
  * of nodes and marks, renders them to HTML with every text escaped, and collects @mentions.
- * Anything outside the allow-list is refused (not dropped), so the author sees what was wrong.
+ * Anything outside the allow-list is refused (not dropped), so the author sees what was wrong:
+ * unknown nodes, marks, keys and attributes, and nesting deeper than MAX_DEPTH. The shape is
+ * checked first without recursion, so the renderer's recursion is bounded.
  */
 
 export interface RichTextNode {
@@ -21,6 +23,80 @@ const MARKS: Record<string, string> = { bold: "strong", italic: "em", code: "cod
 const SAFE_SCHEMES = /^(https?:|mailto:)/i;
 const MAX_NODES = 5000;
 const MAX_TEXT = 20_000;
+/** Nodes inside one another, the document being level 1: room for lists nested about eight deep. */
+export const MAX_DEPTH = 20;
+
+const own = (table: Record<string, string>, key: unknown): string | undefined =>
+  typeof key === "string" && Object.hasOwn(table, key) ? table[key] : undefined;
+
+/** The keys each node type may carry, and its attributes, as the editor (StarterKit + Mention) writes them. */
+const NODE_SHAPES: Record<string, { keys: readonly string[]; attrs?: readonly string[] }> = {
+  doc: { keys: ["type", "content"] },
+  text: { keys: ["type", "text", "marks"] },
+  hardBreak: { keys: ["type", "marks"] },
+  mention: { keys: ["type", "attrs", "marks"], attrs: ["id", "label", "mentionSuggestionChar"] },
+  paragraph: { keys: ["type", "content"] },
+  bulletList: { keys: ["type", "content"] },
+  listItem: { keys: ["type", "content"] },
+  blockquote: { keys: ["type", "content"] },
+  orderedList: { keys: ["type", "content", "attrs"], attrs: ["start", "type"] },
+  codeBlock: { keys: ["type", "content", "attrs"], attrs: ["language"] },
+};
+const MARK_ATTRS: Record<string, readonly string[]> = { bold: [], italic: [], code: [], strike: [], link: ["href", "target", "rel", "class", "title"] };
+
+const isPlainObject = (v: unknown): v is Record<string, unknown> => v !== null && typeof v === "object" && !Array.isArray(v);
+
+function checkAttrs(attrs: unknown, allowed: readonly string[], path: string, owner: string): void {
+  if (!isPlainObject(attrs)) throw new RichTextError(path, "expected an object of attributes");
+  for (const [k, v] of Object.entries(attrs)) {
+    if (!allowed.includes(k)) throw new RichTextError(`${path}.${k}`, `${JSON.stringify(k)} is not allowed on ${owner}`);
+    if (v !== null && typeof v !== "string" && typeof v !== "number" && typeof v !== "boolean") {
+      throw new RichTextError(`${path}.${k}`, "expected a string, number, true/false or null");
+    }
+  }
+}
+
+function checkMarks(marks: unknown, path: string): void {
+  if (!Array.isArray(marks)) throw new RichTextError(path, "expected a list");
+  marks.forEach((m, i) => {
+    const at = `${path}[${i}]`;
+    if (!isPlainObject(m)) throw new RichTextError(at, "expected a mark object");
+    const allowed = typeof m.type === "string" && Object.hasOwn(MARK_ATTRS, m.type) ? MARK_ATTRS[m.type]! : undefined;
+    if (!allowed) throw new RichTextError(at, `mark "${String(m.type)}" is not allowed`);
+    for (const k of Object.keys(m)) {
+      if (k !== "type" && !(k === "attrs" && allowed.length)) throw new RichTextError(`${at}.${k}`, `${JSON.stringify(k)} is not allowed on a ${m.type} mark`);
+    }
+    if (m.attrs !== undefined) checkAttrs(m.attrs, allowed, `${at}.attrs`, `a ${m.type} mark`);
+  });
+}
+
+/**
+ * The document's shape, walked with an explicit stack in document order: node types, keys,
+ * attributes and marks against the allow-list, the node count, and the nesting depth.
+ */
+function checkShape(doc: unknown): void {
+  const stack: Array<{ node: unknown; path: string; depth: number }> = [{ node: doc, path: "body", depth: 1 }];
+  let nodes = 0;
+  while (stack.length) {
+    const { node, path, depth } = stack.pop()!;
+    if (!isPlainObject(node)) throw new RichTextError(path, "expected a node object");
+    if (depth > MAX_DEPTH) throw new RichTextError(path, `nested more than ${MAX_DEPTH} levels deep`);
+    if (++nodes > MAX_NODES) throw new RichTextError(path, `more than ${MAX_NODES} nodes`);
+    const type = node.type;
+    const shape = typeof type === "string" && Object.hasOwn(NODE_SHAPES, type) ? NODE_SHAPES[type]! : undefined;
+    if (!shape || (type === "doc" && depth > 1)) throw new RichTextError(path, `node "${String(type)}" is not allowed`);
+    for (const k of Object.keys(node)) {
+      if (!shape.keys.includes(k)) throw new RichTextError(`${path}.${k}`, `${JSON.stringify(k)} is not allowed on a ${type} node`);
+    }
+    if (node.attrs !== undefined) checkAttrs(node.attrs, shape.attrs ?? [], `${path}.attrs`, `a ${type} node`);
+    if (node.marks !== undefined) checkMarks(node.marks, `${path}.marks`);
+    if (node.content !== undefined) {
+      if (!Array.isArray(node.content)) throw new RichTextError(`${path}.content`, "expected a list");
+      if (nodes + node.content.length > MAX_NODES) throw new RichTextError(`${path}.content`, `more than ${MAX_NODES} nodes`);
+      for (let i = node.content.length - 1; i >= 0; i--) stack.push({ node: node.content[i], path: `${path}.content[${i}]`, depth: depth + 1 });
+    }
+  }
+}
 
 export const escapeHtml = (s: string) =>
   s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;").replace(/'/g, "&#39;");
@@ -57,8 +133,8 @@ function renderNode(node: unknown, path: string, w: Walk): string {
           const href = safeHref(m.attrs?.href);
           if (!href) throw new RichTextError(`${path}.marks[${i}]`, "links must start with http:, https: or mailto:");
           html = `<a href="${escapeHtml(href)}" rel="noopener noreferrer nofollow" target="_blank">${html}</a>`;
-        } else if (MARKS[m.type]) {
-          html = `<${MARKS[m.type]}>${html}</${MARKS[m.type]}>`;
+        } else if (own(MARKS, m.type)) {
+          html = `<${own(MARKS, m.type)}>${html}</${own(MARKS, m.type)}>`;
         } else throw new RichTextError(`${path}.marks[${i}]`, `mark "${String(m.type)}" is not allowed`);
       }
       return html;
@@ -72,7 +148,7 @@ function renderNode(node: unknown, path: string, w: Walk): string {
       return `<span class="mention" data-user="${escapeHtml(id)}">@${escapeHtml(typeof label === "string" ? label : id)}</span>`;
     }
     default: {
-      const tag = BLOCKS[n.type];
+      const tag = own(BLOCKS, n.type);
       if (!tag) throw new RichTextError(path, `node "${String(n.type)}" is not allowed`);
       const inner = children();
       return tag === "pre" ? `<pre><code>${inner}</code></pre>` : `<${tag}>${inner}</${tag}>`;
@@ -83,6 +159,7 @@ function renderNode(node: unknown, path: string, w: Walk): string {
 /** Validates and renders; throws RichTextError naming the place of the first problem. */
 export function renderRichText(doc: unknown): { html: string; mentions: string[]; plainLength: number } {
   if (!doc || typeof doc !== "object" || (doc as RichTextNode).type !== "doc") throw new RichTextError("body", 'expected a Tiptap document ({ "type": "doc", … })');
+  checkShape(doc);
   const w: Walk = { nodes: 0, chars: 0, mentions: new Set() };
   const html = renderNode(doc, "body", w);
   return { html, mentions: [...w.mentions], plainLength: w.chars };

@@ -9,7 +9,7 @@ import { badRequest, notFound } from "./errors";
 
 export const createManuscriptInput = z.object({
   title: z.string().trim().min(1, "Give the manuscript a title.").max(300),
-  labId: z.string().min(1).optional(),
+  labId: z.string().min(1).max(128).optional(),
 });
 
 export async function listLabsForUser(user: SessionUser) {

@@ -25,7 +25,7 @@ export function invitationRateRules(manuscriptId: string, email: string): RateRu
 }
 
 export const inviteInput = z.object({
-  email: z.string().trim().email("Give a valid e-mail address."),
+  email: z.string().trim().max(254, "An e-mail address has at most 254 characters.").email("Give a valid e-mail address."),
   role: z.enum(ROLES, { message: `role must be one of ${ROLES.join(", ")}.` }),
 });
 export const changeRoleInput = z.object({ role: z.enum(ROLES, { message: `role must be one of ${ROLES.join(", ")}.` }) });
@@ -107,7 +107,7 @@ export async function describeInvitation(token: string) {
 }
 
 export const acceptInput = z.object({
-  token: z.string().min(10),
+  token: z.string().min(10).max(200),
   name: z.string().trim().min(1, "Tell us your name.").max(120).optional(),
   password: z.string().min(10, "Choose a password of at least 10 characters.").max(200).optional(),
 });

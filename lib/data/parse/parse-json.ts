@@ -15,6 +15,42 @@ import { findJsonSyntaxError, lineColumnAt, locateJsonPath } from "./json-syntax
 
 type Path = Array<string | number>;
 
+/** Arrays and objects inside one another; a table needs three or four, metadata a few more. */
+export const MAX_JSON_NESTING = 64;
+
+/**
+ * Path of the first array or object nested deeper than `max` (the root is level 1), or null.
+ * An explicit stack, never recursion: JSON.parse accepts any depth, but later recursive steps
+ * (JSON.stringify of a cell, for one) would overflow the call stack.
+ */
+export function findDeepNesting(root: unknown, max: number): Path | null {
+  interface Frame { value: object; depth: number; parent: Frame | null; key: string | number }
+  if (root === null || typeof root !== "object") return null;
+  const stack: Frame[] = [{ value: root, depth: 1, parent: null, key: "" }];
+  while (stack.length) {
+    const f = stack.pop()!;
+    if (f.depth > max) {
+      const path: Path = [];
+      for (let g: Frame | null = f; g && g.parent; g = g.parent) path.push(g.key);
+      return path.reverse();
+    }
+    if (Array.isArray(f.value)) {
+      const arr: unknown[] = f.value;
+      for (let i = arr.length - 1; i >= 0; i--) {
+        const v = arr[i];
+        if (v !== null && typeof v === "object") stack.push({ value: v, depth: f.depth + 1, parent: f, key: i });
+      }
+    } else {
+      const keys = Object.keys(f.value);
+      for (let i = keys.length - 1; i >= 0; i--) {
+        const v = (f.value as Record<string, unknown>)[keys[i]!];
+        if (v !== null && typeof v === "object") stack.push({ value: v, depth: f.depth + 1, parent: f, key: keys[i]! });
+      }
+    }
+  }
+  return null;
+}
+
 interface RawColumn {
   header: string;
   unit?: string | null;
@@ -55,6 +91,8 @@ export function parseJson(decoded: DecodedText, opts: ParseOptions): ParsedTable
     const off = locateJsonPath(text, path);
     return off < 0 ? {} : lineColumnAt(text, off);
   };
+  const deep = findDeepNesting(root, MAX_JSON_NESTING);
+  if (deep) fail("bad_json", fileName, at(deep), `the JSON nests arrays and objects more than ${MAX_JSON_NESTING} levels deep.`);
   const shape = toShape(root, fileName, at);
   const maxColumns = opts.maxColumns ?? DEFAULT_MAX_COLUMNS;
   if (shape.columns.length > maxColumns) {

@@ -1,14 +1,18 @@
 import { z } from "zod";
 
+/** Column names come from uploaded files; model and parameter names from our own catalogue. */
+const COLUMN_MAX = 1000;
+const NAME_MAX = 100;
+
 const finite = z.number().refine(Number.isFinite, "must be a finite number");
 
 export const fitOptions = z.object({
-  x: z.string({ message: "name the x column" }).min(1),
-  y: z.string({ message: "name the y column" }).min(1),
-  sigma: z.string().min(1).optional(),
-  start: z.record(z.string(), finite).optional(),
-  fixed: z.record(z.string(), finite).optional(),
-  bounds: z.record(z.string(), z.tuple([z.number(), z.number()])).optional(),
+  x: z.string({ message: "name the x column" }).min(1).max(COLUMN_MAX),
+  y: z.string({ message: "name the y column" }).min(1).max(COLUMN_MAX),
+  sigma: z.string().min(1).max(COLUMN_MAX).optional(),
+  start: z.record(z.string().max(NAME_MAX), finite).optional(),
+  fixed: z.record(z.string().max(NAME_MAX), finite).optional(),
+  bounds: z.record(z.string().max(NAME_MAX), z.tuple([z.number(), z.number()])).optional(),
   /** Fit only points with x in [lo, hi] (x column units). */
   xRange: z.tuple([finite, finite]).optional(),
   maxIterations: z.number().int().min(1).max(5000).optional(),
@@ -16,16 +20,16 @@ export const fitOptions = z.object({
 export type FitOptions = z.infer<typeof fitOptions>;
 
 export const analysisInput = z.object({
-  versionId: z.string().min(1, "versionId is required"),
-  model: z.string().min(1, "model is required"),
+  versionId: z.string().min(1, "versionId is required").max(128),
+  model: z.string().min(1, "model is required").max(NAME_MAX),
   options: fitOptions,
 });
 export type AnalysisInput = z.infer<typeof analysisInput>;
 
 export const statisticsQuery = z.object({
-  model: z.string().min(1),
-  parameter: z.string().min(1),
-  groupBy: z.string().min(1).default("group"),
+  model: z.string().min(1).max(NAME_MAX),
+  parameter: z.string().min(1).max(NAME_MAX),
+  groupBy: z.string().min(1).max(200).default("group"),
 });
 
-export const calculatorInput = z.object({ inputs: z.record(z.string(), z.unknown()) });
+export const calculatorInput = z.object({ inputs: z.record(z.string().max(NAME_MAX), z.unknown()) });

@@ -8,7 +8,7 @@ const anchor = z.union([
 const body = z.record(z.string(), z.unknown(), { message: "body must be a Tiptap JSON document" });
 
 export const newThreadInput = z.object({
-  body, revisionId: z.string().min(1, "revisionId is required"), anchor: anchor.nullable().optional(),
+  body, revisionId: z.string().min(1, "revisionId is required").max(128), anchor: anchor.nullable().optional(),
   clientKey: z.string().max(80).optional(),
 });
 export const replyInput = z.object({ body, clientKey: z.string().max(80).optional() });
@@ -16,7 +16,7 @@ export const editCommentInput = z.object({ body, baseEditedAt: z.number().nullab
 export const resolveInput = z.object({ reopen: z.boolean().optional() });
 
 export const decisionInput = z.object({
-  revisionId: z.string().min(1, "revisionId is required"),
+  revisionId: z.string().min(1, "revisionId is required").max(128),
   decision: z.enum(["approved", "needs_revision"], { message: 'decision must be "approved" or "needs_revision"' }),
   note: z.string().trim().max(5000).optional(),
 });

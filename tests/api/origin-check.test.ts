@@ -1,0 +1,77 @@
+import { beforeAll, describe, expect, it, vi } from "vitest";
+import { DEMO_MANUSCRIPT_ID } from "@/db/seed";
+import { AppError } from "@/lib/server/errors";
+import { checkOrigin } from "@/lib/http/route";
+import * as figuresRoute from "@/app/api/figures/route";
+import * as figure from "@/app/api/figures/[id]/route";
+import { call, setupTestApp, type Who } from "./harness";
+
+// A session cookie cannot be minted outside a Next request scope; stand in for the cookie's caller.
+vi.mock("@/lib/http/request-user", async () => {
+  const actual = await vi.importActual<typeof import("@/lib/http/request-user")>("@/lib/http/request-user");
+  const { getUserById } = await import("@/lib/server/users");
+  return {
+    ...actual,
+    resolveCaller: async (req: Request) => {
+      if (!req.headers.get("cookie")?.includes("authjs.session-token=")) return actual.resolveCaller(req);
+      const user = await getUserById("demo-author");
+      return user ? { user, via: "session" as const } : null;
+    },
+  };
+});
+
+let tokens: Record<Who, string>;
+let figureId: string;
+beforeAll(async () => {
+  ({ tokens } = await setupTestApp());
+  figureId = (await call(figuresRoute.POST, { method: "POST", token: tokens.author, body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Origins" } })).json.id;
+});
+
+const patchWithCookie = (headers: Record<string, string>) =>
+  call(figure.PATCH, { method: "PATCH", params: { id: figureId }, body: { title: "Renamed" }, headers: { cookie: "authjs.session-token=x", ...headers } });
+
+describe("cookie-authenticated writes and the Origin header", () => {
+  it.each([
+    ["null"],
+    ["not a url"],
+    ["http://[::1"],
+    ["file:///etc/passwd"],
+    ["https://evil.example"],
+  ])("Origin %s is a 403, not a 500", async (origin) => {
+    const r = await patchWithCookie({ origin });
+    expect(r.status).toBe(403);
+    expect(r.json.error).toEqual({ code: "forbidden", message: "Cross-site request refused." });
+  });
+
+  it("our own origin passes", async () => {
+    const r = await patchWithCookie({ origin: "http://localhost:3000" });
+    expect(r.status).toBe(200);
+    expect(r.json.title).toBe("Renamed");
+  });
+
+  it("without an Origin, Sec-Fetch-Site decides", async () => {
+    expect((await patchWithCookie({ "sec-fetch-site": "cross-site" })).status).toBe(403);
+    expect((await patchWithCookie({})).json.error.message).toBe("Requests signed in with a cookie must carry an Origin header; scripts should use an API token.");
+  });
+});
+
+describe("checkOrigin", () => {
+  const req = (headers: Record<string, string>) => new Request("http://localhost:3000/api/x", { method: "POST", headers });
+
+  it("refuses a null or malformed Origin with a 403 AppError", () => {
+    for (const origin of ["null", "::", "http://"]) {
+      let thrown: unknown;
+      try {
+        checkOrigin(req({ origin }));
+      } catch (e) {
+        thrown = e;
+      }
+      expect(thrown).toBeInstanceOf(AppError);
+      expect((thrown as AppError).status).toBe(403);
+    }
+  });
+
+  it("accepts the Host header's origin", () => {
+    expect(() => checkOrigin(req({ origin: "https://prooflight.example", host: "prooflight.example" }))).not.toThrow();
+  });
+});
