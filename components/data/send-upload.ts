@@ -3,7 +3,7 @@ import { messageFromBody, type VersionView } from "./api";
 export type UploadedVersion = VersionView & { deduplicated: boolean };
 export type UploadOutcome =
   | { ok: true; version: UploadedVersion }
-  | { ok: false; cancelled: boolean; message: string };
+  | { ok: false; cancelled: boolean; message: string; retryAfterSeconds?: number };
 
 export interface UploadHandle { done: Promise<UploadOutcome>; abort: () => void }
 
@@ -26,7 +26,8 @@ export function sendUpload(url: string, form: FormData, on: { progress: (loaded:
           resolve({ ok: false, cancelled: false, message: "The server's answer could not be read." });
         }
       } else {
-        resolve({ ok: false, cancelled: false, message: messageFromBody(xhr.status, xhr.responseText) });
+        const retry = xhr.status === 429 ? Number(xhr.getResponseHeader("retry-after")) : NaN;
+        resolve({ ok: false, cancelled: false, message: messageFromBody(xhr.status, xhr.responseText), ...(retry > 0 ? { retryAfterSeconds: retry } : {}) });
       }
     };
     xhr.onerror = () => resolve({ ok: false, cancelled: false, message: "The upload did not reach the server (network error). Try again." });

@@ -9,10 +9,13 @@ export interface UploadItem {
   loaded: number; total: number; version?: UploadedVersion; error?: string;
 }
 
-interface Pending { key: string; form: FormData }
+interface Pending { key: string; form: FormData; retries?: number }
+
+/** The server takes two uploads per person at a time; when it is busy the file waits its turn again. */
+const MAX_BUSY_RETRIES = 5;
 
 /** Uploads files a few at a time, each with its own progress and its own Cancel. */
-export function useUploadQueue({ url, concurrency = 3, onStored, onIdle }: {
+export function useUploadQueue({ url, concurrency = 2, onStored, onIdle }: {
   url: string; concurrency?: number; onStored?: (v: UploadedVersion) => void; onIdle?: () => void;
 }) {
   const [items, setItems] = useState<UploadItem[]>([]);
@@ -28,7 +31,7 @@ export function useUploadQueue({ url, concurrency = 3, onStored, onIdle }: {
 
   const pump = useCallback(() => {
     while (running.current.size < concurrency && queue.current.length) {
-      const { key, form } = queue.current.shift()!;
+      const { key, form, retries = 0 } = queue.current.shift()!;
       patch(key, { status: "sending" });
       const handle = sendUpload(url, form, {
         progress: (loaded, total) => patch(key, { loaded, total }),
@@ -40,6 +43,10 @@ export function useUploadQueue({ url, concurrency = 3, onStored, onIdle }: {
         if (outcome.ok) {
           patch(key, { status: "stored", version: outcome.version });
           callbacks.current.onStored?.(outcome.version);
+        } else if (outcome.retryAfterSeconds && retries < MAX_BUSY_RETRIES) {
+          patch(key, { status: "queued", loaded: 0, error: `Waiting ${outcome.retryAfterSeconds} s: ${outcome.message}` });
+          setTimeout(() => { queue.current.push({ key, form, retries: retries + 1 }); pump(); }, outcome.retryAfterSeconds * 1000);
+          return;
         } else {
           patch(key, { status: outcome.cancelled ? "cancelled" : "failed", error: outcome.message });
         }

@@ -93,6 +93,28 @@ const errorSchema = {
   properties: { error: { type: "object", required: ["code", "message"], properties: { code: { type: "string" }, message: { type: "string" }, details: {} } } },
 };
 
+const errorRef = (description: string, retryAfter = false) => ({
+  description,
+  ...(retryAfter ? { headers: { "Retry-After": { description: "Seconds until a retry may succeed", schema: { type: "integer" } } } } : {}),
+  content: { "application/json": { schema: { $ref: "#/components/schemas/Error" } } },
+});
+
+/** The limits every writer meets: body size, nesting, rate and, for uploads, stalls and concurrency. */
+function limitResponses(op: ApiOperation): Record<string, unknown> {
+  if (op.method === "GET") return {};
+  const out: Record<string, unknown> = {
+    400: errorRef("Bad input: the message names the field, line or path; JSON nested past 64 levels or with a __proto__ key is refused"),
+    413: errorRef(op.multipart ? "The file is larger than UPLOAD_MAX_BYTES" : "The JSON body is larger than its cap (1 MB; 2 MB for panel revisions)"),
+  };
+  if (op.multipart) {
+    out[408] = errorRef("The upload stalled: no byte arrived for UPLOAD_IDLE_TIMEOUT_MS (code upload_stalled)");
+    out[429] = errorRef("Too many uploads at once or per hour", true);
+  } else if (/sign-in-link|threads|comments|members/.test(op.path)) {
+    out[429] = errorRef("Rate limited", true);
+  }
+  return out;
+}
+
 export function buildOpenApi(): Record<string, unknown> {
   const paths: Record<string, Record<string, unknown>> = {};
   for (const op of API_OPERATIONS) {
@@ -113,6 +135,7 @@ export function buildOpenApi(): Record<string, unknown> {
       ...(op.permission === "public" ? { security: [] } : {}),
       responses: {
         [String(op.success)]: { description: "Success" },
+        ...limitResponses(op),
         default: { description: "Error", content: { "application/json": { schema: { $ref: "#/components/schemas/Error" } } } },
       },
     };

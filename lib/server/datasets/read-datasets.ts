@@ -13,6 +13,7 @@ import { columnsFor } from "./columns-cache";
 import { metadataInput, type MetadataInput } from "./schemas";
 import { manuscriptOfDataset, manuscriptOfVersion } from "./scope";
 import { toVersionDto } from "./version-dto";
+import { contentDisposition } from "../storage/file-name";
 
 export async function listDatasets(user: SessionUser, manuscriptId: string) {
   await authorize(user, "manuscript.read", manuscriptId);
@@ -67,13 +68,13 @@ export async function openRawVersion(user: SessionUser, versionId: string) {
   const { v } = await loadVersion(user, versionId);
   const path = blobPath(v.sha256);
   if (!fs.existsSync(path)) throw notFound("The stored file is missing; restore it from a backup.");
-  const ascii = v.fileName.replace(/[^\x20-\x7e]/g, "_").replace(/["\\]/g, "_");
   return {
     body: Readable.toWeb(fs.createReadStream(path)) as ReadableStream<Uint8Array>,
     headers: {
       "content-type": "application/octet-stream",
       "content-length": String(v.byteSize),
-      "content-disposition": `attachment; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(v.fileName)}`,
+      // Cleaned on the way out too: names stored before cleaning existed may hold bidi or control characters.
+      "content-disposition": contentDisposition(v.fileName),
       "x-content-sha256": v.sha256,
       "cache-control": "private, max-age=31536000, immutable",
     },

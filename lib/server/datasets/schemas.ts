@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { MEASUREMENT_KINDS } from "@/db/schema";
+import { stripUnsafeCharacters } from "../storage/file-name";
 
 export const metadataInput = z.object({
   kind: z.enum(MEASUREMENT_KINDS, { message: `kind must be one of ${MEASUREMENT_KINDS.join(", ")}.` }).optional(),
@@ -11,14 +12,21 @@ export const metadataInput = z.object({
 }).strict();
 export type MetadataInput = z.infer<typeof metadataInput>;
 
+const METADATA_FIELDS = ["kind", "sample", "instrument", "measuredAt", "notes", "tags"] as const;
+
+/** PATCH /api/datasets/{id}: like the upload's metadata, but it must change something (an empty update has nothing to SET). */
+export const metadataPatchInput = metadataInput.refine((p) => METADATA_FIELDS.some((k) => p[k] !== undefined), `name at least one of ${METADATA_FIELDS.join(", ")} to change.`);
+
 export const uploadFields = z.object({
-  name: z.string().trim().min(1, "give the dataset a name.").max(200).optional(),
-  datasetId: z.string().min(1).optional(),
-  metadata: z.string().optional(),
+  // Bidi and other control or format characters are taken out, as from file names.
+  name: z.string().transform(stripUnsafeCharacters).pipe(z.string().trim().min(1, "give the dataset a name.").max(200)).optional(),
+  datasetId: z.string().min(1).max(128).optional(),
+  metadata: z.string().max(64_000, "metadata: at most 64,000 characters of JSON.").optional(),
   delimiter: z.enum([",", ";", "\t", "whitespace", "tab"]).optional(),
   decimal: z.enum([".", ","]).optional(),
   format: z.enum(["auto", "csv", "tsv", "text", "json", "matrix"]).optional(),
 });
+export type UploadFields = z.infer<typeof uploadFields>;
 
 export const rowsQuery = z.object({
   offset: z.coerce.number().int().min(0, "offset must be ≥ 0").default(0),
@@ -26,7 +34,7 @@ export const rowsQuery = z.object({
 });
 
 export const plotQuery = z.object({
-  x: z.string({ message: "name the x column" }).min(1, "name the x column"),
-  y: z.string({ message: "name the y column" }).min(1, "name the y column"),
+  x: z.string({ message: "name the x column" }).min(1, "name the x column").max(1000),
+  y: z.string({ message: "name the y column" }).min(1, "name the y column").max(1000),
   points: z.coerce.number().int().min(10).max(20_000).default(1500),
 });

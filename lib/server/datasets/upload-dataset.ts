@@ -9,9 +9,11 @@ import { env } from "@/lib/env";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
 import { badRequest, notFound } from "../errors";
+import { consumeRate, type RateRule } from "../limits/rate-limit";
 import { commitBlob, readFileBytes, removeTemp, writeCache, writeStreamToTemp } from "../storage/blob-store";
 import { readMultipartUpload, type UploadedFile } from "../storage/multipart";
-import { metadataInput, uploadFields, type MetadataInput } from "./schemas";
+import { acquireUploadSlot } from "../storage/upload-slots";
+import { metadataInput, uploadFields, type MetadataInput, type UploadFields } from "./schemas";
 import { toVersionDto } from "./version-dto";
 
 function parseMetadata(raw: string | undefined): MetadataInput {
@@ -36,14 +38,45 @@ function summarise(t: ParsedTable): StoredSummary[] {
   });
 }
 
+/** Uploads a user may start per hour (attempts count, refused ones too). */
+export const UPLOADS_PER_HOUR = 120;
+const uploadRate = (userId: string): RateRule => ({
+  bucket: `upload:user:${userId}`, max: UPLOADS_PER_HOUR, windowMs: 3600_000,
+  message: `You have started ${UPLOADS_PER_HOUR} uploads in the last hour.`,
+});
+
 /**
- * Upload → temporary file (hashed while streaming) → parse (exact errors, nothing stored on failure)
- * → atomic rename under the hash → one transaction for the rows and the audit entry.
+ * The fields checked before anything is stored: the zod shape, the metadata JSON, and that a
+ * `datasetId` names a dataset of this manuscript (a refused upload must leave no file behind).
+ */
+async function checkFields(manuscriptId: string, fields: Record<string, string>): Promise<{ f: UploadFields; metadata: MetadataInput }> {
+  const f = uploadFields.parse(fields);
+  const metadata = parseMetadata(f.metadata);
+  if (f.datasetId) {
+    const [ds] = await getDb().select({ id: datasets.id }).from(datasets).where(and(eq(datasets.id, f.datasetId), eq(datasets.manuscriptId, manuscriptId)));
+    if (!ds) throw notFound("datasetId: no such dataset in this manuscript.");
+  }
+  return { f, metadata };
+}
+
+/**
+ * Upload slot (per user and in total, 429) → hourly rate (429) → fields sent before the file checked
+ * before the file is read → temporary file (hashed while streaming) → all fields checked → parse
+ * (exact errors, nothing stored on failure) → atomic rename under the hash → one transaction for the
+ * rows and the audit entry. The slot is held until the upload is stored or refused.
  */
 export async function uploadDataset(user: SessionUser, manuscriptId: string, req: Request) {
-  const { fields, file } = await readMultipartUpload(req, env().uploadMaxBytes);
-  if (!file) throw badRequest("file: the multipart body has no `file` part.");
-  return ingestFile(user, manuscriptId, file, fields);
+  const release = acquireUploadSlot(user.id);
+  try {
+    await consumeRate([uploadRate(user.id)]);
+    const { fields, file } = await readMultipartUpload(req, env().uploadMaxBytes, {
+      beforeFile: async (early) => { await checkFields(manuscriptId, early); },
+    });
+    if (!file) throw badRequest("file: the multipart body has no `file` part.");
+    return await ingestFile(user, manuscriptId, file, fields);
+  } finally {
+    release();
+  }
 }
 
 /** Stores bytes that are already in memory (seed, scripts) through the same path as an upload. */
@@ -54,8 +87,8 @@ export async function importDatasetFromBytes(user: SessionUser, manuscriptId: st
 
 async function ingestFile(user: SessionUser, manuscriptId: string, file: UploadedFile, fields: Record<string, string>) {
   try {
-    const f = uploadFields.parse(fields);
-    const metadata = parseMetadata(f.metadata);
+    // Before the blob is committed or the cache written: fields may also come after the file part.
+    const { f, metadata } = await checkFields(manuscriptId, fields);
     const delimiter = f.delimiter === "tab" ? "\t" : f.delimiter;
     const table = parseTable(await readFileBytes(file.tmp), { fileName: file.fileName, delimiter, decimal: f.decimal, format: f.format });
     const columnar = encodeColumnar(table);
