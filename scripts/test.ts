@@ -33,9 +33,12 @@ function counts(file: string, kind: "vitest" | "playwright"): { passed: number; 
   return { passed: j.stats.expected, failed: j.stats.unexpected + j.stats.flaky, skipped: j.stats.skipped };
 }
 
+// `npm test -- --browser-only [playwright args]` runs the browser tests alone (while working on a page).
+const browserOnly = process.argv.includes("--browser-only");
+const playwrightArgs = process.argv.slice(2).filter((a) => a !== "--browser-only");
 const vitestJson = path.join(work, "vitest.json");
-const vitestCode = run(process.execPath, ["node_modules/vitest/vitest.mjs", "run", "--reporter=default", "--reporter=json", `--outputFile.json=${vitestJson}`]);
-const total = counts(vitestJson, "vitest");
+const vitestCode = browserOnly ? 0 : run(process.execPath, ["node_modules/vitest/vitest.mjs", "run", "--reporter=default", "--reporter=json", `--outputFile.json=${vitestJson}`]);
+const total = browserOnly ? { passed: 0, failed: 0, skipped: 0 } : counts(vitestJson, "vitest");
 let e2eCode = 0;
 
 const chromium = process.env.CHROMIUM_PATH ?? "/usr/bin/chromium";
@@ -83,7 +86,7 @@ async function runBrowserTests(): Promise<number> {
   const server = spawnNext(["start", "-p", port], env);
   try {
     await waitForHttp(`http://localhost:${port}/api/health`, 90_000);
-    return await runAsync(process.execPath, ["node_modules/@playwright/test/cli.js", "test", ...process.argv.slice(2)], { ...env, BASE_URL: `http://localhost:${port}` });
+    return await runAsync(process.execPath, ["node_modules/@playwright/test/cli.js", "test", ...playwrightArgs], { ...env, BASE_URL: `http://localhost:${port}` });
   } finally {
     if (server.pid) try { process.kill(-server.pid, "SIGTERM"); } catch { /* gone */ }
     await sink.close();

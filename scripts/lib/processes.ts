@@ -41,7 +41,7 @@ export function buildIsStale(root = process.cwd()): boolean {
   const marker = path.join(root, ".next", "BUILD_ID");
   if (!fs.existsSync(marker)) return true;
   const built = fs.statSync(marker).mtimeMs;
-  const sources = ["app", "components", "lib", "db", "auth.ts", "next.config.ts", "package-lock.json"]
+  const sources = ["app", "components", "lib", "db", "auth.ts", "proxy.ts", "instrumentation.ts", "next.config.ts", "package-lock.json"]
     .map((p) => path.join(root, p))
     .map((p) => (fs.existsSync(p) && fs.statSync(p).isDirectory() ? newestMtime(p) : fs.existsSync(p) ? fs.statSync(p).mtimeMs : 0));
   return Math.max(...sources) > built;
