@@ -1,5 +1,6 @@
 import { ZodError } from "zod";
 import { AppError } from "@/lib/server/errors";
+import { describeForLog } from "./redact";
 
 export interface ErrorBody { error: { code: string; message: string; details?: unknown } }
 
@@ -27,6 +28,6 @@ export function toErrorResponse(err: unknown): Response {
     const e = err as Error & { code?: string; details?: unknown };
     return errorResponse(status, e.code ?? "bad_request", e.message, e.details);
   }
-  console.error("[prooflight] unexpected error", err);
+  console.error(`[prooflight] unexpected error: ${describeForLog(err)}`);
   return errorResponse(500, "internal", "Something went wrong on our side. It has been logged.");
 }
