@@ -1,12 +1,13 @@
 import localFont from "next/font/local";
 
-// Shipped from the npm font package: nothing is fetched at build or run time.
+// The same TTF files the server renderer draws with (lib/server/render/fonts.ts), from one npm
+// font package: nothing is fetched at build or run time, and screen and export match.
 export const inter = localFont({
   src: [
-    { path: "../../node_modules/@fontsource/inter/files/inter-latin-400-normal.woff2", weight: "400", style: "normal" },
-    { path: "../../node_modules/@fontsource/inter/files/inter-latin-500-normal.woff2", weight: "500", style: "normal" },
-    { path: "../../node_modules/@fontsource/inter/files/inter-latin-600-normal.woff2", weight: "600", style: "normal" },
-    { path: "../../node_modules/@fontsource/inter/files/inter-latin-700-normal.woff2", weight: "700", style: "normal" },
+    { path: "../../node_modules/@expo-google-fonts/inter/400Regular/Inter_400Regular.ttf", weight: "400", style: "normal" },
+    { path: "../../node_modules/@expo-google-fonts/inter/500Medium/Inter_500Medium.ttf", weight: "500", style: "normal" },
+    { path: "../../node_modules/@expo-google-fonts/inter/600SemiBold/Inter_600SemiBold.ttf", weight: "600", style: "normal" },
+    { path: "../../node_modules/@expo-google-fonts/inter/700Bold/Inter_700Bold.ttf", weight: "700", style: "normal" },
   ],
   variable: "--font-inter",
   display: "swap",
