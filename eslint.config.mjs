@@ -2,8 +2,47 @@ import js from "@eslint/js";
 import tseslint from "typescript-eslint";
 import drizzle from "eslint-plugin-drizzle";
 import globals from "globals";
+import path from "node:path";
 
 const pureCore = ["lib/analysis/**", "lib/physics/**", "lib/data/**", "lib/review/**", "lib/figures/**"];
+
+// The database client is reached only through a service in lib/server.
+const dbClientPath = { name: "@/db/client", message: "Go through a service in lib/server." };
+const dbDriverPattern = { group: ["drizzle-orm", "drizzle-orm/*", "@libsql/*"], message: "Go through a service in lib/server." };
+
+/** Module specifiers that pull server code into the browser (type-only imports are erased, so they pass). */
+const SERVER_SIDE = /^(?:@\/(?:lib\/server|db)(?:\/|$)|@\/lib\/authz(?:\/index)?$|server-only$|drizzle-orm(?:\/|$)|@libsql\/)/;
+const SERVER_DIRS = /^(?:lib\/server|db)(?:\/|$)|^lib\/authz(?:\/index(?:\.ts)?)?$/;
+
+/** A "use client" module (wherever it lives) may not import lib/server, db or the authz gate at run time. */
+const clientBoundary = {
+  meta: {
+    type: "problem",
+    messages: { server: '"use client" module imports {{source}}: server code would ship to the browser. Import types only, call the API or a server action, or move the helper to a pure module.' },
+  },
+  create(context) {
+    const body = context.sourceCode.ast.body;
+    const isClient = body.some((n) => n.type === "ExpressionStatement" && n.directive === "use client");
+    if (!isClient) return {};
+    const serverSide = (source) => {
+      if (SERVER_SIDE.test(source)) return true;
+      if (!source.startsWith(".")) return false;
+      const rel = path.relative(context.cwd, path.resolve(path.dirname(context.filename), source)).split(path.sep).join("/");
+      return SERVER_DIRS.test(rel);
+    };
+    const typeOnly = (node) => node.importKind === "type" || node.exportKind === "type" ||
+      (node.specifiers?.length > 0 && node.specifiers.every((sp) => sp.importKind === "type" || sp.exportKind === "type"));
+    const check = (node, source) => {
+      if (typeof source === "string" && serverSide(source)) context.report({ node, messageId: "server", data: { source } });
+    };
+    return {
+      ImportDeclaration: (node) => { if (!typeOnly(node)) check(node, node.source.value); },
+      ExportNamedDeclaration: (node) => { if (node.source && !typeOnly(node)) check(node, node.source.value); },
+      ExportAllDeclaration: (node) => { if (node.exportKind !== "type") check(node, node.source.value); },
+      ImportExpression: (node) => { if (node.source.type === "Literal") check(node, node.source.value); },
+    };
+  },
+};
 
 export default tseslint.config(
   { ignores: [".next/**", "node_modules/**", "bench/results/**", "test-results/**", "playwright-report/**", ".test-work/**", "next-env.d.ts", "db/migrations/**"] },
@@ -43,9 +82,63 @@ export default tseslint.config(
     // Only the service layer (and scripts, tests, the schema itself) may touch the database client.
     files: ["app/**", "components/**", "lib/http/**"],
     rules: {
+      "no-restricted-imports": ["error", { paths: [dbClientPath], patterns: [dbDriverPattern] }],
+    },
+  },
+  {
+    // Components run in the browser (or are imported by code that does): no services, no database,
+    // not the authz gate (it reads the database; the policy table is @/lib/authz/policy). Types pass.
+    files: ["components/**"],
+    rules: {
       "no-restricted-imports": ["error", {
-        paths: [{ name: "@/db/client", message: "Go through a service in lib/server." }],
-        patterns: [{ group: ["drizzle-orm", "drizzle-orm/*", "@libsql/*"], message: "Go through a service in lib/server." }],
+        patterns: [
+          dbDriverPattern,
+          { group: ["@/lib/server", "@/lib/server/*", "@/db/*", "server-only"], allowTypeImports: true, message: "Components reach the server through the API or a server action; import types only." },
+          { regex: "^@/lib/authz(/index)?$", allowTypeImports: true, message: "The authz gate reads the database; use @/lib/authz/policy." },
+        ],
+      }],
+    },
+  },
+  {
+    // "use client" modules outside components/ (app/**/_components, …): same boundary, found by the directive.
+    files: ["**/*.ts", "**/*.tsx"],
+    ignores: ["components/**"],
+    plugins: { prooflight: { rules: { "client-boundary": clientBoundary } } },
+    rules: { "prooflight/client-boundary": "error" },
+  },
+  {
+    // db/ is the inner layer (schema, migrations, client): it imports no service, gate, route or component.
+    files: ["db/**"],
+    rules: {
+      "no-restricted-imports": ["error", {
+        patterns: [
+          { group: ["@/lib/server", "@/lib/server/*", "@/lib/authz", "@/lib/authz/*", "@/lib/http/*", "@/app/*", "@/components/*"], message: "db/ holds only schema, migrations and client; seeds and services live in lib/server." },
+          { regex: "^(\\.\\./)+(lib/(server|authz|http)|app|components)(/|$)", message: "db/ holds only schema, migrations and client; seeds and services live in lib/server." },
+        ],
+      }],
+    },
+  },
+  {
+    // The policy gate sits below the services: it may use the db client, the schema and @/lib/errors.
+    files: ["lib/authz/**"],
+    rules: {
+      "no-restricted-imports": ["error", {
+        patterns: [
+          { group: ["@/lib/server", "@/lib/server/*", "@/lib/http/*", "@/app/*", "@/components/*"], message: "lib/authz must not depend on services, routes or components (errors come from @/lib/errors)." },
+          { regex: "^\\.\\./(server|http)(/|$)|^(\\.\\./)+(app|components)(/|$)", message: "lib/authz must not depend on services, routes or components (errors come from @/lib/errors)." },
+        ],
+      }],
+    },
+  },
+  {
+    // Services never reach back up into routes, the HTTP glue or components.
+    files: ["lib/server/**"],
+    rules: {
+      "no-restricted-imports": ["error", {
+        patterns: [
+          { group: ["@/lib/http/*", "@/app/*", "@/components/*"], message: "lib/server is below lib/http and app: move the shared piece down (lib/ or lib/server)." },
+          { regex: "^(\\.\\./)+(http|app|components)(/|$)", message: "lib/server is below lib/http and app: move the shared piece down (lib/ or lib/server)." },
+        ],
       }],
     },
   },

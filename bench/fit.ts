@@ -4,17 +4,7 @@
  * fit, covariance). Synthetic data from a fixed seed so runs are comparable.
  */
 import { fitModel } from "@/lib/analysis";
-
-function mulberry32(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 } from "@/lib/demo-data/prng";
 
 function gaussianNoise(uniform: () => number): number {
   return Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());

@@ -6,7 +6,7 @@
 import Papa from "papaparse";
 import { inferSchema, initParser } from "udsv";
 import { parseTable } from "@/lib/data/parse";
-import { mulberry32 } from "@/db/demo-data/prng";
+import { mulberry32 } from "@/lib/demo-data/prng";
 
 /**
  * A numeric CSV like an echo or ODMR export: `t_us` rising in 1 ns steps, then noisy signal

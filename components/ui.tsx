@@ -75,8 +75,3 @@ export function EmptyState({ title, children }: { title: string; children?: Reac
     </div>
   );
 }
-
-export function formatDate(d: Date | string | number | null | undefined): string {
-  if (d === null || d === undefined) return "—";
-  return new Date(d).toISOString().replace("T", " ").slice(0, 16) + " UTC";
-}

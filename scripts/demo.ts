@@ -2,7 +2,7 @@ import { ensureLocalEnv } from "./lib/local-env";
 ensureLocalEnv();
 
 const { applyMigrations } = await import("@/db/migrate");
-const { DEMO_ACCOUNTS, DEMO_PASSWORD } = await import("@/db/seed");
+const { DEMO_ACCOUNTS, DEMO_PASSWORD } = await import("@/lib/demo-data/accounts");
 const { seedDemoWithData } = await import("@/lib/server/demo/seed-demo");
 const { env } = await import("@/lib/env");
 const { startMailSink } = await import("@/lib/server/mail/sink-server");

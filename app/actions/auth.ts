@@ -6,22 +6,22 @@ import { signIn, signOut } from "@/auth";
 import { publicAction } from "@/lib/http/action";
 import { acceptInput, acceptInvitation } from "@/lib/server/members";
 import { clientAddress } from "@/lib/server/limits/client-address";
-import { signInBlockedReason } from "@/lib/server/sign-in-limits";
+import { signInBlockFor } from "@/lib/server/sign-in-limits";
 import { requestSignInLink } from "@/lib/server/sign-in-links";
+import { emailInput } from "@/lib/server/users";
 
 const safeNext = (next: unknown) => (typeof next === "string" && /^\/(?!\/)/.test(next) ? next : "/manuscripts");
 
 export const signInWithPassword = publicAction(
-  z.object({ email: z.string().trim().email("Give a valid e-mail address."), password: z.string().min(1, "Enter your password."), next: z.string().optional() }),
+  z.object({ email: emailInput, password: z.string().min(1, "Enter your password."), next: z.string().optional() }),
   async ({ email, password, next }) => {
-    const blocked = await signInBlockedReason(email, clientAddress(await headers()));
-    if (blocked) return { ok: false, message: blocked };
+    // The limit is checked once, in the provider's authorize (auth.ts); a refusal there is an AuthError too.
     try {
       await signIn("password", { email, password, redirectTo: safeNext(next) });
     } catch (err) {
       if (err instanceof AuthError) {
-        const again = await signInBlockedReason(email, clientAddress(await headers()));
-        return { ok: false, message: again ?? "That e-mail and password do not match an account." };
+        const block = await signInBlockFor(email, await headers());
+        return { ok: false, message: block?.message ?? "That e-mail and password do not match an account." };
       }
       throw err;
     }
@@ -29,7 +29,7 @@ export const signInWithPassword = publicAction(
 );
 
 export const requestLinkAction = publicAction(
-  z.object({ email: z.string().trim().email("Give a valid e-mail address.") }),
+  z.object({ email: emailInput }),
   async ({ email }) => {
     await requestSignInLink(email, clientAddress(await headers()));
     return { ok: true, message: "If the address has an account, a sign-in link is on its way. It works once, for 15 minutes." };

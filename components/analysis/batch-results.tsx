@@ -1,8 +1,8 @@
 import Link from "next/link";
+import { formatNumber, formatValueError } from "@/lib/data/format";
 import type { ModelInfo, SavedRun } from "./api";
 import type { BatchDataset } from "./batch-types";
 import { Converged } from "./fit-result";
-import { formatNumber, formatValueError } from "./format";
 
 export interface BatchOutcome { dataset: BatchDataset; run?: SavedRun; error?: string }
 

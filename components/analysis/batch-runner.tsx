@@ -1,7 +1,8 @@
 "use client";
 import { useRef, useState } from "react";
+import { sendJson } from "@/components/api-client";
 import { Button, EmptyState, Field, Notice, Select } from "@/components/ui";
-import { postJson, type ModelInfo, type SavedRun } from "./api";
+import type { ModelInfo, SavedRun } from "./api";
 import { BatchProgress } from "./batch-progress";
 import { BatchResults, type BatchOutcome } from "./batch-results";
 import type { BatchDataset } from "./batch-types";
@@ -41,7 +42,7 @@ export function BatchRunner({ datasets, models, model, onModel, kind, onKind, ma
       const dataset = queue[i]!;
       let outcome: BatchOutcome;
       try {
-        outcome = { dataset, run: await postJson<SavedRun>("/api/analyses", { versionId: dataset.versionId, model: model.id, options }) };
+        outcome = { dataset, run: await sendJson<SavedRun>("/api/analyses", "POST", { versionId: dataset.versionId, model: model.id, options }) };
       } catch (err) {
         failed++;
         outcome = { dataset, error: (err as Error).message };

@@ -1,6 +1,6 @@
 "use client";
 import { useId, useState } from "react";
-import { extent, linearScale, logScale, type Scale } from "./scale";
+import { extent, linearScale, logScale, padRange, type Scale } from "@/components/data/plot-scales";
 
 const W = 720;
 const LEFT = 70, RIGHT = 16, TOP = 12;
@@ -24,11 +24,11 @@ export interface FitPlotProps {
 export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle }: FitPlotProps) {
   const clip = `fit-clip-${useId().replace(/[^a-zA-Z0-9_-]/g, "")}`;
   const positive = data.x.length > 0 && data.x.every((v) => v > 0);
-  const [xMin, xMax] = extent([data.x], 0, true);
-  const [logX, setLogX] = useState(positive && xMax / xMin > 100);
+  const xPositive = extent([data.x], true);
+  const [logX, setLogX] = useState(positive && xPositive !== null && xPositive[1] / xPositive[0] > 100);
   const useLog = logX && positive;
-  const xs: Scale = useLog ? logScale(extent([data.x], 0.03, true), [LEFT, W - RIGHT]) : linearScale(extent([data.x], 0.03), [LEFT, W - RIGHT], 7);
-  const ys = linearScale(extent([data.y, curve.y], 0.06), [MAIN_BOTTOM, TOP], 5);
+  const xs: Scale = useLog ? logScale(padRange(xPositive, 0.03, true), [LEFT, W - RIGHT]) : linearScale(padRange(extent([data.x]), 0.03), [LEFT, W - RIGHT], 7);
+  const ys = linearScale(padRange(extent([data.y, curve.y]), 0.06), [MAIN_BOTTOM, TOP], 5);
   const rMax = Math.max(1e-300, ...data.residuals.map((r) => (r === null ? 0 : Math.abs(r)))) * 1.15;
   const rs = linearScale([-rMax, rMax], [RES_BOTTOM, RES_TOP], 4);
   const outer = Math.max(...rs.ticks.map((t) => Math.abs(t.value)));

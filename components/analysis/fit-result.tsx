@@ -1,7 +1,7 @@
 "use client";
+import { axisTitle, formatNumber, formatValueError } from "@/lib/data/format";
 import type { FitResult } from "./api";
 import { FitPlot } from "./fit-plot";
-import { axisTitle, formatNumber, formatValueError } from "./format";
 
 /** Status as a shape and words: never colour alone. */
 export function Warnings({ items, label = "Fit warnings" }: { items: string[]; label?: string }) {

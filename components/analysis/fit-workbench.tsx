@@ -2,9 +2,10 @@
 import Link from "next/link";
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useMemo, useState } from "react";
+import { ApiError, fetchJson, sendJson } from "@/components/api-client";
 import { Button, Notice, Sheet } from "@/components/ui";
-import { resolveUnit } from "@/lib/server/analyses/units";
-import { ApiError, fetchJson, postJson, type FitOptions, type FitResult, type ModelInfo, type SavedRun, type StoredRun } from "./api";
+import { resolveUnit } from "@/lib/analysis/param-unit";
+import type { FitOptions, FitResult, ModelInfo, SavedRun, StoredRun } from "./api";
 import { buildOptions, defaultColumns, defaultsFrom, orderModels, type Column, type DefaultBounds, type ParamDraft } from "./fit-options";
 import { FitResultView } from "./fit-result";
 import { ColumnSelects, ModelSelect } from "./model-and-columns";
@@ -43,7 +44,7 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
   const currentKey = "options" in built ? JSON.stringify({ modelId, options: built.options }) : null;
   const lastValues = shown?.run.model === modelId ? Object.fromEntries(shown.run.parameters.map((p) => [p.name, p.value])) : undefined;
 
-  const preview = (options: FitOptions) => postJson<FitResult>("/api/analyses/preview", { versionId, model: modelId, options });
+  const preview = (options: FitOptions) => sendJson<FitResult>("/api/analyses/preview", "POST", { versionId, model: modelId, options });
   const learn = (run: FitResult, options: FitOptions, base: DefaultBounds | undefined): DefaultBounds => {
     const fresh = defaultsFrom(run.parameters.filter((p) => !options.bounds?.[p.name]));
     const merged = { ...base, ...fresh };
@@ -80,7 +81,7 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
     if (!shown) return;
     setBusy("save"); setError(null);
     try {
-      const run = await postJson<SavedRun>("/api/analyses", { versionId, model: shown.run.model, options: shown.run.options });
+      const run = await sendJson<SavedRun>("/api/analyses", "POST", { versionId, model: shown.run.model, options: shown.run.options });
       setShown({ ...shown, run });
       const derived = await fetchJson<{ number: number; datasetId: string }>(`/api/versions/${run.derivedVersionId}`);
       setSaved({ number: derived.number, datasetId: derived.datasetId, id: run.derivedVersionId });

@@ -1,7 +1,7 @@
 "use client";
 import { Field, Select } from "@/components/ui";
+import { axisTitle } from "@/lib/data/format";
 import type { ModelInfo } from "./api";
-import { axisTitle } from "./format";
 import { orderModels, type Column } from "./fit-options";
 
 export const kindWords = (kind: string) => kind.replace(/_/g, " ");

@@ -1,5 +1,5 @@
 "use client";
-import { formatNumber } from "./format";
+import { formatNumber } from "@/lib/data/format";
 import { EMPTY_DRAFT, type DefaultBounds, type ParamDraft } from "./fit-options";
 
 export interface ParamRow { name: string; description: string; unit: string }

@@ -1,9 +1,10 @@
 "use client";
 import { useQuery } from "@tanstack/react-query";
 import { useState } from "react";
+import { axisTitle } from "@/lib/data/format";
+import { fetchJson } from "@/components/api-client";
 import { EmptyState, Field, Notice, Select } from "@/components/ui";
-import { fetchJson, type ModelInfo, type PopulationStats } from "./api";
-import { axisTitle } from "./format";
+import type { ModelInfo, PopulationStats } from "./api";
 import { ComparisonsTable, GroupsTable } from "./statistics-tables";
 import { StripPlot } from "./strip-plot";
 

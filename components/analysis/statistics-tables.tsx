@@ -1,5 +1,5 @@
+import { formatNumber, formatP } from "@/lib/data/format";
 import type { PopulationStats } from "./api";
-import { formatNumber, formatP } from "./format";
 
 const th = "px-3 py-2 whitespace-nowrap normal-case";
 const td = "px-3 py-2 tabular-nums whitespace-nowrap";

@@ -1,10 +1,11 @@
 "use client";
 import Link from "next/link";
 import { useQuery } from "@tanstack/react-query";
+import { fetchJson } from "@/components/api-client";
 import { EmptyState } from "@/components/ui";
-import { fetchJson, type FitParameter, type ModelInfo, type StoredResult, type StoredRun } from "./api";
+import { formatDate, formatNumber, formatValueError } from "@/lib/data/format";
+import type { FitParameter, ModelInfo, StoredResult, StoredRun } from "./api";
 import { Converged } from "./fit-result";
-import { formatNumber, formatValueError, formatWhen } from "./format";
 
 /** The parameters worth a glance (times, rates, positions, exponents), not baselines and amplitudes in y units. */
 export function keyParameters(model: ModelInfo | undefined, params: readonly FitParameter[]): FitParameter[] {
@@ -42,7 +43,7 @@ export function StoredRuns({ runs, models }: { runs: StoredRun[]; models: readon
             const model = byId.get(r.model);
             return (
               <tr key={r.id}>
-                <td className="whitespace-nowrap px-3 py-2 text-muted">{formatWhen(r.createdAt)}</td>
+                <td className="whitespace-nowrap px-3 py-2 text-muted">{formatDate(r.createdAt)}</td>
                 <td className="px-3 py-2">{model?.title ?? r.model}<span className="block text-xs text-muted">{r.model} · v{r.modelVersion}</span></td>
                 <td className="px-3 py-2"><ParameterSummary params={keyParameters(model, result.parameters ?? [])} /></td>
                 <td className="px-3 py-2 tabular-nums">{formatNumber(result.chi2red, 3)}</td>

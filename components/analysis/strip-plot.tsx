@@ -1,6 +1,6 @@
+import { extent, linearScale, padRange } from "@/components/data/plot-scales";
+import { formatNumber } from "@/lib/data/format";
 import type { PopulationStats } from "./api";
-import { formatNumber } from "./format";
-import { extent, linearScale } from "./scale";
 
 const W = 720, H = 300, LEFT = 70, RIGHT = 16, TOP = 14, BOTTOM = H - 56;
 const POINT = "#0072B2";
@@ -12,7 +12,7 @@ const jitter = (i: number) => ((i * 0.618034) % 1) - 0.5;
 export function StripPlot({ stats, yTitle }: { stats: PopulationStats; yTitle: string }) {
   const groups = stats.groups;
   const bars = groups.flatMap((g) => (g.sd === null || !Number.isFinite(g.sd) ? [g.mean] : [g.mean - g.sd, g.mean + g.sd]));
-  const ys = linearScale(extent([stats.members.map((m) => m.value), bars], 0.08), [BOTTOM, TOP], 5);
+  const ys = linearScale(padRange(extent([stats.members.map((m) => m.value), bars]), 0.08), [BOTTOM, TOP], 5);
   const band = (W - LEFT - RIGHT) / Math.max(1, groups.length);
   const cx = (i: number) => LEFT + band * (i + 0.5);
   return (

@@ -1,5 +1,5 @@
+import { formatCount, formatNumber } from "@/lib/data/format";
 import type { VersionView } from "./api";
-import { formatCount, formatNumber } from "./format";
 
 /** Per numeric column: how many values, how many missing, and their range, mean and spread. */
 export function ColumnSummaryTable({ version }: { version: VersionView }) {
@@ -23,7 +23,7 @@ export function ColumnSummaryTable({ version }: { version: VersionView }) {
                 <td className="px-3 py-1.5 text-muted">{s.unit ?? "—"}</td>
                 <td className="px-3 py-1.5 text-right tabular">{formatCount(s.count)}</td>
                 <td className="px-3 py-1.5 text-right tabular">{s.missing ? <span className="text-warn"><span aria-hidden>⚠ </span>{formatCount(s.missing)}</span> : "0"}</td>
-                {[s.min, s.max, s.mean, s.sd].map((v, i) => <td key={i} className="px-3 py-1.5 text-right tabular">{formatNumber(v)}</td>)}
+                {[s.min, s.max, s.mean, s.sd].map((v, i) => <td key={i} className="px-3 py-1.5 text-right tabular">{formatNumber(v, 5)}</td>)}
               </tr>
             ))}
           </tbody>

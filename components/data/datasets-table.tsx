@@ -3,9 +3,10 @@ import { useQuery } from "@tanstack/react-query";
 import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import Link from "next/link";
 import { Fragment, useState } from "react";
-import { EmptyState, formatDate } from "@/components/ui";
-import { fetchJson, type DatasetListItem } from "./api";
-import { formatBytes, formatCount } from "./format";
+import { fetchJson } from "@/components/api-client";
+import { EmptyState } from "@/components/ui";
+import { formatBytes, formatCount, formatDate } from "@/lib/data/format";
+import type { DatasetListItem } from "./api";
 import { KIND_ORDER, kindLabel } from "./measurement-kinds";
 import { SortHeader } from "./sort-header";
 

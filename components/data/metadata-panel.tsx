@@ -2,8 +2,9 @@
 import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent, type ReactNode } from "react";
+import { sendJson } from "@/components/api-client";
 import { Button, Field, Notice, Select, TextInput } from "@/components/ui";
-import { fetchJson, type DatasetDetail } from "./api";
+import type { DatasetDetail } from "./api";
 import { formatTags, parseTags } from "./format";
 import { KIND_OPTIONS } from "./measurement-kinds";
 
@@ -42,12 +43,9 @@ export function MetadataPanel({ datasetId, initial, editable }: { datasetId: str
   });
   const tagResult = parseTags(form.tags);
   const save = useMutation({
-    mutationFn: () => fetchJson(`/api/datasets/${datasetId}`, {
-      method: "PATCH",
-      body: JSON.stringify({
-        kind: form.kind, sample: blankToNull(form.sample), instrument: blankToNull(form.instrument),
-        measuredAt: blankToNull(form.measuredAt), notes: blankToNull(form.notes), tags: tagResult.tags,
-      }),
+    mutationFn: () => sendJson(`/api/datasets/${datasetId}`, "PATCH", {
+      kind: form.kind, sample: blankToNull(form.sample), instrument: blankToNull(form.instrument),
+      measuredAt: blankToNull(form.measuredAt), notes: blankToNull(form.notes), tags: tagResult.tags,
     }),
     onSuccess: () => { setEditing(false); router.refresh(); },
   });

@@ -1,9 +1,10 @@
 "use client";
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import { useState } from "react";
+import { axisTitle, formatCount } from "@/lib/data/format";
+import { fetchJson } from "@/components/api-client";
 import { Field, Select } from "@/components/ui";
-import { fetchJson, type PlotData, type VersionView } from "./api";
-import { axisTitle, formatCount } from "./format";
+import type { PlotData, VersionView } from "./api";
 import { extent, isAscending } from "./plot-scales";
 import { QuickPlot } from "./quick-plot";
 
@@ -24,7 +25,7 @@ export function QuickPlotPanel({ version }: { version: VersionView }) {
   });
 
   if (numeric.length < 2) return <p className="text-sm text-muted">A quick plot needs two numeric columns; this version has {numeric.length}.</p>;
-  const xRange = data ? extent(data.points.x) : null;
+  const xRange = data ? extent([data.points.x]) : null;
   const canLog = xRange !== null && xRange[1] > 0;
   const logShown = logX && canLog;
   const ordered = data ? isAscending(data.points.x) : true;

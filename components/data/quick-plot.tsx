@@ -1,16 +1,12 @@
 "use client";
 import { useEffect, useId, useRef, useState } from "react";
+import { axisTitle } from "@/lib/data/format";
 import type { PlotData } from "./api";
-import { axisTitle, formatNumber } from "./format";
-import { extent, isAscending, linearScale, logScale, type Scale } from "./plot-scales";
+import { extent, isAscending, linearScale, logScale, padRange, type Scale } from "./plot-scales";
 
 const M = { top: 14, right: 20, bottom: 56, left: 78 };
 /** Okabe–Ito blue: distinct for the common colour-vision deficiencies and in greyscale print. */
 const LINE = "#0072B2";
-
-function tickLabel(t: number): string {
-  return formatNumber(t, 4);
-}
 
 /** Polyline through ordered points, broken wherever a value is missing (or not drawable on log x). */
 function linePath(xs: Array<number | null>, ys: Array<number | null>, sx: Scale, sy: Scale): string {
@@ -20,7 +16,7 @@ function linePath(xs: Array<number | null>, ys: Array<number | null>, sx: Scale,
     const x = xs[i];
     const y = ys[i];
     if (x === null || y === null || !Number.isFinite(x) || !Number.isFinite(y) || (sx.log && x <= 0)) { pen = false; continue; }
-    d += `${pen ? "L" : "M"}${sx.toPx(x).toFixed(1)},${sy.toPx(y).toFixed(1)}`;
+    d += `${pen ? "L" : "M"}${sx(x).toFixed(1)},${sy(y).toFixed(1)}`;
     pen = true;
   }
   return d;
@@ -49,11 +45,11 @@ export function QuickPlot({ data, logX }: { data: PlotData; logX: boolean }) {
   const X_PX: [number, number] = [M.left, W - M.right];
   const Y_PX: [number, number] = [H - M.bottom, M.top];
   const { x: xs, y: ys } = data.points;
-  const xRange = extent(xs, logX);
-  const yRange = extent(ys);
+  const xRange = extent([xs], logX);
+  const yRange = extent([ys]);
   if (!xRange || !yRange) return <div ref={box} className="text-sm text-muted">Nothing to draw: {logX ? "no positive x values" : "these columns have no finite values"}.</div>;
-  const sx = logX ? logScale(xRange, X_PX) : linearScale(xRange, X_PX, 0, W < 520 ? 4 : 8);
-  const sy = linearScale(yRange, Y_PX, 0.05, W < 520 ? 5 : 7);
+  const sx = logX ? logScale(padRange(xRange, 0, true), X_PX) : linearScale(padRange(xRange, 0), X_PX, W < 520 ? 4 : 8);
+  const sy = linearScale(padRange(yRange, 0.05), Y_PX, W < 520 ? 5 : 7);
   const ordered = isAscending(xs);
   const inside = (v: number, s: Scale) => v >= Math.min(...s.domain) && v <= Math.max(...s.domain);
   const xTitle = axisTitle(data.x.name, data.x.unit);
@@ -64,18 +60,18 @@ export function QuickPlot({ data, logX }: { data: PlotData; logX: boolean }) {
       <svg viewBox={`0 0 ${W} ${H}`} width={W} height={H} className="block h-auto max-w-full" role="img" aria-label={`${yTitle} against ${xTitle}${logX ? " (log x)" : ""}, ${xs.length} points`} data-testid="quick-plot">
         <rect x={M.left} y={M.top} width={W - M.left - M.right} height={H - M.top - M.bottom} fill="#fff" stroke="var(--color-rule)" />
         <g fontSize={12} fill="var(--color-muted)">
-          {sy.ticks.filter((t) => inside(t, sy)).map((t) => (
-            <g key={`y${t}`}>
-              <line x1={M.left} x2={W - M.right} y1={sy.toPx(t)} y2={sy.toPx(t)} stroke="#eeeae1" />
-              <line x1={M.left - 5} x2={M.left} y1={sy.toPx(t)} y2={sy.toPx(t)} stroke="var(--color-ink)" />
-              <text x={M.left - 8} y={sy.toPx(t)} textAnchor="end" dominantBaseline="middle">{tickLabel(t)}</text>
+          {sy.ticks.filter((t) => inside(t.value, sy)).map((t) => (
+            <g key={`y${t.value}`}>
+              <line x1={M.left} x2={W - M.right} y1={sy(t.value)} y2={sy(t.value)} stroke="#eeeae1" />
+              <line x1={M.left - 5} x2={M.left} y1={sy(t.value)} y2={sy(t.value)} stroke="var(--color-ink)" />
+              <text x={M.left - 8} y={sy(t.value)} textAnchor="end" dominantBaseline="middle">{t.label}</text>
             </g>
           ))}
-          {sx.ticks.filter((t) => inside(t, sx)).map((t) => (
-            <g key={`x${t}`}>
-              <line y1={M.top} y2={H - M.bottom} x1={sx.toPx(t)} x2={sx.toPx(t)} stroke="#eeeae1" />
-              <line y1={H - M.bottom} y2={H - M.bottom + 5} x1={sx.toPx(t)} x2={sx.toPx(t)} stroke="var(--color-ink)" />
-              <text y={H - M.bottom + 18} x={sx.toPx(t)} textAnchor="middle">{tickLabel(t)}</text>
+          {sx.ticks.filter((t) => inside(t.value, sx)).map((t) => (
+            <g key={`x${t.value}`}>
+              <line y1={M.top} y2={H - M.bottom} x1={sx(t.value)} x2={sx(t.value)} stroke="#eeeae1" />
+              <line y1={H - M.bottom} y2={H - M.bottom + 5} x1={sx(t.value)} x2={sx(t.value)} stroke="var(--color-ink)" />
+              <text y={H - M.bottom + 18} x={sx(t.value)} textAnchor="middle">{t.label}</text>
             </g>
           ))}
         </g>
@@ -89,7 +85,7 @@ export function QuickPlot({ data, logX }: { data: PlotData; logX: boolean }) {
             xs.map((x, i) => {
               const y = ys[i];
               if (x === null || y === null || (logX && x <= 0)) return null;
-              return <circle key={i} cx={sx.toPx(x)} cy={sy.toPx(y)} r={1.6} fill={LINE} fillOpacity={0.7} />;
+              return <circle key={i} cx={sx(x)} cy={sy(y)} r={1.6} fill={LINE} fillOpacity={0.7} />;
             })
           )}
         </g>

@@ -2,9 +2,10 @@
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import { flexRender, getCoreRowModel, useReactTable, type ColumnDef, type PaginationState } from "@tanstack/react-table";
 import { useMemo, useState } from "react";
+import { fetchJson } from "@/components/api-client";
 import { Button } from "@/components/ui";
-import { fetchJson, type RowsPage, type VersionView } from "./api";
-import { formatCount } from "./format";
+import { formatCount } from "@/lib/data/format";
+import type { RowsPage, VersionView } from "./api";
 
 type Row = Array<number | string | null>;
 const PAGE_SIZE = 50;

@@ -1,4 +1,5 @@
-import { messageFromBody, type VersionView } from "./api";
+import { messageFromBody } from "@/components/api-client";
+import type { VersionView } from "./api";
 
 export type UploadedVersion = VersionView & { deduplicated: boolean };
 export type UploadOutcome =

@@ -1,6 +1,6 @@
 "use client";
 import Link from "next/link";
-import { formatBytes, formatCount, shortHash } from "./format";
+import { formatBytes, formatCount, shortHash } from "@/lib/data/format";
 import type { UploadItem } from "./use-upload-queue";
 
 function percent(it: UploadItem): number {
@@ -20,7 +20,7 @@ function StatusLine({ it }: { it: UploadItem }) {
       return (
         <span className="text-good">
           <span aria-hidden className="font-bold">✓ </span>
-          {v.deduplicated ? "identical to the latest version; kept as version" : "stored as version"} {v.number} · sha256 <span title={v.sha256} className="font-mono">{shortHash(v.sha256)}</span> · {formatCount(v.rowCount)} row{v.rowCount === 1 ? "" : "s"}
+          {v.deduplicated ? "identical to the latest version; kept as version" : "stored as version"} {v.number} · sha256 <span title={v.sha256} className="font-mono">{shortHash(v.sha256, 8)}</span> · {formatCount(v.rowCount)} row{v.rowCount === 1 ? "" : "s"}
           {" · "}<Link href={`/datasets/${v.datasetId}`} className="text-accent underline">open dataset</Link>
         </span>
       );

@@ -1,9 +1,8 @@
 import Link from "next/link";
 import { Fragment } from "react";
-import { formatDate } from "@/components/ui";
+import { formatBytes, formatCount, formatDate, shortHash } from "@/lib/data/format";
 import type { DatasetDetail } from "./api";
 import { CopyButton } from "./copy-button";
-import { formatBytes, formatCount, shortHash } from "./format";
 
 type Version = DatasetDetail["versions"][number];
 
@@ -47,7 +46,7 @@ export function VersionsTable({ datasetId, versions, selectedId }: { datasetId: 
                   </td>
                   <td className="px-3 py-2">
                     <span className="inline-flex items-center gap-1.5">
-                      <code className="font-mono text-xs" title={v.sha256} data-testid="version-sha">{shortHash(v.sha256)}</code>
+                      <code className="font-mono text-xs" title={v.sha256} data-testid="version-sha">{shortHash(v.sha256, 8)}</code>
                       <CopyButton value={v.sha256} label={`Copy the SHA-256 of version ${v.number}`} />
                     </span>
                     <span className="mt-0.5 block max-w-[14rem] truncate text-xs text-muted" title={v.fileName}>{v.fileName}</span>

@@ -5,11 +5,7 @@ import type { traceFigure } from "@/lib/server/figures/trace";
 import type { listThreads } from "@/lib/server/review/threads";
 import type { listDatasets } from "@/lib/server/datasets/read-datasets";
 import type { listAnalysesForVersion } from "@/lib/server/analyses/run-analysis";
-import type { Wire } from "@/components/data/api";
-import { fetchJson } from "@/components/data/api";
-
-export { ApiError, fetchJson } from "@/components/data/api";
-export type { Wire };
+import type { Wire } from "@/components/api-client";
 
 export type FigureView = Wire<Awaited<ReturnType<typeof getFigure>>>;
 export type FigurePanel = FigureView["panels"][number];
@@ -31,11 +27,6 @@ export interface RevisionData { revisionId: string; data: Record<string, BoundRo
 export type Binding = { versionId: string } | { analysisId: string; output: "curve" | "residuals" | "data" };
 
 export type ThreadAnchor = { type: "point"; x: number; y: number } | { type: "xrange"; x0: number; x1: number };
-
-/** JSON to our API; errors carry the server's own message. */
-export function sendJson<T>(url: string, method: "POST" | "PATCH" | "DELETE", body?: unknown): Promise<T> {
-  return fetchJson<T>(url, { method, body: body === undefined ? undefined : JSON.stringify(body) });
-}
 
 export const queryKeys = {
   figure: (id: string) => ["figure", id] as const,

@@ -1,9 +1,9 @@
 "use client";
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
+import { sendJson } from "@/components/api-client";
 import { Button, Field, Select, TextInput } from "@/components/ui";
-import { sendJson } from "./api";
-import { WIDTH_PRESETS } from "./format";
+import { CustomWidthField, WidthPresetField, widthMmOf } from "./figure-width-field";
 
 /** Creates a numbered figure (PI and authors) and opens it. */
 export function NewFigureForm({ manuscriptId }: { manuscriptId: string }) {
@@ -18,7 +18,7 @@ export function NewFigureForm({ manuscriptId }: { manuscriptId: string }) {
   async function submit(e: FormEvent) {
     e.preventDefault();
     setError(null);
-    const widthMm = preset === "custom" ? Number(customMm) : WIDTH_PRESETS.find((p) => p.id === preset)!.mm;
+    const widthMm = widthMmOf(preset, customMm);
     if (!Number.isFinite(widthMm) || widthMm < 30 || widthMm > 300) return setError("Width: give a number of millimetres between 30 and 300.");
     setBusy(true);
     try {
@@ -35,16 +35,11 @@ export function NewFigureForm({ manuscriptId }: { manuscriptId: string }) {
       <h3 className="mb-3 text-sm font-semibold">New figure</h3>
       <div className="grid gap-3 sm:grid-cols-[minmax(0,2fr)_minmax(0,1.4fr)_minmax(0,0.6fr)]">
         <Field label="Title"><TextInput required value={title} onChange={(e) => setTitle(e.target.value)} placeholder="e.g. T₂ across the sample series" /></Field>
-        <Field label="Width">
-          <Select value={preset} onChange={(e) => setPreset(e.target.value)}>
-            {WIDTH_PRESETS.map((p) => <option key={p.id} value={p.id}>{p.label}</option>)}
-            <option value="custom">Custom…</option>
-          </Select>
-        </Field>
+        <WidthPresetField value={preset} onChange={setPreset} />
         <Field label="Columns"><Select value={columns} onChange={(e) => setColumns(e.target.value)}>{[1, 2, 3, 4].map((n) => <option key={n}>{n}</option>)}</Select></Field>
       </div>
       {preset === "custom" ? (
-        <div className="mt-3 w-40"><Field label="Custom width (mm)"><TextInput type="number" min={30} max={300} step={1} value={customMm} onChange={(e) => setCustomMm(e.target.value)} /></Field></div>
+        <div className="mt-3 w-40"><CustomWidthField value={customMm} onChange={setCustomMm} /></div>
       ) : null}
       {error ? <p role="alert" className="mt-2 text-sm text-bad"><span aria-hidden>✕ </span>{error}</p> : null}
       <Button type="submit" className="mt-3" disabled={busy}>{busy ? "Creating…" : "Create figure"}</Button>

@@ -4,7 +4,8 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import type { Result } from "vega-embed";
 import embed from "vega-embed";
 import { expressionInterpreter } from "vega-interpreter";
-import { fetchJson, queryKeys, type BoundRows, type RevisionData, type ThreadAnchor } from "./api";
+import { fetchJson } from "@/components/api-client";
+import { queryKeys, type BoundRows, type RevisionData, type ThreadAnchor } from "./api";
 import { ChartAnchors, type ChartAnchor, type PickMode } from "./chart-anchors";
 import { dataNamesOf, plotGeometry, prepareSpec, PX_PER_MM, refusalOf, refusingLoader, shippedFontFamily, svgNaturalSize, type PlotGeometry } from "./vega-render";
 

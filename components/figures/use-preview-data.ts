@@ -1,8 +1,9 @@
 "use client";
 import { useQueries, useQuery } from "@tanstack/react-query";
 import { useMemo } from "react";
+import { fetchJson } from "@/components/api-client";
 import type { RowsPage } from "@/components/data/api";
-import { fetchJson, queryKeys, type Binding, type BoundRows, type RevisionData, type Row } from "./api";
+import { queryKeys, type Binding, type BoundRows, type RevisionData, type Row } from "./api";
 
 /** A binding plus the version whose rows it reads (an analysis output lives in its derived version). */
 export type BindingChoice = ({ versionId: string } | { analysisId: string; output: "curve" | "residuals" | "data" }) & { rowsVersionId: string };

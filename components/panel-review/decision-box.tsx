@@ -1,8 +1,10 @@
 "use client";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
-import { queryKeys, sendJson, type PanelView } from "@/components/figures/api";
+import { sendJson } from "@/components/api-client";
+import { queryKeys, type PanelView } from "@/components/figures/api";
 import { Button } from "@/components/ui";
+import { roleAllows } from "@/lib/authz/policy";
 
 /** Approve / needs revision on the current revision's content hash, for the roles the rules allow. */
 export function DecisionBox({ panel, me }: { panel: PanelView; me: string }) {
@@ -19,7 +21,7 @@ export function DecisionBox({ panel, me }: { panel: PanelView; me: string }) {
     },
   });
   if (!rev) return <p className="text-sm text-muted">Nothing to review yet: the panel has no revision.</p>;
-  const reason = panel.role === "viewer" ? "Viewers follow along; reviewers, authors and the PI decide."
+  const reason = !roleAllows(panel.role, "review.decide") ? "Viewers follow along; reviewers, authors and the PI decide."
     : rev.createdBy === me ? "You made this revision; someone else must review it." : null;
   const mine = panel.decisions.filter((d) => d.userId === me && !d.stale).at(-1);
   return (

@@ -1,5 +1,5 @@
 import type { PanelView } from "@/components/figures/api";
-import { shortHash, timeAgo } from "@/components/figures/format";
+import { relativeTime, shortHash } from "@/lib/data/format";
 
 /** Every decision, newest first; those on an older content hash are marked stale with what changed since. */
 export function DecisionsList({ decisions }: { decisions: PanelView["decisions"] }) {
@@ -11,7 +11,7 @@ export function DecisionsList({ decisions }: { decisions: PanelView["decisions"]
           <p className="flex flex-wrap items-center gap-x-2">
             <b className={d.decision === "approved" ? "text-good" : "text-bad"}>{d.decision === "approved" ? "✓ Approved" : "✕ Needs revision"}</b>
             <span>{d.userName}</span>
-            <span className="text-xs text-muted">{timeAgo(d.createdAt)} · hash <code>{shortHash(d.contentHash, 8)}</code></span>
+            <span className="text-xs text-muted">{relativeTime(d.createdAt)} · hash <code>{shortHash(d.contentHash, 8)}</code></span>
             {d.stale ? <span className="ml-auto rounded-full border border-warn px-1.5 text-xs font-medium text-warn">◌ Stale</span> : null}
           </p>
           {d.note ? <p className="mt-1 text-xs">“{d.note}”</p> : null}

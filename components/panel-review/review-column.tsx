@@ -1,5 +1,6 @@
 "use client";
 import { useState } from "react";
+import { roleAllows } from "@/lib/authz/policy";
 import type { MemberView, PanelView, ThreadAnchor } from "@/components/figures/api";
 import type { PickMode } from "@/components/figures/chart-anchors";
 import { describeAnchor } from "@/components/figures/format";
@@ -22,7 +23,7 @@ export function ReviewColumn({ panel, members, me, pickMode, onPickMode, draftAn
   const [error, setError] = useState<string | null>(null);
   const name = (id: string) => members.find((m) => m.userId === id)?.name ?? id;
   const mentionable = members.filter((m) => m.userId !== me.id).map((m) => ({ id: m.userId, label: m.name, role: ROLE_WORD[m.role] }));
-  const canWrite = panel.role === "pi" || panel.role === "author" || panel.role === "reviewer";
+  const canWrite = roleAllows(panel.role, "comment.write");
   const rev = panel.currentRevision;
   const all = threads.data ?? [];
   const open = all.filter((t) => t.status === "open");

@@ -1,7 +1,8 @@
 "use client";
 import { useState } from "react";
-import { ApiError } from "@/components/figures/api";
-import { describeAnchor, timeAgo } from "@/components/figures/format";
+import { ApiError } from "@/components/api-client";
+import { describeAnchor } from "@/components/figures/format";
+import { relativeTime } from "@/lib/data/format";
 import type { JSONContent } from "./comment-editor";
 import { CommentBox } from "./comment-box";
 import type { MentionItem } from "./mention-list";
@@ -59,7 +60,7 @@ function CommentItem({ c, me, members, actions }: { c: ShownComment; me: string;
   return (
     <li className="text-sm" data-testid="comment">
       <p className="text-xs text-muted">
-        <span className="font-medium text-ink">{c.authorName}</span> · <span title={String(c.createdAt)}>{timeAgo(c.createdAt)}</span>
+        <span className="font-medium text-ink">{c.authorName}</span> · <span title={String(c.createdAt)}>{relativeTime(c.createdAt)}</span>
         {c.editedAt ? " · edited" : ""}
         {mayEdit && !editing ? <> · <button type="button" className="underline" onClick={() => setEditing(true)}>Edit</button></> : null}
       </p>

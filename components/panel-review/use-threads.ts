@@ -1,6 +1,7 @@
 "use client";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { fetchJson, queryKeys, sendJson, type ThreadAnchor, type ThreadView } from "@/components/figures/api";
+import { fetchJson, sendJson } from "@/components/api-client";
+import { queryKeys, type ThreadAnchor, type ThreadView } from "@/components/figures/api";
 import type { JSONContent } from "./comment-editor";
 
 /** A comment shown before the server has answered: plain text only (client HTML is never rendered). */

@@ -1,7 +1,9 @@
 "use client";
 import { useQuery } from "@tanstack/react-query";
+import { fetchJson } from "@/components/api-client";
 import { EmptyState } from "@/components/ui";
-import { fetchJson, REVIEW_REFETCH_MS, reviewKeys, type ActivityEntry } from "./review-api";
+import { shortHash } from "@/lib/data/format";
+import { REVIEW_REFETCH_MS, reviewKeys, type ActivityEntry } from "./review-api";
 
 const dayOf = (d: Date | string) => new Date(d).toISOString().slice(0, 10);
 const timeOf = (d: Date | string) => new Date(d).toISOString().slice(11, 16);
@@ -52,7 +54,7 @@ export function ActivityLog({ manuscriptId, initial }: { manuscriptId: string; i
                   <p className="min-w-0 break-words"><span className="font-medium">{e.actor}</span> {e.text}</p>
                   <p className="col-start-2 text-xs text-muted sm:col-start-3 sm:text-right">
                     <span className="tabular">#{e.seq}</span>{" "}
-                    <code className="rounded-sm bg-paper px-1 font-mono" title={`entry hash ${e.hash}`}>{e.hash.slice(0, 10)}…</code>
+                    <code className="rounded-sm bg-paper px-1 font-mono" title={`entry hash ${e.hash}`}>{shortHash(e.hash)}</code>
                   </p>
                 </li>
               ))}

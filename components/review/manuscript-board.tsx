@@ -1,11 +1,13 @@
 "use client";
 import { useQuery } from "@tanstack/react-query";
 import { useMemo } from "react";
+import { fetchJson } from "@/components/api-client";
 import { EmptyState } from "@/components/ui";
+import { roleAllows } from "@/lib/authz/policy";
 import { useActivity } from "./activity-log";
 import { BoardFigureRow } from "./board-figure";
 import { latestByTarget } from "./last-activity";
-import { fetchJson, REVIEW_REFETCH_MS, reviewKeys, type ActivityEntry, type ManuscriptView } from "./review-api";
+import { REVIEW_REFETCH_MS, reviewKeys, type ActivityEntry, type ManuscriptView } from "./review-api";
 import { StateBadge, StateLegend } from "./state-badge";
 
 /** Every figure and panel of a manuscript with its review state, kept fresh on focus and every 30 s. */
@@ -40,7 +42,7 @@ export function ManuscriptBoard({ initial, initialActivity }: { initial: Manuscr
         </p>
         {m.figures.length ? (
           <ol className="rounded-sm border border-rule bg-paper/60 px-4">
-            {m.figures.map((f) => <BoardFigureRow key={f.id} f={f} names={names} byTarget={byTarget} isPi={m.role === "pi"} />)}
+            {m.figures.map((f) => <BoardFigureRow key={f.id} f={f} names={names} byTarget={byTarget} isPi={roleAllows(m.role, "figure.signoff")} />)}
           </ol>
         ) : (
           <EmptyState title="No figures yet">Figures and their panels appear here with their review state as soon as an author creates them.</EmptyState>

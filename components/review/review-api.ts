@@ -1,9 +1,7 @@
-import type { Wire } from "@/components/data/api";
+import type { Wire } from "@/components/api-client";
 import type { manuscriptActivity } from "@/lib/server/review/activity";
 import type { QueueItem } from "@/lib/server/review/queue";
 import type { getManuscript } from "@/lib/server/manuscripts";
-
-export { fetchJson } from "@/components/data/api";
 
 export type QueueEntry = QueueItem;
 export type ManuscriptView = Wire<Awaited<ReturnType<typeof getManuscript>>>;

@@ -6,10 +6,11 @@ import {
 } from "@tanstack/react-table";
 import Link from "next/link";
 import { useState } from "react";
+import { fetchJson } from "@/components/api-client";
 import { SortHeader } from "@/components/data/sort-header";
 import { EmptyState, Field } from "@/components/ui";
 import { RelativeTime } from "./relative-time";
-import { fetchJson, REVIEW_REFETCH_MS, reviewKeys, toTime, type QueueEntry } from "./review-api";
+import { REVIEW_REFETCH_MS, reviewKeys, toTime, type QueueEntry } from "./review-api";
 import { isReviewState, StateBadge, STATE_ORDER } from "./state-badge";
 
 type Kind = QueueEntry["kind"];

@@ -2,7 +2,9 @@
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useState, useTransition } from "react";
-import { Button, Field, formatDate, Notice } from "@/components/ui";
+import { ApiError, fetchJson, sendJson } from "@/components/api-client";
+import { Button, Field, Notice } from "@/components/ui";
+import { formatDate, shortHash } from "@/lib/data/format";
 import type { ManuscriptView } from "./review-api";
 import { StateBadge } from "./state-badge";
 
@@ -14,22 +16,19 @@ export interface SignoffBoxProps {
   signoffs: Array<{ id: string; userId: string; figureHash: string; reason: string; createdAt: string | Date; stale: boolean }>;
 }
 
-/** An answer of the sign-off route that is not a success, with the server's own words and details. */
-class SignoffError extends Error {
-  constructor(readonly status: number, message: string, readonly open: string[] | null) { super(message); }
+function postSignoff(figureId: string, body: { figureHash: string; reason?: string }) {
+  return sendJson<{ id: string; figureHash: string; openIssues: string[] }>(`/api/figures/${figureId}/signoff`, "POST", body);
 }
 
-async function postSignoff(figureId: string, body: { figureHash: string; reason?: string }) {
-  const res = await fetch(`/api/figures/${figureId}/signoff`, {
-    method: "POST", headers: { "content-type": "application/json", accept: "application/json" }, body: JSON.stringify(body),
-  });
-  const json = await res.json().catch(() => null) as { error?: { message?: string; details?: { open?: unknown } } } | null;
-  if (!res.ok) {
-    const open = Array.isArray(json?.error?.details?.open) ? (json.error.details.open as string[]) : null;
-    throw new SignoffError(res.status, json?.error?.message ?? `The server answered ${res.status}.`, open);
-  }
-  return json as unknown as { id: string; figureHash: string; openIssues: string[] };
+/** The open issues a refused sign-off lists in its details (a reason is then asked for), else null. */
+function openIssuesOf(err: ApiError | null): string[] | null {
+  const open = (err?.details as { open?: unknown } | undefined)?.open;
+  return Array.isArray(open) ? (open as string[]) : null;
 }
+
+/** An error answer as `fallback`: the names are a nicety, the box works without them. */
+const orWhenRefused = <T,>(p: Promise<T>, fallback: T): Promise<T> =>
+  p.catch((e: unknown) => { if (e instanceof ApiError) return fallback; throw e; });
 
 /** Names of the manuscript's members, for saying who signed off (the props carry only user ids). */
 function useMemberNames(figureId: string, enabled: boolean) {
@@ -45,9 +44,9 @@ function useMemberNames(figureId: string, enabled: boolean) {
       return undefined;
     },
     queryFn: async () => {
-      const fig = await fetch(`/api/figures/${figureId}`).then((r) => (r.ok ? r.json() : null)) as { manuscriptId?: string } | null;
+      const fig = await orWhenRefused(fetchJson<{ manuscriptId?: string } | null>(`/api/figures/${figureId}`), null);
       if (!fig?.manuscriptId) return {} as Record<string, string>;
-      const m = await fetch(`/api/manuscripts/${fig.manuscriptId}/members`).then((r) => (r.ok ? r.json() : { items: [] })) as { items: Array<{ userId: string; name: string }> };
+      const m = await orWhenRefused(fetchJson<{ items: Array<{ userId: string; name: string }> }>(`/api/manuscripts/${fig.manuscriptId}/members`), { items: [] });
       return Object.fromEntries(m.items.map((u) => [u.userId, u.name])) as Record<string, string>;
     },
   });
@@ -55,7 +54,6 @@ function useMemberNames(figureId: string, enabled: boolean) {
 
 /** The server names the field first ("reason: open issues …"); a person reads the sentence. */
 const sentence = (m: string) => { const t = m.replace(/^reason:\s*/, ""); return t.charAt(0).toUpperCase() + t.slice(1); };
-const short = (h: string) => `${h.slice(0, 12)}…`;
 
 /** The figure's review state, its current hash, its sign-offs (stale ones marked) and, for the PI, the sign-off itself. */
 export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, signoffs }: SignoffBoxProps) {
@@ -72,8 +70,9 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
       void queryClient.invalidateQueries();
     },
   });
-  const err = sign.error instanceof SignoffError ? sign.error : null;
-  const needsReason = err?.status === 400 && err.open !== null;
+  const err = sign.error instanceof ApiError ? sign.error : null;
+  const open = openIssuesOf(err);
+  const needsReason = err?.status === 400 && open !== null;
   const changed = err?.status === 409;
   const signedOff = reviewState === "signed_off";
 
@@ -87,7 +86,7 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
     <div className="text-sm" data-testid={`signoff-box-${figureId}`}>
       <p className="flex flex-wrap items-center gap-2 text-xs text-muted">
         <StateBadge state={reviewState} />
-        <span>figure hash <code className="rounded-sm bg-paper px-1 font-mono text-ink" title={figureHash} data-testid="figure-hash">{short(figureHash)}</code></span>
+        <span>figure hash <code className="rounded-sm bg-paper px-1 font-mono text-ink" title={figureHash} data-testid="figure-hash">{shortHash(figureHash, 12)}</code></span>
       </p>
 
       {signoffs.length ? (
@@ -99,7 +98,7 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
                 <span><span className="font-medium">{names[s.userId] ?? "The PI"}</span> signed off</span>
               </p>
               <p className="ml-[1.125rem] text-xs text-muted">
-                <time dateTime={new Date(s.createdAt).toISOString()}>{formatDate(s.createdAt)}</time> · hash <code className="font-mono" title={s.figureHash}>{short(s.figureHash)}</code>
+                <time dateTime={new Date(s.createdAt).toISOString()}>{formatDate(s.createdAt)}</time> · hash <code className="font-mono" title={s.figureHash}>{shortHash(s.figureHash, 12)}</code>
               </p>
               {s.stale ? (
                 <p className="ml-[1.125rem] text-xs font-medium text-warn">Stale — signed off an earlier version of this figure</p>
@@ -125,7 +124,7 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
         <form className="mt-3 space-y-2" onSubmit={(e) => { e.preventDefault(); sign.mutate(true); }}>
           <div role="alert" className="text-sm text-bad">
             <p className="flex gap-2"><span aria-hidden className="font-bold">✕</span><span>{sentence(err!.message)}</span></p>
-            {err!.open!.length ? <ul className="ml-5 mt-1 list-disc text-ink">{err!.open!.map((o) => <li key={o}>{o}</li>)}</ul> : null}
+            {open!.length ? <ul className="ml-5 mt-1 list-disc text-ink">{open!.map((o) => <li key={o}>{o}</li>)}</ul> : null}
           </div>
           <Field label="Reason for signing off with open issues">
             <textarea
@@ -145,7 +144,7 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
           {err ? <Notice ok={false}>{err.message}</Notice> : sign.error ? <Notice ok={false}>{(sign.error as Error).message}</Notice> : null}
         </div>
       )}
-      {sign.isSuccess && !err ? <Notice ok>Signed off hash {short(sign.data.figureHash)}.</Notice> : null}
+      {sign.isSuccess && !err ? <Notice ok>Signed off hash {shortHash(sign.data.figureHash, 12)}.</Notice> : null}
     </div>
   );
 }

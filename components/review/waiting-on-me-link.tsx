@@ -2,7 +2,8 @@
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { usePathname } from "next/navigation";
-import { fetchJson, REVIEW_REFETCH_MS, reviewKeys, type QueueEntry } from "./review-api";
+import { fetchJson } from "@/components/api-client";
+import { REVIEW_REFETCH_MS, reviewKeys, type QueueEntry } from "./review-api";
 
 /** The nav link to the review queue, with how many things wait (shares its cache with the queue page). */
 export function WaitingOnMeLink() {

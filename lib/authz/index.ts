@@ -1,7 +1,8 @@
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { labMembers, manuscriptMembers, type Role } from "@/db/schema";
-import { forbidden, notFound } from "@/lib/server/errors";
+import { forbidden, notFound } from "@/lib/errors";
 import { isManuscriptAction, roleAllows, type Action, type ManuscriptAction } from "./policy";
 
 export * from "./policy";

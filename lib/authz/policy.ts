@@ -32,8 +32,9 @@ export function isManuscriptAction(action: Action): action is ManuscriptAction {
   return action in MANUSCRIPT_POLICY;
 }
 
-export function roleAllows(role: Role, action: ManuscriptAction): boolean {
-  return (MANUSCRIPT_POLICY[action] as readonly Role[]).includes(role);
+/** Whether a membership role may take the action; no role (not a member) allows nothing. Pure: pages and client components use it too. */
+export function roleAllows(role: Role | null | undefined, action: ManuscriptAction): boolean {
+  return role != null && (MANUSCRIPT_POLICY[action] as readonly Role[]).includes(role);
 }
 
 export const ROLE_LABELS: Record<Role, string> = {

@@ -3,9 +3,9 @@
  *
  * Canonical form: object keys sorted by UTF-16 code units, properties whose value is `undefined`
  * dropped, `undefined` inside arrays written as `null`, no whitespace, numbers and strings as
- * `JSON.stringify` writes them. For JSON data this is the RFC 8785 (JCS) serialisation, and it
- * is byte-identical to `canonicalJson` in lib/server/crypto.ts, so hashes computed here (also in
- * the browser) match the ones the server stores.
+ * `JSON.stringify` writes them. For JSON data this is the RFC 8785 (JCS) serialisation. The
+ * server uses this same function (lib/server/audit, lib/server/figures), so hashes computed here
+ * (also in the browser) match the ones the server stores.
  *
  * SHA-256 is the small synchronous implementation in ./sha256 (Web Crypto is async only).
  */

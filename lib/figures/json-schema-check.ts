@@ -5,9 +5,9 @@
  * const, minimum, maximum, exclusiveMinimum/Maximum, minItems, maxItems, minLength, maxLength,
  * minProperties; annotations (description, format, $schema, default, …) are ignored.
  *
- * Why not ajv: ajv is not a dependency of this project (only eslint's own ajv 6 is installed) and
- * ajv compiles validators with `new Function`, which a Content-Security-Policy without
- * 'unsafe-eval' forbids in the browser. This interpreter is pure and runs anywhere.
+ * Why not ajv at run time: ajv compiles validators with `new Function`, which the pages'
+ * Content-Security-Policy (no 'unsafe-eval') forbids in the browser. This interpreter is pure and
+ * runs anywhere; ajv (a dev dependency) checks it in tests/unit/figures/json-schema-check.test.ts.
  *
  * When every branch of an anyOf fails, the errors of the branch that got furthest into the value
  * are reported (as "best match" validators do); when all branches fail at the value itself,

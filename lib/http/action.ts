@@ -2,7 +2,7 @@ import type { z } from "zod";
 import { authorize, type Action, type SessionUser } from "@/lib/authz";
 import { headers } from "next/headers";
 import { env } from "@/lib/env";
-import { AppError, forbidden } from "@/lib/server/errors";
+import { AppError, forbidden } from "@/lib/errors";
 import { ZodError } from "zod";
 import { describeZodError } from "./errors";
 import { currentUser } from "./session";

@@ -1,5 +1,5 @@
 import { ZodError } from "zod";
-import { AppError } from "@/lib/server/errors";
+import { AppError } from "@/lib/errors";
 import { describeForLog } from "./redact";
 
 export interface ErrorBody { error: { code: string; message: string; details?: unknown } }

@@ -6,7 +6,7 @@
  */
 import { env } from "@/lib/env";
 import { findJsonSyntaxError, lineColumnAt } from "@/lib/data/parse/json-syntax";
-import { badRequest, tooLarge } from "@/lib/server/errors";
+import { badRequest, tooLarge, unsupported } from "@/lib/errors";
 
 /** Objects and arrays inside one another; the body itself is level 1. */
 export const MAX_JSON_DEPTH = 64;
@@ -137,8 +137,18 @@ export interface ReadJsonOptions {
   maxDepth?: number;
 }
 
+/** `application/json`, `application/<x>+json` or no type at all (a bare script); anything else says it is not JSON. */
+function checkJsonContentType(req: Request): void {
+  const type = req.headers.get("content-type");
+  if (type === null || !type.trim()) return;
+  const essence = type.split(";")[0]!.trim().toLowerCase();
+  if (essence === "application/json" || /^application\/[\w.+-]+\+json$/.test(essence)) return;
+  throw unsupported(`This route takes JSON: send Content-Type: application/json (the request said ${JSON.stringify(essence.slice(0, 80))}).`);
+}
+
 /** The one reader of JSON request bodies. An empty body reads as `{}`. */
 export async function readJsonBody(req: Request, options: ReadJsonOptions = {}): Promise<unknown> {
+  checkJsonContentType(req);
   const bytes = await readBodyBytes(req, options.maxBytes ?? env().jsonBodyMaxBytes);
   let text: string;
   try {

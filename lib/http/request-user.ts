@@ -1,7 +1,7 @@
 import { auth } from "@/auth";
 import type { SessionUser } from "@/lib/authz";
 import { userForApiToken } from "@/lib/server/api-tokens";
-import { unauthorized } from "@/lib/server/errors";
+import { unauthorized } from "@/lib/errors";
 import { getUserById } from "@/lib/server/users";
 
 export interface Caller { user: SessionUser; via: "token" | "session" }

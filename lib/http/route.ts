@@ -2,7 +2,7 @@ import type { z } from "zod";
 import { authorize, type Action, type SessionUser } from "@/lib/authz";
 import type { Role } from "@/db/schema";
 import { env } from "@/lib/env";
-import { forbidden, unauthorized } from "@/lib/server/errors";
+import { forbidden, unauthorized } from "@/lib/errors";
 import { toErrorResponse } from "./errors";
 import { readJsonBody } from "./read-json-body";
 import { resolveCaller } from "./request-user";

@@ -1,7 +1,7 @@
 import { notFound, redirect } from "next/navigation";
 import { auth } from "@/auth";
 import type { SessionUser } from "@/lib/authz";
-import { AppError } from "@/lib/server/errors";
+import { AppError } from "@/lib/errors";
 import { getUserById } from "@/lib/server/users";
 
 export async function currentUser(): Promise<SessionUser | null> {

@@ -110,7 +110,7 @@ export function safeHref(href: unknown): string | null {
   return SAFE_SCHEMES.test(trimmed) ? trimmed : null;
 }
 
-interface Walk { nodes: number; chars: number; mentions: Set<string> }
+interface Walk { nodes: number; chars: number; visible: number; mentions: Set<string> }
 
 function renderNode(node: unknown, path: string, w: Walk): string {
   if (!node || typeof node !== "object" || Array.isArray(node)) throw new RichTextError(path, "expected a node object");
@@ -126,6 +126,7 @@ function renderNode(node: unknown, path: string, w: Walk): string {
     case "text": {
       if (typeof n.text !== "string") throw new RichTextError(`${path}.text`, "expected text");
       w.chars += n.text.length;
+      w.visible += n.text.trim().length;
       if (w.chars > MAX_TEXT) throw new RichTextError(path, `longer than ${MAX_TEXT} characters`);
       let html = escapeHtml(n.text);
       for (const [i, m] of (n.marks ?? []).entries()) {
@@ -157,12 +158,13 @@ function renderNode(node: unknown, path: string, w: Walk): string {
 }
 
 /** Validates and renders; throws RichTextError naming the place of the first problem. */
-export function renderRichText(doc: unknown): { html: string; mentions: string[]; plainLength: number } {
+/** `visibleLength` counts text that is not white space: a comment of spaces says nothing. */
+export function renderRichText(doc: unknown): { html: string; mentions: string[]; plainLength: number; visibleLength: number } {
   if (!doc || typeof doc !== "object" || (doc as RichTextNode).type !== "doc") throw new RichTextError("body", 'expected a Tiptap document ({ "type": "doc", … })');
   checkShape(doc);
-  const w: Walk = { nodes: 0, chars: 0, mentions: new Set() };
+  const w: Walk = { nodes: 0, chars: 0, visible: 0, mentions: new Set() };
   const html = renderNode(doc, "body", w);
-  return { html, mentions: [...w.mentions], plainLength: w.chars };
+  return { html, mentions: [...w.mentions], plainLength: w.chars, visibleLength: w.visible };
 }
 
 /** A plain-text comment as a document, for scripts and tests. */

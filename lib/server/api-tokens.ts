@@ -1,3 +1,4 @@
+import "server-only";
 import { and, desc, eq, isNull } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
@@ -5,7 +6,7 @@ import { apiTokens, users } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
 import { appendAudit } from "./audit";
 import { newId, newSecret, sha256Hex } from "./crypto";
-import { notFound } from "./errors";
+import { notFound } from "@/lib/errors";
 
 const LAST_USED_PRECISION_MS = 60_000;
 

@@ -1,7 +1,9 @@
+import "server-only";
 import { desc, eq, asc } from "drizzle-orm";
 import { auditLog } from "@/db/schema";
 import type { Executor } from "@/db/client";
-import { canonicalJson, sha256Hex } from "./crypto";
+import { canonicalJson } from "@/lib/figures/canonical-spec";
+import { sha256Hex } from "./crypto";
 
 const GENESIS = "0".repeat(64);
 

@@ -1,3 +1,4 @@
+import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 
 export function newId(): string {
@@ -14,20 +15,5 @@ export function sha256Hex(input: string | Uint8Array): string {
   return createHash("sha256").update(input).digest("hex");
 }
 
-/** JSON with object keys sorted, so equal content always hashes the same. */
-export function canonicalJson(value: unknown): string {
-  return JSON.stringify(sortKeys(value));
-}
-
-function sortKeys(value: unknown): unknown {
-  if (Array.isArray(value)) return value.map(sortKeys);
-  if (value && typeof value === "object") {
-    const out: Record<string, unknown> = {};
-    for (const key of Object.keys(value as Record<string, unknown>).sort()) {
-      const v = (value as Record<string, unknown>)[key];
-      if (v !== undefined) out[key] = sortKeys(v);
-    }
-    return out;
-  }
-  return value;
-}
+// Canonical JSON (sorted keys, what content hashes are taken of) is @/lib/figures/canonical-spec's
+// canonicalJson: one serialisation for the browser and the server.

@@ -1,3 +1,4 @@
+import "server-only";
 import { asc, count, eq } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
@@ -5,7 +6,7 @@ import { datasets, labMembers, labs, manuscriptMembers, manuscripts, users, type
 import { authorize, authorizeLab, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "./audit";
 import { newId } from "./crypto";
-import { badRequest, notFound } from "./errors";
+import { badRequest, notFound } from "@/lib/errors";
 
 export const createManuscriptInput = z.object({
   title: z.string().trim().min(1, "Give the manuscript a title.").max(300),

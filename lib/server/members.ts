@@ -1,3 +1,4 @@
+import "server-only";
 import { and, eq, gt, isNull } from "drizzle-orm";
 import { z } from "zod";
 import type { Transaction } from "@/db/client";
@@ -6,12 +7,12 @@ import { invitations, manuscriptMembers, manuscripts, ROLES, users } from "@/db/
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "./audit";
 import { newId, newSecret, sha256Hex } from "./crypto";
-import { badRequest, conflict, notFound } from "./errors";
+import { badRequest, conflict, notFound } from "@/lib/errors";
 import { deliverOutbox, enqueueMail } from "./mail/outbox";
 import { invitationMail } from "./mail/templates";
 import { consumeRate, type RateRule } from "./limits/rate-limit";
 import { getManuscriptTitle } from "./manuscripts";
-import { hashPassword, normaliseEmail } from "./users";
+import { emailInput, hashPassword, normaliseEmail } from "./users";
 
 const INVITE_TTL_MS = 7 * 24 * 3600 * 1000;
 const HOUR_MS = 3600 * 1000;
@@ -25,7 +26,7 @@ export function invitationRateRules(manuscriptId: string, email: string): RateRu
 }
 
 export const inviteInput = z.object({
-  email: z.string().trim().max(254, "An e-mail address has at most 254 characters.").email("Give a valid e-mail address."),
+  email: emailInput,
   role: z.enum(ROLES, { message: `role must be one of ${ROLES.join(", ")}.` }),
 });
 export const changeRoleInput = z.object({ role: z.enum(ROLES, { message: `role must be one of ${ROLES.join(", ")}.` }) });

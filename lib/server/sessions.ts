@@ -1,3 +1,4 @@
+import "server-only";
 import { and, eq, gt, isNull } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { sessions } from "@/db/schema";

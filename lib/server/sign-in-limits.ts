@@ -1,3 +1,4 @@
+import "server-only";
 import { and, count, desc, eq, gt, lt } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { signInFailures } from "@/db/schema";
@@ -51,6 +52,11 @@ export async function signInBlock(email: string, ip: string, now = Date.now()): 
   return null;
 }
 
+/** `signInBlock` for a request: the client address is read from its headers (see ./limits/client-address). */
+export function signInBlockFor(email: string, headers: Headers, now = Date.now()): Promise<SignInBlock | null> {
+  return signInBlock(email, clientAddress(headers), now);
+}
+
 /** Null when another attempt is allowed, else the sentence to show. */
 export async function signInBlockedReason(email: string, ip: string, now = Date.now()): Promise<string | null> {
   return (await signInBlock(email, ip, now))?.message ?? null;
@@ -61,6 +67,3 @@ export async function recordSignInFailure(email: string, ip: string, now = Date.
   await db.insert(signInFailures).values({ email: normaliseEmail(email), ip, at: new Date(now) });
   await db.delete(signInFailures).where(lt(signInFailures.at, new Date(now - 2 * SIGN_IN_WINDOW_MS)));
 }
-
-/** The address sign-in limits are keyed on; see ./limits/client-address. */
-export const clientIp = clientAddress;

@@ -1,5 +1,7 @@
+import "server-only";
 import bcrypt from "bcryptjs";
 import { eq } from "drizzle-orm";
+import { z } from "zod";
 import { getDb } from "@/db/client";
 import { users } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
@@ -7,6 +9,9 @@ import type { SessionUser } from "@/lib/authz";
 const BCRYPT_COST = 10;
 
 export const normaliseEmail = (email: string) => email.trim().toLowerCase();
+
+/** An e-mail address as every form, action and route takes it: trimmed, at most 254 characters (RFC 5321), well formed. */
+export const emailInput = z.string().trim().max(254, "An e-mail address has at most 254 characters.").email("Give a valid e-mail address.");
 
 export function hashPassword(password: string): Promise<string> {
   return bcrypt.hash(password, BCRYPT_COST);

@@ -1,7 +1,7 @@
 // Who may read the mail outbox, which client address limits are keyed on, server-side sessions,
 // and the rate limits on sign-in links, invitations and comments.
 import { afterEach, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_ACCOUNTS, DEMO_MANUSCRIPT_ID } from "@/db/seed";
+import { DEMO_ACCOUNTS, DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import { resetEnvForTests } from "@/lib/env";
 import { plainDoc } from "@/lib/review/rich-text";
 import { clientAddress, isLoopback, PEER_HEADER } from "@/lib/server/limits/client-address";

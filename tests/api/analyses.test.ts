@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { DEMO_MANUSCRIPT_ID } from "@/db/seed";
-import { hahnEchoFiles } from "@/db/demo-data/hahn-echo";
+import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
+import { hahnEchoFiles } from "@/lib/demo-data/hahn-echo";
 import * as upload from "@/app/api/manuscripts/[id]/datasets/route";
 import * as analyses from "@/app/api/analyses/route";
 import * as preview from "@/app/api/analyses/preview/route";
@@ -115,7 +115,7 @@ describe("analyses", () => {
     expect(bad.status).toBe(400);
   });
 
-  it("calculators: ODMR pair → field (REFERENCES.md worked example 2: f₋ = 2750, f₊ = 2990 MHz → 4.2809 mT)", async () => {
+  it("calculators: ODMR pair → field (f₋ = 2750, f₊ = 2990 MHz → B = (f₊ − f₋)/(2γ_NV) = 240/(2 × 28.0317) = 4.2809 mT)", async () => {
     const r = await call(calculator.POST, { method: "POST", token: tokens.viewer, params: { id: "odmr-field-from-pair" }, body: { inputs: { f_minus: 2750, f_plus: 2990 } } });
     expect(r.status).toBe(200);
     expect(r.json.outputs.B).toBeCloseTo(4.2809, 4);

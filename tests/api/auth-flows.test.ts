@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { auditLog, mailOutbox } from "@/db/schema";
-import { DEMO_MANUSCRIPT_ID } from "@/db/seed";
+import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import { env } from "@/lib/env";
 import * as members from "@/app/api/manuscripts/[id]/members/route";
 import * as signInLink from "@/app/api/sign-in-link/route";

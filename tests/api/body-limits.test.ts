@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import { handlers } from "@/auth";
-import { DEMO_MANUSCRIPT_ID } from "@/db/seed";
+import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import { plainDoc } from "@/lib/review/rich-text";
 import * as signInLink from "@/app/api/sign-in-link/route";
 import * as authRoute from "@/app/api/auth/[...nextauth]/route";

@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { DEMO_MANUSCRIPT_ID, OTHER_MANUSCRIPT_ID } from "@/db/seed";
+import { DEMO_MANUSCRIPT_ID, OTHER_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import * as upload from "@/app/api/manuscripts/[id]/datasets/route";
 import * as figuresRoute from "@/app/api/figures/route";
 import * as figure from "@/app/api/figures/[id]/route";

@@ -3,7 +3,8 @@ import os from "node:os";
 import path from "node:path";
 import { closeDb } from "@/db/client";
 import { applyMigrations } from "@/db/migrate";
-import { DEMO_ACCOUNTS, seedDemo } from "@/db/seed";
+import { DEMO_ACCOUNTS } from "@/lib/demo-data/accounts";
+import { seedDemo } from "@/lib/server/demo/seed-demo";
 import { resetEnvForTests } from "@/lib/env";
 import type { RouteHandler } from "@/lib/http/route";
 

@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { DEMO_MANUSCRIPT_ID, OTHER_MANUSCRIPT_ID } from "@/db/seed";
+import { DEMO_MANUSCRIPT_ID, OTHER_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import * as me from "@/app/api/me/route";
 import * as manuscripts from "@/app/api/manuscripts/route";
 import * as manuscript from "@/app/api/manuscripts/[id]/route";

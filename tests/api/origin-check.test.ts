@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it, vi } from "vitest";
-import { DEMO_MANUSCRIPT_ID } from "@/db/seed";
-import { AppError } from "@/lib/server/errors";
+import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
+import { AppError } from "@/lib/errors";
 import { checkOrigin } from "@/lib/http/route";
 import * as figuresRoute from "@/app/api/figures/route";
 import * as figure from "@/app/api/figures/[id]/route";

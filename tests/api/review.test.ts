@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { comments, mailOutbox } from "@/db/schema";
-import { DEMO_MANUSCRIPT_ID } from "@/db/seed";
+import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import { plainDoc } from "@/lib/review/rich-text";
 import { verifyAuditChain } from "@/lib/server/audit";
 import * as upload from "@/app/api/manuscripts/[id]/datasets/route";

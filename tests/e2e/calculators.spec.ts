@@ -9,7 +9,8 @@ test("calculators: ODMR pair → field, with the caution and assumptions", async
   await card.getByLabel(/Lower resonance/).fill("2750");
   await card.getByLabel(/Upper resonance/).fill("2990");
   await card.getByRole("button", { name: "Calculate" }).click();
-  // REFERENCES.md worked example 2: f₋ = 2750 MHz, f₊ = 2990 MHz → B = 4.2809 mT, D = 2870 MHz.
+  // f₋ = 2750 MHz, f₊ = 2990 MHz → B = (f₊ − f₋)/(2γ_NV) = 240/(2 × 28.0317 MHz/mT) = 4.2809 mT,
+  // D = (f₊ + f₋)/2 = 2870 MHz (γ_NV = gμB/h, g = 2.0028 from memory, CODATA 2018 μB and h).
   const field = Number(/([\d.]+) mT/.exec((await card.getByTestId("result-odmr-field-from-pair").textContent()) ?? "")?.[1]);
   expect(Math.abs(field - 4.2809)).toBeLessThan(5e-5);
   await expect(card.getByTestId("result-odmr-field-from-pair")).toContainText("2870 MHz");

@@ -7,6 +7,10 @@ import { DEMO_MANUSCRIPT, signIn } from "./helpers";
 // without storing a second comment. Each client is its own request context (own
 // connections) carrying the reviewer's session cookie; cookie-authenticated writes must carry an
 // Origin header, set explicitly on every request.
+//
+// Correctness only: nothing here depends on how fast the machine is. Throughput and latency under
+// load are measured by the benchmark (`npm run bench -- review`, bench/review.ts: req/s and
+// p50/p95/p99 of comment posts), never asserted in a test.
 
 const CLIENTS = 50;
 const PER_CLIENT = 20;
@@ -25,7 +29,8 @@ async function json<T = any>(res: APIResponse, status: number): Promise<T> {
 }
 
 test("50 clients posting 20 comments each into one thread: all 1,000 stored once, retries idempotent, no 5xx", async ({ browser, playwright }) => {
-  test.setTimeout(60_000);
+  // A hang guard, not a performance check: generous enough for 1,000 posts on a busy two-core machine.
+  test.setTimeout(300_000);
   const baseURL = test.info().project.use.baseURL!;
   const origin = new URL(baseURL).origin;
   const headers = { origin };
@@ -61,21 +66,20 @@ test("50 clients posting 20 comments each into one thread: all 1,000 stored once
   const retried: Array<{ key: string; status: number }> = [];
   const post = async (key: string) => {
     const res = await clients[Number(key.slice(1, key.indexOf("-")))]!.post(`/api/threads/${thread.id}/comments`, {
-      headers, data: { body: doc(`comment ${key}`), clientKey: `concurrency-${key}` }, timeout: 30_000,
+      // No per-request budget (0 = none): a slow answer is not a failure; the test timeout guards hangs.
+      headers, data: { body: doc(`comment ${key}`), clientKey: `concurrency-${key}` }, timeout: 0,
     });
     statuses.push(res.status());
     await res.dispose();
     return res.status();
   };
   try {
-    const t0 = Date.now();
     await Promise.all(Array.from({ length: CLIENTS }, async (_, c) => {
       for (let i = 0; i < PER_CLIENT; i++) {
         const key = `c${c}-${i}`;
         if ((await post(key)) === 201 && RETRIED.has(key)) retried.push({ key, status: await post(key) });
       }
     }));
-    console.log(`  ${statuses.length} posts by ${CLIENTS} clients in ${((Date.now() - t0) / 1000).toFixed(1)} s`);
   } finally {
     await Promise.all(clients.map((c) => c.dispose()));
   }

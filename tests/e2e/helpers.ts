@@ -21,16 +21,20 @@ export async function shoot(page: Page, name: string) {
 
 interface SinkMessage { id: string; envelope: { to: string[] }; subject: string; text: string }
 
-/** Waits for the sink (started by the test runner) to hold a message to `to` matching `subject`. */
-export async function waitForMail(to: string, subject: RegExp, timeoutMs = 20_000): Promise<SinkMessage> {
+function findMail(to: string, subject: RegExp): SinkMessage | undefined {
   const dir = process.env.MAIL_SINK_DIR!;
-  const until = Date.now() + timeoutMs;
-  while (Date.now() < until) {
-    const found = fs.existsSync(dir) ? fs.readdirSync(dir).filter((f) => f.endsWith(".json") && !f.startsWith("."))
-      .map((f) => JSON.parse(fs.readFileSync(path.join(dir, f), "utf8")) as SinkMessage)
-      .find((m) => m.envelope.to.includes(to) && subject.test(m.subject)) : undefined;
-    if (found) return found;
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  throw new Error(`No mail to ${to} matching ${subject} within ${timeoutMs} ms`);
+  if (!fs.existsSync(dir)) return undefined;
+  return fs.readdirSync(dir).filter((f) => f.endsWith(".json") && !f.startsWith("."))
+    .map((f) => JSON.parse(fs.readFileSync(path.join(dir, f), "utf8")) as SinkMessage)
+    .find((m) => m.envelope.to.includes(to) && subject.test(m.subject));
+}
+
+/**
+ * Waits (Playwright's expect.poll, no hand-rolled sleep) for the sink started by the test runner
+ * to hold a message to `to` matching `subject`; fails the test, naming the mail, if none arrives.
+ * The timeout is a hang guard well inside the test's own, not a speed requirement.
+ */
+export async function waitForMail(to: string, subject: RegExp, timeoutMs = 30_000): Promise<SinkMessage> {
+  await expect.poll(() => findMail(to, subject) !== undefined, { message: `a mail to ${to} matching ${subject}`, timeout: timeoutMs }).toBe(true);
+  return findMail(to, subject)!;
 }

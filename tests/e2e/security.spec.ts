@@ -85,7 +85,8 @@ test.describe.serial("security at the edge", () => {
       page.waitForEvent("popup"),
       page.evaluate(() => {
         const w = window.open("", "_blank");
-        w?.document.write('<p>source</p><script>window.opener.__pwned2 = 1<\/script>');
+        const close = "</" + "script>";
+        w?.document.write(`<p>source</p><script>window.opener.__pwned2 = 1${close}`);
         w?.document.close();
       }),
     ]);

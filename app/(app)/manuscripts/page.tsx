@@ -1,5 +1,6 @@
 import Link from "next/link";
-import { EmptyState, PageHeader, RoleBadge, Sheet, formatDate } from "@/components/ui";
+import { EmptyState, PageHeader, RoleBadge, Sheet } from "@/components/ui";
+import { formatDate } from "@/lib/data/format";
 import { requireUser } from "@/lib/http/session";
 import { listLabsForUser, listManuscriptsForUser } from "@/lib/server/manuscripts";
 import { NewManuscriptForm } from "./_components/new-manuscript-form";

@@ -4,8 +4,9 @@ import { readJsonBody } from "@/lib/http/read-json-body";
 import { publicRoute } from "@/lib/http/route";
 import { clientAddress } from "@/lib/server/limits/client-address";
 import { requestSignInLink } from "@/lib/server/sign-in-links";
+import { emailInput } from "@/lib/server/users";
 
-const input = z.object({ email: z.string().trim().max(254, "An e-mail address has at most 254 characters.").email("Give a valid e-mail address.") });
+const input = z.object({ email: emailInput });
 
 export const POST = publicRoute(async (req) => {
   const { email } = input.parse(await readJsonBody(req));

@@ -4,7 +4,8 @@
  * that never fails (old Windows instrument software still writes it).
  */
 import type { TextEncodingName } from "./types";
-import { fail, formatCount } from "./parse-error";
+import { formatCount } from "../format";
+import { fail } from "./parse-error";
 
 export interface DecodedText {
   text: string;

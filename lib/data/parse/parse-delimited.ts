@@ -6,7 +6,8 @@ import { detectLayout, type Layout } from "./detect-layout";
 import { scanDelimited, type ScanResult } from "./scan-delimited";
 import { buildColumns, checkHeader } from "./build-columns";
 import { detectAxes, matrixToLong } from "./matrix";
-import { fail, formatCount, quote } from "./parse-error";
+import { formatCount } from "../format";
+import { fail, quote } from "./parse-error";
 import { parseCell } from "./parse-cell";
 
 function plural(n: number, word: string): string {
@@ -39,6 +40,10 @@ export function parseDelimited(decoded: DecodedText, opts: ParseOptions): Parsed
 
   let types = layout.types;
   let result = scan(text, layout, types);
+  if (result.unclosedQuote) {
+    fail("unclosed_quote", fileName, { line: result.unclosedQuote.line, column: result.unclosedQuote.column },
+      "a quoted field opens here and is never closed, so the rest of the file would become one cell; close the quote (write \"\" for a quote inside a field).");
+  }
   if (result.ragged) raggedError(fileName, layout, result.ragged);
   if (result.rowCount === 0) fail("empty", fileName, { line: layout.headerLine ?? undefined }, "the file has a header but no data rows.");
   // The sample guessed "number" for a column that is mostly text further down: read it again as text.

@@ -4,6 +4,7 @@ export type ParseErrorCode =
   | "empty"
   | "binary"
   | "ragged"
+  | "unclosed_quote"
   | "non_numeric"
   | "duplicate_header"
   | "empty_header"
@@ -65,9 +66,4 @@ export function fail(code: ParseErrorCode, fileName: string, loc: ParseLocation,
 export function quote(value: string, max = 40): string {
   const v = value.length > max ? `${value.slice(0, max - 1)}…` : value;
   return JSON.stringify(v);
-}
-
-/** 1,234,567 — row and column counts read better grouped. */
-export function formatCount(n: number): string {
-  return n.toLocaleString("en-US");
 }

@@ -7,7 +7,8 @@ import type { ColumnType, ParsedColumn, ParsedTable, ParseOptions } from "./type
 import { DEFAULT_MAX_COLUMNS } from "./types";
 import type { DecodedText } from "./decode-bytes";
 import { checkHeader } from "./build-columns";
-import { describeLocation, fail, formatCount, ParseError, quote } from "./parse-error";
+import { formatCount } from "../format";
+import { describeLocation, fail, ParseError, quote } from "./parse-error";
 import { parseCell } from "./parse-cell";
 import { setOwn } from "./header-block";
 import { parseHeaderUnit } from "../units";

@@ -37,6 +37,8 @@ export interface ScanResult {
   stats: ColumnStats[];
   /** Set when a row has a different number of fields; the scan stops there. */
   ragged: { line: number; found: number } | null;
+  /** Set when a quoted field runs to the end of the file: the line where its quote opened. */
+  unclosedQuote: { line: number; column: number } | null;
 }
 
 const LF = 10;
@@ -60,6 +62,7 @@ class DelimitedScanner {
   readonly dec: number;
   readonly comma: boolean;
   bad = false;
+  unclosedQuoteLine = 0;
 
   constructor(cfg: ScanConfig) {
     this.text = cfg.text;
@@ -151,6 +154,7 @@ class DelimitedScanner {
     if (!this.ws) while (c === SP) c = this.at(++i);
     if (c === QUOTE) {
       const q = readQuoted(text, i + 1);
+      if (!q.closed && !this.unclosedQuoteLine) this.unclosedQuoteLine = this.line;
       this.line += q.newlines;
       // Text between the closing quote and the delimiter is kept, as spreadsheets do.
       let j = q.end;
@@ -223,6 +227,7 @@ export function scanDelimited(cfg: ScanConfig): ScanResult {
   let blankLines = 0;
   let commentLines = 0;
   let ragged: ScanResult["ragged"] = null;
+  let unclosedColumn = 0;
 
   rows: while (s.pos < s.n) {
     let c = s.at(s.pos);
@@ -286,6 +291,7 @@ export function scanDelimited(cfg: ScanConfig): ScanResult {
       } else {
         (strs[col] as string[]).push(s.rawField(s.pos));
       }
+      if (s.unclosedQuoteLine && !unclosedColumn) unclosedColumn = col + 1;
       c = s.at(s.pos);
       if (s.ws) {
         while (c === SP || c === TAB) c = s.at(++s.pos);
@@ -309,5 +315,6 @@ export function scanDelimited(cfg: ScanConfig): ScanResult {
     if (num) return cap === row ? num : cap - row <= row >> 3 ? num.subarray(0, row) : num.slice(0, row);
     return strs[j] as string[];
   });
-  return { data, rowCount: row, blankLines, commentLines, stats, ragged };
+  const unclosedQuote = s.unclosedQuoteLine ? { line: s.unclosedQuoteLine, column: unclosedColumn || 1 } : null;
+  return { data, rowCount: row, blankLines, commentLines, stats, ragged, unclosedQuote };
 }

@@ -104,7 +104,7 @@ function isSpace(c: number): boolean {
  * Reads a quoted run starting just after the opening quote; `""` is a literal quote and an
  * unterminated quote runs to the end. Counts the line breaks inside for line numbering.
  */
-export function readQuoted(s: string, from: number): { value: string; end: number; newlines: number } {
+export function readQuoted(s: string, from: number): { value: string; end: number; newlines: number; closed: boolean } {
   let value = "";
   let i = from;
   const n = s.length;
@@ -120,12 +120,12 @@ export function readQuoted(s: string, from: number): { value: string; end: numbe
         runStart = i;
         continue;
       }
-      return { value, end: i + 1, newlines };
+      return { value, end: i + 1, newlines, closed: true };
     }
     if (c === 10 || (c === 13 && s.charCodeAt(i + 1) !== 10)) newlines++;
     i++;
   }
-  return { value: value + s.slice(runStart, n), end: n, newlines };
+  return { value: value + s.slice(runStart, n), end: n, newlines, closed: false };
 }
 
 /**

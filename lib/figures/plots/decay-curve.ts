@@ -4,12 +4,13 @@
  */
 import type { TopLevelSpec } from "vega-lite";
 import {
-  axisTitle, concatFrame, innerWidthPt, mmToPt, OKABE_ITO, SCALE_CHOICES, type ScaleKind, scaleFor, seriesFilter,
-  singleViewFrame, type Spec, vlField, withPrint,
+  axisTitle, concatFrame, innerWidthPt, mmToPt, OKABE_ITO, type ScaleKind, scaleFor, seriesFilter,
+  quantitative, singleViewPanel, type Spec, vlField, withPrint,
 } from "./print";
-import type { CommonOptions, FigureTemplate } from "./types";
+import { axisTextOptions, dataNamesOf, dataOptions, fittedCurveOption, scaleOption, SIGMA_COLUMN_OPTION } from "./template-options";
+import type { CommonOptions, FigureTemplate, XYAxisText } from "./types";
 
-export interface DecayCurveOptions extends CommonOptions {
+export interface DecayCurveOptions extends CommonOptions, XYAxisText {
   dataName: string;
   xField: string;
   yField: string;
@@ -23,10 +24,6 @@ export interface DecayCurveOptions extends CommonOptions {
   fitXField?: string;
   fitYField?: string;
   seriesField?: string;
-  xName: string;
-  xUnit: string;
-  yName: string;
-  yUnit: string;
   xScale: ScaleKind;
 }
 
@@ -45,10 +42,10 @@ function build(input: Partial<DecayCurveOptions>): TopLevelSpec {
   const yTitle = axisTitle(o.yName, o.yUnit);
   const withStrip = !!o.residualName;
   const x = (field: string, showAxis: boolean): Spec => ({
-    field: vlField(field), type: "quantitative", title: xTitle, scale: scaleFor(o.xScale, { nice: false }),
+    ...quantitative(field, xTitle, scaleFor(o.xScale, { nice: false })),
     ...(showAxis ? {} : { axis: { labels: false, title: null } }),
   });
-  const y: Spec = { field: vlField(o.yField), type: "quantitative", title: yTitle, scale: { zero: false } };
+  const y = quantitative(o.yField, yTitle, { zero: false });
 
   const layers: Spec[] = [];
   if (o.sigmaField) {
@@ -72,7 +69,7 @@ function build(input: Partial<DecayCurveOptions>): TopLevelSpec {
     });
   }
   const description = `Decay curve of ${o.yName} against ${o.xName}`;
-  if (!withStrip) return { ...singleViewFrame(p, description), layer: layers } as unknown as TopLevelSpec;
+  if (!withStrip) return singleViewPanel(p, description, {}, layers);
 
   const inner = innerWidthPt(p);
   const total = mmToPt(p.heightMm);
@@ -104,23 +101,16 @@ export const decayCurveTemplate: FigureTemplate<DecayCurveOptions> = {
   title: "Decay curve with fit and residuals",
   description: "Hahn-echo, T1 or Ramsey decay: points (± σ), fitted curve and a residual strip on a linear or log time axis.",
   options: [
-    { key: "dataName", label: "Measured points", kind: "data-name", binds: "dataset", required: true, default: "echo" },
-    { key: "xField", label: "Time column", kind: "column", dataKey: "dataName", required: true, default: "tau" },
-    { key: "yField", label: "Signal column", kind: "column", dataKey: "dataName", required: true, default: "signal" },
-    { key: "sigmaField", label: "σ column (error bars)", kind: "column", dataKey: "dataName" },
-    { key: "fitName", label: "Fitted curve", kind: "data-name", binds: "analysis-curve", default: "fit", help: "leave empty for no fit" },
+    ...dataOptions("Measured points", "echo", [["xField", "Time column", "tau"], ["yField", "Signal column", "signal"]]),
+    SIGMA_COLUMN_OPTION,
+    fittedCurveOption("fit"),
     { key: "residualName", label: "Residuals", kind: "data-name", binds: "analysis-residuals", default: "residuals", help: "leave empty for no residual strip" },
     { key: "fitXField", label: "Time column of the fit", kind: "column", dataKey: "fitName", help: "default: as the data" },
     { key: "fitYField", label: "Value column of the fit", kind: "column", dataKey: "fitName", help: "default: as the data" },
-    { key: "xName", label: "Time axis name", kind: "text", default: "τ" },
-    { key: "xUnit", label: "Time unit", kind: "text", default: "µs" },
-    { key: "yName", label: "Signal axis name", kind: "text", default: "coherence" },
-    { key: "yUnit", label: "Signal unit", kind: "text", default: "" },
-    { key: "xScale", label: "Time axis", kind: "select", choices: SCALE_CHOICES, default: "linear" },
+    ...axisTextOptions("Time", ["xName", "τ"], ["xUnit", "µs"]),
+    ...axisTextOptions("Signal", ["yName", "coherence"], ["yUnit", ""]),
+    scaleOption("xScale", "Time axis"),
   ],
-  dataNames: (input) => {
-    const o = { ...DECAY_CURVE_DEFAULTS, ...input };
-    return [...new Set([o.dataName, o.fitName, o.residualName].filter((n): n is string => !!n))];
-  },
+  dataNames: dataNamesOf(DECAY_CURVE_DEFAULTS, ["dataName", "fitName", "residualName"]),
   build,
 };

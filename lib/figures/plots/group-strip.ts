@@ -4,7 +4,8 @@
  * n written above each group.
  */
 import type { TopLevelSpec } from "vega-lite";
-import { axisTitle, OKABE_ITO, SCALE_CHOICES, type ScaleKind, scaleFor, singleViewFrame, type Spec, vlField, withPrint } from "./print";
+import { axisTitle, OKABE_ITO, quantitative, type ScaleKind, scaleFor, singleViewPanel, type Spec, vlField, withPrint } from "./print";
+import { axisTextOptions, dataNamesOf, dataOptions, scaleOption } from "./template-options";
 import type { CommonOptions, FigureTemplate } from "./types";
 
 export interface GroupStripOptions extends CommonOptions {
@@ -26,46 +27,45 @@ export const GROUP_STRIP_DEFAULTS: GroupStripOptions = {
 function build(input: Partial<GroupStripOptions>): TopLevelSpec {
   const o = { ...GROUP_STRIP_DEFAULTS, ...input };
   const group = vlField(o.groupField);
-  const value = vlField(o.valueField);
   const yTitle = axisTitle(o.valueName, o.unit);
   const x: Spec = { field: group, type: "nominal", title: o.groupName, axis: { labelAngle: 0 } };
-  const y: Spec = { field: value, type: "quantitative", title: yTitle, scale: scaleFor(o.yScale) };
+  const y = quantitative(o.valueField, yTitle, scaleFor(o.yScale));
   const median = o.summary === "median-iqr";
-  return {
-    ...singleViewFrame(withPrint(o.print), `${o.valueName} by ${o.groupName}, ${median ? "median and IQR" : "mean ± sd"}, n per group`),
+  const description = `${o.valueName} by ${o.groupName}, ${median ? "median and IQR" : "mean ± sd"}, n per group`;
+  const shared: Spec = {
     data: { name: o.dataName },
     transform: [
       // Golden-ratio jitter from the row number: spread like random, but the same on every render.
       { window: [{ op: "row_number", as: "strip_row" }], groupby: [group] },
       { calculate: "(datum.strip_row * 0.6180339887) % 1 - 0.5", as: "strip_jitter" },
     ],
-    layer: [
-      {
-        mark: { type: "point", opacity: 0.75 },
-        encoding: {
-          x, y,
-          xOffset: { field: "strip_jitter", type: "quantitative", scale: { domain: [-1, 1] } },
-          color: { field: group, type: "nominal", legend: null },
-        },
+  };
+  return singleViewPanel(withPrint(o.print), description, shared, [
+    {
+      mark: { type: "point", opacity: 0.75 },
+      encoding: {
+        x, y,
+        xOffset: { field: "strip_jitter", type: "quantitative", scale: { domain: [-1, 1] } },
+        color: { field: group, type: "nominal", legend: null },
       },
-      {
-        mark: { type: "errorbar", extent: median ? "iqr" : "stdev", ticks: { size: 8 }, color: OKABE_ITO.black, thickness: 0.8 },
-        encoding: { x, y },
-      },
-      {
-        mark: { type: "tick", color: OKABE_ITO.black, thickness: 1.2, size: 14 },
-        encoding: { x, y: { ...y, aggregate: median ? "median" : "mean" } },
-      },
-      {
-        transform: [
-          { aggregate: [{ op: "count", as: "strip_n" }], groupby: [group] },
-          { calculate: "'n = ' + datum.strip_n", as: "strip_label" },
-        ],
-        mark: { type: "text", baseline: "bottom", dy: -2 },
-        encoding: { x, y: { value: 0 }, text: { field: "strip_label", type: "nominal" } },
-      },
-    ],
-  } as unknown as TopLevelSpec;
+    },
+    {
+      mark: { type: "errorbar", extent: median ? "iqr" : "stdev", ticks: { size: 8 }, color: OKABE_ITO.black, thickness: 0.8 },
+      encoding: { x, y },
+    },
+    {
+      mark: { type: "tick", color: OKABE_ITO.black, thickness: 1.2, size: 14 },
+      encoding: { x, y: { ...y, aggregate: median ? "median" : "mean" } },
+    },
+    {
+      transform: [
+        { aggregate: [{ op: "count", as: "strip_n" }], groupby: [group] },
+        { calculate: "'n = ' + datum.strip_n", as: "strip_label" },
+      ],
+      mark: { type: "text", baseline: "bottom", dy: -2 },
+      encoding: { x, y: { value: 0 }, text: { field: "strip_label", type: "nominal" } },
+    },
+  ]);
 }
 
 export const groupStripTemplate: FigureTemplate<GroupStripOptions> = {
@@ -73,19 +73,13 @@ export const groupStripTemplate: FigureTemplate<GroupStripOptions> = {
   title: "Parameter by group (strip plot)",
   description: "One point per centre, grouped by sample, with mean ± sd or median and IQR, and n shown per group.",
   options: [
-    { key: "dataName", label: "Population table", kind: "data-name", binds: "dataset", required: true, default: "population" },
-    { key: "groupField", label: "Group column", kind: "column", dataKey: "dataName", required: true, default: "sample" },
-    { key: "valueField", label: "Value column", kind: "column", dataKey: "dataName", required: true, default: "T2" },
-    { key: "groupName", label: "Group axis name", kind: "text", default: "sample" },
-    { key: "valueName", label: "Value axis name", kind: "text", default: "T₂" },
-    { key: "unit", label: "Value unit", kind: "text", default: "µs" },
+    ...dataOptions("Population table", "population", [["groupField", "Group column", "sample"], ["valueField", "Value column", "T2"]]),
+    ...axisTextOptions("Group", ["groupName", "sample"]),
+    ...axisTextOptions("Value", ["valueName", "T₂"], ["unit", "µs"]),
     { key: "summary", label: "Summary", kind: "select", default: "mean-sd", choices: [
       { value: "mean-sd", label: "mean ± sd" }, { value: "median-iqr", label: "median and IQR" }] },
-    { key: "yScale", label: "Value axis", kind: "select", choices: SCALE_CHOICES, default: "linear" },
+    scaleOption("yScale", "Value axis"),
   ],
-  dataNames: (input) => {
-    const o = { ...GROUP_STRIP_DEFAULTS, ...input };
-    return [o.dataName];
-  },
+  dataNames: dataNamesOf(GROUP_STRIP_DEFAULTS, ["dataName"]),
   build,
 };

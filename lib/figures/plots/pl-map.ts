@@ -3,7 +3,8 @@
  * kcounts/s and a scale bar drawn in data coordinates at the lower right of the scanned area.
  */
 import type { TopLevelSpec } from "vega-lite";
-import { axisTitle, datumRef, mmToPt, singleViewFrame, type Spec, vlField, withPrint } from "./print";
+import { axisTitle, datumRef, mmToPt, quantitative, singleViewPanel, type Spec, vlField, withPrint } from "./print";
+import { dataNamesOf, dataOptions } from "./template-options";
 import type { CommonOptions, FigureTemplate } from "./types";
 
 export interface PlMapOptions extends CommonOptions {
@@ -34,7 +35,7 @@ function build(input: Partial<PlMapOptions>): TopLevelSpec {
   const xTitle = axisTitle("x", o.unit);
   const yTitle = axisTitle("y", o.unit);
   const scale = { zero: false, nice: false };
-  const pos = (field: string, title: string): Spec => ({ field, type: "quantitative", title, scale });
+  const pos = (field: string, title: string): Spec => quantitative(field, title, scale);
   const heightPt = mmToPt(p.heightMm);
   const layers: Spec[] = [
     {
@@ -81,11 +82,7 @@ function build(input: Partial<PlMapOptions>): TopLevelSpec {
       ],
     });
   }
-  return {
-    ...singleViewFrame(p, `PL map of ${o.valueField}`),
-    data: { name: o.dataName },
-    layer: layers,
-  } as unknown as TopLevelSpec;
+  return singleViewPanel(p, `PL map of ${o.valueField}`, { data: { name: o.dataName } }, layers);
 }
 
 export const plMapTemplate: FigureTemplate<PlMapOptions> = {
@@ -93,10 +90,7 @@ export const plMapTemplate: FigureTemplate<PlMapOptions> = {
   title: "PL map (heatmap) with colour and scale bars",
   description: "2-D confocal scan as a heatmap in counts/s with a colour bar and a scale bar in µm.",
   options: [
-    { key: "dataName", label: "Scan", kind: "data-name", binds: "dataset", required: true, default: "plmap" },
-    { key: "xField", label: "x column", kind: "column", dataKey: "dataName", required: true, default: "x" },
-    { key: "yField", label: "y column", kind: "column", dataKey: "dataName", required: true, default: "y" },
-    { key: "valueField", label: "Count-rate column", kind: "column", dataKey: "dataName", required: true, default: "counts" },
+    ...dataOptions("Scan", "plmap", [["xField", "x column", "x"], ["yField", "y column", "y"], ["valueField", "Count-rate column", "counts"]]),
     { key: "pixelUm", label: "Scan step", kind: "number", default: 0.2, min: 0, unit: "µm" },
     { key: "scaleBarUm", label: "Scale bar", kind: "number", default: 5, min: 0, unit: "µm", help: "0 for none" },
     { key: "colorScheme", label: "Colour map", kind: "select", default: "viridis", choices: [
@@ -104,9 +98,6 @@ export const plMapTemplate: FigureTemplate<PlMapOptions> = {
     { key: "colorTitle", label: "Colour bar title", kind: "text", default: "count rate (kcounts/s)" },
     { key: "unit", label: "Position unit", kind: "text", default: "µm" },
   ],
-  dataNames: (input) => {
-    const o = { ...PL_MAP_DEFAULTS, ...input };
-    return [o.dataName];
-  },
+  dataNames: dataNamesOf(PL_MAP_DEFAULTS, ["dataName"]),
   build,
 };

@@ -3,6 +3,7 @@
  * are read as pt by the server renderer), Inter at 7 pt labels / 8 pt titles, the Okabe–Ito
  * colour-blind-safe palette, and helpers for field names, expressions and axis titles.
  */
+import type { TopLevelSpec } from "vega-lite";
 
 export type Spec = { [key: string]: unknown };
 
@@ -49,10 +50,8 @@ export const SCALE_CHOICES = [
   { value: "symlog", label: "symmetric log (passes through zero)" },
 ];
 
-/** "τ (µs)"; a name with no unit stays bare. */
-export function axisTitle(name: string, unit?: string | null): string {
-  return unit ? `${name} (${unit})` : name;
-}
+/** "τ (µs)"; a name with no unit stays bare (the one formatter, re-exported for the templates). */
+export { axisTitle } from "@/lib/data/format";
 
 /** A column name as a Vega-Lite `field` (dots and brackets would otherwise mean nesting). */
 export function vlField(column: string): string {
@@ -67,6 +66,11 @@ export function datumRef(column: string): string {
 /** Expression selecting one series of an analysis output (curve, data or residual rows). */
 export function seriesFilter(seriesColumn: string, series: "curve" | "data" | "residual"): string {
   return `${datumRef(seriesColumn)} === '${series}'`;
+}
+
+/** A quantitative position channel on a column, with its axis title and scale. */
+export function quantitative(column: string, title: string, scale: Spec): Spec {
+  return { field: vlField(column), type: "quantitative", title, scale };
 }
 
 export function scaleFor(kind: ScaleKind, extra: Spec = {}): Spec {
@@ -114,6 +118,11 @@ export function singleViewFrame(p: PrintSettings, description: string): Spec {
     autosize: { type: "fit", contains: "padding" },
     config: printConfig(p),
   };
+}
+
+/** A single-view panel: the frame, then what the layers share (`top`: data, transforms), then the layers. */
+export function singleViewPanel(p: PrintSettings, description: string, top: Spec, layers: Spec[]): TopLevelSpec {
+  return { ...singleViewFrame(p, description), ...top, layer: layers } as unknown as TopLevelSpec;
 }
 
 /** Top-level frame of a stacked (vconcat) panel; the renderer scales it to the printed width. */

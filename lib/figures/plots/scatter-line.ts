@@ -1,9 +1,10 @@
 /** Generic scatter and/or line plot with optional ±σ error bars and an optional series colour. */
 import type { TopLevelSpec } from "vega-lite";
-import { axisTitle, OKABE_ITO, SCALE_CHOICES, type ScaleKind, scaleFor, singleViewFrame, type Spec, vlField, withPrint } from "./print";
-import type { CommonOptions, FigureTemplate } from "./types";
+import { axisTitle, OKABE_ITO, quantitative, type ScaleKind, scaleFor, singleViewPanel, type Spec, vlField, withPrint } from "./print";
+import { axisTextOptions, dataNamesOf, dataOptions, scaleOption, SIGMA_COLUMN_OPTION } from "./template-options";
+import type { CommonOptions, FigureTemplate, XYAxisText } from "./types";
 
-export interface ScatterLineOptions extends CommonOptions {
+export interface ScatterLineOptions extends CommonOptions, XYAxisText {
   dataName: string;
   xField: string;
   yField: string;
@@ -11,10 +12,6 @@ export interface ScatterLineOptions extends CommonOptions {
   /** Column splitting the rows into coloured series; empty for one series. */
   colorField?: string;
   marks: "points" | "line" | "line+points";
-  xName: string;
-  xUnit: string;
-  yName: string;
-  yUnit: string;
   xScale: ScaleKind;
   yScale: ScaleKind;
 }
@@ -26,8 +23,8 @@ export const SCATTER_LINE_DEFAULTS: ScatterLineOptions = {
 
 function build(input: Partial<ScatterLineOptions>): TopLevelSpec {
   const o = { ...SCATTER_LINE_DEFAULTS, ...input };
-  const x: Spec = { field: vlField(o.xField), type: "quantitative", title: axisTitle(o.xName, o.xUnit), scale: scaleFor(o.xScale) };
-  const y: Spec = { field: vlField(o.yField), type: "quantitative", title: axisTitle(o.yName, o.yUnit), scale: scaleFor(o.yScale) };
+  const x = quantitative(o.xField, axisTitle(o.xName, o.xUnit), scaleFor(o.xScale));
+  const y = quantitative(o.yField, axisTitle(o.yName, o.yUnit), scaleFor(o.yScale));
   const color: Spec = o.colorField
     ? { color: { field: vlField(o.colorField), type: "nominal", legend: { title: null, orient: "top-right" } } }
     : {};
@@ -38,11 +35,7 @@ function build(input: Partial<ScatterLineOptions>): TopLevelSpec {
   }
   if (o.marks !== "points") layers.push({ mark: { type: "line", ...fixed }, encoding: { x, y, ...color } });
   if (o.marks !== "line") layers.push({ mark: { type: "point", ...fixed }, encoding: { x, y, ...color } });
-  return {
-    ...singleViewFrame(withPrint(o.print), `${o.yName} against ${o.xName}`),
-    data: { name: o.dataName },
-    layer: layers,
-  } as unknown as TopLevelSpec;
+  return singleViewPanel(withPrint(o.print), `${o.yName} against ${o.xName}`, { data: { name: o.dataName } }, layers);
 }
 
 export const scatterLineTemplate: FigureTemplate<ScatterLineOptions> = {
@@ -50,23 +43,16 @@ export const scatterLineTemplate: FigureTemplate<ScatterLineOptions> = {
   title: "Scatter or line plot",
   description: "Any two columns as points and/or a line, with optional ± σ error bars and series colours.",
   options: [
-    { key: "dataName", label: "Data", kind: "data-name", binds: "dataset", required: true, default: "data" },
-    { key: "xField", label: "x column", kind: "column", dataKey: "dataName", required: true, default: "x" },
-    { key: "yField", label: "y column", kind: "column", dataKey: "dataName", required: true, default: "y" },
-    { key: "sigmaField", label: "σ column (error bars)", kind: "column", dataKey: "dataName" },
+    ...dataOptions("Data", "data", [["xField", "x column", "x"], ["yField", "y column", "y"]]),
+    SIGMA_COLUMN_OPTION,
     { key: "colorField", label: "Series column", kind: "column", dataKey: "dataName" },
     { key: "marks", label: "Draw", kind: "select", default: "points", choices: [
       { value: "points", label: "points" }, { value: "line", label: "line" }, { value: "line+points", label: "line and points" }] },
-    { key: "xName", label: "x axis name", kind: "text", default: "x" },
-    { key: "xUnit", label: "x unit", kind: "text", default: "" },
-    { key: "yName", label: "y axis name", kind: "text", default: "y" },
-    { key: "yUnit", label: "y unit", kind: "text", default: "" },
-    { key: "xScale", label: "x axis", kind: "select", choices: SCALE_CHOICES, default: "linear" },
-    { key: "yScale", label: "y axis", kind: "select", choices: SCALE_CHOICES, default: "linear" },
+    ...axisTextOptions("x", ["xName", "x"], ["xUnit", ""]),
+    ...axisTextOptions("y", ["yName", "y"], ["yUnit", ""]),
+    scaleOption("xScale", "x axis"),
+    scaleOption("yScale", "y axis"),
   ],
-  dataNames: (input) => {
-    const o = { ...SCATTER_LINE_DEFAULTS, ...input };
-    return [o.dataName];
-  },
+  dataNames: dataNamesOf(SCATTER_LINE_DEFAULTS, ["dataName"]),
   build,
 };

@@ -2,13 +2,13 @@
  * Spectra with labelled vertical marker lines: PL spectra with the zero-phonon lines, ODMR with
  * its resonances, and NV-NMR spectra with the expected nuclear Larmor line at the current field.
  */
-import type { TopLevelSpec } from "vega-lite";
 import { NUCLEI, type Nucleus } from "@/lib/physics/constants";
 import { decouplingDipSpacing, larmorFrequency } from "@/lib/physics/larmor";
-import { axisTitle, OKABE_ITO, SCALE_CHOICES, type ScaleKind, scaleFor, seriesFilter, singleViewFrame, type Spec, vlField, withPrint } from "./print";
-import type { CommonOptions, FigureTemplate, Marker } from "./types";
+import { axisTitle, OKABE_ITO, quantitative, type ScaleKind, scaleFor, seriesFilter, singleViewPanel, type Spec, vlField, withPrint } from "./print";
+import { axisTextOptions, dataNamesOf, dataOptions, fittedCurveOption, scaleOption } from "./template-options";
+import type { CommonOptions, FigureTemplate, Marker, XYAxisText } from "./types";
 
-export interface SpectrumOptions extends CommonOptions {
+export interface SpectrumOptions extends CommonOptions, XYAxisText {
   dataName: string;
   xField: string;
   yField: string;
@@ -16,10 +16,6 @@ export interface SpectrumOptions extends CommonOptions {
   fitXField?: string;
   fitYField?: string;
   seriesField?: string;
-  xName: string;
-  xUnit: string;
-  yName: string;
-  yUnit: string;
   yScale: ScaleKind;
   markers: Marker[];
 }
@@ -39,8 +35,8 @@ export const SPECTRUM_DEFAULTS: SpectrumOptions = {
 export function spectrumLayers(o: SpectrumOptions, markerColor: string): Spec[] {
   const series = o.seriesField || "series";
   const xTitle = axisTitle(o.xName, o.xUnit);
-  const x = (field: string): Spec => ({ field: vlField(field), type: "quantitative", title: xTitle, scale: { zero: false, nice: false } });
-  const y: Spec = { field: vlField(o.yField), type: "quantitative", title: axisTitle(o.yName, o.yUnit), scale: scaleFor(o.yScale) };
+  const x = (field: string): Spec => quantitative(field, xTitle, { zero: false, nice: false });
+  const y = quantitative(o.yField, axisTitle(o.yName, o.yUnit), scaleFor(o.yScale));
   const layers: Spec[] = [
     { data: { name: o.dataName }, mark: { type: "line", color: OKABE_ITO.black, strokeWidth: 0.8 }, encoding: { x: x(o.xField), y } },
   ];
@@ -73,25 +69,17 @@ export const spectrumTemplate: FigureTemplate<SpectrumOptions> = {
   title: "Spectrum with marker lines",
   description: "PL or ODMR spectrum with labelled vertical lines (zero-phonon lines, resonances) and an optional fitted curve.",
   options: [
-    { key: "dataName", label: "Spectrum", kind: "data-name", binds: "dataset", required: true, default: "spectrum" },
-    { key: "xField", label: "x column", kind: "column", dataKey: "dataName", required: true, default: "wavelength" },
-    { key: "yField", label: "y column", kind: "column", dataKey: "dataName", required: true, default: "intensity" },
-    { key: "fitName", label: "Fitted curve", kind: "data-name", binds: "analysis-curve", help: "leave empty for no fit" },
-    { key: "xName", label: "x axis name", kind: "text", default: "wavelength" },
-    { key: "xUnit", label: "x unit", kind: "text", default: "nm" },
-    { key: "yName", label: "y axis name", kind: "text", default: "PL intensity" },
-    { key: "yUnit", label: "y unit", kind: "text", default: "kcounts/s" },
-    { key: "yScale", label: "y axis", kind: "select", choices: SCALE_CHOICES, default: "linear" },
+    ...dataOptions("Spectrum", "spectrum", [["xField", "x column", "wavelength"], ["yField", "y column", "intensity"]]),
+    fittedCurveOption(),
+    ...axisTextOptions("x", ["xName", "wavelength"], ["xUnit", "nm"]),
+    ...axisTextOptions("y", ["yName", "PL intensity"], ["yUnit", "kcounts/s"]),
+    scaleOption("yScale", "y axis"),
     { key: "markers", label: "Marker lines", kind: "markers", default: ZPL_MARKERS, help: "position in the x unit and a label" },
   ],
-  dataNames: (input) => {
-    const o = { ...SPECTRUM_DEFAULTS, ...input };
-    return [o.dataName, ...(o.fitName ? [o.fitName] : [])];
-  },
+  dataNames: dataNamesOf(SPECTRUM_DEFAULTS, ["dataName", "fitName"]),
   build(input) {
     const o = { ...SPECTRUM_DEFAULTS, ...input };
-    const frame = singleViewFrame(withPrint(o.print), `Spectrum of ${o.yName} against ${o.xName}`);
-    return { ...frame, layer: spectrumLayers(o, OKABE_ITO.blue) } as unknown as TopLevelSpec;
+    return singleViewPanel(withPrint(o.print), `Spectrum of ${o.yName} against ${o.xName}`, {}, spectrumLayers(o, OKABE_ITO.blue));
   },
 };
 
@@ -121,28 +109,22 @@ export const nvNmrTemplate: FigureTemplate<NvNmrOptions> = {
   title: "NV-NMR spectrum with expected nucleus",
   description: "Dynamical-decoupling or spin-lock NMR spectrum with a line at the expected Larmor frequency of the chosen nucleus at the current field.",
   options: [
-    { key: "dataName", label: "Spectrum", kind: "data-name", binds: "dataset", required: true, default: "nmr" },
-    { key: "xField", label: "Frequency or τ column", kind: "column", dataKey: "dataName", required: true, default: "frequency" },
-    { key: "yField", label: "Signal column", kind: "column", dataKey: "dataName", required: true, default: "contrast" },
-    { key: "fitName", label: "Fitted curve", kind: "data-name", binds: "analysis-curve", help: "leave empty for no fit" },
+    ...dataOptions("Spectrum", "nmr", [["xField", "Frequency or τ column", "frequency"], ["yField", "Signal column", "contrast"]]),
+    fittedCurveOption(),
     { key: "xQuantity", label: "x axis", kind: "select", default: "frequency", choices: [
       { value: "frequency", label: "frequency (MHz)" }, { value: "spacing", label: "pulse spacing τ (µs)" }] },
     { key: "nucleus", label: "Nucleus", kind: "select", default: "1H",
       choices: (["1H", "13C", "19F", "14N", "15N"] as Nucleus[]).map((n) => ({ value: n, label: NUCLEI[n].label })) },
     { key: "fieldMt", label: "Bias field", kind: "number", default: 50, min: 0, unit: "mT" },
-    { key: "yName", label: "Signal axis name", kind: "text", default: "contrast" },
-    { key: "yUnit", label: "Signal unit", kind: "text", default: "" },
+    ...axisTextOptions("Signal", ["yName", "contrast"], ["yUnit", ""]),
   ],
-  dataNames: (input) => {
-    const o = { ...NV_NMR_DEFAULTS, ...input };
-    return [o.dataName, ...(o.fitName ? [o.fitName] : [])];
-  },
+  dataNames: dataNamesOf(NV_NMR_DEFAULTS, ["dataName", "fitName"]),
   build(input) {
     const o = { ...NV_NMR_DEFAULTS, ...input };
     const marker = expectedNucleusMarker(o.nucleus, o.fieldMt, o.xQuantity);
     const spacing = o.xQuantity === "spacing";
     const spectrum: SpectrumOptions = { ...o, xName: spacing ? "τ" : "frequency", xUnit: spacing ? "µs" : "MHz", markers: [marker] };
-    const frame = singleViewFrame(withPrint(o.print), `NV-NMR spectrum with the ${NUCLEI[o.nucleus].label} line at ${o.fieldMt} mT`);
-    return { ...frame, layer: spectrumLayers(spectrum, OKABE_ITO.vermillion) } as unknown as TopLevelSpec;
+    const description = `NV-NMR spectrum with the ${NUCLEI[o.nucleus].label} line at ${o.fieldMt} mT`;
+    return singleViewPanel(withPrint(o.print), description, {}, spectrumLayers(spectrum, OKABE_ITO.vermillion));
   },
 };

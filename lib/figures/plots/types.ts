@@ -32,6 +32,14 @@ export interface CommonOptions {
   print?: Partial<PrintSettings>;
 }
 
+/** Names and units of the x and y axes, written in the axis titles as "τ (µs)". */
+export interface XYAxisText {
+  xName: string;
+  xUnit: string;
+  yName: string;
+  yUnit: string;
+}
+
 export interface FigureTemplate<O extends CommonOptions = CommonOptions> {
   id: string;
   title: string;

@@ -1,6 +1,7 @@
+import "server-only";
 import { listModels } from "@/lib/analysis";
 import { listCalculators, runCalculator, CalculatorInputError, UnknownCalculatorError, ESTIMATE_CAUTION } from "@/lib/physics/calculators";
-import { badRequest, notFound } from "../errors";
+import { badRequest, notFound } from "@/lib/errors";
 
 /** The fit models (parameter units relative to the x/y columns) and the calculators (practical SI units). */
 export function analysisCatalogue() {

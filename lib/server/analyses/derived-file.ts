@@ -1,4 +1,6 @@
+import "server-only";
 import type { SampledCurve } from "@/lib/analysis";
+import { axisTitle } from "@/lib/data/format";
 
 export interface DerivedFileInput {
   sourceVersionId: string; sourceSha256: string; modelId: string; modelVersion: string;
@@ -8,7 +10,6 @@ export interface DerivedFileInput {
 }
 
 const fmt = (v: number) => (Number.isFinite(v) ? String(v) : "");
-const label = (name: string, unit: string | null) => (unit ? `${name} (${unit})` : name);
 
 /**
  * The derived version of an analysis, long format so one table carries all three series:
@@ -22,7 +23,7 @@ export function derivedCsv(d: DerivedFileInput): string {
     `# model: ${d.modelId} (version ${d.modelVersion})`,
     ...d.parameters.map((p) => `# parameter ${p.name}: ${fmt(p.value)} ± ${fmt(p.stderr)} ${p.unit}`.trimEnd()),
     `# reduced chi-square: ${fmt(d.chi2red)}`,
-    `series,${label(d.xName, d.xUnit)},${label(d.yName, d.yUnit)}`,
+    `series,${axisTitle(d.xName, d.xUnit)},${axisTitle(d.yName, d.yUnit)}`,
   ];
   for (let i = 0; i < d.curve.x.length; i++) lines.push(`curve,${fmt(d.curve.x[i]!)},${fmt(d.curve.y[i]!)}`);
   for (let i = 0; i < d.dataX.length; i++) lines.push(`data,${fmt(d.dataX[i]!)},${fmt(d.dataY[i]!)}`);

@@ -1,8 +1,9 @@
+import "server-only";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasets, versions } from "@/db/schema";
 import { decodeColumnar } from "@/lib/data/columnar";
-import { badRequest, notFound } from "../errors";
+import { badRequest, notFound } from "@/lib/errors";
 import { columnsFor } from "../datasets/columns-cache";
 import type { FitOptions } from "./schemas";
 

@@ -1,9 +1,11 @@
+import "server-only";
 import { and, desc, eq, inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, datasets, versions } from "@/db/schema";
+import { getModel } from "@/lib/analysis";
 import { compareGroups, COMPARE_GROUPS_METHOD, describe, DESCRIBE_METHOD } from "@/lib/analysis/stats";
 import { authorize, type SessionUser } from "@/lib/authz";
-import { badRequest } from "../errors";
+import { badRequest } from "@/lib/errors";
 
 const METADATA_FIELDS = ["kind", "sample", "instrument"] as const;
 
@@ -13,6 +15,11 @@ const METADATA_FIELDS = ["kind", "sample", "instrument"] as const;
  */
 export async function populationStatistics(user: SessionUser, manuscriptId: string, model: string, parameter: string, groupBy: string) {
   await authorize(user, "manuscript.read", manuscriptId);
+  const known = getModel(model);
+  if (!known) throw badRequest(`model: unknown model "${model}"; GET /api/analysis-models lists them.`);
+  if (!known.params.some((p) => p.name === parameter)) {
+    throw badRequest(`parameter: model ${model} has no parameter "${parameter}" (it has ${known.params.map((p) => p.name).join(", ")}).`);
+  }
   const rows = await getDb().select({ a: analyses, v: versions, d: datasets }).from(analyses)
     .innerJoin(versions, eq(versions.id, analyses.versionId)).innerJoin(datasets, eq(datasets.id, versions.datasetId))
     .where(and(eq(analyses.manuscriptId, manuscriptId), eq(analyses.model, model))).orderBy(desc(analyses.createdAt));

@@ -1,3 +1,4 @@
+import "server-only";
 import { and, desc, eq, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, datasets, versions } from "@/db/schema";
@@ -5,13 +6,13 @@ import { FitInputError, fitModel, getModel, sampleCurve, type ModelFitResult } f
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
-import { badRequest, notFound } from "../errors";
+import { badRequest, notFound } from "@/lib/errors";
 import { manuscriptOfVersion } from "../datasets/scope";
 import { importDatasetFromBytes } from "../datasets/upload-dataset";
 import { derivedCsv } from "./derived-file";
 import { loadFitData, type FitData } from "./fit-data";
 import { analysisInput, type AnalysisInput } from "./schemas";
-import { resolveUnit } from "./units";
+import { resolveUnit } from "@/lib/analysis/param-unit";
 
 const CURVE_POINTS = 400;
 const nullIfNaN = (v: number) => (Number.isFinite(v) ? v : null);

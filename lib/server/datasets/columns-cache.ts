@@ -1,3 +1,4 @@
+import "server-only";
 import { encodeColumnar } from "@/lib/data/columnar";
 import { parseTable } from "@/lib/data/parse";
 import { blobPath, readCache, readFileBytes, writeCache } from "../storage/blob-store";

@@ -1,3 +1,4 @@
+import "server-only";
 import fs from "node:fs";
 import { Readable } from "node:stream";
 import { asc, desc, eq, inArray } from "drizzle-orm";
@@ -7,7 +8,7 @@ import { authorize, type SessionUser } from "@/lib/authz";
 import { decodeColumnar, readRows } from "@/lib/data/columnar";
 import { minMaxPerBucket } from "@/lib/data/downsample";
 import { appendAudit } from "../audit";
-import { badRequest, notFound } from "../errors";
+import { badRequest, notFound } from "@/lib/errors";
 import { blobPath } from "../storage/blob-store";
 import { columnsFor } from "./columns-cache";
 import { metadataInput, type MetadataInput } from "./schemas";

@@ -1,3 +1,4 @@
+import "server-only";
 import { z } from "zod";
 import { MEASUREMENT_KINDS } from "@/db/schema";
 import { stripUnsafeCharacters } from "../storage/file-name";
@@ -34,7 +35,7 @@ export const rowsQuery = z.object({
 });
 
 export const plotQuery = z.object({
-  x: z.string({ message: "name the x column" }).min(1, "name the x column").max(1000),
-  y: z.string({ message: "name the y column" }).min(1, "name the y column").max(1000),
+  x: z.string({ message: "name the x column" }).min(1, "name the x column").max(1000, "a column name has at most 1000 characters"),
+  y: z.string({ message: "name the y column" }).min(1, "name the y column").max(1000, "a column name has at most 1000 characters"),
   points: z.coerce.number().int().min(10).max(20_000).default(1500),
 });

@@ -1,7 +1,8 @@
+import "server-only";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasets, versions } from "@/db/schema";
-import { notFound } from "../errors";
+import { notFound } from "@/lib/errors";
 
 /** Which manuscript a dataset belongs to; unknown ids are 404 before any permission is checked. */
 export async function manuscriptOfDataset(datasetId: string): Promise<string> {

@@ -1,3 +1,4 @@
+import "server-only";
 import { and, desc, eq, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasets, versions, type ParseInfo, type StoredSummary } from "@/db/schema";
@@ -8,7 +9,7 @@ import { summarizeColumn } from "@/lib/data/summary";
 import { env } from "@/lib/env";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
-import { badRequest, notFound } from "../errors";
+import { badRequest, notFound } from "@/lib/errors";
 import { consumeRate, type RateRule } from "../limits/rate-limit";
 import { commitBlob, readFileBytes, removeTemp, writeCache, writeStreamToTemp } from "../storage/blob-store";
 import { readMultipartUpload, type UploadedFile } from "../storage/multipart";

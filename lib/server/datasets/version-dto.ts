@@ -1,3 +1,4 @@
+import "server-only";
 import type { versions } from "@/db/schema";
 
 type VersionRow = typeof versions.$inferSelect;

@@ -1,3 +1,4 @@
+import "server-only";
 import http from "node:http";
 import { PEER_HEADER } from "../limits/client-address";
 

@@ -1,3 +1,4 @@
+import "server-only";
 import fs from "node:fs/promises";
 import { strToU8 } from "fflate";
 import type { SessionUser } from "@/lib/authz";

@@ -1,8 +1,9 @@
+import "server-only";
 import { z } from "zod";
 import { getDb } from "@/db/client";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
-import { notFound } from "../errors";
+import { notFound } from "@/lib/errors";
 import { manuscriptOfFigure } from "../figures/scope";
 import { svgToPdf } from "../render/to-pdf";
 import { svgToPng } from "../render/to-png";

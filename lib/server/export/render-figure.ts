@@ -1,8 +1,9 @@
+import "server-only";
 import { getDb } from "@/db/client";
 import { revisions } from "@/db/schema";
 import { inArray } from "drizzle-orm";
 import { RenderError, renderFigureInWorker } from "../render/render-in-worker";
-import { badRequest, unprocessable } from "../errors";
+import { badRequest, unprocessable } from "@/lib/errors";
 import { loadBoundData } from "../figures/bindings";
 import { reduceRowsForDisplay } from "../figures/display-data";
 import type { FigureReview } from "../review/review-context";

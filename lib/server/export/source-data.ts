@@ -1,3 +1,4 @@
+import "server-only";
 import { strToU8, zipSync } from "fflate";
 import { inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
@@ -5,9 +6,14 @@ import { revisions } from "@/db/schema";
 import { loadBoundData } from "../figures/bindings";
 import type { FigureReview } from "../review/review-context";
 
-function csvCell(v: unknown): string {
+/**
+ * Text a spreadsheet would run as a formula (=, +, -, @, tab or CR first) gets a leading
+ * apostrophe, so opening the source data never evaluates a cell; numbers are written as they are.
+ */
+export function csvCell(v: unknown): string {
   if (v === null || v === undefined) return "";
-  const s = String(v);
+  let s = String(v);
+  if (typeof v !== "number" && /^[=+\-@\t\r]/.test(s)) s = `'${s}`;
   return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 

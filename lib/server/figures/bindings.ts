@@ -1,9 +1,11 @@
+import "server-only";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, datasets, versions, type Binding, type BoundInput } from "@/db/schema";
 import { decodeColumnar } from "@/lib/data/columnar";
-import { canonicalJson, sha256Hex } from "../crypto";
-import { badRequest } from "../errors";
+import { canonicalJson } from "@/lib/figures/canonical-spec";
+import { sha256Hex } from "../crypto";
+import { badRequest } from "@/lib/errors";
 import { columnsFor } from "../datasets/columns-cache";
 
 /** Checks every binding belongs to this manuscript and records what it points at, by content hash. */

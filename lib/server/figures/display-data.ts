@@ -1,3 +1,4 @@
+import "server-only";
 import type { BoundInput } from "@/db/schema";
 import { loadBoundData } from "./bindings";
 

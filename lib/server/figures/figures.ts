@@ -1,10 +1,11 @@
+import "server-only";
 import { and, eq, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { figures, manuscriptMembers, panels, type Role } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
-import { badRequest, notFound } from "../errors";
+import { badRequest, notFound } from "@/lib/errors";
 import { createFigureInput, reorderInput, updateFigureInput } from "./schemas";
 import { manuscriptOfFigure } from "./scope";
 import { loadReviewContext, type FigureReview } from "../review/review-context";
@@ -74,7 +75,7 @@ export async function reorderPanels(user: SessionUser, figureId: string, raw: z.
   await getDb().transaction(async (tx) => {
     const existing = await tx.select({ id: panels.id }).from(panels).where(eq(panels.figureId, figureId));
     const ids = new Set(existing.map((p) => p.id));
-    if (panelIds.length !== ids.size || !panelIds.every((p) => ids.has(p)))
+    if (panelIds.length !== ids.size || new Set(panelIds).size !== panelIds.length || !panelIds.every((p) => ids.has(p)))
       throw badRequest("panelIds: list every panel of the figure exactly once.");
     for (const [i, pid] of panelIds.entries()) await tx.update(panels).set({ position: i }).where(and(eq(panels.id, pid), eq(panels.figureId, figureId)));
     await appendAudit(tx, { actorId: user.id, manuscriptId, action: "figure.reorder", target: `figure:${figureId}`, data: { panelIds } });

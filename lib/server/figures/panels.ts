@@ -1,3 +1,4 @@
+import "server-only";
 import { asc, eq, max } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
@@ -5,7 +6,7 @@ import { panels, revisions } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
-import { notFound } from "../errors";
+import { notFound } from "@/lib/errors";
 import { addPanelInput } from "./schemas";
 import { letterFor, manuscriptOfFigure, manuscriptOfPanel } from "./scope";
 import { loadReviewContext } from "../review/review-context";

@@ -1,11 +1,13 @@
+import "server-only";
 import { and, desc, eq, isNull, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { panels, revisions, users } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { validateSpec } from "@/lib/figures/validate-spec";
 import { appendAudit } from "../audit";
-import { canonicalJson, newId } from "../crypto";
-import { badRequest, conflict, notFound, unprocessable } from "../errors";
+import { canonicalJson } from "@/lib/figures/canonical-spec";
+import { newId } from "../crypto";
+import { badRequest, conflict, notFound, unprocessable } from "@/lib/errors";
 import { resolveBindings, revisionContentHash } from "./bindings";
 import { revisionInput, type RevisionInput } from "./schemas";
 import { manuscriptOfPanel } from "./scope";

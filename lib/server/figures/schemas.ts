@@ -1,3 +1,4 @@
+import "server-only";
 import { z } from "zod";
 
 /** Ids are 16 characters (newId) or short seed names; 128 leaves room and refuses megabyte strings. */

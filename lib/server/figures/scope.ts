@@ -1,7 +1,8 @@
+import "server-only";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { figures, panels, revisions } from "@/db/schema";
-import { notFound } from "../errors";
+import { notFound } from "@/lib/errors";
 
 export async function manuscriptOfFigure(figureId: string): Promise<string> {
   const [f] = await getDb().select({ m: figures.manuscriptId }).from(figures).where(eq(figures.id, figureId));

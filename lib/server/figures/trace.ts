@@ -1,8 +1,10 @@
+import "server-only";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, datasets, versions } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
-import { canonicalJson, sha256Hex } from "../crypto";
+import { canonicalJson } from "@/lib/figures/canonical-spec";
+import { sha256Hex } from "../crypto";
 import { figureContentHash } from "./figure-hash";
 import { getFigure } from "./figures";
 import { getRevision } from "./revisions";

@@ -1,7 +1,8 @@
+import "server-only";
 import { and, count, eq, gt, lt, min } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { rateEvents } from "@/db/schema";
-import { tooManyRequests } from "../errors";
+import { tooManyRequests } from "@/lib/errors";
 
 export interface RateRule {
   /** Bucket key, e.g. `sign-in-link:addr:pi@lab.example.org`. */

@@ -1,3 +1,4 @@
+import "server-only";
 import { and, asc, eq, lte, or, lt, isNull } from "drizzle-orm";
 import nodemailer, { type Transporter } from "nodemailer";
 import type { Executor } from "@/db/client";

@@ -1,3 +1,4 @@
+import "server-only";
 import { env } from "@/lib/env";
 import { ROLE_LABELS } from "@/lib/authz/policy";
 import type { Role } from "@/db/schema";

@@ -3,6 +3,7 @@
  * files; system fonts are never used). Inter from @expo-google-fonts/inter, resolved from the
  * project root (process.cwd()), which is where `next start`, tsx and vitest run.
  */
+import "server-only";
 import path from "node:path";
 
 const INTER_DIR = ["node_modules", "@expo-google-fonts", "inter"];

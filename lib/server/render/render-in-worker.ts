@@ -16,6 +16,7 @@
  * `serverExternalPackages` and in node_modules at run time (true for `next start`; a standalone
  * output would need lib/server/render/worker and those packages copied alongside).
  */
+import "server-only";
 import { fork, type ChildProcess } from "node:child_process";
 import path from "node:path";
 import type { ComposedFigure, FigureLayout } from "./worker/compose-core.mjs";

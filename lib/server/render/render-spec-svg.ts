@@ -3,6 +3,7 @@
  * The implementation lives in ./worker/render-core.mjs so the render worker can load it without
  * a TypeScript build; exports should go through ./render-in-worker (time and memory budget).
  */
+import "server-only";
 import { RenderError, renderSpecToSvgCore, type BoundData, type PhysicalSize, type RenderedSvg } from "./worker/render-core.mjs";
 
 export { PT_PER_MM, RenderError, type BoundData, type PhysicalSize, type RenderErrorCode, type RenderedSvg } from "./worker/render-core.mjs";

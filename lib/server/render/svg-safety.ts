@@ -3,6 +3,7 @@
  * refusing loader, but resvg and svg-to-pdfkit would both read an <image> from the file system,
  * so anything that could reach outside the document is refused here as well.
  */
+import "server-only";
 import { RenderError } from "./worker/render-error.mjs";
 
 const FORBIDDEN = [

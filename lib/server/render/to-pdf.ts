@@ -3,6 +3,7 @@
  * points; text is set in the embedded Inter faces; images and external documents are never
  * opened (svg-to-pdfkit would otherwise read an <image> path from disk).
  */
+import "server-only";
 import PDFDocument from "pdfkit";
 import SVGtoPDF from "svg-to-pdfkit";
 import { interFontPath } from "./fonts";

@@ -2,6 +2,7 @@
  * SVG → PNG with resvg at print resolution, using only the shipped Inter TTFs (system fonts off,
  * so the pixels are the same on every machine), with a pHYs chunk carrying the resolution.
  */
+import "server-only";
 import { Resvg } from "@resvg/resvg-js";
 import { FONT_FAMILY, interFontFiles } from "./fonts";
 import { assertPrintableSvg, svgSizeMm } from "./svg-safety";

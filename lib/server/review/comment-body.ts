@@ -1,6 +1,7 @@
+import "server-only";
 import sanitizeHtml from "sanitize-html";
 import { RichTextError, renderRichText } from "@/lib/review/rich-text";
-import { badRequest } from "../errors";
+import { badRequest } from "@/lib/errors";
 
 const POLICY: sanitizeHtml.IOptions = {
   allowedTags: ["p", "ul", "ol", "li", "pre", "code", "blockquote", "strong", "em", "s", "a", "br", "span"],
@@ -19,7 +20,7 @@ export function prepareCommentBody(body: unknown, memberIds: Set<string>): { htm
     if (err instanceof RichTextError) throw badRequest(err.message);
     throw err;
   }
-  if (rendered.plainLength === 0) throw badRequest("body: the comment is empty.");
+  if (rendered.visibleLength === 0 && rendered.mentions.length === 0) throw badRequest("body: the comment is empty (write some text or @mention someone).");
   const stranger = rendered.mentions.find((m) => !memberIds.has(m));
   if (stranger) throw badRequest(`body: @mention of "${stranger}", who is not a member of this manuscript.`);
   return { html: sanitizeHtml(rendered.html, POLICY), mentions: rendered.mentions };

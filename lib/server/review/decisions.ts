@@ -1,3 +1,4 @@
+import "server-only";
 import { eq } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
@@ -5,7 +6,7 @@ import { decisions, panels, revisions, signoffs } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
-import { badRequest, conflict, forbidden, notFound } from "../errors";
+import { badRequest, conflict, forbidden, notFound } from "@/lib/errors";
 import { enqueueMail } from "../mail/outbox";
 import { manuscriptOfFigure, manuscriptOfPanel } from "../figures/scope";
 import { loadReviewContext } from "./review-context";

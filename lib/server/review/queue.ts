@@ -1,3 +1,4 @@
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { comments, manuscripts, threads } from "@/db/schema";

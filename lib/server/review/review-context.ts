@@ -1,3 +1,4 @@
+import "server-only";
 import { asc, desc, eq, inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { decisions, figures, panels, revisions, signoffs, threads, users } from "@/db/schema";

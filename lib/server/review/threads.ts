@@ -1,3 +1,4 @@
+import "server-only";
 import { and, asc, eq, inArray } from "drizzle-orm";
 import { z } from "zod";
 import type { Transaction } from "@/db/client";
@@ -6,7 +7,7 @@ import { commentEdits, comments, manuscriptMembers, revisions, threads, users } 
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
-import { badRequest, conflict, forbidden, notFound } from "../errors";
+import { badRequest, conflict, forbidden, notFound } from "@/lib/errors";
 import { deliverOutbox, enqueueMail } from "../mail/outbox";
 import { manuscriptOfPanel } from "../figures/scope";
 import { prepareCommentBody } from "./comment-body";

@@ -1,7 +1,8 @@
+import "server-only";
 import { inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { revisions, versions, type BoundInput } from "@/db/schema";
-import { canonicalJson } from "../crypto";
+import { canonicalJson } from "@/lib/figures/canonical-spec";
 
 export interface Change { kind: "spec" | "data" | "analysis" | "binding"; text: string; name?: string; from?: unknown; to?: unknown }
 

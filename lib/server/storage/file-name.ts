@@ -4,6 +4,8 @@
  * characters, soft hyphen, BOM), line and paragraph separators and lone surrogates. Bidi controls in
  * particular let "invoice‮gnp.exe" display as "invoiceexe.png".
  */
+import "server-only";
+
 const UNSAFE = /[\p{Cc}\p{Cf}\p{Zl}\p{Zp}\p{Cs}]/gu;
 
 /** Text with the unsafe characters above taken out, composed (NFC). Not trimmed. */

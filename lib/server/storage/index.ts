@@ -1,2 +1,3 @@
 // Start-up housekeeping for uploads (called from instrumentation.ts).
+import "server-only";
 export { sweepUploadTemp } from "./blob-store";

@@ -1,9 +1,10 @@
+import "server-only";
 import Busboy from "busboy";
 import { Readable } from "node:stream";
 import { pipeline } from "node:stream/promises";
 import type { ReadableStream as NodeReadableStream } from "node:stream/web";
 import { env } from "@/lib/env";
-import { AppError, badRequest, tooLarge, unsupported } from "../errors";
+import { AppError, badRequest, tooLarge, unsupported } from "@/lib/errors";
 import { TooLargeError, removeTemp, writeStreamToTemp } from "./blob-store";
 import { sanitiseFileName } from "./file-name";
 
@@ -24,6 +25,7 @@ export interface ReadUploadOptions {
 }
 
 const MB = 1024 * 1024;
+const MAX_FIELDS = 20;
 /** 200 → "200", 0.25 → "0.25". */
 const mb = (bytes: number) => String(Number((bytes / MB).toFixed(2)));
 
@@ -52,7 +54,7 @@ export async function readMultipartUpload(req: Request, maxBytes: number, option
 
   let bb: ReturnType<typeof Busboy>;
   try {
-    bb = Busboy({ headers: { "content-type": type }, defParamCharset: "utf8", limits: { files: 1, fields: 20, fieldSize: 1 * MB, fileSize: maxBytes + 1 } });
+    bb = Busboy({ headers: { "content-type": type }, defParamCharset: "utf8", limits: { files: 1, fields: MAX_FIELDS, fieldSize: 1 * MB, fileSize: maxBytes + 1 } });
   } catch (err) {
     const message = err instanceof Error ? err.message : String(err);
     throw badRequest(`The multipart body is malformed: ${/boundary/i.test(message) ? "the content type names no boundary" : message}.`);
@@ -110,10 +112,14 @@ export async function readMultipartUpload(req: Request, maxBytes: number, option
   }, { highWaterMark: 0 });
 
   bb.on("field", (name, value) => { fields[name] = value; });
+  // Busboy drops what is past its limits without a word; a dropped field or file must not pass unseen.
+  bb.on("fieldsLimit", () => fail(badRequest(`The upload has more than ${MAX_FIELDS} form fields; send file, name, metadata, datasetId, delimiter, decimal and format only.`)));
+  bb.on("filesLimit", () => fail(badRequest("file: the upload has more than one file part; send one file per upload.")));
   bb.on("file", (name, stream, info) => {
     // Destroyed streams emit "error"; unheard, that would crash the process.
     stream.on("error", () => undefined);
-    if (name !== "file" || file.pending) { stream.resume(); return; }
+    if (name !== "file") { stream.resume(); fail(badRequest(`file: the upload's file part is named "${name.slice(0, 40)}"; name it "file".`)); return; }
+    if (file.pending) { stream.resume(); fail(badRequest("file: the upload has more than one file part; send one file per upload.")); return; }
     file.stream = stream;
     // Busboy cuts the file at maxBytes + 1 and would then race through the rest of the body discarding it.
     // Deferred: busboy still touches the file stream right after emitting "limit".

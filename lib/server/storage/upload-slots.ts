@@ -1,5 +1,6 @@
+import "server-only";
 import { env } from "@/lib/env";
-import { tooManyRequests } from "../errors";
+import { tooManyRequests } from "@/lib/errors";
 
 /**
  * How many uploads this process is reading and parsing right now, per user and in total. An upload

@@ -1,12 +1,16 @@
 /**
- * Voigt profile against the 30-digit mpmath values of REFERENCES.md item 7 (unit area,
- * γ = Lorentzian half-width), required to 1e-10 relative.
+ * Voigt profile V(x; σ, γ) (unit area, σ = Gaussian standard deviation, γ = Lorentzian half-width)
+ * against values computed to 30 digits with mpmath 1.3.0 (F. Johansson et al., https://mpmath.org),
+ * an arbitrary-precision library independent of this code, from the Faddeeva form
+ *   V = Re w(z) / (σ√(2π)),  z = (x + iγ)/(σ√2),  w(z) = exp(−z²) erfc(−iz)
+ * (NIST DLMF §7.19 and eq. 7.2.3; equation numbers from memory), required to 1e-10 relative.
+ * Two are exact: V(0; 1, 0) = 1/√(2π) (Gaussian peak) and V(0; 0, 1) = 1/π (Lorentzian peak).
  */
 import { describe, expect, it } from "vitest";
 import { voigtProfile, voigtProfileWithDerivatives } from "@/lib/analysis/special/voigt-profile";
 
-// REFERENCES.md §7, "computed to 30 digits with mpmath": [x, σ, γ, V(x; σ, γ)], the value kept
-// as the quoted text (some carry more digits than a double holds).
+// [x, σ, γ, V(x; σ, γ)], mpmath.mp.dps = 30 (σ = 0: the Lorentzian γ/(π(x² + γ²))), the value kept
+// as quoted text (some carry more digits than a double holds).
 const MPMATH_VALUES: Array<[number, number, number, string]> = [
   [0, 1, 0, "0.3989422804014327"],
   [0, 0, 1, "0.3183098861837907"],
@@ -18,7 +22,7 @@ const MPMATH_VALUES: Array<[number, number, number, string]> = [
 
 const relativeError = (value: number, reference: number): number => Math.abs(value - reference) / Math.abs(reference);
 
-describe("Voigt profile (REFERENCES.md item 7, mpmath 30-digit values)", () => {
+describe("Voigt profile (mpmath 30-digit values of Re w(z)/(σ√2π))", () => {
   for (const [x, sigma, gamma, reference] of MPMATH_VALUES) {
     it(`V(${x}; ${sigma}, ${gamma}) = ${reference}`, () => {
       expect(relativeError(voigtProfile(x, sigma, gamma), Number(reference))).toBeLessThan(1e-10);

@@ -1,5 +1,5 @@
 // Rules of thumb a working NV physicist checks by eye. No single source: "common practice",
-// except where REFERENCES.md names one.
+// except where a paper is named beside the check.
 import { describe, expect, it } from "vitest";
 import { runCalculator } from "@/lib/physics/calculators";
 import { NV_MINUS_ZPL_ENERGY_EV, NV_ZERO_ZPL_ENERGY_EV } from "@/lib/physics/constants";
@@ -25,12 +25,13 @@ describe("orders of magnitude", () => {
   it("NV⁻ ZPL near 637 nm from 1.945 eV (Davies & Hamer 1976, from memory; common practice)", () => {
     const nm = photonWavelengthNm(NV_MINUS_ZPL_ENERGY_EV);
     expect(Math.abs(nm - 637)).toBeLessThan(1);
-    // Davies & Hamer 1976 (from memory) via REFERENCES.md: 637.4 nm. hc/E gives 637.45 nm (vacuum);
+    // Davies & Hamer, Proc. R. Soc. Lond. A 348, 285 (1976) (from memory): 1.945 eV, quoted as 637.4 nm.
+    // hc/E = 6.62607015e-34 × 299792458 / (1.945 × 1.602176634e-19) m = 637.45 nm (vacuum; CODATA 2018 exact h, c, e);
     // 1.945 eV carries 4 digits (±0.0005 eV ≈ ±0.16 nm), so only agreement within that is meaningful.
     expect(Math.abs(nm - 637.4)).toBeLessThan(0.16);
   });
 
-  it("NV⁰ ZPL 2.156 eV = 575.1 nm (Davies & Hamer 1976, from memory)", () => {
+  it("NV⁰ ZPL 2.156 eV = 575.1 nm (hc/E = 575.07 nm; the value as tabulated by Doherty et al., Phys. Rep. 528, 1 (2013), from memory)", () => {
     expectDigits(photonWavelengthNm(NV_ZERO_ZPL_ENERGY_EV), "575.1");
   });
 });

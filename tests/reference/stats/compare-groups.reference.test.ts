@@ -1,5 +1,9 @@
 // Welch's t, Mann–Whitney U and Brown–Forsythe checked (1) against first-principles computations
-// done here, independently of jstat, and (2) against published worked examples (from memory).
+// done here, independently of jstat, and (2) against published worked examples (from memory; each
+// re-computed independently with SciPy 1.17 — ttest_ind(equal_var=False), mannwhitneyu, t.ppf — which
+// agrees to every digit quoted). Welch, Biometrika 34, 28 (1947), doi:10.1093/biomet/34.1-2.28; Mann &
+// Whitney, Ann. Math. Statist. 18, 50 (1947), doi:10.1214/aoms/1177730491; Brown & Forsythe, J. Am.
+// Stat. Assoc. 69, 364 (1974), doi:10.1080/01621459.1974.10482955 (DOIs from memory).
 // jstat's incomplete beta stops at a 3e-7 relative step, so p-values are compared to ~1e-6.
 import { describe, expect, it } from "vitest";
 import { compareGroups, describe as describeSample, mannWhitneyU } from "@/lib/analysis/stats";
@@ -102,7 +106,8 @@ describe("first principles, with ties: normal approximation", () => {
 });
 
 describe("published worked examples (values from memory)", () => {
-  // Student's sleep data (Cushny & Peebles 1905, as used by Student 1908): R's `sleep` dataset and the
+  // Student's sleep data (Cushny & Peebles, J. Physiol. 32, 501 (1905), as used by Student, Biometrika 6, 1
+  // (1908); both from memory): R's `sleep` dataset and the
   // example output of `t.test(extra ~ group, data = sleep)` and `wilcox.test(extra ~ group, data = sleep)`
   // in R's documentation (from memory).
   const g1 = [0.7, -1.6, -0.2, -1.2, -0.1, 3.4, 3.7, 0.8, 0.0, 2.0];

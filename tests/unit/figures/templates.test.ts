@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import {
-  DECAY_CURVE_DEFAULTS, expectedNucleusMarker, FIGURE_TEMPLATES, getTemplate, OKABE_ITO_CATEGORY, PRINT_OPTION_FIELDS, axisTitle, mmToPt,
+  DECAY_CURVE_DEFAULTS, expectedNucleusMarker, FIGURE_TEMPLATES, getTemplate, PRINT_OPTION_FIELDS, axisTitle,
 } from "@/lib/figures/templates";
 
 type Json = Record<string, any>;
@@ -38,17 +38,20 @@ describe("builder templates", () => {
       expect(spec.$schema).toBe("https://vega.github.io/schema/vega-lite/v6.json");
       expect(spec.config.font).toBe("Inter");
       expect(spec.config.axis).toMatchObject({ labelFontSize: 7, titleFontSize: 8 });
-      expect(spec.config.range.category).toEqual(OKABE_ITO_CATEGORY);
-      expect(OKABE_ITO_CATEGORY).toContain("#0072B2");
+      // Okabe & Ito, "Color Universal Design" (2008), https://jfly.uni-koeln.de/color/; the same eight
+      // colours in Wong, Nat. Methods 8, 441 (2011), doi:10.1038/nmeth.1618 (hex values from memory).
+      // Order is the project's choice: blue, vermillion, bluish green, orange, reddish purple, sky
+      // blue, black, yellow (weak on white paper) last.
+      expect(spec.config.range.category).toEqual(["#0072B2", "#D55E00", "#009E73", "#E69F00", "#CC79A7", "#56B4E9", "#000000", "#F0E442"]);
     }
     expect(build("scatter-line", { print: { labelPt: 6, titlePt: 7 } }).config.axis).toMatchObject({ labelFontSize: 6, titleFontSize: 7 });
   });
 
   it("size single views to the printed size in pt", () => {
     const spec = build("spectrum", { print: { widthMm: 120, heightMm: 50 } });
-    expect(spec.width).toBeCloseTo(mmToPt(120), 2);
-    expect(spec.width).toBeCloseTo(340.16, 1);
-    expect(spec.height).toBeCloseTo(141.73, 1);
+    // 1 pt = 1/72 in, 1 in = 25.4 mm: 120 mm × 72/25.4 = 340.157 pt, 50 mm → 141.732 pt.
+    expect(spec.width).toBeCloseTo(340.16, 2);
+    expect(spec.height).toBeCloseTo(141.73, 2);
     expect(spec.autosize).toEqual({ type: "fit", contains: "padding" });
   });
 

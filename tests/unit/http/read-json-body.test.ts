@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { AppError } from "@/lib/server/errors";
+import { AppError } from "@/lib/errors";
 import { checkJsonShape, describeLimit, readBodyBytes, readJsonBody } from "@/lib/http/read-json-body";
 
 const post = (body: BodyInit, headers: Record<string, string> = {}) =>

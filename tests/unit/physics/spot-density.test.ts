@@ -98,7 +98,9 @@ describe("countSpots", () => {
   it("matches the areal-density calculator", () => {
     const r = countSpots({ values: M, pixelSizeX: PIXEL }, { threshold: 100 });
     const calc = runCalculator("spot-areal-density", { N: r.count, W: 3, H: 2.5 }).outputs;
+    // 2 spots on 3 µm × 2.5 µm = 7.5 µm²: 0.2667 µm⁻², and 1 cm² = 1e8 µm² → 2.667e7 cm⁻².
+    expect(calc.density).toBeCloseTo(2 / 7.5, 12);
+    expect(calc.density_cm2).toBeCloseTo((2 / 7.5) * 1e8, 0);
     expect(calc.density).toBeCloseTo(r.densityPerUm2, 12);
-    expect(calc.density_cm2).toBeCloseTo(r.densityPerUm2 * 1e8, 0);
   });
 });

@@ -1,11 +1,12 @@
 "use client";
 import { useState, type FormEvent } from "react";
+import { sendJson } from "@/components/api-client";
 import { Button, Notice } from "@/components/ui";
+import { formatNumber } from "@/lib/data/format";
 
 interface Io { name: string; label: string; unit: string; default?: number }
 export interface CalculatorView { id: string; title: string; formula: string; assumptions: string[]; source: string; inputs: Io[]; outputs: Io[] }
 
-const format = (v: number) => (Math.abs(v) >= 1e5 || (Math.abs(v) < 1e-3 && v !== 0) ? v.toExponential(4) : Number(v.toPrecision(6)).toString());
 
 /** One calculator: inputs with units, the formula, the answer, its warnings and assumptions. */
 export function CalculatorCard({ calculator: c }: { calculator: CalculatorView }) {
@@ -16,9 +17,13 @@ export function CalculatorCard({ calculator: c }: { calculator: CalculatorView }
     e.preventDefault();
     const form = new FormData(e.currentTarget);
     const inputs = Object.fromEntries(c.inputs.map((i) => [i.name, Number(form.get(i.name))]));
-    const res = await fetch(`/api/calculators/${c.id}`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ inputs }) });
-    const body = await res.json();
-    if (res.ok) { setResult(body); setError(null); } else { setError(body.error?.message ?? "The calculation failed."); setResult(null); }
+    try {
+      setResult(await sendJson<{ outputs: Record<string, number>; warnings: string[] }>(`/api/calculators/${c.id}`, "POST", { inputs }));
+      setError(null);
+    } catch (err) {
+      setError((err as Error).message);
+      setResult(null);
+    }
   }
 
   return (
@@ -42,7 +47,7 @@ export function CalculatorCard({ calculator: c }: { calculator: CalculatorView }
             {c.outputs.map((o) => (
               <div key={o.name} className="contents">
                 <dt className="text-muted">{o.label}</dt>
-                <dd className="tabular font-medium">{format(result.outputs[o.name]!)} {o.unit}</dd>
+                <dd className="tabular font-medium">{formatNumber(result.outputs[o.name], 6)} {o.unit}</dd>
               </div>
             ))}
           </dl>

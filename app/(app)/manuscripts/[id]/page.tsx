@@ -3,13 +3,10 @@ import { FigureList } from "@/components/figures/figure-list";
 import { NewFigureForm } from "@/components/figures/new-figure-form";
 import { EmptyState, PageHeader, RoleBadge, Sheet } from "@/components/ui";
 import { roleAllows } from "@/lib/authz/policy";
-import { loadOrNotFound, requireUser } from "@/lib/http/session";
-import { getManuscript } from "@/lib/server/manuscripts";
+import { loadManuscriptPage } from "./_components/manuscript-page";
 
 export default async function ManuscriptPage({ params }: { params: Promise<{ id: string }> }) {
-  const user = await requireUser();
-  const { id } = await params;
-  const m = await loadOrNotFound(() => getManuscript(user, id));
+  const { manuscript: m } = await loadManuscriptPage(params);
   return (
     <>
       <PageHeader

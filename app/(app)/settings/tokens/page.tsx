@@ -1,5 +1,6 @@
-import { PageHeader, Sheet, formatDate } from "@/components/ui";
+import { PageHeader, Sheet } from "@/components/ui";
 import { env } from "@/lib/env";
+import { formatDate } from "@/lib/data/format";
 import { requireUser } from "@/lib/http/session";
 import { listApiTokens } from "@/lib/server/api-tokens";
 import { NewTokenForm, RevokeTokenButton } from "./_components/token-forms";

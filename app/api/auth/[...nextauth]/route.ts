@@ -5,8 +5,7 @@ import { handlers } from "@/auth";
 import { errorResponse } from "@/lib/http/errors";
 import { withBufferedBody } from "@/lib/http/read-json-body";
 import { publicRoute } from "@/lib/http/route";
-import { clientAddress } from "@/lib/server/limits/client-address";
-import { signInBlock } from "@/lib/server/sign-in-limits";
+import { signInBlockFor } from "@/lib/server/sign-in-limits";
 
 export const GET = publicRoute(async (req) => handlers.GET(req as never));
 
@@ -17,7 +16,7 @@ export const POST = publicRoute(async (incoming) => {
   const req = new NextRequest(await withBufferedBody(incoming, AUTH_BODY_MAX_BYTES));
   if (new URL(req.url).pathname.endsWith("/callback/password")) {
     const form = await req.clone().formData().catch(() => null);
-    const block = await signInBlock(String(form?.get("email") ?? ""), clientAddress(req.headers));
+    const block = await signInBlockFor(String(form?.get("email") ?? ""), req.headers);
     if (block) return errorResponse(429, "too_many_requests", block.message, undefined, block.retryAfterSeconds);
   }
   return handlers.POST(req as never);

@@ -2,7 +2,8 @@
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { useEffect, useRef, useState } from "react";
-import { fetchJson, queryKeys, type FigurePanel, type FigureView, type RevisionView } from "@/components/figures/api";
+import { fetchJson } from "@/components/api-client";
+import { queryKeys, type FigurePanel, type FigureView, type RevisionView } from "@/components/figures/api";
 import { GUTTER_MM, panelWidthMm } from "@/components/figures/format";
 import { PanelChartLazy } from "@/components/figures/panel-chart-lazy";
 import { OpenThreads, ReviewStateBadge } from "@/components/figures/review-state";

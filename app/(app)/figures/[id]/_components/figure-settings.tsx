@@ -1,9 +1,11 @@
 "use client";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState, type FormEvent } from "react";
-import { queryKeys, sendJson, type FigureView, type MemberView } from "@/components/figures/api";
-import { presetFor, WIDTH_PRESETS } from "@/components/figures/format";
+import { sendJson } from "@/components/api-client";
+import { queryKeys, type FigureView, type MemberView } from "@/components/figures/api";
+import { CustomWidthField, presetFor, WidthPresetField, widthMmOf } from "@/components/figures/figure-width-field";
 import { Button, Field, Select, TextInput } from "@/components/ui";
+import { roleAllows } from "@/lib/authz/policy";
 
 /** Title, width, maximum height, columns and required reviewers (PI and authors change them). */
 export function FigureSettings({ figure, members, editable }: { figure: FigureView; members: MemberView[]; editable: boolean }) {
@@ -18,7 +20,7 @@ export function FigureSettings({ figure, members, editable }: { figure: FigureVi
     mutationFn: (patch: Record<string, unknown>) => sendJson<FigureView>(`/api/figures/${figure.id}`, "PATCH", patch),
     onSuccess: (f) => qc.setQueryData(queryKeys.figure(figure.id), f),
   });
-  const candidates = members.filter((m) => m.role !== "viewer");
+  const candidates = members.filter((m) => roleAllows(m.role, "review.decide"));
   const name = (id: string) => members.find((m) => m.userId === id)?.name ?? id;
 
   if (!editable) {
@@ -34,20 +36,15 @@ export function FigureSettings({ figure, members, editable }: { figure: FigureVi
 
   function submit(e: FormEvent) {
     e.preventDefault();
-    const widthMm = preset === "custom" ? Number(customMm) : WIDTH_PRESETS.find((p) => p.id === preset)!.mm;
+    const widthMm = widthMmOf(preset, customMm);
     save.mutate({ title, widthMm, maxHeightMm: Number(maxHeight), columns: Number(columns), requiredReviewers: reviewers });
   }
 
   return (
     <form onSubmit={submit} aria-label="Figure settings" className="space-y-3">
       <Field label="Title"><TextInput required value={title} onChange={(e) => setTitle(e.target.value)} /></Field>
-      <Field label="Width">
-        <Select value={preset} onChange={(e) => setPreset(e.target.value)}>
-          {WIDTH_PRESETS.map((p) => <option key={p.id} value={p.id}>{p.label}</option>)}
-          <option value="custom">Custom…</option>
-        </Select>
-      </Field>
-      {preset === "custom" ? <Field label="Custom width (mm)"><TextInput type="number" min={30} max={300} value={customMm} onChange={(e) => setCustomMm(e.target.value)} /></Field> : null}
+      <WidthPresetField value={preset} onChange={setPreset} />
+      {preset === "custom" ? <CustomWidthField value={customMm} onChange={setCustomMm} /> : null}
       <div className="grid grid-cols-2 gap-3">
         <Field label="Max height (mm)"><TextInput type="number" min={30} max={300} value={maxHeight} onChange={(e) => setMaxHeight(e.target.value)} /></Field>
         <Field label="Columns"><Select value={columns} onChange={(e) => setColumns(e.target.value)}>{[1, 2, 3, 4, 5, 6].map((n) => <option key={n}>{n}</option>)}</Select></Field>

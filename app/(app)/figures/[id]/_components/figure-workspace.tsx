@@ -1,7 +1,9 @@
 "use client";
 import { useQuery } from "@tanstack/react-query";
 import { useState, type ReactNode } from "react";
-import { fetchJson, queryKeys, type FigureView, type MemberView } from "@/components/figures/api";
+import { roleAllows } from "@/lib/authz/policy";
+import { fetchJson } from "@/components/api-client";
+import { queryKeys, type FigureView, type MemberView } from "@/components/figures/api";
 import { OpenThreads, ReviewStateBadge } from "@/components/figures/review-state";
 import { SignoffBox } from "@/components/review/signoff-box";
 import { FigureCanvas } from "./figure-canvas";
@@ -34,7 +36,7 @@ export function FigureWorkspace({ initial, members }: { initial: FigureView; mem
     initialData: initial,
     refetchInterval: 30_000,
   });
-  const editable = figure.role === "pi" || figure.role === "author";
+  const editable = roleAllows(figure.role, "figure.edit");
   const [traceOpen, setTraceOpen] = useState(false);
   const showTrace = () => {
     setTraceOpen(true);
@@ -61,7 +63,7 @@ export function FigureWorkspace({ initial, members }: { initial: FigureView; mem
         <aside className="space-y-4">
           <Side title="Panels"><PanelManager figure={figure} editable={editable} /></Side>
           <Side title="Sign-off">
-            <SignoffBox figureId={figure.id} figureHash={figure.figureHash} reviewState={figure.reviewState} canSignOff={figure.role === "pi"} signoffs={figure.signoffs} />
+            <SignoffBox figureId={figure.id} figureHash={figure.figureHash} reviewState={figure.reviewState} canSignOff={roleAllows(figure.role, "figure.signoff")} signoffs={figure.signoffs} />
           </Side>
           <Side title="Export">
             <ul className="space-y-1 text-sm">

@@ -2,7 +2,8 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import Link from "next/link";
 import { useState, type FormEvent } from "react";
-import { queryKeys, sendJson, type FigureView } from "@/components/figures/api";
+import { sendJson } from "@/components/api-client";
+import { queryKeys, type FigureView } from "@/components/figures/api";
 import { Button, Field, Select, TextInput } from "@/components/ui";
 
 /** Add a panel and change the order (letters follow the order). */

@@ -1,8 +1,9 @@
 "use client";
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
-import { fetchJson, queryKeys, type TraceView } from "@/components/figures/api";
-import { shortHash } from "@/components/figures/format";
+import { fetchJson } from "@/components/api-client";
+import { queryKeys, type TraceView } from "@/components/figures/api";
+import { shortHash } from "@/lib/data/format";
 
 /** The provenance chain in a table: panel → revision hash → data name → version + sha256 → analysis model. */
 export function TraceTable({ figureId, open, onToggle }: { figureId: string; open: boolean; onToggle: (open: boolean) => void }) {

@@ -1,13 +1,11 @@
-import Link from "next/link";
 import { AnalysesWorkspace } from "@/components/analysis/analyses-workspace";
 import type { BatchDataset } from "@/components/analysis/batch-types";
 import { EstimateCaution } from "@/components/analysis/estimate-caution";
-import { PageHeader, RoleBadge } from "@/components/ui";
+import { PageHeader } from "@/components/ui";
 import { roleAllows } from "@/lib/authz/policy";
-import { loadOrNotFound, requireUser } from "@/lib/http/session";
 import { analysisCatalogue } from "@/lib/server/analyses/catalogue";
 import { listDatasets } from "@/lib/server/datasets/read-datasets";
-import { getManuscript } from "@/lib/server/manuscripts";
+import { BackToManuscript, loadManuscriptPage } from "../_components/manuscript-page";
 
 export const metadata = { title: "Analyses" };
 
@@ -15,9 +13,7 @@ export const metadata = { title: "Analyses" };
 const DERIVED_TAGS = new Set(["derivedFrom", "model"]);
 
 export default async function AnalysesPage({ params }: { params: Promise<{ id: string }> }) {
-  const user = await requireUser();
-  const { id } = await params;
-  const m = await loadOrNotFound(() => getManuscript(user, id));
+  const { user, id, manuscript: m } = await loadManuscriptPage(params);
   const all = await listDatasets(user, id);
   const sources: BatchDataset[] = all.filter((d) => !d.tags.derivedFrom && d.latestVersion).map((d) => ({
     id: d.id, name: d.name, kind: d.kind, sample: d.sample, instrument: d.instrument, tags: d.tags,
@@ -30,7 +26,7 @@ export default async function AnalysesPage({ params }: { params: Promise<{ id: s
     <>
       <PageHeader
         title="Analyses"
-        subtitle={<><Link href={`/manuscripts/${m.id}`} className="underline">← {m.title}</Link>{m.role ? <> · your role <RoleBadge role={m.role} /></> : null}</>}
+        subtitle={<BackToManuscript manuscript={m} />}
       />
       <EstimateCaution />
       <AnalysesWorkspace manuscriptId={m.id} datasets={sources} models={analysisCatalogue().items} groupings={groupings} mayRun={mayRun} />

@@ -2,19 +2,16 @@ import Link from "next/link";
 import { CopyButton } from "@/components/data/copy-button";
 import { DatasetsTable } from "@/components/data/datasets-table";
 import { UploadDropZone } from "@/components/data/upload-drop-zone";
-import { PageHeader, RoleBadge, Sheet } from "@/components/ui";
+import { PageHeader, Sheet } from "@/components/ui";
 import { roleAllows } from "@/lib/authz/policy";
 import { env } from "@/lib/env";
-import { loadOrNotFound, requireUser } from "@/lib/http/session";
 import { listDatasets } from "@/lib/server/datasets/read-datasets";
-import { getManuscript } from "@/lib/server/manuscripts";
+import { BackToManuscript, loadManuscriptPage } from "../_components/manuscript-page";
 
 export const metadata = { title: "Data" };
 
 export default async function ManuscriptDataPage({ params }: { params: Promise<{ id: string }> }) {
-  const user = await requireUser();
-  const { id } = await params;
-  const m = await loadOrNotFound(() => getManuscript(user, id));
+  const { user, id, manuscript: m } = await loadManuscriptPage(params);
   const items = await listDatasets(user, id);
   const mayUpload = m.role ? roleAllows(m.role, "dataset.upload") : false;
   const curl = `curl -H "Authorization: Bearer $TOKEN" -F file=@echo.csv -F name="Hahn echo NV03" ${env().appUrl}/api/manuscripts/${m.id}/datasets`;
@@ -22,7 +19,7 @@ export default async function ManuscriptDataPage({ params }: { params: Promise<{
     <>
       <PageHeader
         title="Data"
-        subtitle={<><Link href={`/manuscripts/${m.id}`} className="underline">← {m.title}</Link> · your role <RoleBadge role={m.role!} /></>}
+        subtitle={<BackToManuscript manuscript={m} />}
       />
       <div className="space-y-6">
         {mayUpload ? (

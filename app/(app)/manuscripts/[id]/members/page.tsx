@@ -1,27 +1,25 @@
-import Link from "next/link";
-import { PageHeader, RoleBadge, Sheet, formatDate } from "@/components/ui";
-import { loadOrNotFound, requireUser } from "@/lib/http/session";
-import { getManuscript } from "@/lib/server/manuscripts";
+import { PageHeader, RoleBadge, Sheet } from "@/components/ui";
+import { roleAllows } from "@/lib/authz/policy";
+import { formatDate } from "@/lib/data/format";
 import { listPendingInvitations } from "@/lib/server/members";
+import { BackToManuscript, loadManuscriptPage } from "../_components/manuscript-page";
 import { InviteForm, MemberControls } from "./_components/member-forms";
 
 export const metadata = { title: "Members" };
 
 export default async function MembersPage({ params }: { params: Promise<{ id: string }> }) {
-  const user = await requireUser();
-  const { id } = await params;
-  const m = await loadOrNotFound(() => getManuscript(user, id));
+  const { user, id, manuscript: m } = await loadManuscriptPage(params);
   const invitations = await listPendingInvitations(user, id);
-  const isPi = m.role === "pi";
+  const mayManage = roleAllows(m.role, "member.manage");
   return (
     <>
-      <PageHeader title="Members" subtitle={<Link href={`/manuscripts/${id}`} className="underline">← {m.title}</Link>} />
+      <PageHeader title="Members" subtitle={<BackToManuscript manuscript={m} showRole={false} />} />
       <div className="grid gap-6 lg:grid-cols-[1fr_320px]">
         <div className="space-y-6">
           <table className="w-full border border-rule bg-sheet text-sm">
             <caption className="sr-only">Members of {m.title}</caption>
             <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
-              <tr><th className="px-4 py-2">Name</th><th className="px-4 py-2">E-mail</th><th className="px-4 py-2">Role</th>{isPi ? <th className="px-4 py-2">Manage</th> : null}</tr>
+              <tr><th className="px-4 py-2">Name</th><th className="px-4 py-2">E-mail</th><th className="px-4 py-2">Role</th>{mayManage ? <th className="px-4 py-2">Manage</th> : null}</tr>
             </thead>
             <tbody className="divide-y divide-rule">
               {m.members.map((p) => (
@@ -29,7 +27,7 @@ export default async function MembersPage({ params }: { params: Promise<{ id: st
                   <td className="px-4 py-2.5 font-medium">{p.name}</td>
                   <td className="px-4 py-2.5 text-muted">{p.email}</td>
                   <td className="px-4 py-2.5"><RoleBadge role={p.role} /></td>
-                  {isPi ? <td className="px-4 py-2.5"><MemberControls manuscriptId={id} userId={p.userId} role={p.role} name={p.name} /></td> : null}
+                  {mayManage ? <td className="px-4 py-2.5"><MemberControls manuscriptId={id} userId={p.userId} role={p.role} name={p.name} /></td> : null}
                 </tr>
               ))}
             </tbody>
@@ -45,7 +43,7 @@ export default async function MembersPage({ params }: { params: Promise<{ id: st
             </Sheet>
           ) : null}
         </div>
-        {isPi ? (
+        {mayManage ? (
           <Sheet>
             <h2 className="mb-3 text-sm font-semibold">Invite someone</h2>
             <InviteForm manuscriptId={id} />

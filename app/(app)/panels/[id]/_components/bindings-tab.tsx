@@ -1,10 +1,11 @@
 "use client";
 import { useMutation, useQuery } from "@tanstack/react-query";
 import Link from "next/link";
-import { fetchJson, queryKeys, sendJson, type RevisionView, type TraceView } from "@/components/figures/api";
-import { shortHash } from "@/components/figures/format";
+import { fetchJson, sendJson } from "@/components/api-client";
+import { queryKeys, type RevisionView, type TraceView } from "@/components/figures/api";
 import type { DatasetDetail } from "@/components/data/api";
 import { Button } from "@/components/ui";
+import { shortHash } from "@/lib/data/format";
 
 type Input = TraceView["panels"][number]["inputs"][number];
 type VersionInfo = Extract<Input, { kind: "version" }>["version"];

@@ -1,5 +1,6 @@
 "use client";
 import { Field, Select, TextInput } from "@/components/ui";
+import { axisTitle } from "@/lib/data/format";
 import type { Marker, TemplateOptionField } from "@/lib/figures/templates";
 
 export interface ColumnInfo { name: string; unit: string | null; type: string }
@@ -8,7 +9,7 @@ export interface ColumnInfo { name: string; unit: string | null; type: string }
 export function OptionInput({ field, value, onChange, columns }: {
   field: TemplateOptionField; value: unknown; onChange: (v: unknown) => void; columns?: ColumnInfo[];
 }) {
-  const label = field.kind === "number" && field.unit ? `${field.label} (${field.unit})` : field.label;
+  const label = field.kind === "number" ? axisTitle(field.label, field.unit) : field.label;
   switch (field.kind) {
     case "column": {
       const list = columns ?? [];
@@ -19,7 +20,7 @@ export function OptionInput({ field, value, onChange, columns }: {
           <Select value={v} onChange={(e) => onChange(e.target.value)}>
             {!field.required ? <option value="">{field.key.startsWith("fit") ? "(as the data)" : "(none)"}</option> : null}
             {v && !known ? <option value={v}>{v} (not in the bound data)</option> : null}
-            {list.map((c) => <option key={c.name} value={c.name}>{c.unit ? `${c.name} (${c.unit})` : c.name}</option>)}
+            {list.map((c) => <option key={c.name} value={c.name}>{axisTitle(c.name, c.unit)}</option>)}
           </Select>
         </Field>
       );

@@ -1,13 +1,15 @@
 "use client";
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
-import { fetchJson, queryKeys, type DatasetItem, type MemberView, type PanelView, type RevisionView, type ThreadAnchor } from "@/components/figures/api";
+import { fetchJson } from "@/components/api-client";
+import { queryKeys, type DatasetItem, type MemberView, type PanelView, type RevisionView, type ThreadAnchor } from "@/components/figures/api";
 import type { ChartAnchor, PickMode } from "@/components/figures/chart-anchors";
-import { shortHash, timeAgo } from "@/components/figures/format";
 import { PanelChartLazy } from "@/components/figures/panel-chart-lazy";
 import { ReviewStateBadge } from "@/components/figures/review-state";
 import { choicesFromRevision, type BindingChoice } from "@/components/figures/use-preview-data";
 import { ReviewColumn } from "@/components/panel-review/review-column";
+import { roleAllows } from "@/lib/authz/policy";
+import { relativeTime, shortHash } from "@/lib/data/format";
 import { useThreads } from "@/components/panel-review/use-threads";
 import { BindingsTab } from "./bindings-tab";
 import { BuilderTab } from "./builder-tab";
@@ -28,7 +30,7 @@ export function PanelWorkspace({ initial, widthMm, members, datasets, me }: {
     queryKey: queryKeys.panel(initial.id), queryFn: () => fetchJson<PanelView>(`/api/panels/${initial.id}`), initialData: initial, refetchInterval: 30_000,
   });
   const rev = panel.currentRevision;
-  const editable = panel.role === "pi" || panel.role === "author";
+  const editable = roleAllows(panel.role, "figure.edit");
   const [tab, setTab] = useState<Tab>(!editable ? "revisions" : rev ? "editor" : "builder");
   const [zoomPct, setZoomPct] = useState(150);
   const [base, setBase] = useState<string | null>(initial.currentRevision?.id ?? null);
@@ -75,7 +77,7 @@ export function PanelWorkspace({ initial, widthMm, members, datasets, me }: {
             {rev ? (
               <>
                 <div className="mb-2 flex flex-wrap items-center gap-2 text-xs text-muted">
-                  <p><b className="text-ink">Revision {rev.number}</b>{rev.message ? ` · “${rev.message}”` : ""} · {timeAgo(rev.createdAt)} · <code title={rev.contentHash}>{shortHash(rev.contentHash)}</code></p>
+                  <p><b className="text-ink">Revision {rev.number}</b>{rev.message ? ` · “${rev.message}”` : ""} · {relativeTime(rev.createdAt)} · <code title={rev.contentHash}>{shortHash(rev.contentHash)}</code></p>
                   <label className="ml-auto flex items-center gap-1">shown at
                     <select className="rounded-sm border border-rule bg-white px-1 py-0.5" value={zoomPct} onChange={(e) => setZoomPct(Number(e.target.value))} aria-label="Zoom of the panel">
                       {[100, 125, 150, 200].map((z) => <option key={z} value={z}>{z === 100 ? "100 % (print size)" : `${z} %`}</option>)}

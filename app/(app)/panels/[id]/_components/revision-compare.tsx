@@ -1,10 +1,10 @@
 "use client";
 import { Fragment } from "react";
 import type { RevisionView } from "@/components/figures/api";
-import { shortHash } from "@/components/figures/format";
 import { diffStats, lineDiff, type DiffLine } from "@/components/figures/line-diff";
 import { PanelChartLazy } from "@/components/figures/panel-chart-lazy";
 import { PX_PER_MM } from "@/components/figures/vega-render";
+import { shortHash } from "@/lib/data/format";
 
 const CONTEXT = 3;
 const SIGN = { same: " ", added: "+", removed: "−" } as const;

@@ -1,9 +1,10 @@
 "use client";
 import { useQuery } from "@tanstack/react-query";
 import { useState } from "react";
-import { fetchJson, queryKeys, type RevisionListItem, type RevisionView } from "@/components/figures/api";
-import { shortHash, timeAgo } from "@/components/figures/format";
+import { fetchJson } from "@/components/api-client";
+import { queryKeys, type RevisionListItem, type RevisionView } from "@/components/figures/api";
 import { Select } from "@/components/ui";
+import { relativeTime, shortHash } from "@/lib/data/format";
 import { RevisionCompare } from "./revision-compare";
 
 /** The chain of revisions, newest first; any two compared as a spec diff and two renders. */
@@ -32,7 +33,7 @@ export function RevisionsTab({ panelId, widthMm }: { panelId: string; widthMm: n
               <td className="py-1.5 pr-2 font-semibold tabular">{r.number}</td>
               <td className="pr-2">{r.message || <span className="text-muted">(no message)</span>}</td>
               <td className="pr-2">{r.createdByName}</td>
-              <td className="pr-2 whitespace-nowrap" title={String(r.createdAt)}>{timeAgo(r.createdAt)}</td>
+              <td className="pr-2 whitespace-nowrap" title={String(r.createdAt)}>{relativeTime(r.createdAt)}</td>
               <td><code title={r.contentHash}>{shortHash(r.contentHash)}</code></td>
             </tr>
           ))}

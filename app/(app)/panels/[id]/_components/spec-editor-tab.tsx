@@ -1,7 +1,8 @@
 "use client";
 import { useMutation } from "@tanstack/react-query";
 import { useCallback, useEffect, useState } from "react";
-import { ApiError, sendJson, type RevisionView } from "@/components/figures/api";
+import { ApiError, sendJson } from "@/components/api-client";
+import type { RevisionView } from "@/components/figures/api";
 import type { Diagnostic } from "@/components/figures/json-editor";
 import { JsonEditorLazy } from "@/components/figures/json-editor-lazy";
 import { PanelChartLazy } from "@/components/figures/panel-chart-lazy";

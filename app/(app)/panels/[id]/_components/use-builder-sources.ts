@@ -1,7 +1,9 @@
 "use client";
 import { useQueries, useQuery } from "@tanstack/react-query";
+import { fetchJson } from "@/components/api-client";
 import type { VersionView } from "@/components/data/api";
-import { fetchJson, queryKeys, type AnalysisItem, type DatasetItem } from "@/components/figures/api";
+import { queryKeys, type AnalysisItem, type DatasetItem } from "@/components/figures/api";
+import { formatDate } from "@/lib/data/format";
 import type { ColumnInfo } from "./option-input";
 
 /** What a data name can be bound to: the current version of a dataset, or an output of a stored analysis. */
@@ -32,7 +34,7 @@ export function useBuilderSources(manuscriptId: string, initialDatasets: Dataset
   });
   const analysisSources: Source[] = analyses.flatMap((q, i) => (q.data ?? []).filter((a) => a.derivedVersionId).map((a) => ({
     kind: "analysis" as const, analysisId: a.id, derivedVersionId: a.derivedVersionId!, versionId: ids[i]!, createdAt: String(a.createdAt),
-    label: `${a.model} fit of ${(nameOfVersion.get(ids[i]!) ?? "").replace(/^.* · /, "") || "the data"}, run ${String(a.createdAt).replace("T", " ").slice(0, 16)}`,
+    label: `${a.model} fit of ${(nameOfVersion.get(ids[i]!) ?? "").replace(/^.* · /, "") || "the data"}, run ${formatDate(a.createdAt)}`,
   })));
 
   const derived = [...new Set(derivedVersionIds)].sort();

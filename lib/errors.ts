@@ -1,4 +1,7 @@
-/** Errors a service may raise; route handlers and actions map them to HTTP with the contract's JSON shape. */
+/**
+ * Errors a service (lib/server) or the policy gate (lib/authz) may raise; route handlers and actions map
+ * them to HTTP with the contract's JSON shape. Plain TypeScript with no imports, so every layer can share it.
+ */
 export class AppError extends Error {
   constructor(
     readonly status: number,

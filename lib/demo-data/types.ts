@@ -1,4 +1,4 @@
-/** Shape of one invented demo measurement file (see db/demo-data/index.ts). */
+/** Shape of one invented demo measurement file (see lib/demo-data/index.ts). */
 
 export type DemoKind = "pl_map" | "pl_spectrum" | "odmr" | "hahn_echo" | "relaxation" | "ramsey" | "nv_nmr" | "other";
 

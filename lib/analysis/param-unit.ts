@@ -1,4 +1,4 @@
-import type { UnitRole } from "@/lib/analysis";
+import type { UnitRole } from "./models/types";
 
 const INVERSE: Record<string, string> = { s: "Hz", ms: "kHz", "µs": "MHz", ns: "GHz", ps: "THz", Hz: "s", kHz: "ms", MHz: "µs", GHz: "ns" };
 
