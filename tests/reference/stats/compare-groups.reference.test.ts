@@ -1,10 +1,11 @@
 // Welch's t, Mann–Whitney U and Brown–Forsythe checked (1) against first-principles computations
-// done here, independently of jstat, and (2) against published worked examples (from memory; each
+// done here, independently of the code under test, and (2) against published worked examples (from memory; each
 // re-computed independently with SciPy 1.17 — ttest_ind(equal_var=False), mannwhitneyu, t.ppf — which
 // agrees to every digit quoted). Welch, Biometrika 34, 28 (1947), doi:10.1093/biomet/34.1-2.28; Mann &
 // Whitney, Ann. Math. Statist. 18, 50 (1947), doi:10.1214/aoms/1177730491; Brown & Forsythe, J. Am.
 // Stat. Assoc. 69, 364 (1974), doi:10.1080/01621459.1974.10482955 (DOIs from memory).
-// jstat's incomplete beta stops at a 3e-7 relative step, so p-values are compared to ~1e-6.
+// p-values are compared to ~1e-6, a loose tolerance; the distribution functions themselves are checked
+// against SciPy to ~1e-12 in distributions.reference.test.ts.
 import { describe, expect, it } from "vitest";
 import { compareGroups, describe as describeSample, mannWhitneyU } from "@/lib/analysis/stats";
 import {

@@ -2,8 +2,9 @@ import { describe, expect, it } from "vitest";
 import { AppError } from "@/lib/errors";
 import { checkJsonShape, describeLimit, readBodyBytes, readJsonBody } from "@/lib/http/read-json-body";
 
+// A string body would otherwise be sent as text/plain, which JSON routes refuse (415).
 const post = (body: BodyInit, headers: Record<string, string> = {}) =>
-  new Request("http://localhost/api/x", { method: "POST", body, headers, duplex: "half" } as RequestInit);
+  new Request("http://localhost/api/x", { method: "POST", body, headers: { "content-type": "application/json", ...headers }, duplex: "half" } as RequestInit);
 
 async function refusal(run: () => unknown): Promise<{ status: number; message: string }> {
   try {
@@ -45,6 +46,12 @@ describe("readJsonBody", () => {
   it("an empty body reads as {}", async () => {
     expect(await readJsonBody(new Request("http://localhost/api/x", { method: "POST" }), { maxBytes: 10 })).toEqual({});
     expect(await readJsonBody(post("  \n"), { maxBytes: 10 })).toEqual({});
+  });
+
+  it("refuses a body that says it is not JSON with 415, and accepts +json types", async () => {
+    expect(await refusal(() => readJsonBody(post("{}", { "content-type": "text/plain;charset=UTF-8" }))))
+      .toEqual({ status: 415, message: 'This route takes JSON: send Content-Type: application/json (the request said "text/plain").' });
+    expect(await readJsonBody(post('{"a":1}', { "content-type": "application/merge-patch+json" }))).toEqual({ a: 1 });
   });
 
   it("names line and column of a syntax error", async () => {
