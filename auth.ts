@@ -1,6 +1,7 @@
 import NextAuth, { CredentialsSignin } from "next-auth";
 import Credentials from "next-auth/providers/credentials";
 import { env } from "@/lib/env";
+import { describeForLog } from "@/lib/http/redact";
 import { clientAddress } from "@/lib/server/limits/client-address";
 import { createSession, isSessionActive, revokeSession, SESSION_MAX_AGE_S } from "@/lib/server/sessions";
 import { recordSignInFailure, signInBlockedReason } from "@/lib/server/sign-in-limits";
@@ -9,9 +10,20 @@ import { verifyPassword } from "@/lib/server/users";
 
 class RateLimited extends CredentialsSignin { code = "rate_limited"; }
 
+/** A submitted credential as text (a missing or non-text field is empty). */
+const text = (v: unknown): string => (typeof v === "string" ? v : "");
+
 export const { handlers, auth, signIn, signOut } = NextAuth({
   secret: env().authSecret,
   trustHost: true,
+  // A wrong password is an answer, not a fault: only other errors are logged, with secrets redacted.
+  logger: {
+    error(error) {
+      // By `type`, not `name`: the bundler renames classes. RateLimited inherits CredentialsSignin's type.
+      if ((error as { type?: string }).type === "CredentialsSignin") return;
+      console.error(`[auth] ${describeForLog(error)}`);
+    },
+  },
   useSecureCookies: env().secureCookies,
   session: { strategy: "jwt", maxAge: SESSION_MAX_AGE_S },
   pages: { signIn: "/sign-in", error: "/sign-in" },
@@ -20,8 +32,8 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
       id: "password",
       credentials: { email: { type: "email" }, password: { type: "password" } },
       async authorize(credentials, request) {
-        const email = String(credentials?.email ?? "");
-        const password = String(credentials?.password ?? "");
+        const email = text(credentials?.email);
+        const password = text(credentials?.password);
         const ip = clientAddress(request.headers);
         if (await signInBlockedReason(email, ip)) throw new RateLimited();
         const user = await verifyPassword(email, password);
@@ -32,7 +44,7 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
     Credentials({
       id: "email-link",
       credentials: { token: { type: "text" } },
-      authorize: async (credentials) => consumeSignInLink(String(credentials?.token ?? "")),
+      authorize: async (credentials) => consumeSignInLink(text(credentials?.token)),
     }),
   ],
   callbacks: {
@@ -42,7 +54,7 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
       return (await isSessionActive(token.sid)) ? token : null;
     },
     session({ session, token }) {
-      if (token.uid) session.user.id = String(token.uid);
+      if (typeof token.uid === "string" && token.uid) session.user.id = token.uid;
       return session;
     },
   },
