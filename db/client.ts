@@ -40,4 +40,3 @@ export function closeDb(): void {
   handle = undefined;
 }
 
-export { schema };

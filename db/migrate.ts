@@ -13,7 +13,7 @@ export async function applyMigrations(): Promise<void> {
 }
 
 function expectedMigrationCount(): number {
-  const journal = JSON.parse(fs.readFileSync(path.join(migrationsFolder, "meta", "_journal.json"), "utf8"));
+  const journal = JSON.parse(fs.readFileSync(path.join(migrationsFolder, "meta", "_journal.json"), "utf8")) as { entries: unknown[] };
   return journal.entries.length;
 }
 

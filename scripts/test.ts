@@ -25,11 +25,19 @@ function runAsync(cmd: string, args: string[], env: Record<string, string> = {})
   });
 }
 
+/** The parts of Vitest's and Playwright's JSON reports read here. */
+interface VitestReport { numPassedTests: number; numFailedTests: number; numFailedTestSuites?: number; numPendingTests: number; numTodoTests: number }
+interface PlaywrightReport { stats: { expected: number; unexpected: number; flaky: number; skipped: number } }
+
 function counts(file: string, kind: "vitest" | "playwright"): { passed: number; failed: number; skipped: number } {
   if (!fs.existsSync(file)) return { passed: 0, failed: 1, skipped: 0 };
-  const j = JSON.parse(fs.readFileSync(file, "utf8"));
+  const text = fs.readFileSync(file, "utf8");
   // A suite that fails to load has no failed tests of its own; count it only then.
-  if (kind === "vitest") return { passed: j.numPassedTests, failed: j.numFailedTests || (j.numFailedTestSuites ?? 0), skipped: j.numPendingTests + j.numTodoTests };
+  if (kind === "vitest") {
+    const j = JSON.parse(text) as VitestReport;
+    return { passed: j.numPassedTests, failed: j.numFailedTests || (j.numFailedTestSuites ?? 0), skipped: j.numPendingTests + j.numTodoTests };
+  }
+  const j = JSON.parse(text) as PlaywrightReport;
   return { passed: j.stats.expected, failed: j.stats.unexpected + j.stats.flaky, skipped: j.stats.skipped };
 }
 

@@ -11,7 +11,7 @@ import { PopulationStatistics } from "./population-statistics";
 export function AnalysesWorkspace({ manuscriptId, datasets, models, groupings, mayRun }: {
   manuscriptId: string; datasets: BatchDataset[]; models: ModelInfo[]; groupings: string[]; mayRun: boolean;
 }) {
-  const [modelId, setModelId] = useState(models.some((m) => m.id === "hahn_echo") ? "hahn_echo" : models[0]!.id);
+  const [modelId, setModelId] = useState(models.some((m) => m.id === "hahn_echo") ? "hahn_echo" : models[0].id);
   const [kind, setKind] = useState(datasets.some((d) => d.kind === "hahn_echo") ? "hahn_echo" : datasets[0]?.kind ?? "hahn_echo");
   const [refreshKey, setRefreshKey] = useState(0);
   const model = models.find((m) => m.id === modelId)!;

@@ -5,7 +5,7 @@ import type { FitOptions } from "@/lib/server/analyses/schemas";
 import type { Wire } from "@/components/api-client";
 
 export type { FitOptions };
-export type Catalogue = ReturnType<typeof analysisCatalogue>;
+type Catalogue = ReturnType<typeof analysisCatalogue>;
 export type ModelInfo = Catalogue["items"][number];
 export type FitResult = Wire<Awaited<ReturnType<typeof previewAnalysis>>>;
 export type SavedRun = Wire<Awaited<ReturnType<typeof runAnalysis>>>;

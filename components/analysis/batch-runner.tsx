@@ -39,7 +39,7 @@ export function BatchRunner({ datasets, models, model, onModel, kind, onKind, ma
     setProgress({ done: 0, total: queue.length, failed });
     const options = { x: cols.x, y: cols.y, ...(cols.sigma ? { sigma: cols.sigma } : {}) };
     for (let i = 0; i < queue.length && !stop.current; i++) {
-      const dataset = queue[i]!;
+      const dataset = queue[i];
       let outcome: BatchOutcome;
       try {
         outcome = { dataset, run: await sendJson<SavedRun>("/api/analyses", "POST", { versionId: dataset.versionId, model: model.id, options }) };
@@ -87,7 +87,7 @@ export function BatchRunner({ datasets, models, model, onModel, kind, onKind, ma
       )}
       {mayRun ? (
         <div className="flex flex-wrap items-center gap-3">
-          <Button type="button" onClick={run} disabled={running || !chosen.length || !cols.x || !cols.y}>
+          <Button type="button" onClick={() => void run()} disabled={running || !chosen.length || !cols.x || !cols.y}>
             {running ? "Fitting…" : `Run ${chosen.length} fit${chosen.length === 1 ? "" : "s"}`}
           </Button>
           {running ? <Button type="button" variant="quiet" onClick={() => { stop.current = true; }}>Stop after this fit</Button> : null}

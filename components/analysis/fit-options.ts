@@ -72,7 +72,7 @@ export function buildOptions(
       } else {
         bounds[p.name] = [lo, hi];
       }
-      if (!(bounds[p.name]![0] < bounds[p.name]![1])) throw new Error(`${p.name}: the lower bound must be below the upper bound.`);
+      if (!(bounds[p.name][0] < bounds[p.name][1])) throw new Error(`${p.name}: the lower bound must be below the upper bound.`);
     }
   } catch (err) {
     return { error: (err as Error).message };
@@ -87,10 +87,4 @@ export function buildOptions(
 
 export function defaultsFrom(parameters: readonly FitParameter[]): DefaultBounds {
   return Object.fromEntries(parameters.map((p) => [p.name, p.bounds]));
-}
-
-/** Without the bounds, to learn the model's defaults for this data. */
-export function withoutBounds(options: FitOptions): FitOptions {
-  const { bounds: _bounds, ...rest } = options;
-  return rest;
 }

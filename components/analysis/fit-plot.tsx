@@ -33,7 +33,7 @@ export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle
   const rs = linearScale([-rMax, rMax], [RES_BOTTOM, RES_TOP], 4);
   const outer = Math.max(...rs.ticks.map((t) => Math.abs(t.value)));
   rs.ticks = rs.ticks.filter((t) => t.value === 0 || Math.abs(t.value) === outer);
-  const path = curve.x.map((x, i) => (useLog && x <= 0 ? "" : `${i ? "L" : "M"}${xs(x).toFixed(1)},${ys(curve.y[i]!).toFixed(1)}`)).join("");
+  const path = curve.x.map((x, i) => (useLog && x <= 0 ? "" : `${i ? "L" : "M"}${xs(x).toFixed(1)},${ys(curve.y[i]).toFixed(1)}`)).join("");
 
   return (
     <figure className="m-0">
@@ -69,7 +69,7 @@ export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle
         <text transform={`translate(14 ${(TOP + MAIN_BOTTOM) / 2}) rotate(-90)`} textAnchor="middle" className="fill-ink text-[12px]">{yTitle}</text>
         <text transform={`translate(14 ${(RES_TOP + RES_BOTTOM) / 2}) rotate(-90)`} textAnchor="middle" className="fill-ink text-[10px]">{residualTitle}</text>
         <g clipPath={`url(#${clip}-main)`}>
-          {data.x.map((x, i) => <circle key={i} cx={xs(x)} cy={ys(data.y[i]!)} r={2.6} fill={DATA} fillOpacity={0.85} />)}
+          {data.x.map((x, i) => <circle key={i} cx={xs(x)} cy={ys(data.y[i])} r={2.6} fill={DATA} fillOpacity={0.85} />)}
           <path d={path} fill="none" stroke={CURVE} strokeWidth={2} />
         </g>
         {data.x.map((x, i) => {

@@ -4,7 +4,7 @@ import type { FitResult } from "./api";
 import { FitPlot } from "./fit-plot";
 
 /** Status as a shape and words: never colour alone. */
-export function Warnings({ items, label = "Fit warnings" }: { items: string[]; label?: string }) {
+function Warnings({ items, label = "Fit warnings" }: { items: string[]; label?: string }) {
   if (!items.length) return null;
   return (
     <ul aria-label={label} className="space-y-1 text-sm text-warn">

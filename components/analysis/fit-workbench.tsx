@@ -110,8 +110,8 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
           <ParameterInputs rows={rows} drafts={drafts} defaults={knownDefaults} lastValues={lastValues}
             onChange={(name, d) => { setDrafts((all) => ({ ...all, [name]: d })); setSaved(null); }} />
           <div className="mt-4 flex flex-wrap items-center gap-3">
-            <Button type="button" onClick={fit} disabled={busy !== null || !model}>{busy === "fit" ? "Fitting…" : "Fit"}</Button>
-            <Button type="button" variant="quiet" onClick={save} disabled={busy !== null || !shown || stale}>{busy === "save" ? "Saving…" : "Save run"}</Button>
+            <Button type="button" onClick={() => void fit()} disabled={busy !== null || !model}>{busy === "fit" ? "Fitting…" : "Fit"}</Button>
+            <Button type="button" variant="quiet" onClick={() => void save()} disabled={busy !== null || !shown || stale}>{busy === "save" ? "Saving…" : "Save run"}</Button>
             <span className="text-xs text-muted">
               {!shown ? "Fit first: nothing is stored until you save." : stale ? "The settings changed since this fit; fit again before saving." : "Save stores exactly the fit shown, with a derived version."}
             </span>

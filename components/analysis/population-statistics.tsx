@@ -43,7 +43,7 @@ export function PopulationStatistics({ manuscriptId, model, groupings, refreshKe
         <p className="pb-2 text-xs text-muted">Model {model.title}: the latest run on each dataset&apos;s current version counts.</p>
       </div>
       {stats.isPending ? <p className="text-sm text-muted" role="status">Loading statistics…</p> : null}
-      {stats.error ? <Notice ok={false}>{(stats.error as Error).message}</Notice> : null}
+      {stats.error ? <Notice ok={false}>{stats.error.message}</Notice> : null}
       {data && !data.members.length ? (
         <EmptyState title={`No stored ${model.id} runs yet`}>Run the batch above (or save fits one by one) to see the population.</EmptyState>
       ) : null}

@@ -8,14 +8,14 @@ import type { FitParameter, ModelInfo, StoredResult, StoredRun } from "./api";
 import { Converged } from "./fit-result";
 
 /** The parameters worth a glance (times, rates, positions, exponents), not baselines and amplitudes in y units. */
-export function keyParameters(model: ModelInfo | undefined, params: readonly FitParameter[]): FitParameter[] {
+function keyParameters(model: ModelInfo | undefined, params: readonly FitParameter[]): FitParameter[] {
   if (!model) return [...params];
   const roles = new Map(model.parameters.map((p) => [p.name, p.unit as string]));
   const key = params.filter((p) => roles.get(p.name) !== "y");
   return key.length ? key : [...params];
 }
 
-export function ParameterSummary({ params }: { params: readonly FitParameter[] }) {
+function ParameterSummary({ params }: { params: readonly FitParameter[] }) {
   return (
     <span className="flex flex-wrap gap-x-4 gap-y-0.5">
       {params.map((p) => (

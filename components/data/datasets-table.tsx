@@ -56,7 +56,7 @@ export function DatasetsTable({ manuscriptId, initial }: { manuscriptId: string;
     <div>
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2 text-xs text-muted">
         <span>{data.length} dataset{data.length === 1 ? "" : "s"} · {groupedByKind ? "grouped by kind; " : ""}select a column heading to sort</span>
-        <span aria-live="polite">{isFetching ? "Refreshing…" : error ? `✕ Could not refresh: ${(error as Error).message}` : ""}</span>
+        <span aria-live="polite">{isFetching ? "Refreshing…" : error ? `✕ Could not refresh: ${error.message}` : ""}</span>
       </div>
       <div className="relative overflow-x-auto border border-rule bg-sheet">
         <table className="w-full text-sm">
@@ -68,7 +68,7 @@ export function DatasetsTable({ manuscriptId, initial }: { manuscriptId: string;
           </thead>
           <tbody>
             {table.getRowModel().rows.map((row, i, all) => {
-              const startsGroup = groupedByKind && (i === 0 || all[i - 1]!.original.kind !== row.original.kind);
+              const startsGroup = groupedByKind && (i === 0 || all[i - 1].original.kind !== row.original.kind);
               return (
                 <Fragment key={row.id}>
                   {startsGroup ? (
@@ -80,7 +80,7 @@ export function DatasetsTable({ manuscriptId, initial }: { manuscriptId: string;
                   ) : null}
                   <tr className="border-t border-rule align-top hover:bg-paper/50">
                     {row.getVisibleCells().map((cell) => (
-                      <td key={cell.id} className={`px-3 py-2 ${(cell.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? "text-right tabular" : ""}`}>
+                      <td key={cell.id} className={`px-3 py-2 ${cell.column.columnDef.meta?.numeric ? "text-right tabular" : ""}`}>
                         {flexRender(cell.column.columnDef.cell, cell.getContext())}
                       </td>
                     ))}

@@ -1,6 +1,6 @@
 import type { MeasurementKind } from "@/db/schema";
 
-export const KIND_LABELS = {
+const KIND_LABELS = {
   pl_map: "PL map",
   pl_spectrum: "PL spectrum",
   odmr: "ODMR",

@@ -38,7 +38,7 @@ export function MetadataPanel({ datasetId, initial, editable }: { datasetId: str
   const router = useRouter();
   const [editing, setEditing] = useState(false);
   const [form, setForm] = useState({
-    kind: initial.kind as string, sample: initial.sample ?? "", instrument: initial.instrument ?? "",
+    kind: initial.kind, sample: initial.sample ?? "", instrument: initial.instrument ?? "",
     measuredAt: initial.measuredAt ?? "", notes: initial.notes ?? "", tags: formatTags(initial.tags),
   });
   const tagResult = parseTags(form.tags);
@@ -75,7 +75,7 @@ export function MetadataPanel({ datasetId, initial, editable }: { datasetId: str
         <textarea value={form.notes} onChange={set("notes")} rows={4} className="w-full rounded-sm border border-rule bg-white px-2.5 py-1.5 text-sm focus:border-accent" />
       </Field>
       <Field label="Tags" hint="key=value, key=value" error={tagResult.error}><TextInput value={form.tags} onChange={set("tags")} /></Field>
-      {save.isError ? <Notice ok={false}>{(save.error as Error).message}</Notice> : null}
+      {save.isError ? <Notice ok={false}>{save.error.message}</Notice> : null}
       <div className="flex gap-2">
         <Button type="submit" disabled={save.isPending || Boolean(tagResult.error)}>{save.isPending ? "Saving…" : "Save details"}</Button>
         <Button type="button" variant="quiet" onClick={() => setEditing(false)}>Cancel</Button>

@@ -4,7 +4,7 @@
  */
 import { formatNumber } from "@/lib/data/format";
 
-export interface Tick { value: number; label: string }
+interface Tick { value: number; label: string }
 
 /** Data units in, pixels out; `domain` is what the axis spans, `ticks` lie inside it. */
 export interface Scale {
@@ -48,7 +48,7 @@ export function padRange(range: [number, number] | null, fraction: number, log =
 }
 
 /** Round steps of 1, 2 or 5 × 10ⁿ, the one nearest to `count` of them across the range. */
-export function niceTicks(lo: number, hi: number, count = 5): number[] {
+function niceTicks(lo: number, hi: number, count = 5): number[] {
   const raw = (hi - lo) / Math.max(1, count);
   const mag = 10 ** Math.floor(Math.log10(raw));
   const f = raw / mag;
@@ -62,7 +62,7 @@ export function niceTicks(lo: number, hi: number, count = 5): number[] {
 }
 
 /** Decades, with 2 and 5 in between over at most 1.5 decades, 3 over at most 3. */
-export function logTicks(lo: number, hi: number): number[] {
+function logTicks(lo: number, hi: number): number[] {
   const l0 = Math.log10(lo);
   const l1 = Math.log10(hi);
   const decades = l1 - l0;

@@ -42,7 +42,7 @@ export function QuickPlotPanel({ version }: { version: VersionView }) {
         </label>
         <span className="pb-1.5 text-xs text-muted" aria-live="polite">{isFetching ? "loading…" : ""}</span>
       </div>
-      {isError ? <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>{(error as Error).message}</p> : null}
+      {isError ? <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>{error.message}</p> : null}
       {data ? <QuickPlot data={data} logX={logShown} /> : <div className="h-64 animate-pulse rounded-sm bg-paper" aria-hidden />}
       {data ? (
         <p className="mt-1 text-xs text-muted">

@@ -62,7 +62,7 @@ export function RowsPreview({ version }: { version: VersionView }) {
           </tbody>
         </table>
       </div>
-      {isError ? <p role="alert" className="mt-2 text-sm text-bad"><span aria-hidden>✕ </span>{(error as Error).message}</p> : null}
+      {isError ? <p role="alert" className="mt-2 text-sm text-bad"><span aria-hidden>✕ </span>{error.message}</p> : null}
       <nav aria-label="Pages of rows" className="mt-2 flex flex-wrap items-center gap-2 text-sm">
         <Button type="button" variant="quiet" onClick={() => table.firstPage()} disabled={!table.getCanPreviousPage()} aria-label="First page">« First</Button>
         <Button type="button" variant="quiet" onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()} aria-label="Previous page">‹ Previous</Button>

@@ -2,7 +2,7 @@ import { messageFromBody } from "@/components/api-client";
 import type { VersionView } from "./api";
 
 export type UploadedVersion = VersionView & { deduplicated: boolean };
-export type UploadOutcome =
+type UploadOutcome =
   | { ok: true; version: UploadedVersion }
   | { ok: false; cancelled: boolean; message: string; retryAfterSeconds?: number };
 

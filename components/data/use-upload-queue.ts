@@ -2,7 +2,7 @@
 import { useCallback, useEffect, useRef, useState } from "react";
 import { sendUpload, type UploadedVersion, type UploadHandle } from "./send-upload";
 
-export type UploadStatus = "queued" | "sending" | "checking" | "stored" | "failed" | "cancelled";
+type UploadStatus = "queued" | "sending" | "checking" | "stored" | "failed" | "cancelled";
 
 export interface UploadItem {
   key: string; fileName: string; byteSize: number; status: UploadStatus;
@@ -29,7 +29,7 @@ export function useUploadQueue({ url, concurrency = 2, onStored, onIdle }: {
     setItems((all) => all.map((it) => (it.key === key ? { ...it, ...change } : it)));
   }, []);
 
-  const pump = useCallback(() => {
+  const pump = useCallback(function pumpQueue() {
     while (running.current.size < concurrency && queue.current.length) {
       const { key, form, retries = 0 } = queue.current.shift()!;
       patch(key, { status: "sending" });
@@ -45,12 +45,12 @@ export function useUploadQueue({ url, concurrency = 2, onStored, onIdle }: {
           callbacks.current.onStored?.(outcome.version);
         } else if (outcome.retryAfterSeconds && retries < MAX_BUSY_RETRIES) {
           patch(key, { status: "queued", loaded: 0, error: `Waiting ${outcome.retryAfterSeconds} s: ${outcome.message}` });
-          setTimeout(() => { queue.current.push({ key, form, retries: retries + 1 }); pump(); }, outcome.retryAfterSeconds * 1000);
+          setTimeout(() => { queue.current.push({ key, form, retries: retries + 1 }); pumpQueue(); }, outcome.retryAfterSeconds * 1000);
           return;
         } else {
           patch(key, { status: outcome.cancelled ? "cancelled" : "failed", error: outcome.message });
         }
-        pump();
+        pumpQueue();
         if (running.current.size === 0 && queue.current.length === 0) callbacks.current.onIdle?.();
       });
     }

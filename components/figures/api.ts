@@ -2,6 +2,7 @@ import type { getFigure } from "@/lib/server/figures/figures";
 import type { getPanel } from "@/lib/server/figures/panels";
 import type { getRevision, listRevisions } from "@/lib/server/figures/revisions";
 import type { traceFigure } from "@/lib/server/figures/trace";
+import type { DataWarning } from "@/lib/server/figures/integrity";
 import type { listThreads } from "@/lib/server/review/threads";
 import type { listDatasets } from "@/lib/server/datasets/read-datasets";
 import type { listAnalysesForVersion } from "@/lib/server/analyses/run-analysis";
@@ -21,7 +22,9 @@ export interface MemberView { userId: string; name: string; email: string; role:
 
 export type Row = Record<string, number | string | null>;
 export interface BoundRows { rows: Row[]; reduced: boolean; sourceRows: number }
-export interface RevisionData { revisionId: string; data: Record<string, BoundRows> }
+/** A field the data lacks, data with no rows, rows left out (lib/server/figures/integrity). */
+export type DataWarningView = DataWarning;
+export interface RevisionData { revisionId: string; data: Record<string, BoundRows>; warnings?: DataWarningView[] }
 
 /** A binding as the API stores it. */
 export type Binding = { versionId: string } | { analysisId: string; output: "curve" | "residuals" | "data" };

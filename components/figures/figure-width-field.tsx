@@ -2,7 +2,7 @@
 import { Field, Select, TextInput } from "@/components/ui";
 
 /** Journal column widths (Nature-style single, 1.5 and double column), mm. */
-export const WIDTH_PRESETS = [
+const WIDTH_PRESETS = [
   { id: "single", label: "Single column · 89 mm", mm: 89 },
   { id: "one-and-a-half", label: "1.5 column · 120 mm", mm: 120 },
   { id: "double", label: "Double column · 183 mm", mm: 183 },

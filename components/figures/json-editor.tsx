@@ -19,12 +19,13 @@ export function JsonEditor({ value, onChange, lint, readOnly = false, label, cla
   const view = useRef<EditorView | null>(null);
   const onChangeRef = useRef(onChange);
   const lintRef = useRef(lint);
-  useEffect(() => { onChangeRef.current = onChange; lintRef.current = lint; });
+  const valueRef = useRef(value);
+  useEffect(() => { onChangeRef.current = onChange; lintRef.current = lint; valueRef.current = value; });
 
   useEffect(() => {
     const syntax = jsonParseLinter();
     const v = new EditorView({
-      doc: value,
+      doc: valueRef.current,
       parent: host.current!,
       extensions: [
         basicSetup,
@@ -47,7 +48,7 @@ export function JsonEditor({ value, onChange, lint, readOnly = false, label, cla
     });
     view.current = v;
     return () => { v.destroy(); view.current = null; };
-  }, [readOnly, label]); // made once: later values arrive through the effect below
+  }, [readOnly, label]); // made once (the text it starts from is read through a ref): later values arrive through the effect below
 
   useEffect(() => {
     const v = view.current;

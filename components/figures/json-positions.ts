@@ -12,7 +12,7 @@ export function jsonPositions(text: string): JsonPositions | null {
   const values = new Map<string, Span>();
   const keys = new Map<string, Span>();
   let i = 0;
-  const ws = () => { while (i < text.length && /\s/.test(text[i]!)) i++; };
+  const ws = () => { while (i < text.length && /\s/.test(text[i])) i++; };
   const fail = (): never => { throw new Error("bad json"); };
 
   function str(): string {

@@ -31,7 +31,7 @@ export function NewFigureForm({ manuscriptId }: { manuscriptId: string }) {
   }
 
   return (
-    <form onSubmit={submit} aria-label="New figure" className="mt-4 rounded-sm border border-rule bg-sheet p-4">
+    <form onSubmit={(e) => void submit(e)} aria-label="New figure" className="mt-4 rounded-sm border border-rule bg-sheet p-4">
       <h3 className="mb-3 text-sm font-semibold">New figure</h3>
       <div className="grid gap-3 sm:grid-cols-[minmax(0,2fr)_minmax(0,1.4fr)_minmax(0,0.6fr)]">
         <Field label="Title"><TextInput required value={title} onChange={(e) => setTitle(e.target.value)} placeholder="e.g. T₂ across the sample series" /></Field>

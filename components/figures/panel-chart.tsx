@@ -7,7 +7,8 @@ import { expressionInterpreter } from "vega-interpreter";
 import { fetchJson } from "@/components/api-client";
 import { queryKeys, type BoundRows, type RevisionData, type ThreadAnchor } from "./api";
 import { ChartAnchors, type ChartAnchor, type PickMode } from "./chart-anchors";
-import { dataNamesOf, plotGeometry, prepareSpec, PX_PER_MM, refusalOf, refusingLoader, shippedFontFamily, svgNaturalSize, type PlotGeometry } from "./vega-render";
+import { DataWarningList, NOTHING_DRAWN, previewWarnings } from "./data-warnings";
+import { dataMarkItems, dataNamesOf, plotGeometry, prepareSpec, PX_PER_MM, refusalOf, refusingLoader, shippedFontFamily, svgNaturalSize, type PlotGeometry } from "./vega-render";
 
 export interface PanelChartProps {
   spec: unknown;
@@ -45,28 +46,31 @@ export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors 
   });
   const rows = data ?? fetched.data?.data;
   const host = useRef<HTMLDivElement>(null);
-  const [rendered, setRendered] = useState<Rendered | null>(null);
-  const [error, setError] = useState<string | null>(null);
+  const [drawn, setRendered] = useState<Rendered | null>(null);
+  const [renderError, setError] = useState<string | null>(null);
+  const [drewNothing, setDrewNothing] = useState(false);
   const specKey = useMemo(() => JSON.stringify(spec ?? null), [spec]);
   const names = useMemo(() => dataNamesOf(JSON.parse(specKey)), [specKey]);
   const ready = Boolean(rows) || names.length === 0;
+  // Client-side budget and rules, on the spec as stored (bound rows are not inline data): a refused spec is not drawn.
+  const refusal = useMemo(() => {
+    const parsed = JSON.parse(specKey) as unknown;
+    if (!parsed || typeof parsed !== "object" || Array.isArray(parsed)) return "The spec is not a JSON object.";
+    return refusalOf(parsed as Record<string, unknown>);
+  }, [specKey]);
 
   useEffect(() => {
-    const parsed = JSON.parse(specKey) as unknown;
-    if (!ready || !host.current) return;
-    if (!parsed || typeof parsed !== "object" || Array.isArray(parsed)) return setError("The spec is not a JSON object.");
-    // Client-side budget and rules, on the spec as stored (bound rows are not inline data).
-    const refusal = refusalOf(parsed as Record<string, unknown>);
-    if (refusal) { setRendered(null); return setError(refusal); }
+    if (refusal || !ready || !host.current) return;
+    const parsed = JSON.parse(specKey) as Record<string, unknown>;
     let cancelled = false;
     let result: Result | null = null;
     const refusals: string[] = [];
     // Bound rows go in as named datasets, so the first layout (axes, autosize) already sees the data.
-    const withData = { ...(parsed as Record<string, unknown>), datasets: { ...((parsed as { datasets?: object }).datasets ?? {}), ...Object.fromEntries(names.map((n) => [n, rows?.[n]?.rows ?? []])) } };
+    const withData = { ...parsed, datasets: { ...((parsed as { datasets?: object }).datasets ?? {}), ...Object.fromEntries(names.map((n) => [n, rows?.[n]?.rows ?? []])) } };
     const prepared = prepareSpec(withData, widthMm, shippedFontFamily());
-    (async () => {
+    void (async () => {
       try {
-        result = await embed(host.current!, prepared as never, {
+        result = await embed(host.current!, prepared, {
           mode: "vega-lite", renderer: "svg", actions: false, tooltip: false, defaultStyle: false, logLevel: 0,
           ast: true, expr: expressionInterpreter, loader: refusingLoader(refusals),
         });
@@ -77,17 +81,20 @@ export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors 
         if (!cancelled && svg) {
           setError(null);
           setRendered({ natural: svgNaturalSize(svg), geometry: plotGeometry(result.view) });
+          setDrewNothing(dataMarkItems(result.view) === 0);
         }
       } catch (e) {
-        if (!cancelled) { setError((e as Error).message); setRendered(null); }
+        if (!cancelled) { setError((e as Error).message); setRendered(null); setDrewNothing(false); }
       }
     })();
     return () => {
       cancelled = true;
       result?.finalize();
     };
-  }, [specKey, widthMm, ready, rows]); // `names` derives from specKey
+  }, [specKey, refusal, names, widthMm, ready, rows]);
 
+  const error = refusal ?? renderError;
+  const rendered = refusal ? null : drawn;
   const targetPx = widthMm * PX_PER_MM * zoom;
   const scale = rendered ? targetPx / rendered.natural.width : 1;
   const heightPx = rendered ? rendered.natural.height * scale : undefined;
@@ -99,10 +106,17 @@ export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors 
     svg.style.display = "block";
   }, [rendered, targetPx, heightPx]);
 
+  // Data warnings: the server's for a stored revision; the same checks on the rows for a preview; the browser's "nothing drawn".
+  const warnings = useMemo(() => {
+    if (data) return previewWarnings(JSON.parse(specKey), data);
+    return fetched.data?.warnings ?? [];
+  }, [data, specKey, fetched.data]);
+  const shownWarnings = drewNothing && rendered && !error && !warnings.some((w) => w.message.startsWith("Nothing")) ? [...warnings, NOTHING_DRAWN] : warnings;
   const reduced = Object.entries(rows ?? {}).filter(([, v]) => v.reduced);
   const missing = rows ? names.filter((n) => !rows[n]) : [];
   return (
     <figure className={`m-0 ${className}`} aria-label={label} data-testid="panel-chart">
+      <DataWarningList warnings={shownWarnings} className="mb-1" />
       <div className="relative bg-white" style={{ width: targetPx, minHeight: rendered ? heightPx : 80 }}>
         <div ref={host} className={error ? "hidden" : ""} />
         {!rendered && !error ? <div className="absolute inset-0 animate-pulse bg-paper" aria-hidden /> : null}
@@ -111,7 +125,7 @@ export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors 
         ) : null}
         {error ? <p role="alert" className="p-3 text-sm text-bad"><span aria-hidden>✕ </span>This spec cannot be drawn: {error}</p> : null}
       </div>
-      {fetched.isError ? <p role="alert" className="mt-1 text-xs text-bad">✕ {(fetched.error as Error).message}</p> : null}
+      {fetched.isError ? <p role="alert" className="mt-1 text-xs text-bad">✕ {fetched.error.message}</p> : null}
       {missing.length ? <p className="mt-1 text-xs text-warn"><span aria-hidden>△ </span>No data bound to {missing.map((n) => `“${n}”`).join(", ")}</p> : null}
       {reduced.length ? (
         <figcaption className="mt-1 text-xs text-muted" data-testid="reduced-note">

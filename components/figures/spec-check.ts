@@ -1,6 +1,6 @@
 import { jsonPositions, spanFor } from "./json-positions";
 
-export interface SpecProblem { path: string; message: string; from: number; to: number }
+interface SpecProblem { path: string; message: string; from: number; to: number }
 export type SpecCheck = { ok: true; spec: Record<string, unknown>; dataNames: string[] } | { ok: false; syntax: boolean; problems: SpecProblem[] };
 
 /** JSON syntax, then the same validation the server runs (loaded on first use: the Vega-Lite schema is large). */

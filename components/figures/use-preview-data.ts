@@ -1,5 +1,5 @@
 "use client";
-import { useQueries, useQuery } from "@tanstack/react-query";
+import { useQueries, useQuery, type UseQueryResult } from "@tanstack/react-query";
 import { useMemo } from "react";
 import { fetchJson } from "@/components/api-client";
 import type { RowsPage } from "@/components/data/api";
@@ -11,6 +11,12 @@ export type BindingChoice = ({ versionId: string } | { analysisId: string; outpu
 const SERIES: Record<string, string> = { curve: "curve", residuals: "residual", data: "data" };
 const PREVIEW_LIMIT = 10_000;
 
+/** A stable `combine` for useQueries: the result keeps its identity until a page changes, so it can be a memo dependency. */
+const combinePages = (results: UseQueryResult<RowsPage>[]) => ({
+  data: results.map((p) => p.data),
+  error: results.find((p) => p.isError)?.error ?? null,
+});
+
 export function toBinding(c: BindingChoice): Binding {
   return "analysisId" in c ? { analysisId: c.analysisId, output: c.output } : { versionId: c.versionId };
 }
@@ -20,9 +26,9 @@ export function choicesFromRevision(rev: { bindings: Record<string, Binding>; bo
   return Object.fromEntries(Object.entries(rev.bindings).map(([n, b]) => [n, { ...b, rowsVersionId: rev.bound[n]?.versionId ?? ("versionId" in b ? b.versionId : "") }]));
 }
 
-export function sameBindings(a: Record<string, BindingChoice>, b: Record<string, Binding>): boolean {
+function sameBindings(a: Record<string, BindingChoice>, b: Record<string, Binding>): boolean {
   const ka = Object.keys(a).sort(), kb = Object.keys(b).sort();
-  return ka.length === kb.length && ka.every((k, i) => k === kb[i] && JSON.stringify(toBinding(a[k]!)) === JSON.stringify(b[k]));
+  return ka.length === kb.length && ka.every((k, i) => k === kb[i] && JSON.stringify(toBinding(a[k])) === JSON.stringify(b[k]));
 }
 
 function toRecords(page: RowsPage, series: string | null): Row[] {
@@ -49,29 +55,26 @@ export function usePreviewData(choices: Record<string, BindingChoice>, revision:
     enabled: saved,
     staleTime: Infinity,
   });
-  const ids = [...new Set(Object.values(choices).map((c) => c.rowsVersionId).filter(Boolean))].sort();
-  const pages = useQueries({
+  const ids = useMemo(() => [...new Set(Object.values(choices).map((c) => c.rowsVersionId).filter(Boolean))].sort(), [choices]);
+  const { data: pageData, error: failed } = useQueries({
     queries: ids.map((id) => ({
       queryKey: queryKeys.versionRows(id),
       queryFn: () => fetchJson<RowsPage>(`/api/versions/${id}/rows?limit=${PREVIEW_LIMIT}`),
       enabled: !saved,
       staleTime: Infinity,
     })),
+    combine: combinePages,
   });
-  const pageData = pages.map((p) => p.data);
-  const failed = pages.find((p) => p.isError)?.error as Error | undefined;
-  const key = JSON.stringify(choices);
-  const pagesKey = pages.map((p) => p.dataUpdatedAt).join(",");
   const data = useMemo(() => {
     if (saved) return rev.data?.data;
     const out: Record<string, BoundRows> = {};
     for (const [name, c] of Object.entries(choices)) {
       const page = pageData[ids.indexOf(c.rowsVersionId)];
       if (!page) return undefined;
-      const rows = toRecords(page, "analysisId" in c ? SERIES[c.output]! : null);
+      const rows = toRecords(page, "analysisId" in c ? SERIES[c.output] : null);
       out[name] = { rows, reduced: page.rowCount > page.rows.length, sourceRows: page.rowCount };
     }
     return out;
-  }, [saved, rev.data, key, pagesKey]); // choices and pageData are read through their keys
-  return { data, error: saved ? (rev.error as Error | null) : failed ?? null, saved };
+  }, [saved, rev.data, choices, ids, pageData]);
+  return { data, error: saved ? rev.error : failed, saved };
 }

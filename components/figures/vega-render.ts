@@ -8,7 +8,7 @@ import { loader as vegaLoader } from "vega";
 import { formatPath } from "@/lib/figures/spec-path";
 import { checkSpecSecurity } from "@/lib/figures/spec-security";
 
-export const PT_PER_MM = 72 / 25.4;
+const PT_PER_MM = 72 / 25.4;
 export const PX_PER_MM = 96 / 25.4;
 const COMPOSITE_KEYS = ["vconcat", "hconcat", "concat", "facet", "repeat"];
 
@@ -17,15 +17,15 @@ type Json = { [key: string]: unknown };
 /** Every entry point refuses and the request is remembered, so the render can fail visibly. */
 export function refusingLoader(refusals: string[]): Loader {
   const l = vegaLoader();
-  const refuse = (what: string) => async (uri: unknown) => {
+  const refuse = (what: string) => (uri: unknown): Promise<never> => {
     refusals.push(`${what}: ${typeof uri === "string" ? uri : JSON.stringify(uri)}`);
-    throw new Error("Prooflight renders bound data only; loading is disabled");
+    return Promise.reject(new Error("Prooflight renders bound data only; loading is disabled"));
   };
   Object.assign(l, { load: refuse("load"), sanitize: refuse("sanitize"), http: refuse("http"), file: refuse("file") });
   return l;
 }
 
-export const isComposite = (spec: Json) => COMPOSITE_KEYS.some((k) => k in spec);
+const isComposite = (spec: Json) => COMPOSITE_KEYS.some((k) => k in spec);
 
 /** The family the app ships Inter under (next/font gives it a private name). */
 export function shippedFontFamily(): string {
@@ -58,7 +58,7 @@ export function refusalOf(spec: Json): string | null {
  * display options are Prooflight's, never the spec author's.
  */
 export function prepareSpec(spec: Json, widthMm: number, family: string): Json {
-  const config = swapFonts({ ...((spec.config as Json | undefined) ?? {}), font: "Inter" }, family) as Json;
+  const config = swapFonts({ ...(spec.config ?? {}), font: "Inter" }, family) as Json;
   const base: Json = { ...spec, config };
   delete base.usermeta;
   if (isComposite(spec)) return base;
@@ -83,7 +83,7 @@ export function dataNamesOf(spec: unknown): string[] {
 }
 
 /** A continuous scale: data → plot units, and back. */
-export type PlotScale = ((v: number) => number) & { invert(px: number): number };
+type PlotScale = ((v: number) => number) & { invert(px: number): number };
 
 export interface PlotGeometry {
   /** Plot area in the rendered SVG's own units. */
@@ -137,4 +137,25 @@ export function svgNaturalSize(svg: SVGSVGElement): { width: number; height: num
   const vb = svg.viewBox?.baseVal;
   if (vb && vb.width > 0) return { width: vb.width, height: vb.height };
   return { width: Number(svg.getAttribute("width")) || 1, height: Number(svg.getAttribute("height")) || 1 };
+}
+
+interface SceneNode { marktype?: string; role?: string; items?: Array<{ items?: SceneNode[] }> }
+
+/**
+ * Items in the data marks of a rendered view (Vega role "mark", not groups, axes, legends or
+ * titles); null when the view has no data mark at all. 0 means the plot drew nothing.
+ */
+export function dataMarkItems(view: View): number | null {
+  let marks = 0, items = 0;
+  const walk = (node: SceneNode | undefined) => {
+    if (!node) return;
+    if (node.marktype === "group") {
+      for (const item of node.items ?? []) for (const child of item.items ?? []) walk(child);
+    } else if (node.role === "mark") {
+      marks++;
+      items += node.items?.length ?? 0;
+    }
+  };
+  walk((view.scenegraph() as unknown as { root?: SceneNode }).root);
+  return marks ? items : null;
 }

@@ -32,7 +32,7 @@ export function CommentBox({ members, initial, label, submitLabel, busy, onSubmi
       <CommentEditor editor={editor} />
       {children}
       <div className="mt-2 flex items-center gap-2">
-        <Button type="button" onClick={send} disabled={busy || !editor}>{submitLabel}</Button>
+        <Button type="button" onClick={() => void send()} disabled={busy || !editor}>{submitLabel}</Button>
         {onCancel ? <Button type="button" variant="quiet" onClick={onCancel}>Cancel</Button> : null}
       </div>
     </div>

@@ -2,7 +2,7 @@
 import Mention from "@tiptap/extension-mention";
 import { EditorContent, ReactRenderer, useEditor, useEditorState, type Editor, type JSONContent } from "@tiptap/react";
 import StarterKit from "@tiptap/starter-kit";
-import { useRef, useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { MentionList, type MentionItem, type MentionListHandle } from "./mention-list";
 
 export type { Editor, JSONContent };
@@ -14,7 +14,7 @@ const SAFE_LINK = /^(https?:\/\/|mailto:)/i;
  */
 export function useCommentEditor(members: MentionItem[], initial?: JSONContent | null, label = "Comment", autofocus = false) {
   const people = useRef(members);
-  people.current = members;
+  useEffect(() => { people.current = members; });
   return useEditor({
     immediatelyRender: false,
     autofocus: autofocus ? "end" : false,
@@ -24,6 +24,7 @@ export function useCommentEditor(members: MentionItem[], initial?: JSONContent |
         heading: false, horizontalRule: false, underline: false,
         link: { openOnClick: false, autolink: true, protocols: ["mailto"], isAllowedUri: (url) => SAFE_LINK.test(url) },
       }),
+      // eslint-disable-next-line react-hooks/refs -- Tiptap calls `items` as the user types, never during render; the ref keeps the member list current without rebuilding the editor
       Mention.configure({
         HTMLAttributes: { class: "mention" },
         suggestion: {
@@ -33,7 +34,7 @@ export function useCommentEditor(members: MentionItem[], initial?: JSONContent |
             let unmount: (() => void) | null = null;
             const close = () => { unmount?.(); unmount = null; view?.destroy(); view = null; };
             return {
-              onStart: (props) => { view = new ReactRenderer(MentionList, { props, editor: props.editor }); unmount = props.mount(view.element as HTMLElement); },
+              onStart: (props) => { view = new ReactRenderer(MentionList, { props, editor: props.editor }); unmount = props.mount(view.element); },
               onUpdate: (props) => view?.updateProps(props),
               onKeyDown: (props) => {
                 if (props.event.key === "Escape") { close(); return true; }

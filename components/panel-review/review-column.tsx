@@ -66,7 +66,7 @@ export function ReviewColumn({ panel, members, me, pickMode, onPickMode, draftAn
           </div>
         ) : null}
         {threads.isLoading ? <p className="text-sm text-muted">loading…</p> : null}
-        {threads.isError ? <p role="alert" className="text-sm text-bad">✕ {(threads.error as Error).message}</p> : null}
+        {threads.isError ? <p role="alert" className="text-sm text-bad">✕ {threads.error.message}</p> : null}
         <ul className="space-y-3" aria-label="Open threads">
           {open.map((t) => <ThreadItem key={t.id} thread={t} index={numberOf(t.id)} currentRevisionNumber={rev?.number ?? null} me={me.id} members={mentionable} canWrite={canWrite} actions={actions} />)}
         </ul>

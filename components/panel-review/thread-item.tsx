@@ -1,9 +1,8 @@
 "use client";
-import { useState } from "react";
+import { useEffect, useState } from "react";
 import { ApiError } from "@/components/api-client";
 import { describeAnchor } from "@/components/figures/format";
 import { relativeTime } from "@/lib/data/format";
-import type { JSONContent } from "./comment-editor";
 import { CommentBox } from "./comment-box";
 import type { MentionItem } from "./mention-list";
 import { RICH_TEXT } from "./rich-text-look";
@@ -53,10 +52,22 @@ export function ThreadItem({ thread, index, currentRevisionNumber, me, members, 
   );
 }
 
+/** Whether a comment written at `createdAt` is still inside the edit window; turns false when the window closes. */
+function useEditWindow(createdAt: string | Date): boolean {
+  const closesAt = new Date(createdAt).getTime() + EDIT_WINDOW_MS;
+  const [open, setOpen] = useState(() => Date.now() < closesAt);
+  useEffect(() => {
+    const t = setTimeout(() => setOpen(Date.now() < closesAt), Math.max(0, closesAt - Date.now()));
+    return () => clearTimeout(t);
+  }, [closesAt]);
+  return open;
+}
+
 function CommentItem({ c, me, members, actions }: { c: ShownComment; me: string; members: MentionItem[]; actions: ReturnType<typeof useThreadActions> }) {
   const [editing, setEditing] = useState(false);
   const [error, setError] = useState<string | null>(null);
-  const mayEdit = !c.pendingText && c.createdBy === me && Date.now() - new Date(c.createdAt).getTime() < EDIT_WINDOW_MS;
+  const windowOpen = useEditWindow(c.createdAt);
+  const mayEdit = !c.pendingText && c.createdBy === me && windowOpen;
   return (
     <li className="text-sm" data-testid="comment">
       <p className="text-xs text-muted">
@@ -65,7 +76,7 @@ function CommentItem({ c, me, members, actions }: { c: ShownComment; me: string;
         {mayEdit && !editing ? <> · <button type="button" className="underline" onClick={() => setEditing(true)}>Edit</button></> : null}
       </p>
       {editing ? (
-        <CommentBox autofocus members={members} initial={c.body as JSONContent} label="Edit comment" submitLabel="Save edit" busy={actions.edit.isPending} onCancel={() => setEditing(false)}
+        <CommentBox autofocus members={members} initial={c.body} label="Edit comment" submitLabel="Save edit" busy={actions.edit.isPending} onCancel={() => setEditing(false)}
           onSubmit={async ({ body }) => {
             setError(null);
             try {

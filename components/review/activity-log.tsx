@@ -39,7 +39,7 @@ export function ActivityLog({ manuscriptId, initial }: { manuscriptId: string; i
     <div>
       <p className="mb-3 text-xs text-muted" aria-live="polite">
         {items.length} entr{items.length === 1 ? "y" : "ies"}, newest first · times in UTC
-        {isFetching ? " · refreshing…" : error ? ` · ✕ could not refresh: ${(error as Error).message}` : ""}
+        {isFetching ? " · refreshing…" : error ? ` · ✕ could not refresh: ${error.message}` : ""}
       </p>
       <div className="space-y-6">
         {groupByDay(items).map((g) => (

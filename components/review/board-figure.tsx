@@ -44,6 +44,11 @@ function PanelCell({ p, names, byTarget }: { p: BoardPanel; names: Names; byTarg
         <span className={p.openThreads ? "font-medium text-ink" : ""} data-testid="open-threads">
           {p.openThreads} open thread{p.openThreads === 1 ? "" : "s"}
         </span>
+        {p.dataWarnings ? (
+          <span className="block font-medium text-warn" data-testid="panel-data-warnings">
+            <span aria-hidden>△ </span>{p.dataWarnings} data warning{p.dataWarnings === 1 ? "" : "s"} — open the panel to read {p.dataWarnings === 1 ? "it" : "them"}
+          </span>
+        ) : null}
       </p>
       <dl className="space-y-0.5 text-xs">
         <People label="Approved by" ids={p.approvedBy} names={names} testId="approved-by" />
@@ -58,6 +63,7 @@ function PanelCell({ p, names, byTarget }: { p: BoardPanel; names: Names; byTarg
 /** One figure as a row: what it is and its sign-off on the left, its panels as cells on the right. */
 export function BoardFigureRow({ f, names, byTarget, isPi }: { f: BoardFigure; names: Names; byTarget: Map<string, ActivityEntry>; isPi: boolean }) {
   const open = f.panels.reduce((n, p) => n + p.openThreads, 0);
+  const warned = f.panels.filter((p) => p.dataWarnings > 0).length;
   const last = figureLastActivity(f, byTarget);
   return (
     <li className="grid gap-4 border-t border-rule py-5 first:border-t-0 md:grid-cols-[17rem_1fr]" aria-labelledby={`figure-${f.id}`} data-testid={`figure-row-${f.number}`}>
@@ -70,7 +76,7 @@ export function BoardFigureRow({ f, names, byTarget, isPi }: { f: BoardFigure; n
         </div>
         <dl className="space-y-0.5 text-xs">
           <div className="flex gap-1.5"><dt className="text-muted">State</dt><dd><StateBadge state={f.reviewState} /></dd></div>
-          <div className="flex gap-1.5"><dt className="text-muted">Panels</dt><dd>{f.panels.length} · {open} open thread{open === 1 ? "" : "s"}</dd></div>
+          <div className="flex gap-1.5"><dt className="text-muted">Panels</dt><dd>{f.panels.length} · {open} open thread{open === 1 ? "" : "s"}{warned ? <> · <span className="text-warn"><span aria-hidden>△ </span>{warned} with data warnings</span></> : null}</dd></div>
           <People label="Required reviewers" ids={f.requiredReviewers} names={names} />
           {!f.requiredReviewers.length ? <p className="text-muted">(none named: one approval per panel suffices)</p> : null}
           <div className="flex gap-1.5"><dt className="shrink-0 text-muted">Last activity</dt><dd className="min-w-0"><Last last={last} /></dd></div>

@@ -24,6 +24,7 @@ export function ManuscriptBoard({ initial, initialActivity }: { initial: Manuscr
   const byTarget = useMemo(() => latestByTarget(activity ?? []), [activity]);
   const counts = new Map<string, number>();
   for (const f of m.figures) counts.set(f.reviewState, (counts.get(f.reviewState) ?? 0) + 1);
+  const warned = m.figures.reduce((n, f) => n + f.panels.filter((p) => p.dataWarnings > 0).length, 0);
 
   return (
     <div className="space-y-4">
@@ -38,7 +39,10 @@ export function ManuscriptBoard({ initial, initialActivity }: { initial: Manuscr
         <p className="mb-2 flex flex-wrap items-center gap-2 text-xs text-muted" aria-live="polite">
           <span>{m.figures.length} figure{m.figures.length === 1 ? "" : "s"}</span>
           {[...counts.entries()].map(([s, n]) => <span key={s} className="inline-flex items-center gap-1">{n} × <StateBadge state={s} /></span>)}
-          <span className="ml-auto">{isFetching ? "refreshing…" : error ? `✕ could not refresh: ${(error as Error).message}` : ""}</span>
+          <span data-testid="data-warning-count" className={warned ? "font-medium text-warn" : ""}>
+            {warned ? <span aria-hidden>△ </span> : null}{warned} panel{warned === 1 ? "" : "s"} with data warnings
+          </span>
+          <span className="ml-auto">{isFetching ? "refreshing…" : error ? `✕ could not refresh: ${error.message}` : ""}</span>
         </p>
         {m.figures.length ? (
           <ol className="rounded-sm border border-rule bg-paper/60 px-4">

@@ -14,7 +14,7 @@ import { REVIEW_REFETCH_MS, reviewKeys, toTime, type QueueEntry } from "./review
 import { isReviewState, StateBadge, STATE_ORDER } from "./state-badge";
 
 type Kind = QueueEntry["kind"];
-export const KIND_LABELS: Record<Kind, { label: string; shape: string }> = {
+const KIND_LABELS: Record<Kind, { label: string; shape: string }> = {
   review: { label: "Review", shape: "◎" },
   mention: { label: "Mention", shape: "@" },
   signoff: { label: "Sign-off", shape: "◆" },
@@ -22,7 +22,7 @@ export const KIND_LABELS: Record<Kind, { label: string; shape: string }> = {
 };
 const KINDS = Object.keys(KIND_LABELS) as Kind[];
 
-export const hrefFor = (i: QueueEntry) => (i.panelId ? `/panels/${i.panelId}` : `/figures/${i.figureId}`);
+const hrefFor = (i: QueueEntry) => (i.panelId ? `/panels/${i.panelId}` : `/figures/${i.figureId}`);
 
 const matchesText: FilterFn<QueueEntry> = (row, _columnId, value: string) => {
   const q = value.trim().toLowerCase();
@@ -100,7 +100,7 @@ export function ReviewQueue() {
   for (const i of data ?? []) counts.set(i.kind, (counts.get(i.kind) ?? 0) + 1);
 
   if (isPending) return <p className="text-sm text-muted" aria-busy>Loading what waits on you…</p>;
-  if (error && !data) return <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>Could not load the queue: {(error as Error).message}</p>;
+  if (error && !data) return <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>Could not load the queue: {error.message}</p>;
   if (!data?.length) {
     return <EmptyState title="Nothing waits on you.">Panels to review, threads that mention you and figures to sign off appear here as soon as they need you.</EmptyState>;
   }
@@ -126,7 +126,7 @@ export function ReviewQueue() {
           </Field>
         </div>
         <span className="ml-auto pb-1.5 text-xs text-muted" aria-live="polite">
-          {rows.length} of {data.length} shown{isFetching ? " · refreshing…" : error ? ` · ✕ could not refresh: ${(error as Error).message}` : ""}
+          {rows.length} of {data.length} shown{isFetching ? " · refreshing…" : error ? ` · ✕ could not refresh: ${error.message}` : ""}
         </span>
       </div>
       <div className="overflow-x-auto border border-rule bg-sheet">
@@ -139,7 +139,7 @@ export function ReviewQueue() {
             {rows.map((row) => (
               <tr key={row.id} className="border-t border-rule align-top hover:bg-paper/50" data-kind={row.original.kind}>
                 {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className={`px-3 py-2 ${(cell.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? "whitespace-nowrap text-right tabular" : ""}`}>
+                  <td key={cell.id} className={`px-3 py-2 ${cell.column.columnDef.meta?.numeric ? "whitespace-nowrap text-right tabular" : ""}`}>
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}
                   </td>
                 ))}

@@ -39,15 +39,15 @@ function useMemberNames(figureId: string, enabled: boolean) {
     // A page that already holds the manuscript (the board) answers from its cache without a request.
     initialData: () => {
       for (const [, m] of queryClient.getQueriesData<ManuscriptView>({ queryKey: ["manuscript"] })) {
-        if (m?.figures.some((f) => f.id === figureId)) return Object.fromEntries(m.members.map((u) => [u.userId, u.name])) as Record<string, string>;
+        if (m?.figures.some((f) => f.id === figureId)) return Object.fromEntries(m.members.map((u) => [u.userId, u.name]));
       }
       return undefined;
     },
     queryFn: async () => {
       const fig = await orWhenRefused(fetchJson<{ manuscriptId?: string } | null>(`/api/figures/${figureId}`), null);
-      if (!fig?.manuscriptId) return {} as Record<string, string>;
+      if (!fig?.manuscriptId) return {};
       const m = await orWhenRefused(fetchJson<{ items: Array<{ userId: string; name: string }> }>(`/api/manuscripts/${fig.manuscriptId}/members`), { items: [] });
-      return Object.fromEntries(m.items.map((u) => [u.userId, u.name])) as Record<string, string>;
+      return Object.fromEntries(m.items.map((u) => [u.userId, u.name]));
     },
   });
 }
@@ -123,8 +123,8 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
       ) : needsReason ? (
         <form className="mt-3 space-y-2" onSubmit={(e) => { e.preventDefault(); sign.mutate(true); }}>
           <div role="alert" className="text-sm text-bad">
-            <p className="flex gap-2"><span aria-hidden className="font-bold">✕</span><span>{sentence(err!.message)}</span></p>
-            {open!.length ? <ul className="ml-5 mt-1 list-disc text-ink">{open!.map((o) => <li key={o}>{o}</li>)}</ul> : null}
+            <p className="flex gap-2"><span aria-hidden className="font-bold">✕</span><span>{sentence(err.message)}</span></p>
+            {open.length ? <ul className="ml-5 mt-1 list-disc text-ink">{open.map((o) => <li key={o}>{o}</li>)}</ul> : null}
           </div>
           <Field label="Reason for signing off with open issues">
             <textarea
@@ -141,7 +141,7 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
         <div className="mt-3">
           {reviewState !== "approved" ? <p className="mb-2 text-xs text-muted">Not every panel is approved on its current revision; signing off now asks for a reason.</p> : null}
           <Button type="button" onClick={() => sign.mutate(false)} disabled={sign.isPending}>{sign.isPending ? "Signing off…" : "Sign off this figure"}</Button>
-          {err ? <Notice ok={false}>{err.message}</Notice> : sign.error ? <Notice ok={false}>{(sign.error as Error).message}</Notice> : null}
+          {err ? <Notice ok={false}>{err.message}</Notice> : sign.error ? <Notice ok={false}>{sign.error.message}</Notice> : null}
         </div>
       )}
       {sign.isSuccess && !err ? <Notice ok>Signed off hash {shortHash(sign.data.figureHash, 12)}.</Notice> : null}

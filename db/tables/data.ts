@@ -25,7 +25,8 @@ export const datasets = sqliteTable(
   (t) => [index("datasets_manuscript").on(t.manuscriptId)],
 );
 
-export interface StoredColumn { name: string; unit: string | null; type: "number" | "string" }
+/** `header`: the file's header cell the name and unit were split from (kept since issue 17; absent on older versions). */
+export interface StoredColumn { name: string; unit: string | null; type: "number" | "string"; header?: string }
 export interface ParseInfo {
   format: string; encoding: string; delimiter: string | null; decimal: string; warnings: string[];
   headerMetadata: Record<string, string>;

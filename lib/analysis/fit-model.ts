@@ -26,7 +26,7 @@ export interface FitInput {
   solver?: Partial<Omit<SolverOptions, "maxIterations">>;
 }
 
-export interface FittedParam {
+interface FittedParam {
   name: string;
   value: number;
   /** Standard error scaled by √χ²ᵣ; 0 for fixed parameters, NaN when undetermined. */

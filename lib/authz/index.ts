@@ -9,7 +9,7 @@ export * from "./policy";
 
 export interface SessionUser { id: string; email: string; name: string }
 
-export async function roleOn(userId: string, manuscriptId: string): Promise<Role | null> {
+async function roleOn(userId: string, manuscriptId: string): Promise<Role | null> {
   const [m] = await getDb()
     .select({ role: manuscriptMembers.role })
     .from(manuscriptMembers)

@@ -8,7 +8,7 @@ const commenters: readonly Role[] = ["pi", "author", "reviewer"];
  * The one role → action table. Actions scoped to a manuscript are checked against the caller's
  * membership role; a caller with no membership gets 404 whatever the action.
  */
-export const MANUSCRIPT_POLICY = {
+const MANUSCRIPT_POLICY = {
   "manuscript.read": everyone,
   "manuscript.export": everyone,
   "member.manage": ["pi"],
@@ -21,11 +21,9 @@ export const MANUSCRIPT_POLICY = {
   "figure.signoff": ["pi"],
 } as const satisfies Record<string, readonly Role[]>;
 
-/** Actions that need only a signed-in user (they act on the caller's own things). */
-export const USER_ACTIONS = ["self.read", "self.tokens", "manuscript.list", "manuscript.create", "model.list"] as const;
-
 export type ManuscriptAction = keyof typeof MANUSCRIPT_POLICY;
-export type UserAction = (typeof USER_ACTIONS)[number];
+/** Actions that need only a signed-in user (they act on the caller's own things). */
+type UserAction = "self.read" | "self.tokens" | "manuscript.list" | "manuscript.create" | "model.list";
 export type Action = ManuscriptAction | UserAction;
 
 export function isManuscriptAction(action: Action): action is ManuscriptAction {

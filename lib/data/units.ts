@@ -97,6 +97,12 @@ const SPACED_SLASH = /^(.*\S)\s+\/\s+(\S.*)$/;
 const TIGHT_SLASH = /^(.*[^\s/])\/([^\s/]+)$/;
 const UNDERSCORE = /^(.*[^_])_([^_\s]{2,})$/;
 
+/** The rule of `parseHeaderUnit` in one line, for the people who upload files (dataset page). */
+export const HEADER_UNIT_RULE =
+  "Units are split off column headers: a trailing (…) or […] or a spaced “ / …” is always the unit (“time (µs)” → column time, unit µs); " +
+  "a tight “/unit” or “_unit” suffix only when it is a known unit (“t_us” → t, µs; “run_id” and “counts/s” stay whole). " +
+  "Unit spellings are normalised (us → µs); values are never rescaled. In figure specs, use the column name, not the header.";
+
 /**
  * Splits a header into quantity name and unit. A bare `/` or `_` suffix only counts as a unit
  * when it is a known unit (so `counts/s` and `run_id` stay whole).

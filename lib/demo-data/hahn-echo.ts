@@ -9,20 +9,20 @@ import { fixed, logSpace } from "./numeric";
 import { CONFOCAL, GROUPS, SAMPLE, type SampleGroup, centreLabel, commentHeader, measuredAt, standardHeader } from "./scenario";
 
 /** T2 distribution per group (mean ± sd, µs), drawn per centre and kept above `min`. */
-export const ECHO_T2_BY_GROUP: Readonly<Record<SampleGroup, { mean: number; sd: number; min: number }>> = {
+const ECHO_T2_BY_GROUP: Readonly<Record<SampleGroup, { mean: number; sd: number; min: number }>> = {
   "as-grown": { mean: 60, sd: 15, min: 25 },
   "annealed-1200C": { mean: 150, sd: 30, min: 70 },
   "oxygen-terminated": { mean: 220, sd: 40, min: 110 },
 };
 
-export const ECHO_POINTS = 80;
+const ECHO_POINTS = 80;
 /**
  * Seed salt, chosen (among the first few tried) so that each group's four drawn T2 values
  * average within half a standard error of the nominal mean: with only four centres per group
  * an unlucky draw would blur the group contrast the demo is meant to show.
  */
 const ECHO_SEED_SALT = 16;
-export const ECHO_CENTRES_PER_GROUP = 4;
+const ECHO_CENTRES_PER_GROUP = 4;
 
 export interface EchoTruth {
   S0: number;

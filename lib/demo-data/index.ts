@@ -15,7 +15,7 @@ import { ramseyFiles } from "./ramsey";
 import { nvNmrFiles } from "./nv-nmr";
 import { calibrationFiles } from "./calibration";
 
-export type { DemoFile, DemoKind } from "./types";
+export type { DemoFile } from "./types";
 
 export function demoFiles(): DemoFile[] {
   return [

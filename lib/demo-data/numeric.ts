@@ -18,13 +18,6 @@ export function fixed(x: number, digits: number): string {
   return /^-0\.?0*$/.test(s) ? s.slice(1) : s;
 }
 
-/** Significant digits in plain (non-exponent) notation for the magnitudes used here. */
-export function sig(x: number, digits: number): string {
-  if (x === 0) return "0";
-  const decimals = Math.max(0, digits - 1 - Math.floor(Math.log10(Math.abs(x))));
-  return fixed(x, decimals);
-}
-
 /** Peak-normalised Lorentzian, 1 at the centre, ½ at ±FWHM/2. */
 export function lorentz(x: number, centre: number, fwhm: number): number {
   const q = (2 * (x - centre)) / fwhm;
@@ -36,11 +29,4 @@ export function gauss(x: number, centre: number, fwhm: number): number {
   const sigma = fwhm / (2 * Math.sqrt(2 * Math.LN2));
   const d = (x - centre) / sigma;
   return Math.exp(-0.5 * d * d);
-}
-
-/** Rows of cells → delimited text with a trailing newline (CRLF-free, as setup A writes). */
-export function delimited(header: string[] | null, rows: string[][], separator: string): string {
-  const lines = rows.map((r) => r.join(separator));
-  if (header) lines.unshift(header.join(separator));
-  return lines.join("\n") + "\n";
 }

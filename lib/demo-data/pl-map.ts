@@ -8,14 +8,14 @@ import { Rng } from "./prng";
 import { fixed, gauss } from "./numeric";
 import { CONFOCAL, SAMPLE, commentHeader, measuredAt, standardHeader } from "./scenario";
 
-export const PL_MAP_PIXELS = 60;
-export const PL_MAP_SIZE_UM = 20;
-export const PL_MAP_SPOTS = 25;
+const PL_MAP_PIXELS = 60;
+const PL_MAP_SIZE_UM = 20;
+const PL_MAP_SPOTS = 25;
 const PSF_FWHM_UM = 0.35;
 const BACKGROUND_CPS = 5_000;
 const DWELL_S = 0.01;
 
-export interface PlSpot {
+interface PlSpot {
   x: number;
   y: number;
   peak: number;

@@ -17,7 +17,7 @@ export function mulberry32(seed: number): () => number {
 }
 
 /** 32-bit FNV-1a hash of a string, to derive one independent seed per demo file. */
-export function seedFromString(text: string): number {
+function seedFromString(text: string): number {
   let h = 0x811c9dc5;
   for (let i = 0; i < text.length; i++) {
     h ^= text.charCodeAt(i);
@@ -27,7 +27,7 @@ export function seedFromString(text: string): number {
 }
 
 /** Mean above which Poisson counts are drawn from the normal approximation N(μ, μ). */
-export const POISSON_NORMAL_THRESHOLD = 30;
+const POISSON_NORMAL_THRESHOLD = 30;
 
 export class Rng {
   private readonly next: () => number;

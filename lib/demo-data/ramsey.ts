@@ -9,10 +9,10 @@ import { fixed } from "./numeric";
 import { DEMO_14N_SPLITTING_MHZ } from "./odmr";
 import { CONFOCAL, SAMPLE, commentHeader, measuredAt, standardHeader } from "./scenario";
 
-export const RAMSEY_POINTS = 400;
+const RAMSEY_POINTS = 400;
 const STEP_NS = 10;
 
-export const RAMSEY_TRUTH = {
+const RAMSEY_TRUTH = {
   S0: 0.985,
   /** Amplitude of each of the three cosines. */
   A: 0.011,
@@ -24,7 +24,7 @@ export const RAMSEY_TRUTH = {
 } as const;
 
 /** Noise-free signal at t (ns). */
-export function ramseySignal(tNs: number): number {
+function ramseySignal(tNs: number): number {
   const p = RAMSEY_TRUTH;
   const perNs = 1e-3; // 1 MHz = 1e-3 ns⁻¹
   const envelope = Math.exp(-((tNs / p.T2StarNs) ** 2));

@@ -14,7 +14,7 @@ const T1_RANGE_MS: Readonly<Record<SampleGroup, [number, number]>> = {
   "oxygen-terminated": [4.5, 6],
 };
 
-export const RELAXATION_POINTS = 50;
+const RELAXATION_POINTS = 50;
 
 function relaxationFile(group: SampleGroup, groupIndex: number, k: number): DemoFile {
   const centre = centreLabel(groupIndex, k);

@@ -6,7 +6,6 @@
 
 export const LAB = "Kestrel Spin Sensing Group";
 export const SAMPLE = "K17";
-export const SAMPLE_DESCRIPTION = "12C-enriched (99.99 %) CVD plate, shallow implanted NV centres";
 export const CONFOCAL = "confocal setup A";
 export const SPECTROMETER = "spectrometer S2";
 
@@ -15,7 +14,7 @@ export type SampleGroup = "as-grown" | "annealed-1200C" | "oxygen-terminated";
 export const GROUPS: readonly SampleGroup[] = ["as-grown", "annealed-1200C", "oxygen-terminated"];
 
 /** Which sample piece each group is; the centre numbering runs on across the groups. */
-export const GROUP_DESCRIPTION: Readonly<Record<SampleGroup, string>> = {
+const GROUP_DESCRIPTION: Readonly<Record<SampleGroup, string>> = {
   "as-grown": "as grown after implantation",
   "annealed-1200C": "annealed 2 h at 1200 °C in vacuum",
   "oxygen-terminated": "annealed, then oxygen-terminated (tri-acid clean + oxygen anneal)",

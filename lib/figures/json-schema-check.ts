@@ -18,9 +18,9 @@ export interface JsonSchema {
   [keyword: string]: unknown;
 }
 
-export type PathSegment = string | number;
+type PathSegment = string | number;
 
-export interface SchemaIssue {
+interface SchemaIssue {
   path: PathSegment[];
   message: string;
 }
@@ -141,7 +141,7 @@ export function createSchemaChecker(root: JsonSchema): SchemaChecker {
     const issues = checkUncached(schema, value);
     if (memoKey) {
       let m = memo.get(memoKey);
-      if (!m) memo.set(memoKey, (m = new Map()));
+      if (!m) memo.set(memoKey, (m = new Map<JsonSchema, Issue[]>()));
       m.set(schema, issues);
     }
     return issues;

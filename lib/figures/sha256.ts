@@ -18,7 +18,7 @@ const K = new Uint32Array([
 const rotr = (x: number, n: number): number => (x >>> n) | (x << (32 - n));
 
 /** SHA-256 of raw bytes, as lowercase hex. */
-export function sha256HexBytes(bytes: Uint8Array): string {
+function sha256HexBytes(bytes: Uint8Array): string {
   const bitLength = bytes.length * 8;
   const padded = new Uint8Array(((bytes.length + 9 + 63) >> 6) << 6);
   padded.set(bytes);

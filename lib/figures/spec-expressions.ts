@@ -7,7 +7,7 @@
  */
 
 /** Pure Vega expression functions (maths, strings, dates, arrays, formatting, colours, statistics). */
-export const ALLOWED_FUNCTIONS: ReadonlySet<string> = new Set([
+const ALLOWED_FUNCTIONS: ReadonlySet<string> = new Set([
   // maths
   "abs", "acos", "asin", "atan", "atan2", "ceil", "clamp", "cos", "exp", "floor", "hypot", "log", "max", "min", "pow",
   "random", "round", "sin", "sqrt", "tan", "isNaN", "isFinite", "if",
@@ -34,7 +34,7 @@ export const ALLOWED_FUNCTIONS: ReadonlySet<string> = new Set([
 ]);
 
 /** Constants of the Vega expression language. */
-export const ALLOWED_CONSTANTS: ReadonlySet<string> = new Set([
+const ALLOWED_CONSTANTS: ReadonlySet<string> = new Set([
   "NaN", "E", "LN2", "LN10", "LOG2E", "LOG10E", "PI", "SQRT1_2", "SQRT2", "MIN_VALUE", "MAX_VALUE", "true", "false", "null",
 ]);
 
@@ -45,7 +45,7 @@ const ALLOWED_NAMES = new Set(["datum", "width", "height"]);
  * Property names that lead out of plain data (prototype chains, callables, the DOM). Refused after
  * `.`, inside `[...]`, as object-literal keys, and as field names.
  */
-export const FORBIDDEN_PROPERTIES: ReadonlySet<string> = new Set([
+const FORBIDDEN_PROPERTIES: ReadonlySet<string> = new Set([
   "constructor", "__proto__", "prototype", "__defineGetter__", "__defineSetter__", "__lookupGetter__", "__lookupSetter__",
   "call", "apply", "bind", "caller", "callee", "arguments", "toString", "valueOf", "toLocaleString", "hasOwnProperty",
   "isPrototypeOf", "propertyIsEnumerable", "ownerDocument", "defaultView", "contentWindow", "view", "target",
@@ -76,7 +76,7 @@ const REFUSED_FUNCTIONS = new Set([
   "pathShape", "treePath", "treeAncestors", "containerSize", "screen", "windowSize", "warn", "info", "debug",
 ]);
 
-export const MAX_EXPRESSION_LENGTH = 2_000;
+const MAX_EXPRESSION_LENGTH = 2_000;
 
 type Token =
   | { kind: "name"; value: string; at: number }
@@ -252,4 +252,30 @@ export function checkFieldName(field: string): string | null {
   const segments = field.split(/(?<!\\)[.[\]]/).map((s) => s.replace(/\\(.)/g, "$1").replace(/^["']|["']$/g, ""));
   const bad = segments.find((s) => s === "__proto__" || s === "constructor" || s === "prototype");
   return bad ? `the field name part "${bad}" is not allowed` : null;
+}
+
+/**
+ * The row fields an expression reads: `datum.x` and `datum["a b"]` / `datum['a b']` (the first
+ * property after `datum`; `datum.a.b` reads the column `a`). Names are the columns as written, with
+ * no field-path escaping. An expression that does not tokenize reads nothing here (checkExpression
+ * refuses it anyway).
+ */
+export function datumFields(src: string): string[] {
+  let tokens: Token[];
+  try {
+    tokens = tokenize(src);
+  } catch (err) {
+    if (err instanceof ExpressionError) return [];
+    throw err;
+  }
+  const out: string[] = [];
+  for (let k = 0; k < tokens.length; k++) {
+    const t = tokens[k];
+    if (t.kind !== "name" || t.value !== "datum" || isPunct(tokens[k - 1], ".")) continue;
+    const next = tokens[k + 1];
+    const after = tokens[k + 2];
+    if (isPunct(next, ".") && after?.kind === "name") out.push(after.value);
+    else if (isPunct(next, "[") && after?.kind === "string" && isPunct(tokens[k + 3], "]")) out.push(after.value);
+  }
+  return out;
 }

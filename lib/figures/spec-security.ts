@@ -8,42 +8,42 @@
 import { checkExpression, checkFieldName } from "./spec-expressions";
 import type { SpecPath } from "./spec-path";
 
-export const MAX_INLINE_VALUES = 5_000;
+const MAX_INLINE_VALUES = 5_000;
 
 // Budget caps ("common practice" limits: far above what a publication panel uses, far below what
 // makes Vega allocate or loop for minutes in a reviewer's browser).
 /** Axis and legend ticks (Vega-Lite's own default is about one per 40 px). */
-export const MAX_TICK_COUNT = 1_000;
+const MAX_TICK_COUNT = 1_000;
 /** Bins from `maxbins` (bin and timeUnit params), from `step` over a given `extent`, and scale `bins`. */
-export const MAX_BINS = 1_000;
+const MAX_BINS = 1_000;
 /** Samples of density (`steps`, `minsteps`, `maxsteps`; Vega's default is 25–200) and quantile (1 / `step`). */
-export const MAX_SAMPLE_STEPS = 1_000;
+const MAX_SAMPLE_STEPS = 1_000;
 /** Polynomial regression order: the fit solves an order × order system; past ~20 it is numerically meaningless. */
-export const MAX_REGRESSION_ORDER = 20;
+const MAX_REGRESSION_ORDER = 20;
 /** Key values an impute `keyvals: {start, stop, step}` sequence generates (like inline rows). */
-export const MAX_IMPUTE_KEYS = 5_000;
+const MAX_IMPUTE_KEYS = 5_000;
 /** View width/height, view `step` and config.view sizes, points (10,000 pt ≈ 3.5 m); default ticks grow with the size. */
-export const MAX_VIEW_SIZE = 10_000;
+const MAX_VIEW_SIZE = 10_000;
 /** Views from layers, concatenation and repeat (each is compiled and laid out separately). */
-export const MAX_VIEWS = 200;
+const MAX_VIEWS = 200;
 
 /**
  * `usermeta` keys a spec may carry: plain notes. vega-embed reads `usermeta.embedOptions` and
  * merges it over the app's own options (actions, sourceHeader HTML, i18n, patch, loader, ast …),
  * so that key, and every key not listed here, is refused. Prooflight itself writes no usermeta.
  */
-export const USERMETA_KEYS: ReadonlySet<string> = new Set(["description", "note", "notes", "source", "tags"]);
+const USERMETA_KEYS: ReadonlySet<string> = new Set(["description", "note", "notes", "source", "tags"]);
 /** Nesting allowed inside an allowed usermeta key: `{ note: { sample: { id: "B14" } } }`. */
-export const MAX_USERMETA_NESTING = 2;
-export const EMBED_OPTIONS_MESSAGE = "display options (usermeta.embedOptions) are set by Prooflight and cannot come from a spec";
+const MAX_USERMETA_NESTING = 2;
+const EMBED_OPTIONS_MESSAGE = "display options (usermeta.embedOptions) are set by Prooflight and cannot come from a spec";
 const PROTO_MESSAGE = "the key \"__proto__\" is not allowed";
 
-export interface SecurityIssue {
+interface SecurityIssue {
   path: SpecPath;
   message: string;
 }
 
-export const URL_MESSAGE = "specs cannot load data from a URL; bind a dataset version instead";
+const URL_MESSAGE = "specs cannot load data from a URL; bind a dataset version instead";
 
 const EXPRESSION_KEYS = new Set(["calculate", "expr", "signal", "update", "labelExpr", "toggle"]);
 const PREDICATE_KEYS = new Set(["filter", "test"]);
@@ -226,7 +226,7 @@ function usermetaValue(value: Json, at: SpecPath, level: number, ctx: Context): 
 function refuseProtoKeys(rows: Json[], at: SpecPath, ctx: Context): void {
   const find = (node: Json, path: SpecPath): SpecPath | null => {
     if (Array.isArray(node)) {
-      for (let i = 0; i < node.length; i++) { const p = find(node[i]!, [...path, i]); if (p) return p; }
+      for (let i = 0; i < node.length; i++) { const p = find(node[i], [...path, i]); if (p) return p; }
     } else if (isObject(node)) {
       for (const [k, v] of Object.entries(node)) {
         if (k === "__proto__") return [...path, k];

@@ -12,14 +12,8 @@ import type { CommonOptions, FigureTemplate } from "./plots/types";
 
 export * from "./plots/print";
 export * from "./plots/types";
-export { DECAY_CURVE_DEFAULTS, decayCurveTemplate, type DecayCurveOptions } from "./plots/decay-curve";
-export { GROUP_STRIP_DEFAULTS, groupStripTemplate, type GroupStripOptions } from "./plots/group-strip";
-export { PL_MAP_DEFAULTS, plMapTemplate, type PlMapOptions } from "./plots/pl-map";
-export { SCATTER_LINE_DEFAULTS, scatterLineTemplate, type ScatterLineOptions } from "./plots/scatter-line";
-export {
-  expectedNucleusMarker, NV_NMR_DEFAULTS, nvNmrTemplate, type NvNmrOptions, SPECTRUM_DEFAULTS, spectrumTemplate,
-  type SpectrumOptions, ZPL_MARKERS,
-} from "./plots/spectrum";
+export { DECAY_CURVE_DEFAULTS, decayCurveTemplate } from "./plots/decay-curve";
+export { expectedNucleusMarker, spectrumTemplate } from "./plots/spectrum";
 
 // The registry is heterogeneous: each template fills and checks its own options when it builds.
 export const FIGURE_TEMPLATES: ReadonlyArray<FigureTemplate<any>> = [

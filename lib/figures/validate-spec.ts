@@ -5,14 +5,14 @@
  */
 import type { TopLevelSpec } from "vega-lite";
 import vegaLiteSchema from "vega-lite/vega-lite-schema.json";
-import { createSchemaChecker, type JsonSchema, type SchemaChecker } from "./json-schema-check";
+import { createSchemaChecker, type SchemaChecker } from "./json-schema-check";
 import { checkSpecSecurity } from "./spec-security";
 import { formatPath, toPointer, type SpecPath } from "./spec-path";
 
 export const MAX_SPEC_BYTES = 256 * 1024;
-export const MAX_SPEC_DEPTH = 64;
+const MAX_SPEC_DEPTH = 64;
 /** At most this many errors are reported. */
-export const MAX_REPORTED_ERRORS = 10;
+const MAX_REPORTED_ERRORS = 10;
 
 export interface SpecError {
   /** Readable path, e.g. "layer[1].encoding.href"; "(root)" for the spec itself. */
@@ -28,7 +28,7 @@ export type ValidateSpecResult =
 
 let checker: SchemaChecker | null = null;
 function schemaChecker(): SchemaChecker {
-  checker ??= createSchemaChecker(vegaLiteSchema as unknown as JsonSchema);
+  checker ??= createSchemaChecker(vegaLiteSchema);
   return checker;
 }
 

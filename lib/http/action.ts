@@ -31,7 +31,7 @@ function failure(err: unknown): ActionState {
  * Next checks a server action's Origin against the host only when the header is present; a
  * request without one would pass. Forms here are always posted by a browser, which sends it.
  */
-export async function requireSameOrigin(h: Headers): Promise<void> {
+function requireSameOrigin(h: Headers): void {
   const origin = h.get("origin");
   if (!origin) throw forbidden("This form must be sent from Prooflight's own pages; the request had no Origin header.");
   let host: string;
@@ -51,7 +51,7 @@ export function withAction<I>(
 ): FormAction {
   const fn: FormAction = async (_prev, form) => {
     try {
-      await requireSameOrigin(await headers());
+      requireSameOrigin(await headers());
       const user = await currentUser();
       if (!user) return { ok: false, message: "Your session has ended. Sign in again." };
       const input = options.input.parse(formToObject(form));
@@ -69,7 +69,7 @@ export function withAction<I>(
 export function publicAction<I>(input: z.ZodType<I>, handler: (input: I) => Promise<ActionState | void>): FormAction {
   const fn: FormAction = async (_prev, form) => {
     try {
-      await requireSameOrigin(await headers());
+      requireSameOrigin(await headers());
       return (await handler(input.parse(formToObject(form)))) ?? { ok: true, message: "Done." };
     } catch (err) {
       return failure(err);

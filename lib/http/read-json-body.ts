@@ -9,7 +9,7 @@ import { findJsonSyntaxError, lineColumnAt } from "@/lib/data/parse/json-syntax"
 import { badRequest, tooLarge, unsupported } from "@/lib/errors";
 
 /** Objects and arrays inside one another; the body itself is level 1. */
-export const MAX_JSON_DEPTH = 64;
+const MAX_JSON_DEPTH = 64;
 /** Routes that carry a Vega-Lite spec (panel revisions) may send more. */
 export const SPEC_BODY_MAX_BYTES = 2 * 1024 * 1024;
 
@@ -51,7 +51,7 @@ export async function readBodyBytes(req: Request, maxBytes: number): Promise<Uin
   } finally {
     reader.releaseLock();
   }
-  if (chunks.length === 1) return chunks[0]!;
+  if (chunks.length === 1) return chunks[0];
   const out = new Uint8Array(total);
   let at = 0;
   for (const c of chunks) {
@@ -113,14 +113,14 @@ export function checkJsonShape(value: unknown, maxDepth = MAX_JSON_DEPTH): void 
       if (key === "__proto__") throw badRequest(`${pathOf(frame, key)}: "__proto__" is not allowed as a key in the request body.`);
     }
     for (let i = keys.length - 1; i >= 0; i--) {
-      const child: unknown = (v as Record<string, unknown>)[keys[i]!];
-      if (child !== null && typeof child === "object") stack.push({ value: child, depth: frame.depth + 1, parent: frame, key: keys[i]! });
+      const child: unknown = (v as Record<string, unknown>)[keys[i]];
+      if (child !== null && typeof child === "object") stack.push({ value: child, depth: frame.depth + 1, parent: frame, key: keys[i] });
     }
   }
 }
 
 /** JSON text → value, with a 400 naming line and column when it is malformed. */
-export function parseJsonText(text: string): unknown {
+function parseJsonText(text: string): unknown {
   try {
     return JSON.parse(text);
   } catch (e) {
@@ -141,7 +141,7 @@ export interface ReadJsonOptions {
 function checkJsonContentType(req: Request): void {
   const type = req.headers.get("content-type");
   if (type === null || !type.trim()) return;
-  const essence = type.split(";")[0]!.trim().toLowerCase();
+  const essence = type.split(";")[0].trim().toLowerCase();
   if (essence === "application/json" || /^application\/[\w.+-]+\+json$/.test(essence)) return;
   throw unsupported(`This route takes JSON: send Content-Type: application/json (the request said ${JSON.stringify(essence.slice(0, 80))}).`);
 }

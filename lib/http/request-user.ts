@@ -12,7 +12,7 @@ export async function resolveCaller(req: Request): Promise<Caller | null> {
   if (header) {
     const m = /^Bearer\s+(\S+)$/i.exec(header);
     if (!m) throw unauthorized("The Authorization header must be `Bearer <token>`.");
-    const user = await userForApiToken(m[1]!);
+    const user = await userForApiToken(m[1]);
     if (!user) throw unauthorized("This API token is unknown or revoked.");
     return { user, via: "token" };
   }

@@ -7,10 +7,10 @@ import { toErrorResponse } from "./errors";
 import { readJsonBody } from "./read-json-body";
 import { resolveCaller } from "./request-user";
 
-export type Params = Record<string, string>;
+type Params = Record<string, string>;
 type RouteContext = { params: Promise<Params> };
 export type RouteHandler = ((req: Request, ctx: RouteContext) => Promise<Response>) & { gate?: GateInfo };
-export interface GateInfo { permission: Action | "public"; }
+interface GateInfo { permission: Action | "public"; }
 
 export interface HandlerArgs<B, Q> {
   req: Request; user: SessionUser; role: Role | null; params: Params; body: B; query: Q; manuscriptId?: string;
@@ -56,14 +56,15 @@ export function checkOrigin(req: Request) {
 export function withPermission<B = undefined, Q = undefined>(
   permission: Action,
   options: Options<B, Q>,
-  handler: (a: HandlerArgs<B, Q>) => Promise<Response | unknown>,
+  /** Returns (or resolves to) a Response, or a value sent as JSON. */
+  handler: (a: HandlerArgs<B, Q>) => unknown,
 ): RouteHandler {
   const fn: RouteHandler = async (req, ctx) => {
     try {
       const caller = await resolveCaller(req);
       if (!caller) throw unauthorized();
       if (caller.via === "session" && !SAFE_METHODS.has(req.method)) checkOrigin(req);
-      const params = ((await ctx?.params) ?? {}) as Params;
+      const params = ((await ctx?.params) ?? {});
       const url = new URL(req.url);
       const query = (options.query ? options.query.parse(Object.fromEntries(url.searchParams)) : undefined) as Q;
       const body = (options.body && !options.rawBody ? options.body.parse(await readJsonBody(req, { maxBytes: options.maxBodyBytes })) : undefined) as B;
@@ -80,7 +81,7 @@ export function withPermission<B = undefined, Q = undefined>(
 }
 
 /** For the short allow-list of public endpoints (health, OpenAPI, auth). */
-export function publicRoute(handler: (req: Request, ctx: RouteContext) => Promise<Response>): RouteHandler {
+export function publicRoute(handler: (req: Request, ctx: RouteContext) => Response | Promise<Response>): RouteHandler {
   const fn: RouteHandler = async (req, ctx) => {
     try {
       return await handler(req, ctx);

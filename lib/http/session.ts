@@ -1,6 +1,6 @@
 import { notFound, redirect } from "next/navigation";
 import { auth } from "@/auth";
-import type { SessionUser } from "@/lib/authz";
+import { authorize, type SessionUser } from "@/lib/authz";
 import { AppError } from "@/lib/errors";
 import { getUserById } from "@/lib/server/users";
 
@@ -24,4 +24,14 @@ export async function loadOrNotFound<T>(load: () => Promise<T>): Promise<T> {
     if (err instanceof AppError && (err.status === 404 || err.status === 403)) notFound();
     throw err;
   }
+}
+
+/**
+ * For the layout of a dynamic segment with a loading.tsx: notFound() unless the signed-in person may
+ * read the manuscript `scope` names. A layout renders above its segment's loading state, so this
+ * answer is still a 404 status; a notFound() thrown under a streamed loading state arrives as 200.
+ */
+export async function requireReadableOrNotFound(scope: () => Promise<string>): Promise<void> {
+  const user = await requireUser();
+  await loadOrNotFound(async () => authorize(user, "manuscript.read", await scope()));
 }

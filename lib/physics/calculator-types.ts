@@ -20,7 +20,7 @@ export interface CalculatorInput {
   exclusiveMin?: boolean;
 }
 
-export interface CalculatorOutput {
+interface CalculatorOutput {
   name: string;
   label: string;
   unit: string;

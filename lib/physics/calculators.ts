@@ -17,7 +17,7 @@ import { photonEnergyCalculator, photonWavelengthCalculator } from "./photon";
 import { hahnEchoSensitivityCalculator } from "./sensitivity";
 import { arealDensityCalculator } from "./spot-density";
 
-export type { Calculator, CalculatorInput, CalculatorOutput } from "./calculator-types";
+export type { Calculator } from "./calculator-types";
 export { CalculatorInputError, UnknownCalculatorError, ESTIMATE_CAUTION } from "./calculator-types";
 
 const CALCULATORS: readonly Calculator[] = [
@@ -46,7 +46,7 @@ export function listCalculators(): Calculator[] {
 }
 
 /** The calculator with this id, or UnknownCalculatorError. */
-export function getCalculatorOrThrow(id: string): Calculator {
+function getCalculatorOrThrow(id: string): Calculator {
   const calc = BY_ID.get(id);
   if (!calc) throw new UnknownCalculatorError(id);
   return calc;
@@ -68,7 +68,7 @@ function validateOne(spec: CalculatorInput, raw: unknown): number {
 }
 
 /** Checks that every declared input is present, a finite number and in range; rejects unknown names. */
-export function validateCalculatorInputs(calc: Calculator, inputs: Record<string, unknown>): Record<string, number> {
+function validateCalculatorInputs(calc: Calculator, inputs: Record<string, unknown>): Record<string, number> {
   const known = new Set(calc.inputs.map((i) => i.name));
   for (const name of Object.keys(inputs)) {
     if (!known.has(name)) throw new CalculatorInputError(name, `is not an input of ${calc.id}`);

@@ -5,7 +5,7 @@
 import { type Calculator, withCaution } from "./calculator-types";
 
 /** Simple ZPL-area ratio A(NV⁻)/A(NV⁰) and the NV⁻ share A(NV⁻)/(A(NV⁻)+A(NV⁰)). */
-export function zplAreaRatio(areaNvMinus: number, areaNvZero: number): { ratio: number; fractionNvMinus: number } {
+function zplAreaRatio(areaNvMinus: number, areaNvZero: number): { ratio: number; fractionNvMinus: number } {
   return { ratio: areaNvMinus / areaNvZero, fractionNvMinus: areaNvMinus / (areaNvMinus + areaNvZero) };
 }
 

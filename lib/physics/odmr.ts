@@ -25,12 +25,12 @@ export function odmrFieldFromResonances(fMinusHz: number, fPlusHz: number): { fi
 }
 
 /** Axial field (T) from the lower line alone: B = (D − f₋)/γ, valid only below D/γ. */
-export function odmrFieldFromLowerLine(fMinusHz: number, zfsHz: number = NV_ZERO_FIELD_SPLITTING): number {
+function odmrFieldFromLowerLine(fMinusHz: number, zfsHz: number = NV_ZERO_FIELD_SPLITTING): number {
   return (zfsHz - fMinusHz) / NV_GAMMA;
 }
 
 /** Field (T) at which the lower transition reaches zero frequency: D/γ ≈ 102.38 mT. */
-export function odmrSingleLineLimit(zfsHz: number = NV_ZERO_FIELD_SPLITTING): number {
+function odmrSingleLineLimit(zfsHz: number = NV_ZERO_FIELD_SPLITTING): number {
   return zfsHz / NV_GAMMA;
 }
 

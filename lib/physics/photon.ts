@@ -7,7 +7,7 @@ import { type Calculator, withCaution } from "./calculator-types";
 import { NANO } from "./units";
 
 /** hc in eV·nm. */
-export const HC_EV_NM = (PLANCK_CONSTANT * SPEED_OF_LIGHT) / ELEMENTARY_CHARGE / NANO;
+const HC_EV_NM = (PLANCK_CONSTANT * SPEED_OF_LIGHT) / ELEMENTARY_CHARGE / NANO;
 
 /** Photon energy in eV for a vacuum wavelength in nm. */
 export function photonEnergyEv(wavelengthNm: number): number {

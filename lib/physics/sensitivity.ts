@@ -8,12 +8,12 @@ import { type Calculator, withCaution } from "./calculator-types";
 import { MICRO, NANO } from "./units";
 
 /** Hahn-echo AC sensitivity η in T/√Hz for coherence time `t2S` (s) and readout factor `c` (0 < C ≤ 1). */
-export function hahnEchoSensitivity(t2S: number, c: number, g: number = NV_G_FACTOR): number {
+function hahnEchoSensitivity(t2S: number, c: number, g: number = NV_G_FACTOR): number {
   return ((Math.PI / 2) * REDUCED_PLANCK_CONSTANT) / (g * BOHR_MAGNETON) / (c * Math.sqrt(t2S));
 }
 
 /** Minimum detectable field δB = η/√T_total in T, for η in T/√Hz and total time in s. */
-export function minimumDetectableField(sensitivityTPerRootHz: number, totalTimeS: number): number {
+function minimumDetectableField(sensitivityTPerRootHz: number, totalTimeS: number): number {
   return sensitivityTPerRootHz / Math.sqrt(totalTimeS);
 }
 

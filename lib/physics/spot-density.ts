@@ -6,7 +6,7 @@
  */
 import { type Calculator, withCaution } from "./calculator-types";
 
-export type Connectivity = 4 | 8;
+type Connectivity = 4 | 8;
 
 /** Long-format map: one row per pixel, positions in µm, any value unit (e.g. counts/s). */
 export interface LongFormatMap {
@@ -33,7 +33,7 @@ export interface SpotCountOptions {
   minPixels?: number;
 }
 
-export interface Spot {
+interface Spot {
   pixels: number;
   /** Unweighted centroid, µm. */
   x: number;

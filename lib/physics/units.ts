@@ -1,7 +1,5 @@
 /** SI prefix factors used at the calculator boundary (inputs and outputs use practical units). */
-export const GIGA = 1e9;
 export const MEGA = 1e6;
-export const KILO = 1e3;
 export const MILLI = 1e-3;
 export const MICRO = 1e-6;
 export const NANO = 1e-9;

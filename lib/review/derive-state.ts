@@ -4,7 +4,7 @@
  */
 
 export type ReviewState = "draft" | "in_review" | "needs_revision" | "approved" | "signed_off";
-export type Decision = "approved" | "needs_revision";
+type Decision = "approved" | "needs_revision";
 
 export interface DecisionRecord { userId: string; decision: Decision; contentHash: string; createdAt: number }
 
@@ -25,7 +25,7 @@ export interface PanelState {
 }
 
 /** Each person's latest decision on the given hash (an approval can be withdrawn by a later "needs revision"). */
-export function latestDecisionsOn(hash: string, decisions: DecisionRecord[]): Map<string, DecisionRecord> {
+function latestDecisionsOn(hash: string, decisions: DecisionRecord[]): Map<string, DecisionRecord> {
   const latest = new Map<string, DecisionRecord>();
   for (const d of decisions) {
     if (d.contentHash !== hash) continue;

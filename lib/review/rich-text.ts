@@ -61,12 +61,12 @@ function checkMarks(marks: unknown, path: string): void {
   marks.forEach((m, i) => {
     const at = `${path}[${i}]`;
     if (!isPlainObject(m)) throw new RichTextError(at, "expected a mark object");
-    const allowed = typeof m.type === "string" && Object.hasOwn(MARK_ATTRS, m.type) ? MARK_ATTRS[m.type]! : undefined;
+    const allowed = typeof m.type === "string" && Object.hasOwn(MARK_ATTRS, m.type) ? MARK_ATTRS[m.type] : undefined;
     if (!allowed) throw new RichTextError(at, `mark "${String(m.type)}" is not allowed`);
     for (const k of Object.keys(m)) {
-      if (k !== "type" && !(k === "attrs" && allowed.length)) throw new RichTextError(`${at}.${k}`, `${JSON.stringify(k)} is not allowed on a ${m.type} mark`);
+      if (k !== "type" && !(k === "attrs" && allowed.length)) throw new RichTextError(`${at}.${k}`, `${JSON.stringify(k)} is not allowed on a ${String(m.type)} mark`);
     }
-    if (m.attrs !== undefined) checkAttrs(m.attrs, allowed, `${at}.attrs`, `a ${m.type} mark`);
+    if (m.attrs !== undefined) checkAttrs(m.attrs, allowed, `${at}.attrs`, `a ${String(m.type)} mark`);
   });
 }
 
@@ -83,12 +83,12 @@ function checkShape(doc: unknown): void {
     if (depth > MAX_DEPTH) throw new RichTextError(path, `nested more than ${MAX_DEPTH} levels deep`);
     if (++nodes > MAX_NODES) throw new RichTextError(path, `more than ${MAX_NODES} nodes`);
     const type = node.type;
-    const shape = typeof type === "string" && Object.hasOwn(NODE_SHAPES, type) ? NODE_SHAPES[type]! : undefined;
+    const shape = typeof type === "string" && Object.hasOwn(NODE_SHAPES, type) ? NODE_SHAPES[type] : undefined;
     if (!shape || (type === "doc" && depth > 1)) throw new RichTextError(path, `node "${String(type)}" is not allowed`);
     for (const k of Object.keys(node)) {
-      if (!shape.keys.includes(k)) throw new RichTextError(`${path}.${k}`, `${JSON.stringify(k)} is not allowed on a ${type} node`);
+      if (!shape.keys.includes(k)) throw new RichTextError(`${path}.${k}`, `${JSON.stringify(k)} is not allowed on a ${String(type)} node`);
     }
-    if (node.attrs !== undefined) checkAttrs(node.attrs, shape.attrs ?? [], `${path}.attrs`, `a ${type} node`);
+    if (node.attrs !== undefined) checkAttrs(node.attrs, shape.attrs ?? [], `${path}.attrs`, `a ${String(type)} node`);
     if (node.marks !== undefined) checkMarks(node.marks, `${path}.marks`);
     if (node.content !== undefined) {
       if (!Array.isArray(node.content)) throw new RichTextError(`${path}.content`, "expected a list");
@@ -98,10 +98,10 @@ function checkShape(doc: unknown): void {
   }
 }
 
-export const escapeHtml = (s: string) =>
+const escapeHtml = (s: string) =>
   s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;").replace(/'/g, "&#39;");
 
-export function safeHref(href: unknown): string | null {
+function safeHref(href: unknown): string | null {
   if (typeof href !== "string") return null;
   const trimmed = href.trim();
   // Control characters and whitespace inside the scheme are how "java\tscript:" slips past naive checks.

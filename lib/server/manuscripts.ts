@@ -35,12 +35,12 @@ export async function createManuscript(user: SessionUser, input: z.infer<typeof 
   if (!labId) {
     const mine = await listLabsForUser(user);
     if (mine.length !== 1) throw badRequest("labId: say which of your labs the manuscript belongs to.");
-    labId = mine[0]!.id;
+    labId = mine[0].id;
   }
   await authorizeLab(user, labId);
   const id = newId();
   await getDb().transaction(async (tx) => {
-    await tx.insert(manuscripts).values({ id, labId: labId!, title, createdBy: user.id });
+    await tx.insert(manuscripts).values({ id, labId: labId, title, createdBy: user.id });
     await tx.insert(manuscriptMembers).values({ manuscriptId: id, userId: user.id, role: "pi" });
     await appendAudit(tx, { actorId: user.id, manuscriptId: id, action: "manuscript.create", target: `manuscript:${id}`, data: { title } });
   });

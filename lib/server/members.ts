@@ -18,7 +18,7 @@ const INVITE_TTL_MS = 7 * 24 * 3600 * 1000;
 const HOUR_MS = 3600 * 1000;
 
 /** Invitations are mail to outsiders: a few per address a day, a few dozen per manuscript an hour. */
-export function invitationRateRules(manuscriptId: string, email: string): RateRule[] {
+function invitationRateRules(manuscriptId: string, email: string): RateRule[] {
   return [
     { bucket: `invite:to:${email}`, max: 3, windowMs: 24 * HOUR_MS, message: `${email} has been invited 3 times today.` },
     { bucket: `invite:manuscript:${manuscriptId}`, max: 30, windowMs: HOUR_MS, message: "This manuscript has sent 30 invitations in the last hour." },

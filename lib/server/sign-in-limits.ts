@@ -7,18 +7,18 @@ import { describeWait } from "./limits/rate-limit";
 import { normaliseEmail } from "./users";
 
 /** Failures older than this no longer count. */
-export const SIGN_IN_WINDOW_MS = 60 * 60 * 1000;
+const SIGN_IN_WINDOW_MS = 60 * 60 * 1000;
 /** Wrong passwords an account may have before each further try must wait. */
-export const FREE_FAILURES_PER_ACCOUNT = 3;
+const FREE_FAILURES_PER_ACCOUNT = 3;
 /** The longest wait one account can be given: slows guessing, never locks the owner out for long. */
-export const MAX_ACCOUNT_DELAY_S = 300;
-export const IP_WINDOW_MS = 15 * 60 * 1000;
-export const MAX_FAILURES_PER_IP = 20;
+const MAX_ACCOUNT_DELAY_S = 300;
+const IP_WINDOW_MS = 15 * 60 * 1000;
+const MAX_FAILURES_PER_IP = 20;
 
 export interface SignInBlock { message: string; retryAfterSeconds: number }
 
 /** Seconds an account must wait after its latest failure, given its failures in the window. */
-export function accountDelaySeconds(failures: number): number {
+function accountDelaySeconds(failures: number): number {
   if (failures < FREE_FAILURES_PER_ACCOUNT) return 0;
   return Math.min(2 ** (failures - FREE_FAILURES_PER_ACCOUNT + 1), MAX_ACCOUNT_DELAY_S);
 }

@@ -14,7 +14,7 @@ const LINK_TTL_MS = 15 * 60 * 1000;
 const HOUR_MS = 3600 * 1000;
 
 /** Counted per address asked for and per client address, whether or not an account exists, so a 429 reveals nothing. */
-export function signInLinkRateRules(email: string, clientAddress: string): RateRule[] {
+function signInLinkRateRules(email: string, clientAddress: string): RateRule[] {
   return [
     { bucket: `sign-in-link:to:${normaliseEmail(email)}`, max: 3, windowMs: 15 * 60 * 1000, message: "Three sign-in links were sent to this address in the last 15 minutes; use the newest." },
     { bucket: `sign-in-link:from:${clientAddress}`, max: 30, windowMs: HOUR_MS, message: "Too many sign-in links were asked for from this address." },

@@ -13,6 +13,6 @@ export function ensureLocalEnv(root = process.cwd()): void {
   }
   for (const line of text.split("\n")) {
     const m = /^([A-Z0-9_]+)=(.*)$/.exec(line.trim());
-    if (m && process.env[m[1]!] === undefined) process.env[m[1]!] = m[2]!.replace(/^"(.*)"$/, "$1");
+    if (m && process.env[m[1]] === undefined) process.env[m[1]] = m[2].replace(/^"(.*)"$/, "$1");
   }
 }

@@ -32,7 +32,8 @@ describe("uploads", () => {
     expect(r.json).toMatchObject({ number: 1, rowCount: 4, byteSize: Buffer.byteLength(ECHO) });
     expect(r.json.sha256).toBe(createHash("sha256").update(ECHO, "utf8").digest("hex")); // of the bytes sent
     expect(r.json.columns).toEqual([
-      { name: "tau", unit: "µs", type: "number" }, { name: "signal", unit: null, type: "number" }, { name: "sigma", unit: null, type: "number" },
+      { name: "tau", unit: "µs", type: "number", header: "tau (µs)" }, { name: "signal", unit: null, type: "number", header: "signal" },
+      { name: "sigma", unit: null, type: "number", header: "sigma" },
     ]);
     expect(r.json.warnings.join(" ")).toMatch(/blank line/);
     expect(r.json.parse.headerMetadata).toMatchObject({ sample: "K17" });

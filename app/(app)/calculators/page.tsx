@@ -1,7 +1,7 @@
 import { PageHeader } from "@/components/ui";
 import { requireUser } from "@/lib/http/session";
 import { analysisCatalogue } from "@/lib/server/analyses/catalogue";
-import { CalculatorCard } from "./_components/calculator-card";
+import { CalculatorCard, type CalculatorView } from "./_components/calculator-card";
 
 export const metadata = { title: "Calculators" };
 
@@ -17,7 +17,7 @@ export default async function CalculatorsPage() {
         sources follows your institution&apos;s safety rules and licensed practice.
       </p>
       <div className="grid gap-5 md:grid-cols-2">
-        {calculators.map((c) => <CalculatorCard key={c.id} calculator={JSON.parse(JSON.stringify(c))} />)}
+        {calculators.map((c) => <CalculatorCard key={c.id} calculator={JSON.parse(JSON.stringify(c)) as CalculatorView} />)}
       </div>
     </>
   );

@@ -2,4 +2,4 @@
 import { withPermission } from "@/lib/http/route";
 import { analysisCatalogue } from "@/lib/server/analyses/catalogue";
 
-export const GET = withPermission("model.list", {}, async () => analysisCatalogue());
+export const GET = withPermission("model.list", {}, () => analysisCatalogue());

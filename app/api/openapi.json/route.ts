@@ -2,4 +2,4 @@
 import { buildOpenApi } from "@/lib/http/api-catalogue";
 import { publicRoute } from "@/lib/http/route";
 
-export const GET = publicRoute(async () => Response.json(buildOpenApi()));
+export const GET = publicRoute(() => Response.json(buildOpenApi()));

@@ -1,4 +1,4 @@
 // Fixed JSON with no database work: the anchor the benchmarks compare real routes against.
 import { publicRoute } from "@/lib/http/route";
 
-export const GET = publicRoute(async () => Response.json({ ok: true }));
+export const GET = publicRoute(() => Response.json({ ok: true }));

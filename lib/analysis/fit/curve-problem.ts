@@ -7,11 +7,11 @@ import type { LeastSquaresProblem } from "./levenberg-marquardt";
 
 /** A curve y = f(x; p); FitModel satisfies this shape. */
 export interface CurveFunction {
-  evaluate(x: number, p: Float64Array | number[]): number;
+  evaluate: (x: number, p: Float64Array | number[]) => number;
   /** Writes ∂f/∂pⱼ at x into out (length = number of parameters). */
-  jacobian?(x: number, p: ArrayLike<number>, out: Float64Array): void;
+  jacobian?: (x: number, p: ArrayLike<number>, out: Float64Array) => void;
   /** Optional: f(x) with ∂f/∂pⱼ written into out, in one pass (saves a sweep per step). */
-  valueAndJacobian?(x: number, p: ArrayLike<number>, out: Float64Array): number;
+  valueAndJacobian?: (x: number, p: ArrayLike<number>, out: Float64Array) => number;
 }
 
 export interface CurveData {

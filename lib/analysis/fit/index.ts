@@ -1,10 +1,2 @@
-export { fitCurve, type CurveFitOptions, type CurveFitResult } from "./fit-curve";
-export type { CurveData, CurveFunction } from "./curve-problem";
-export {
-  DEFAULT_SOLVER_OPTIONS,
-  minimizeLeastSquares,
-  type LeastSquaresProblem,
-  type SolverOptions,
-  type SolverOutcome,
-} from "./levenberg-marquardt";
-export { computeCovariance } from "./covariance";
+export { fitCurve, type CurveFitResult } from "./fit-curve";
+export { minimizeLeastSquares, type LeastSquaresProblem } from "./levenberg-marquardt";

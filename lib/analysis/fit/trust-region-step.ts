@@ -31,7 +31,7 @@ export function createStepWorkspace(n: number): StepWorkspace {
  * `r` (column-major, leading dimension ldr) holds R in its upper triangle; its strict lower
  * triangle is overwritten. Result in x; sdiag gets the diagonal of the combined triangle.
  */
-export function solveDamped(
+function solveDamped(
   n: number,
   r: Float64Array,
   ldr: number,

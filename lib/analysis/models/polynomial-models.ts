@@ -39,7 +39,7 @@ function binomial(n: number, k: number): number {
 }
 
 /** Least-squares coefficients of x⁰ … x^degree. */
-export function polynomialLeastSquares(x: ArrayLike<number>, y: ArrayLike<number>, degree: number): number[] {
+function polynomialLeastSquares(x: ArrayLike<number>, y: ArrayLike<number>, degree: number): number[] {
   const { min, max } = xScale(x);
   const centre = (min + max) / 2;
   const half = (max - min) / 2 || 1;

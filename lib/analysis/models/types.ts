@@ -11,8 +11,6 @@ export interface ModelParam {
   description: string;
 }
 
-export type MeasurementKind = "hahn_echo" | "relaxation" | "ramsey" | "odmr" | "pl_spectrum" | "nv_nmr" | "other";
-
 /**
  * A curve model y = f(x; p). Everything is in the data's own units: the model never assumes
  * that x is in µs or MHz, so start values come from the data (extrema, periodograms,
@@ -27,14 +25,14 @@ export interface FitModel {
   version: string;
   kinds: string[];
   params: ModelParam[];
-  evaluate(x: number, p: Float64Array | number[]): number;
+  evaluate: (x: number, p: Float64Array | number[]) => number;
   /** Writes ∂f/∂pⱼ at x into out (length params.length). */
-  jacobian?(x: number, p: ArrayLike<number>, out: Float64Array): void;
+  jacobian?: (x: number, p: ArrayLike<number>, out: Float64Array) => void;
   /**
    * Optional fast path: returns f(x) and writes ∂f/∂pⱼ into out in one pass, so the fitter
    * needs one model sweep per step instead of two. Must agree with evaluate and jacobian.
    */
-  valueAndJacobian?(x: number, p: ArrayLike<number>, out: Float64Array): number;
+  valueAndJacobian?: (x: number, p: ArrayLike<number>, out: Float64Array) => number;
   /** Automatic start values from the data, one per parameter. */
   guess(x: ArrayLike<number>, y: ArrayLike<number>): number[];
   /** Sensible default bounds for the data, one [lo, hi] per parameter (±Infinity allowed). */

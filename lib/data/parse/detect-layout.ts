@@ -38,7 +38,7 @@ export interface Layout {
 const SAMPLE_LINES = 200;
 const SAMPLE_CHARS = 512 * 1024;
 /** A header-less, all-numeric block at least this wide is read as a 2-D map in "auto" mode. */
-export const MATRIX_MIN_COLUMNS = 10;
+const MATRIX_MIN_COLUMNS = 10;
 
 interface Sampled {
   lines: TextLine[];

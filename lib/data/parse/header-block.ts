@@ -9,7 +9,7 @@ const SECTION_LINE = /^\s*\[[^\]]{1,64}\]\s*$/;
 const DATA_PUNCTUATION = /[,;\t]/;
 
 /** `# sample: D-17` → ["sample", "D-17"]; null when the line is not a key/value pair. */
-export function parseMetadataLine(line: string): [string, string] | null {
+function parseMetadataLine(line: string): [string, string] | null {
   const comment = isCommentLine(line);
   const body = comment ? stripComment(line) : line.trim();
   const colon = COLON_LINE.exec(body);
@@ -25,7 +25,7 @@ export function parseMetadataLine(line: string): [string, string] | null {
   return [key, m[2].trim()];
 }
 
-export function isSectionLine(line: string): boolean {
+function isSectionLine(line: string): boolean {
   return SECTION_LINE.test(line);
 }
 

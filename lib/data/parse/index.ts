@@ -7,18 +7,8 @@ import { decodeBytes } from "./decode-bytes";
 import { parseDelimited } from "./parse-delimited";
 import { parseJson } from "./parse-json";
 
-export type {
-  ColumnType,
-  DecimalMark,
-  DelimiterOption,
-  ParsedColumn,
-  ParsedTable,
-  ParseOptions,
-  TableFormat,
-  TextEncodingName,
-} from "./types";
-export { DEFAULT_MAX_COLUMNS } from "./types";
-export { ParseError, type ParseErrorCode } from "./parse-error";
+export type { ParsedTable, ParseOptions } from "./types";
+export { ParseError } from "./parse-error";
 
 /** `{…}` always; `[…]` only when it does not look like an instrument section header such as `[Data]`. */
 function looksLikeJson(text: string, fileName: string): boolean {

@@ -17,14 +17,14 @@ import { findJsonSyntaxError, lineColumnAt, locateJsonPath } from "./json-syntax
 type Path = Array<string | number>;
 
 /** Arrays and objects inside one another; a table needs three or four, metadata a few more. */
-export const MAX_JSON_NESTING = 64;
+const MAX_JSON_NESTING = 64;
 
 /**
  * Path of the first array or object nested deeper than `max` (the root is level 1), or null.
  * An explicit stack, never recursion: JSON.parse accepts any depth, but later recursive steps
  * (JSON.stringify of a cell, for one) would overflow the call stack.
  */
-export function findDeepNesting(root: unknown, max: number): Path | null {
+function findDeepNesting(root: unknown, max: number): Path | null {
   interface Frame { value: object; depth: number; parent: Frame | null; key: string | number }
   if (root === null || typeof root !== "object") return null;
   const stack: Frame[] = [{ value: root, depth: 1, parent: null, key: "" }];
@@ -44,8 +44,8 @@ export function findDeepNesting(root: unknown, max: number): Path | null {
     } else {
       const keys = Object.keys(f.value);
       for (let i = keys.length - 1; i >= 0; i--) {
-        const v = (f.value as Record<string, unknown>)[keys[i]!];
-        if (v !== null && typeof v === "object") stack.push({ value: v, depth: f.depth + 1, parent: f, key: keys[i]! });
+        const v = (f.value as Record<string, unknown>)[keys[i]];
+        if (v !== null && typeof v === "object") stack.push({ value: v, depth: f.depth + 1, parent: f, key: keys[i] });
       }
     }
   }
@@ -72,7 +72,8 @@ function isRecord(v: unknown): v is Record<string, unknown> {
 
 function toText(v: unknown): string {
   if (v === null || v === undefined) return "";
-  return typeof v === "string" ? v : typeof v === "object" ? JSON.stringify(v) : String(v);
+  if (typeof v === "string") return v;
+  return typeof v === "number" || typeof v === "boolean" ? String(v) : JSON.stringify(v);
 }
 
 export function parseJson(decoded: DecodedText, opts: ParseOptions): ParsedTable {
@@ -178,10 +179,10 @@ function fromArray(arr: unknown[], base: Path, metadata: Record<string, string>,
   if (arr.length === 0) fail("empty", fileName, {}, "the JSON array is empty.");
   if (arr.every(isRecord)) {
     const keys = new Map<string, number>();
-    for (const rec of arr as Array<Record<string, unknown>>) for (const k of Object.keys(rec)) if (!keys.has(k)) keys.set(k, keys.size);
+    for (const rec of arr) for (const k of Object.keys(rec)) if (!keys.has(k)) keys.set(k, keys.size);
     const columns = [...keys.keys()].map((k): RawColumn => ({
       header: k,
-      values: (arr as Array<Record<string, unknown>>).map((rec) => (Object.hasOwn(rec, k) ? rec[k] : null)),
+      values: arr.map((rec) => (Object.hasOwn(rec, k) ? rec[k] : null)),
       pathOf: (r) => [...base, r, k],
     }));
     return { columns, rowCount: arr.length, metadata };

@@ -20,7 +20,7 @@ export interface ScanConfig {
   capacityHint: number;
 }
 
-export interface ColumnStats {
+interface ColumnStats {
   missing: number;
   /** Text cells in a numeric column (each also stored as NaN). */
   bad: number;

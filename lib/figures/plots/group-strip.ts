@@ -19,7 +19,7 @@ export interface GroupStripOptions extends CommonOptions {
   yScale: ScaleKind;
 }
 
-export const GROUP_STRIP_DEFAULTS: GroupStripOptions = {
+const GROUP_STRIP_DEFAULTS: GroupStripOptions = {
   dataName: "population", groupField: "sample", valueField: "T2", groupName: "sample", valueName: "T₂", unit: "µs",
   summary: "mean-sd", yScale: "linear",
 };

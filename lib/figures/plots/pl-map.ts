@@ -21,7 +21,7 @@ export interface PlMapOptions extends CommonOptions {
   unit: string;
 }
 
-export const PL_MAP_DEFAULTS: PlMapOptions = {
+const PL_MAP_DEFAULTS: PlMapOptions = {
   dataName: "plmap", xField: "x", yField: "y", valueField: "counts", pixelUm: 0.2, scaleBarUm: 5,
   colorScheme: "viridis", colorTitle: "count rate (kcounts/s)", unit: "µm",
 };

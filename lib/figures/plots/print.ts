@@ -7,7 +7,7 @@ import type { TopLevelSpec } from "vega-lite";
 
 export type Spec = { [key: string]: unknown };
 
-export const VEGA_LITE_SCHEMA_URL = "https://vega.github.io/schema/vega-lite/v6.json";
+const VEGA_LITE_SCHEMA_URL = "https://vega.github.io/schema/vega-lite/v6.json";
 
 /** Okabe & Ito (2008), "Color Universal Design": distinguishable with the common colour-vision deficiencies. */
 export const OKABE_ITO = {
@@ -22,12 +22,12 @@ export const OKABE_ITO = {
 } as const;
 
 /** Category order: strong hues first, yellow (weak on white paper) last. */
-export const OKABE_ITO_CATEGORY = [
+const OKABE_ITO_CATEGORY = [
   OKABE_ITO.blue, OKABE_ITO.vermillion, OKABE_ITO.bluishGreen, OKABE_ITO.orange, OKABE_ITO.reddishPurple,
   OKABE_ITO.skyBlue, OKABE_ITO.black, OKABE_ITO.yellow,
 ];
 
-export const PT_PER_MM = 72 / 25.4;
+const PT_PER_MM = 72 / 25.4;
 export const mmToPt = (mm: number): number => Math.round(mm * PT_PER_MM * 100) / 100;
 
 export interface PrintSettings {
@@ -41,7 +41,7 @@ export interface PrintSettings {
   titlePt: number;
 }
 
-export const DEFAULT_PRINT: PrintSettings = { widthMm: 89, heightMm: 62, labelPt: 7, titlePt: 8 };
+const DEFAULT_PRINT: PrintSettings = { widthMm: 89, heightMm: 62, labelPt: 7, titlePt: 8 };
 
 export type ScaleKind = "linear" | "log" | "symlog";
 export const SCALE_CHOICES = [
@@ -80,7 +80,7 @@ export function scaleFor(kind: ScaleKind, extra: Spec = {}): Spec {
 }
 
 /** Vega-Lite config for print: Inter, sizes in pt, thin black axes, no grid, Okabe–Ito categories. */
-export function printConfig(p: PrintSettings): Spec {
+function printConfig(p: PrintSettings): Spec {
   const axisLine = { domainColor: "#000000", tickColor: "#000000", domainWidth: 0.6, tickWidth: 0.6 };
   return {
     font: "Inter",
@@ -109,7 +109,7 @@ export function printConfig(p: PrintSettings): Spec {
 }
 
 /** Top-level frame of a single-view (or layered) panel that fills its printed size exactly. */
-export function singleViewFrame(p: PrintSettings, description: string): Spec {
+function singleViewFrame(p: PrintSettings, description: string): Spec {
   return {
     $schema: VEGA_LITE_SCHEMA_URL,
     description,

@@ -16,7 +16,7 @@ export interface ScatterLineOptions extends CommonOptions, XYAxisText {
   yScale: ScaleKind;
 }
 
-export const SCATTER_LINE_DEFAULTS: ScatterLineOptions = {
+const SCATTER_LINE_DEFAULTS: ScatterLineOptions = {
   dataName: "data", xField: "x", yField: "y", sigmaField: "", colorField: "", marks: "points",
   xName: "x", xUnit: "", yName: "y", yUnit: "", xScale: "linear", yScale: "linear",
 };

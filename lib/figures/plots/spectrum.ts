@@ -21,18 +21,18 @@ export interface SpectrumOptions extends CommonOptions, XYAxisText {
 }
 
 /** NV⁰ and NV⁻ zero-phonon lines, nm. */
-export const ZPL_MARKERS: Marker[] = [
+const ZPL_MARKERS: Marker[] = [
   { position: 575.1, label: "NV⁰ ZPL" },
   { position: 637.4, label: "NV⁻ ZPL" },
 ];
 
-export const SPECTRUM_DEFAULTS: SpectrumOptions = {
+const SPECTRUM_DEFAULTS: SpectrumOptions = {
   dataName: "spectrum", xField: "wavelength", yField: "intensity", fitName: "", seriesField: "series",
   xName: "wavelength", xUnit: "nm", yName: "PL intensity", yUnit: "kcounts/s", yScale: "linear", markers: ZPL_MARKERS,
 };
 
 /** The line-plus-markers layers shared by the spectrum and NV-NMR templates. */
-export function spectrumLayers(o: SpectrumOptions, markerColor: string): Spec[] {
+function spectrumLayers(o: SpectrumOptions, markerColor: string): Spec[] {
   const series = o.seriesField || "series";
   const xTitle = axisTitle(o.xName, o.xUnit);
   const x = (field: string): Spec => quantitative(field, xTitle, { zero: false, nice: false });
@@ -91,7 +91,7 @@ export interface NvNmrOptions extends Omit<SpectrumOptions, "markers" | "xName" 
   xQuantity: "frequency" | "spacing";
 }
 
-export const NV_NMR_DEFAULTS: NvNmrOptions = {
+const NV_NMR_DEFAULTS: NvNmrOptions = {
   dataName: "nmr", xField: "frequency", yField: "contrast", fitName: "", seriesField: "series", yName: "contrast",
   yUnit: "", yScale: "linear", nucleus: "1H", fieldMt: 50, xQuantity: "frequency",
 };

@@ -25,8 +25,8 @@ export function derivedCsv(d: DerivedFileInput): string {
     `# reduced chi-square: ${fmt(d.chi2red)}`,
     `series,${axisTitle(d.xName, d.xUnit)},${axisTitle(d.yName, d.yUnit)}`,
   ];
-  for (let i = 0; i < d.curve.x.length; i++) lines.push(`curve,${fmt(d.curve.x[i]!)},${fmt(d.curve.y[i]!)}`);
-  for (let i = 0; i < d.dataX.length; i++) lines.push(`data,${fmt(d.dataX[i]!)},${fmt(d.dataY[i]!)}`);
-  for (let i = 0; i < d.dataX.length; i++) lines.push(`residual,${fmt(d.dataX[i]!)},${fmt(d.residuals[i]!)}`);
+  for (let i = 0; i < d.curve.x.length; i++) lines.push(`curve,${fmt(d.curve.x[i])},${fmt(d.curve.y[i])}`);
+  for (let i = 0; i < d.dataX.length; i++) lines.push(`data,${fmt(d.dataX[i])},${fmt(d.dataY[i])}`);
+  for (let i = 0; i < d.dataX.length; i++) lines.push(`residual,${fmt(d.dataX[i])},${fmt(d.residuals[i])}`);
   return lines.join("\n") + "\n";
 }

@@ -22,9 +22,9 @@ export async function loadFitData(versionId: string, options: FitOptions): Promi
   const numeric = table.columns.filter((c) => c.type === "number").map((c) => c.name);
   const column = (name: string, field: string) => {
     const i = table.columns.findIndex((c) => c.name === name);
-    if (i < 0 || table.columns[i]!.type !== "number")
+    if (i < 0 || table.columns[i].type !== "number")
       throw badRequest(`options.${field}: no numeric column named "${name}" in version ${row.v.number} (numeric columns: ${numeric.join(", ")}).`);
-    return { data: table.data[i] as Float64Array, unit: table.columns[i]!.unit };
+    return { data: table.data[i] as Float64Array, unit: table.columns[i].unit };
   };
   const xs = column(options.x, "x");
   const ys = column(options.y, "y");
@@ -32,10 +32,10 @@ export async function loadFitData(versionId: string, options: FitOptions): Promi
   const [lo, hi] = options.xRange ?? [-Infinity, Infinity];
   const keep: number[] = [];
   for (let i = 0; i < xs.data.length; i++) {
-    const ok = Number.isFinite(xs.data[i]!) && Number.isFinite(ys.data[i]!) && (!ss || (ss.data[i]! > 0 && Number.isFinite(ss.data[i]!)));
-    if (ok && xs.data[i]! >= lo && xs.data[i]! <= hi) keep.push(i);
+    const ok = Number.isFinite(xs.data[i]) && Number.isFinite(ys.data[i]) && (!ss || (ss.data[i] > 0 && Number.isFinite(ss.data[i])));
+    if (ok && xs.data[i] >= lo && xs.data[i] <= hi) keep.push(i);
   }
-  const pick = (a: Float64Array) => Float64Array.from(keep, (i) => a[i]!);
+  const pick = (a: Float64Array) => Float64Array.from(keep, (i) => a[i]);
   return {
     version: row.v, dataset: row.d, x: pick(xs.data), y: pick(ys.data), sigma: ss ? pick(ss.data) : undefined,
     xUnit: xs.unit, yUnit: ys.unit, dropped: xs.data.length - keep.length,

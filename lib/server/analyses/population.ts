@@ -35,7 +35,7 @@ export async function populationStatistics(user: SessionUser, manuscriptId: stri
     if (!p) throw badRequest(`parameter: model ${model} has no parameter "${parameter}" (it has ${params.map((q) => q.name).join(", ")}).`);
     if (p.value === null) continue;
     unit = p.unit;
-    const group = (METADATA_FIELDS as readonly string[]).includes(groupBy) ? String((d as Record<string, unknown>)[groupBy] ?? "—") : (d.tags[groupBy] ?? "—");
+    const group = (METADATA_FIELDS as readonly string[]).includes(groupBy) ? (d[groupBy as (typeof METADATA_FIELDS)[number]] ?? "—") : (d.tags[groupBy] ?? "—");
     members.push({ group, value: p.value, stderr: p.stderr, analysisId: a.id, dataset: d.name, versionNumber: v.number });
   }
   const groupNames = [...new Set(members.map((m) => m.group))].sort();

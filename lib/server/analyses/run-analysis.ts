@@ -121,7 +121,7 @@ async function manuscriptOfAnalysis(analysisId: string): Promise<string> {
 export async function getAnalysis(user: SessionUser, analysisId: string) {
   await authorize(user, "manuscript.read", await manuscriptOfAnalysis(analysisId));
   const [a] = await getDb().select().from(analyses).where(eq(analyses.id, analysisId));
-  return a!;
+  return a;
 }
 
 export { manuscriptOfAnalysis };

@@ -7,7 +7,7 @@ const NAME_MAX = 100;
 
 const finite = z.number().refine(Number.isFinite, "must be a finite number");
 
-export const fitOptions = z.object({
+const fitOptions = z.object({
   x: z.string({ message: "name the x column" }).min(1, "name the x column").max(COLUMN_MAX, `a column name has at most ${COLUMN_MAX} characters`),
   y: z.string({ message: "name the y column" }).min(1, "name the y column").max(COLUMN_MAX, `a column name has at most ${COLUMN_MAX} characters`),
   sigma: z.string().min(1).max(COLUMN_MAX).optional(),

@@ -36,7 +36,7 @@ export async function getDataset(user: SessionUser, datasetId: string) {
   const [d] = await getDb().select().from(datasets).where(eq(datasets.id, datasetId));
   const vs = await getDb().select({ v: versions, by: users.name }).from(versions)
     .innerJoin(users, eq(users.id, versions.createdBy)).where(eq(versions.datasetId, datasetId)).orderBy(desc(versions.number));
-  return { ...d!, role, versions: vs.map(({ v, by }) => ({ ...toVersionDto(v), createdByName: by })) };
+  return { ...d, role, versions: vs.map(({ v, by }) => ({ ...toVersionDto(v), createdByName: by })) };
 }
 
 export async function updateDatasetMetadata(user: SessionUser, datasetId: string, input: MetadataInput) {
@@ -89,7 +89,7 @@ export async function getVersionRows(user: SessionUser, versionId: string, offse
   const rows: Array<Array<number | string | null>> = [];
   for (let r = 0; r < page.length; r++) {
     rows.push(page.data.map((col) => {
-      const value = col[r]!;
+      const value = col[r];
       return typeof value === "number" && !Number.isFinite(value) ? null : value;
     }));
   }
@@ -103,8 +103,8 @@ export async function getVersionPlot(user: SessionUser, versionId: string, x: st
   const col = (name: string, field: string) => {
     const i = table.columns.findIndex((c) => c.name === name);
     if (i < 0) throw badRequest(`${field}: no column named "${name}" (columns: ${table.columns.map((c) => c.name).join(", ")}).`);
-    if (table.columns[i]!.type !== "number") throw badRequest(`${field}: column "${name}" is not numeric.`);
-    return { data: table.data[i] as Float64Array, unit: table.columns[i]!.unit };
+    if (table.columns[i].type !== "number") throw badRequest(`${field}: column "${name}" is not numeric.`);
+    return { data: table.data[i] as Float64Array, unit: table.columns[i].unit };
   };
   const xs = col(x, "x");
   const ys = col(y, "y");
@@ -114,7 +114,7 @@ export async function getVersionPlot(user: SessionUser, versionId: string, x: st
 }
 
 function isAscending(a: Float64Array): boolean {
-  for (let i = 1; i < a.length; i++) if (a[i]! < a[i - 1]!) return false;
+  for (let i = 1; i < a.length; i++) if (a[i] < a[i - 1]) return false;
   return true;
 }
 
@@ -122,6 +122,6 @@ function isAscending(a: Float64Array): boolean {
 function stride(x: Float64Array, y: Float64Array, points: number) {
   const k = Math.ceil(x.length / points);
   const out = { x: [] as number[], y: [] as number[] };
-  for (let i = 0; i < x.length; i += k) { out.x.push(x[i]!); out.y.push(y[i]!); }
+  for (let i = 0; i < x.length; i += k) { out.x.push(x[i]); out.y.push(y[i]); }
   return out;
 }

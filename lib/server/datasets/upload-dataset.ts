@@ -40,7 +40,7 @@ function summarise(t: ParsedTable): StoredSummary[] {
 }
 
 /** Uploads a user may start per hour (attempts count, refused ones too). */
-export const UPLOADS_PER_HOUR = 120;
+const UPLOADS_PER_HOUR = 120;
 const uploadRate = (userId: string): RateRule => ({
   bucket: `upload:user:${userId}`, max: UPLOADS_PER_HOUR, windowMs: 3600_000,
   message: `You have started ${UPLOADS_PER_HOUR} uploads in the last hour.`,
@@ -126,13 +126,13 @@ async function recordVersion(user: SessionUser, manuscriptId: string, file: Uplo
     const [{ n } = { n: 0 }] = await tx.select({ n: max(versions.number) }).from(versions).where(eq(versions.datasetId, dsId));
     const [row] = await tx.insert(versions).values({
       id: newId(), datasetId: dsId, number: (n ?? 0) + 1, sha256: file.sha256, byteSize: file.byteSize, fileName: file.fileName,
-      rowCount: table.rowCount, columns: table.columns.map((c) => ({ name: c.name, unit: c.unit, type: c.type })),
+      rowCount: table.rowCount, columns: table.columns.map((c) => ({ name: c.name, unit: c.unit, type: c.type, header: c.sourceHeader })),
       parseInfo, summary: summarise(table), createdBy: user.id,
     }).returning();
     await appendAudit(tx, {
-      actorId: user.id, manuscriptId, action: "dataset.upload", target: `version:${row!.id}`,
-      data: { datasetId: dsId, number: row!.number, sha256: file.sha256, fileName: file.fileName, byteSize: file.byteSize },
+      actorId: user.id, manuscriptId, action: "dataset.upload", target: `version:${row.id}`,
+      data: { datasetId: dsId, number: row.number, sha256: file.sha256, fileName: file.fileName, byteSize: file.byteSize },
     });
-    return { ...toVersionDto(row!), deduplicated: false };
+    return { ...toVersionDto(row), deduplicated: false };
   });
 }

@@ -9,7 +9,7 @@ import { reduceRowsForDisplay } from "../figures/display-data";
 import type { FigureReview } from "../review/review-context";
 
 /** Past this the vector file becomes unwieldy for journals; long series are then reduced and the export says so. */
-export const VECTOR_CAP_BYTES = 20 * 1024 * 1024;
+const VECTOR_CAP_BYTES = 20 * 1024 * 1024;
 
 export interface FigureRender { svg: string; widthMm: number; heightMm: number; notes: string[] }
 

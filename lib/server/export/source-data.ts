@@ -12,14 +12,15 @@ import type { FigureReview } from "../review/review-context";
  */
 export function csvCell(v: unknown): string {
   if (v === null || v === undefined) return "";
-  let s = String(v);
+  // Cells are JSON values: text, numbers, booleans (an object or list is written as its JSON).
+  let s = typeof v === "string" ? v : typeof v === "number" || typeof v === "boolean" ? String(v) : JSON.stringify(v);
   if (typeof v !== "number" && /^[=+\-@\t\r]/.test(s)) s = `'${s}`;
   return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
 export function rowsToCsv(rows: Array<Record<string, unknown>>): string {
   if (!rows.length) return "";
-  const cols = Object.keys(rows[0]!);
+  const cols = Object.keys(rows[0]);
   return [cols.map(csvCell).join(","), ...rows.map((r) => cols.map((c) => csvCell(r[c])).join(","))].join("\n") + "\n";
 }
 
@@ -40,7 +41,7 @@ export async function sourceDataFiles(review: FigureReview): Promise<Record<stri
     for (const [name, rows] of Object.entries(data)) {
       const file = `figure-${review.figure.number}-panel-${p.letter}-${name}.csv`;
       files[file] = strToU8(rowsToCsv(rows));
-      const b = rev.bound[name]!;
+      const b = rev.bound[name];
       readme.push(`  ${file}: ${rows.length} rows from ${b.kind} ${b.id}${b.output ? ` (${b.output})` : ""}, source sha256 ${b.sha256}`);
     }
   }

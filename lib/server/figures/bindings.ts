@@ -21,7 +21,7 @@ export async function resolveBindings(manuscriptId: string, bindings: Record<str
       const [a] = await getDb().select({ id: analyses.id, m: analyses.manuscriptId, derived: analyses.derivedVersionId }).from(analyses).where(eq(analyses.id, b.analysisId));
       if (!a || a.m !== manuscriptId || !a.derived) throw badRequest(`bindings.${name}.analysisId: no such analysis in this manuscript.`);
       const [v] = await getDb().select({ sha: versions.sha256 }).from(versions).where(eq(versions.id, a.derived));
-      out[name] = { kind: "analysis", id: a.id, versionId: a.derived, sha256: v!.sha, output: b.output };
+      out[name] = { kind: "analysis", id: a.id, versionId: a.derived, sha256: v.sha, output: b.output };
     }
   }
   return out;
@@ -33,22 +33,23 @@ export function revisionContentHash(spec: unknown, bound: Record<string, BoundIn
   return sha256Hex(canonicalJson({ spec, bindings: hashes }));
 }
 
-const SERIES: Record<string, string> = { curve: "curve", residuals: "residual", data: "data" };
+/** The `series` value of the rows each analysis output binds (the derived file is long format). */
+export const SERIES: Record<string, string> = { curve: "curve", residuals: "residual", data: "data" };
 
 /** The rows each data name resolves to (records keyed by column name), full resolution. */
 export async function loadBoundData(bound: Record<string, BoundInput>): Promise<Record<string, Array<Record<string, number | string | null>>>> {
   const out: Record<string, Array<Record<string, number | string | null>>> = {};
   for (const [name, b] of Object.entries(bound)) {
     const [v] = await getDb().select({ sha: versions.sha256, fileName: versions.fileName }).from(versions).where(eq(versions.id, b.versionId));
-    const t = decodeColumnar(await columnsFor(v!.sha, v!.fileName));
+    const t = decodeColumnar(await columnsFor(v.sha, v.fileName));
     const names = t.columns.map((c) => c.name);
     const rows: Array<Record<string, number | string | null>> = [];
     const wanted = b.output ? SERIES[b.output] : null;
     const seriesCol = wanted ? names.indexOf("series") : -1;
     for (let r = 0; r < t.rowCount; r++) {
-      if (seriesCol >= 0 && t.data[seriesCol]![r] !== wanted) continue;
+      if (seriesCol >= 0 && t.data[seriesCol][r] !== wanted) continue;
       const row: Record<string, number | string | null> = {};
-      names.forEach((n, i) => { const val = t.data[i]![r]!; row[n] = typeof val === "number" && !Number.isFinite(val) ? null : val; });
+      names.forEach((n, i) => { const val = t.data[i][r]; row[n] = typeof val === "number" && !Number.isFinite(val) ? null : val; });
       rows.push(row);
     }
     out[name] = rows;

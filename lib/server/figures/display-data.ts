@@ -12,35 +12,35 @@ const DISPLAY_ROWS = 4000;
  */
 export function reduceRowsForDisplay(rows: Row[], buckets = DISPLAY_ROWS / 2): { rows: Row[]; reduced: boolean; sourceRows: number } {
   if (rows.length <= DISPLAY_ROWS) return { rows, reduced: false, sourceRows: rows.length };
-  const numeric = Object.keys(rows[0] ?? {}).filter((k) => typeof rows[0]![k] === "number");
+  const numeric = Object.keys(rows[0] ?? {}).filter((k) => typeof rows[0][k] === "number");
   const xKey = numeric[0];
-  const sorted = xKey !== undefined && rows.every((r, i) => i === 0 || (r[xKey] as number) >= (rows[i - 1]![xKey] as number));
+  const sorted = xKey !== undefined && rows.every((r, i) => i === 0 || (r[xKey] as number) >= (rows[i - 1][xKey] as number));
   if (!xKey || !sorted) {
     const step = Math.ceil(rows.length / DISPLAY_ROWS);
     return { rows: rows.filter((_, i) => i % step === 0), reduced: true, sourceRows: rows.length };
   }
   const keep = new Set<number>([0, rows.length - 1]);
-  const x0 = rows[0]![xKey] as number;
+  const x0 = rows[0][xKey] as number;
   const span = (rows.at(-1)![xKey] as number) - x0 || 1;
   let start = 0;
   for (let b = 0; b < buckets && start < rows.length; b++) {
     const hi = x0 + (span * (b + 1)) / buckets;
     let end = start;
-    while (end < rows.length && (b === buckets - 1 || (rows[end]![xKey] as number) <= hi)) end++;
+    while (end < rows.length && (b === buckets - 1 || (rows[end][xKey] as number) <= hi)) end++;
     for (const k of numeric.slice(1)) {
       let lo = -1, hiI = -1;
       for (let i = start; i < end; i++) {
-        const v = rows[i]![k];
+        const v = rows[i][k];
         if (typeof v !== "number") continue;
-        if (lo < 0 || v < (rows[lo]![k] as number)) lo = i;
-        if (hiI < 0 || v > (rows[hiI]![k] as number)) hiI = i;
+        if (lo < 0 || v < (rows[lo][k] as number)) lo = i;
+        if (hiI < 0 || v > (rows[hiI][k] as number)) hiI = i;
       }
       if (lo >= 0) keep.add(lo);
       if (hiI >= 0) keep.add(hiI);
     }
     start = end;
   }
-  return { rows: [...keep].sort((a, b) => a - b).map((i) => rows[i]!), reduced: true, sourceRows: rows.length };
+  return { rows: [...keep].sort((a, b) => a - b).map((i) => rows[i]), reduced: true, sourceRows: rows.length };
 }
 
 export async function displayDataFor(bound: Record<string, BoundInput>) {

@@ -9,6 +9,7 @@ import { badRequest, notFound } from "@/lib/errors";
 import { createFigureInput, reorderInput, updateFigureInput } from "./schemas";
 import { manuscriptOfFigure } from "./scope";
 import { loadReviewContext, type FigureReview } from "../review/review-context";
+import { warningsByRevision } from "./integrity";
 import { z } from "zod";
 
 export async function createFigure(user: SessionUser, raw: z.infer<typeof createFigureInput>) {
@@ -48,23 +49,33 @@ export async function getFigure(user: SessionUser, figureId: string) {
   const role = await authorize(user, "manuscript.read", manuscriptId);
   const [review] = await loadReviewContext({ figureId });
   if (!review) throw notFound();
-  return presentFigure(review, role);
+  return presentFigure(review, role, await dataWarningCounts([review]));
 }
 
-function presentFigure(review: FigureReview, role: Role | null) {
+/** Data warnings (lib/server/figures/integrity) per current revision id, counted. */
+async function dataWarningCounts(reviews: FigureReview[]): Promise<Map<string, number>> {
+  const revs = reviews.flatMap((r) => r.panels.flatMap((p) => (p.revision ? [p.revision] : [])));
+  const warnings = await warningsByRevision(revs);
+  return new Map([...warnings].map(([id, w]) => [id, w.length]));
+}
+
+function presentFigure(review: FigureReview, role: Role | null, warningCounts: Map<string, number>) {
   return {
     ...review.figure, role, figureHash: review.figureHash, reviewState: review.state, signoffs: review.signoffs,
     panels: review.panels.map((p) => ({
       id: p.panel.id, letter: p.letter, title: p.panel.title, colSpan: p.panel.colSpan, position: p.panel.position,
       currentRevision: p.revision ? { id: p.revision.id, number: p.revision.number, contentHash: p.revision.contentHash, message: p.revision.message, createdAt: p.revision.createdAt, createdBy: p.revision.createdBy } : null,
       reviewState: p.state, approvedBy: p.approvedBy, needsRevisionBy: p.needsRevisionBy, waitingOn: p.waitingOn, openThreads: p.openThreads,
+      dataWarnings: p.revision ? warningCounts.get(p.revision.id) ?? 0 : 0,
     })),
   };
 }
 
 export async function listFiguresForManuscript(user: SessionUser, manuscriptId: string, knownRole?: Role | null) {
   const role = knownRole ?? (await authorize(user, "manuscript.read", manuscriptId));
-  return (await loadReviewContext({ manuscriptId })).map((r) => presentFigure(r, role));
+  const reviews = await loadReviewContext({ manuscriptId });
+  const counts = await dataWarningCounts(reviews);
+  return reviews.map((r) => presentFigure(r, role, counts));
 }
 
 /** Reorders panels; letters follow the new order. */

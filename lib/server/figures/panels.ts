@@ -11,6 +11,7 @@ import { addPanelInput } from "./schemas";
 import { letterFor, manuscriptOfFigure, manuscriptOfPanel } from "./scope";
 import { loadReviewContext } from "../review/review-context";
 import { describeChanges } from "../review/what-changed";
+import { revisionWarnings } from "./integrity";
 
 export async function addPanel(user: SessionUser, figureId: string, raw: z.infer<typeof addPanelInput>) {
   const manuscriptId = await manuscriptOfFigure(figureId);
@@ -33,17 +34,18 @@ export async function getPanel(user: SessionUser, panelId: string) {
   const siblings = await getDb().select({ id: panels.id }).from(panels).where(eq(panels.figureId, p.figureId)).orderBy(asc(panels.position));
   const [rev] = p.currentRevisionId ? await getDb().select().from(revisions).where(eq(revisions.id, p.currentRevisionId)) : [];
   const [review] = await loadReviewContext({ figureId: p.figureId });
-  const view = review!.panels.find((x) => x.panel.id === panelId)!;
+  const view = review.panels.find((x) => x.panel.id === panelId)!;
   const decided = await Promise.all(view.decisions.map(async (d) => {
     if (!d.stale || !rev) return { ...d, changes: [] };
     const [old] = await getDb().select().from(revisions).where(eq(revisions.id, d.revisionId));
-    return { ...d, changes: await describeChanges(old!, rev) };
+    return { ...d, changes: await describeChanges(old, rev) };
   }));
   return {
     ...p, manuscriptId, role, letter: letterFor(siblings.findIndex((s) => s.id === p.id)),
     currentRevision: rev ? { ...rev, spec: JSON.parse(rev.spec) as unknown } : null,
+    dataWarnings: rev ? await revisionWarnings(rev) : [],
     reviewState: view.state, approvedBy: view.approvedBy, needsRevisionBy: view.needsRevisionBy, waitingOn: view.waitingOn,
-    openThreads: view.openThreads, figure: { id: review!.figure.id, number: review!.figure.number, title: review!.figure.title, figureHash: review!.figureHash, state: review!.state },
+    openThreads: view.openThreads, figure: { id: review.figure.id, number: review.figure.number, title: review.figure.title, figureHash: review.figureHash, state: review.state },
     decisions: decided,
   };
 }

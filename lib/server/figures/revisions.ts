@@ -9,6 +9,7 @@ import { canonicalJson } from "@/lib/figures/canonical-spec";
 import { newId } from "../crypto";
 import { badRequest, conflict, notFound, unprocessable } from "@/lib/errors";
 import { resolveBindings, revisionContentHash } from "./bindings";
+import { fieldProblems } from "./integrity";
 import { revisionInput, type RevisionInput } from "./schemas";
 import { manuscriptOfPanel } from "./scope";
 
@@ -25,13 +26,16 @@ export async function createRevision(user: SessionUser, panelId: string, raw: Re
   const missing = checked.dataNames.filter((n) => !(n in input.bindings));
   if (missing.length) throw badRequest(`bindings: the spec uses data ${missing.map((m) => `"${m}"`).join(", ")} with no binding.`);
   const bound = await resolveBindings(manuscriptId, input.bindings);
+  // A field the bound data lacks draws an empty plot without any error: refused like other spec errors.
+  const problems = await fieldProblems(input.spec, bound);
+  if (problems.length) throw unprocessable(`spec: ${problems.slice(0, 3).map((p) => `${p.path}: ${p.message}`).join("; ")}`, problems);
   const spec = JSON.parse(canonicalJson(input.spec)) as unknown;
   const contentHash = revisionContentHash(spec, bound);
   const id = newId();
   await getDb().transaction(async (tx) => {
     const [p] = await tx.select().from(panels).where(eq(panels.id, panelId));
-    if ((p!.currentRevisionId ?? null) !== input.baseRevisionId)
-      throw conflict(`This panel changed since you opened it: the current revision is ${p!.currentRevisionId ?? "none"}, you edited ${input.baseRevisionId ?? "none"}. Reload and apply your change again.`, { currentRevisionId: p!.currentRevisionId });
+    if ((p.currentRevisionId ?? null) !== input.baseRevisionId)
+      throw conflict(`This panel changed since you opened it: the current revision is ${p.currentRevisionId ?? "none"}, you edited ${input.baseRevisionId ?? "none"}. Reload and apply your change again.`, { currentRevisionId: p.currentRevisionId });
     const [{ n } = { n: 0 }] = await tx.select({ n: max(revisions.number) }).from(revisions).where(eq(revisions.panelId, panelId));
     await tx.insert(revisions).values({
       id, panelId, number: (n ?? 0) + 1, spec: canonicalJson(spec), bindings: input.bindings, bound, message: input.message, contentHash, createdBy: user.id,

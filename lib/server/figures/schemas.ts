@@ -4,8 +4,6 @@ import { z } from "zod";
 /** Ids are 16 characters (newId) or short seed names; 128 leaves room and refuses megabyte strings. */
 const ID_MAX = 128;
 
-export const WIDTH_PRESETS = { single: 89, "one-and-a-half": 120, double: 183 } as const;
-
 export const createFigureInput = z.object({
   manuscriptId: z.string().min(1, "manuscriptId is required").max(ID_MAX),
   title: z.string().trim().min(1, "give the figure a title").max(300),

@@ -27,8 +27,8 @@ export async function traceFigure(user: SessionUser, figureId: string) {
       const [a] = await getDb().select().from(analyses).where(eq(analyses.id, b.id));
       inputs.push({
         name, kind: "analysis" as const, output: b.output,
-        analysis: { id: a!.id, model: a!.model, modelVersion: a!.modelVersion, options: a!.options, inputSha256: a!.inputSha256, createdAt: a!.createdAt },
-        input: await describeVersion(a!.versionId), derived: version,
+        analysis: { id: a.id, model: a.model, modelVersion: a.modelVersion, options: a.options, inputSha256: a.inputSha256, createdAt: a.createdAt },
+        input: await describeVersion(a.versionId), derived: version,
       });
     }
     panelsOut.push({
@@ -43,10 +43,10 @@ export async function traceFigure(user: SessionUser, figureId: string) {
 
 async function describeVersion(versionId: string) {
   const [row] = await getDb().select({ v: versions, d: datasets }).from(versions).innerJoin(datasets, eq(datasets.id, versions.datasetId)).where(eq(versions.id, versionId));
-  const newest = await getDb().select({ n: versions.number }).from(versions).where(eq(versions.datasetId, row!.d.id));
+  const newest = await getDb().select({ n: versions.number }).from(versions).where(eq(versions.datasetId, row.d.id));
   return {
-    versionId, datasetId: row!.d.id, dataset: row!.d.name, number: row!.v.number, latestNumber: Math.max(...newest.map((x) => x.n)),
-    sha256: row!.v.sha256, fileName: row!.v.fileName, byteSize: row!.v.byteSize, createdAt: row!.v.createdAt,
+    versionId, datasetId: row.d.id, dataset: row.d.name, number: row.v.number, latestNumber: Math.max(...newest.map((x) => x.n)),
+    sha256: row.v.sha256, fileName: row.v.fileName, byteSize: row.v.byteSize, createdAt: row.v.createdAt,
   };
 }
 

@@ -14,10 +14,10 @@ export interface RateRule {
   message: string;
 }
 
-export interface RateCheck { allowed: boolean; retryAfterSeconds: number }
+interface RateCheck { allowed: boolean; retryAfterSeconds: number }
 
 /** How the bucket stands now, without recording anything. Shared through the database, so every instance counts. */
-export async function peekRate(rule: RateRule, now = Date.now()): Promise<RateCheck> {
+async function peekRate(rule: RateRule, now = Date.now()): Promise<RateCheck> {
   const since = new Date(now - rule.windowMs);
   const [row] = await getDb().select({ n: count(), oldest: min(rateEvents.at) }).from(rateEvents)
     .where(and(eq(rateEvents.bucket, rule.bucket), gt(rateEvents.at, since)));

@@ -30,7 +30,7 @@ export async function startMailSink(opts: { port: number; dir: string; quiet?: b
     onData(stream, session, callback) {
       const chunks: Buffer[] = [];
       stream.on("data", (c: Buffer) => chunks.push(c));
-      stream.on("end", async () => {
+      stream.on("end", () => void (async () => {
         try {
           const raw = Buffer.concat(chunks);
           const parsed = await simpleParser(raw);
@@ -57,7 +57,7 @@ export async function startMailSink(opts: { port: number; dir: string; quiet?: b
         } catch (err) {
           callback(err as Error);
         }
-      });
+      })());
     },
   });
   await new Promise<void>((resolve, reject) => {

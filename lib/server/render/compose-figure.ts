@@ -11,8 +11,3 @@ export { cellWidthMm, type ComposedFigure, type FigureLayout, type PanelSvg } fr
 export function composeFigure(panels: PanelSvg[], layout: FigureLayout, widthMm: number): ComposedFigure {
   return composeFigureCore(panels, layout, widthMm);
 }
-
-/** The composed figure's SVG text. */
-export function composeFigureSvg(panels: PanelSvg[], layout: FigureLayout, widthMm: number): string {
-  return composeFigureCore(panels, layout, widthMm).svg;
-}

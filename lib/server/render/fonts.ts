@@ -8,7 +8,7 @@ import path from "node:path";
 
 const INTER_DIR = ["node_modules", "@expo-google-fonts", "inter"];
 
-export const INTER_FILES = {
+const INTER_FILES = {
   regular: "400Regular/Inter_400Regular.ttf",
   italic: "400Regular_Italic/Inter_400Regular_Italic.ttf",
   semibold: "600SemiBold/Inter_600SemiBold.ttf",

@@ -24,7 +24,7 @@ import type { BoundData, PhysicalSize, RenderedSvg } from "./worker/render-core.
 import { RenderError, type RenderErrorCode } from "./worker/render-error.mjs";
 
 // Route handlers can take everything they need from here without pulling Vega into the bundle.
-export { RenderError, type RenderErrorCode } from "./worker/render-error.mjs";
+export { RenderError } from "./worker/render-error.mjs";
 export type { BoundData, PhysicalSize, RenderedSvg } from "./worker/render-core.mjs";
 export type { FigureLayout } from "./worker/compose-core.mjs";
 
@@ -53,7 +53,7 @@ const JOBS_PER_WORKER = 100;
 /** An idle worker (≈ 100 MB) is stopped after this long without work. */
 const IDLE_MS = 60_000;
 
-export function renderWorkerPath(root: string = process.cwd()): string {
+function renderWorkerPath(root: string = process.cwd()): string {
   return path.join(/* turbopackIgnore: true */ root, "lib", "server", "render", "worker", "render-worker.mjs");
 }
 

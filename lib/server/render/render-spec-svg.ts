@@ -6,7 +6,7 @@
 import "server-only";
 import { RenderError, renderSpecToSvgCore, type BoundData, type PhysicalSize, type RenderedSvg } from "./worker/render-core.mjs";
 
-export { PT_PER_MM, RenderError, type BoundData, type PhysicalSize, type RenderErrorCode, type RenderedSvg } from "./worker/render-core.mjs";
+export { PT_PER_MM, RenderError, type BoundData, type PhysicalSize, type RenderedSvg } from "./worker/render-core.mjs";
 
 /**
  * Renders `spec` with `data` (rows per bound data name) at `widthMm` (and `heightMm` if given).

@@ -35,7 +35,7 @@ const CRC_TABLE = (() => {
 })();
 
 /** CRC-32 as PNG uses it (ISO 3309, polynomial 0xEDB88320). */
-export function crc32(bytes: Uint8Array): number {
+function crc32(bytes: Uint8Array): number {
   let c = 0xffffffff;
   for (const b of bytes) c = CRC_TABLE[(c ^ b) & 0xff] ^ (c >>> 8);
   return (c ^ 0xffffffff) >>> 0;
@@ -51,10 +51,10 @@ function chunk(type: string, data: Buffer): Buffer {
 }
 
 /** Pixels per metre for a resolution in dpi (PNG stores resolution per metre). */
-export const pixelsPerMetre = (dpi: number): number => Math.round(dpi / 0.0254);
+const pixelsPerMetre = (dpi: number): number => Math.round(dpi / 0.0254);
 
 /** Returns the PNG with its pHYs chunk (pixels per metre, both axes) set to `dpi`, replacing any other. */
-export function setPngDpi(png: Buffer, dpi: number): Buffer {
+function setPngDpi(png: Buffer, dpi: number): Buffer {
   if (!png.subarray(0, 8).equals(PNG_SIGNATURE)) throw new RenderError("render-failed", "not a PNG");
   const data = Buffer.alloc(9);
   data.writeUInt32BE(pixelsPerMetre(dpi), 0);

@@ -19,7 +19,7 @@ export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
   for (const m of memberships) {
     const [ms] = await getDb().select({ title: manuscripts.title }).from(manuscripts).where(eq(manuscripts.id, m.manuscriptId));
     for (const f of await loadReviewContext({ manuscriptId: m.manuscriptId })) {
-      const base = { manuscriptId: m.manuscriptId, manuscriptTitle: ms!.title, figureId: f.figure.id, figureNumber: f.figure.number, figureTitle: f.figure.title };
+      const base = { manuscriptId: m.manuscriptId, manuscriptTitle: ms.title, figureId: f.figure.id, figureNumber: f.figure.number, figureTitle: f.figure.title };
       const required = f.figure.requiredReviewers;
       for (const p of f.panels) {
         if (!p.revision || f.state === "signed_off") continue;
@@ -49,7 +49,7 @@ export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
       for (const f of ctx) for (const p of f.panels) for (const [, e] of waiting.filter(([, e]) => e.panelId === p.panel.id)) {
         const [ms] = await getDb().select({ title: manuscripts.title }).from(manuscripts).where(eq(manuscripts.id, f.figure.manuscriptId));
         items.push({
-          kind: "mention", manuscriptId: f.figure.manuscriptId, manuscriptTitle: ms!.title, figureId: f.figure.id, figureNumber: f.figure.number,
+          kind: "mention", manuscriptId: f.figure.manuscriptId, manuscriptTitle: ms.title, figureId: f.figure.id, figureNumber: f.figure.number,
           figureTitle: f.figure.title, panelId: p.panel.id, letter: p.letter, state: p.state, since: e.mentionAt.toISOString(), what: `you were mentioned on panel ${p.letter}`,
         });
       }

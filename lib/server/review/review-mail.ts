@@ -9,7 +9,7 @@ import { layout } from "../mail/templates";
 
 async function emailOf(userId: string): Promise<string> {
   const [u] = await getDb().select({ email: users.email }).from(users).where(eq(users.id, userId));
-  return u!.email;
+  return u.email;
 }
 
 const panelLink = (panelId: string) => `${env().appUrl}/panels/${panelId}`;

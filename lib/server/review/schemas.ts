@@ -20,6 +20,8 @@ export const decisionInput = z.object({
   revisionId: z.string().min(1, "revisionId is required").max(128),
   decision: z.enum(["approved", "needs_revision"], { message: 'decision must be "approved" or "needs_revision"' }),
   note: z.string().trim().max(5000).optional(),
+  /** The decider saw the panel's data warnings (advisory: approvals are accepted either way; recorded in the audit entry). */
+  acknowledgedWarnings: z.boolean().optional(),
 });
 
 export const signoffInput = z.object({

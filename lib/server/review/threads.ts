@@ -23,7 +23,7 @@ async function memberIds(manuscriptId: string) {
   return new Set(rows.map((r) => r.id));
 }
 
-export async function threadContext(threadId: string) {
+async function threadContext(threadId: string) {
   const [t] = await getDb().select().from(threads).where(eq(threads.id, threadId));
   if (!t) throw notFound();
   return { thread: t, manuscriptId: await manuscriptOfPanel(t.panelId) };
@@ -142,7 +142,7 @@ export async function deleteComment(user: SessionUser, commentId: string) {
 
 export async function getThread(user: SessionUser, threadId: string) {
   const { thread } = await threadContext(threadId);
-  return (await listThreadsWhere(user, thread.panelId, [threadId]))[0]!;
+  return (await listThreadsWhere(user, thread.panelId, [threadId]))[0];
 }
 
 export async function listThreads(user: SessionUser, panelId: string) {

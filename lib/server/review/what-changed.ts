@@ -25,7 +25,7 @@ export async function describeChanges(from: Rev, to: Rev): Promise<Change[]> {
     else {
       const va = num(a), vb = num(b);
       const same = va && vb && va.datasetId === vb.datasetId;
-      out.push({ kind: "data", name, text: same ? `data "${name}": version ${va!.number} → ${vb!.number}` : `data "${name}" now points at another dataset`, from: a.versionId, to: b.versionId });
+      out.push({ kind: "data", name, text: same ? `data "${name}": version ${va.number} → ${vb.number}` : `data "${name}" now points at another dataset`, from: a.versionId, to: b.versionId });
     }
   }
   return out;

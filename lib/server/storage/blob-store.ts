@@ -14,12 +14,12 @@ export function blobPath(sha256: string): string {
   return path.join(env().uploadsDir, sha256.slice(0, 2), sha256.slice(2, 4), sha256);
 }
 
-export function cachePath(sha256: string): string {
+function cachePath(sha256: string): string {
   if (!SHA256.test(sha256)) throw new Error("not a sha256");
   return path.join(env().uploadsDir, "cache", `${sha256}.columns`);
 }
 
-export function tempPath(): string {
+function tempPath(): string {
   const dir = path.join(env().uploadsDir, "tmp");
   fs.mkdirSync(dir, { recursive: true });
   return path.join(dir, `${Date.now()}-${randomBytes(8).toString("hex")}.part`);
@@ -129,7 +129,7 @@ export async function sweepUploadTemp(olderThanMs = 2 * env().uploadIdleTimeoutM
  * A plain Uint8Array view of a Buffer, without copying. Buffer#slice returns a view, not a copy,
  * so code written for Uint8Array (where slice copies) must never be handed a Buffer.
  */
-export function asBytes(buf: Buffer): Uint8Array {
+function asBytes(buf: Buffer): Uint8Array {
   return new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength);
 }
 

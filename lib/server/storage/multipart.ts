@@ -8,7 +8,6 @@ import { AppError, badRequest, tooLarge, unsupported } from "@/lib/errors";
 import { TooLargeError, removeTemp, writeStreamToTemp } from "./blob-store";
 import { sanitiseFileName } from "./file-name";
 
-export { sanitiseFileName } from "./file-name";
 
 export interface UploadedFile { tmp: string; sha256: string; byteSize: number; fileName: string }
 export interface MultipartUpload { fields: Record<string, string>; file: UploadedFile | null }
@@ -30,9 +29,9 @@ const MAX_FIELDS = 20;
 const mb = (bytes: number) => String(Number((bytes / MB).toFixed(2)));
 
 /** The client went away (connection reset, request aborted). Logged as a warning, never as an unexpected error. */
-export const uploadAborted = (bytes: number) =>
+const uploadAborted = (bytes: number) =>
   new AppError(400, "upload_aborted", `The upload was aborted by the client after ${bytes} bytes.`);
-export const uploadStalled = (idleMs: number, bytes: number) =>
+const uploadStalled = (idleMs: number, bytes: number) =>
   new AppError(408, "upload_stalled", `The upload stalled: no data arrived for ${idleMs / 1000} s after ${bytes} bytes, so it was stopped. Check the connection and try again.`);
 
 /**

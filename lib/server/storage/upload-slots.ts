@@ -11,7 +11,7 @@ const byUser = new Map<string, number>();
 let total = 0;
 
 /** Seconds a refused client is told to wait: uploads usually finish within that. */
-export const UPLOAD_SLOT_RETRY_SECONDS = 30;
+const UPLOAD_SLOT_RETRY_SECONDS = 30;
 
 /** Takes a slot or throws 429 with Retry-After. Call the returned function (once, in `finally`) to give it back. */
 export function acquireUploadSlot(userId: string): () => void {

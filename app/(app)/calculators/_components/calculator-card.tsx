@@ -30,7 +30,7 @@ export function CalculatorCard({ calculator: c }: { calculator: CalculatorView }
     <section className="rounded-sm border border-rule bg-sheet p-5" aria-labelledby={`calc-${c.id}`}>
       <h2 id={`calc-${c.id}`} className="font-semibold">{c.title}</h2>
       <p className="mt-1 font-mono text-xs text-muted">{c.formula}</p>
-      <form onSubmit={submit} className="mt-4 grid grid-cols-2 gap-3">
+      <form onSubmit={(e) => void submit(e)} className="mt-4 grid grid-cols-2 gap-3">
         {c.inputs.map((i) => (
           <label key={i.name} className="text-sm">
             <span className="mb-1 block font-medium">{i.label} <span className="text-muted">({i.unit})</span></span>

@@ -1,4 +1,5 @@
 import Link from "next/link";
+import type { FigureView } from "@/components/figures/api";
 import { RoleBadge } from "@/components/ui";
 import { loadOrNotFound, requireUser } from "@/lib/http/session";
 import { getFigure } from "@/lib/server/figures/figures";
@@ -21,7 +22,7 @@ export default async function FigurePage({ params }: { params: Promise<{ id: str
           {figure.role ? <li className="ml-2"><RoleBadge role={figure.role} /></li> : null}
         </ol>
       </nav>
-      <FigureWorkspace initial={JSON.parse(JSON.stringify(figure))} members={members.map(({ userId, name, email, role }) => ({ userId, name, email, role }))} />
+      <FigureWorkspace initial={JSON.parse(JSON.stringify(figure)) as FigureView} members={members.map(({ userId, name, email, role }) => ({ userId, name, email, role }))} />
     </>
   );
 }

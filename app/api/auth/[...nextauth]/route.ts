@@ -16,8 +16,9 @@ export const POST = publicRoute(async (incoming) => {
   const req = new NextRequest(await withBufferedBody(incoming, AUTH_BODY_MAX_BYTES));
   if (new URL(req.url).pathname.endsWith("/callback/password")) {
     const form = await req.clone().formData().catch(() => null);
-    const block = await signInBlockFor(String(form?.get("email") ?? ""), req.headers);
+    const email = form?.get("email");
+    const block = await signInBlockFor(typeof email === "string" ? email : "", req.headers);
     if (block) return errorResponse(429, "too_many_requests", block.message, undefined, block.retryAfterSeconds);
   }
-  return handlers.POST(req as never);
+  return handlers.POST(req);
 });

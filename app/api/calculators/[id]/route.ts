@@ -3,4 +3,4 @@ import { withPermission } from "@/lib/http/route";
 import { calculate } from "@/lib/server/analyses/catalogue";
 import { calculatorInput } from "@/lib/server/analyses/schemas";
 
-export const POST = withPermission("model.list", { body: calculatorInput }, async ({ params, body }) => calculate(params.id!, body.inputs));
+export const POST = withPermission("model.list", { body: calculatorInput }, ({ params, body }) => calculate(params.id, body.inputs));

@@ -3,5 +3,5 @@ import { withPermission } from "@/lib/http/route";
 import { getRevision } from "@/lib/server/figures/revisions";
 import { manuscriptOfRevision } from "@/lib/server/figures/scope";
 
-export const GET = withPermission("manuscript.read", { scope: ({ params }) => manuscriptOfRevision(params.id!) }, async ({ user, params }) =>
-  getRevision(user, params.id!));
+export const GET = withPermission("manuscript.read", { scope: ({ params }) => manuscriptOfRevision(params.id) }, async ({ user, params }) =>
+  getRevision(user, params.id));

@@ -3,6 +3,6 @@ import { withPermission } from "@/lib/http/route";
 import { revokeApiToken } from "@/lib/server/api-tokens";
 
 export const DELETE = withPermission("self.tokens", {}, async ({ user, params }) => {
-  await revokeApiToken(user, params.id!);
+  await revokeApiToken(user, params.id);
   return { ok: true };
 });

@@ -3,5 +3,5 @@ import { withPermission } from "@/lib/http/route";
 import { getVersion } from "@/lib/server/datasets/read-datasets";
 import { manuscriptOfVersion } from "@/lib/server/datasets/scope";
 
-export const GET = withPermission("manuscript.read", { scope: ({ params }) => manuscriptOfVersion(params.id!) }, async ({ user, params }) =>
-  getVersion(user, params.id!));
+export const GET = withPermission("manuscript.read", { scope: ({ params }) => manuscriptOfVersion(params.id) }, async ({ user, params }) =>
+  getVersion(user, params.id));

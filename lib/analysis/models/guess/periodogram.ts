@@ -19,7 +19,7 @@ function nextPowerOfTwo(n: number): number {
 }
 
 /** In-place iterative radix-2 FFT (length must be a power of two). */
-export function fft(re: Float64Array, im: Float64Array): void {
+function fft(re: Float64Array, im: Float64Array): void {
   const n = re.length;
   for (let i = 1, j = 0; i < n; i++) {
     let bit = n >> 1;

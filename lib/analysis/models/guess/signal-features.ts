@@ -60,22 +60,6 @@ export function noiseLevel(y: ArrayLike<number>): number {
   return (1.4826 * median(diffs)) / Math.SQRT2;
 }
 
-/** Least-squares line through (x, y): returns [intercept, slope]; NaN with fewer than 2 points. */
-export function fitLine(x: ArrayLike<number>, y: ArrayLike<number>): [number, number] {
-  const n = x.length;
-  if (n < 2) return [Number.NaN, Number.NaN];
-  const mx = mean(x);
-  const my = mean(y);
-  let sxx = 0;
-  let sxy = 0;
-  for (let i = 0; i < n; i++) {
-    sxx += (x[i] - mx) ** 2;
-    sxy += (x[i] - mx) * (y[i] - my);
-  }
-  const slope = sxx > 0 ? sxy / sxx : 0;
-  return [my - slope * mx, slope];
-}
-
 /** Linear interpolation of the sampled function (x ascending) at position t, clamped. */
 export function interpolate(x: ArrayLike<number>, y: ArrayLike<number>, t: number): number {
   const n = x.length;

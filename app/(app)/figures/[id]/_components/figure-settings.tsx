@@ -61,7 +61,7 @@ export function FigureSettings({ figure, members, editable }: { figure: FigureVi
         ))}
       </fieldset>
       <Button type="submit" disabled={save.isPending}>{save.isPending ? "Saving…" : "Save settings"}</Button>
-      {save.isError ? <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>{(save.error as Error).message}</p> : null}
+      {save.isError ? <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>{save.error.message}</p> : null}
       {save.isSuccess && !save.isPending ? <p role="status" className="text-sm text-good"><span aria-hidden>✓ </span>Saved.</p> : null}
     </form>
   );

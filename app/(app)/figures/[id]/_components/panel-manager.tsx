@@ -22,7 +22,7 @@ export function PanelManager({ figure, editable }: { figure: FigureView; editabl
   });
   const move = (i: number, by: -1 | 1) => {
     const ids = figure.panels.map((p) => p.id);
-    [ids[i], ids[i + by]] = [ids[i + by]!, ids[i]!];
+    [ids[i], ids[i + by]] = [ids[i + by], ids[i]];
     order.mutate(ids);
   };
   const submit = (e: FormEvent) => { e.preventDefault(); add.mutate(); };
@@ -44,7 +44,7 @@ export function PanelManager({ figure, editable }: { figure: FigureView; editabl
           </li>
         ))}
       </ol>
-      {order.isError ? <p role="alert" className="mt-1 text-sm text-bad">✕ {(order.error as Error).message}</p> : null}
+      {order.isError ? <p role="alert" className="mt-1 text-sm text-bad">✕ {order.error.message}</p> : null}
       {editable ? (
         <form onSubmit={submit} aria-label="Add panel" className="mt-3 space-y-2 border-t border-rule pt-3">
           <div className="grid grid-cols-[minmax(0,1fr)_5.5rem] gap-2">
@@ -52,7 +52,7 @@ export function PanelManager({ figure, editable }: { figure: FigureView; editabl
             <Field label="Span"><Select value={span} onChange={(e) => setSpan(e.target.value)}>{Array.from({ length: figure.columns }, (_, k) => <option key={k + 1} value={k + 1}>{k + 1} col</option>)}</Select></Field>
           </div>
           <Button type="submit" variant="quiet" disabled={add.isPending}>{add.isPending ? "Adding…" : "Add panel"}</Button>
-          {add.isError ? <p role="alert" className="text-sm text-bad">✕ {(add.error as Error).message}</p> : null}
+          {add.isError ? <p role="alert" className="text-sm text-bad">✕ {add.error.message}</p> : null}
         </form>
       ) : null}
     </div>

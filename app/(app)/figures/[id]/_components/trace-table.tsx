@@ -13,7 +13,7 @@ export function TraceTable({ figureId, open, onToggle }: { figureId: string; ope
       <summary className="cursor-pointer font-semibold">Trace: where every panel comes from</summary>
       <p className="mt-1 text-xs text-muted"><a href={`/api/figures/${figureId}/trace`} className="underline">trace as JSON</a></p>
       {trace.isLoading ? <p className="mt-2 text-xs text-muted">loading…</p> : null}
-      {trace.isError ? <p role="alert" className="mt-2 text-bad">✕ {(trace.error as Error).message}</p> : null}
+      {trace.isError ? <p role="alert" className="mt-2 text-bad">✕ {trace.error.message}</p> : null}
       {trace.data ? (
         <div className="mt-2 overflow-x-auto">
           <p className="mb-1 text-xs text-muted">figure hash <code title={trace.data.figure.figureHash}>{shortHash(trace.data.figure.figureHash, 16)}</code></p>

@@ -18,7 +18,7 @@ export function BindingsTab({ figureId, panelId, revision, editable, onSaved }: 
   const rebind = useMutation({
     mutationFn: async ({ name, v }: { name: string; v: VersionInfo }) => {
       const d = await fetchJson<DatasetDetail>(`/api/datasets/${v.datasetId}`);
-      const newest = d.versions[0]!;
+      const newest = d.versions[0];
       return sendJson<RevisionView>(`/api/panels/${panelId}/revisions`, "POST", {
         spec: revision!.spec, bindings: { ...revision!.bindings, [name]: { versionId: newest.id } }, baseRevisionId: revision!.id,
         message: `Rebind “${name}” to ${v.dataset} version ${newest.number}`,
@@ -33,7 +33,7 @@ export function BindingsTab({ figureId, panelId, revision, editable, onSaved }: 
     <div>
       <p className="mb-3 text-sm text-muted">Revision {revision.number} binds {Object.keys(revision.bindings).length} data name{Object.keys(revision.bindings).length === 1 ? "" : "s"}. Bindings point at immutable versions by content hash.</p>
       {trace.isLoading ? <p className="text-sm text-muted">loading…</p> : null}
-      {trace.isError ? <p role="alert" className="text-sm text-bad">✕ {(trace.error as Error).message}</p> : null}
+      {trace.isError ? <p role="alert" className="text-sm text-bad">✕ {trace.error.message}</p> : null}
       <ul className="divide-y divide-rule rounded-sm border border-rule bg-sheet" aria-label="Bindings">
         {inputs.map((input) => (
           <li key={input.name} className="p-3 text-sm">
@@ -57,7 +57,7 @@ export function BindingsTab({ figureId, panelId, revision, editable, onSaved }: 
           </li>
         ))}
       </ul>
-      {rebind.isError ? <p role="alert" className="mt-2 text-sm text-bad">✕ {(rebind.error as Error).message}</p> : null}
+      {rebind.isError ? <p role="alert" className="mt-2 text-sm text-bad">✕ {rebind.error.message}</p> : null}
       {rebind.isSuccess ? <p role="status" className="mt-2 text-sm text-good">✓ Rebound: revision {rebind.data.number} saved.</p> : null}
     </div>
   );

@@ -1,11 +1,11 @@
 "use client";
-import { useEffect, useState } from "react";
+import { useState } from "react";
 import type { DatasetItem } from "@/components/figures/api";
 import type { BindingChoice } from "@/components/figures/use-preview-data";
 import { Button, Field, Select, TextInput } from "@/components/ui";
 import { FIGURE_TEMPLATES, PRINT_OPTION_FIELDS, type TemplateOptionField } from "@/lib/figures/templates";
 import { OptionInput, type ColumnInfo } from "./option-input";
-import { sourceKey, useBuilderSources, type Source } from "./use-builder-sources";
+import { sourceKey, useBuilderSources, useSourceColumns, type Source } from "./use-builder-sources";
 
 type DataField = Extract<TemplateOptionField, { kind: "data-name" }>;
 type Output = "curve" | "residuals" | "data";
@@ -18,7 +18,7 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
   manuscriptId: string; datasets: DatasetItem[]; defaultWidthMm: number;
   onGenerate: (specText: string, choices: Record<string, BindingChoice>) => void;
 }) {
-  const [templateId, setTemplateId] = useState(FIGURE_TEMPLATES[0]!.id);
+  const [templateId, setTemplateId] = useState(FIGURE_TEMPLATES[0].id);
   const [values, setValues] = useState<Record<string, unknown>>({});
   const [picks, setPicks] = useState<Record<string, string | null>>({});
   const [outputs, setOutputs] = useState<Record<string, Output>>({});
@@ -27,28 +27,22 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
   const dataFields = template.options.filter((f): f is DataField => f.kind === "data-name");
 
   const versionIdsPicked = dataFields.map((f) => picks[f.key]).filter((p): p is string => Boolean(p?.startsWith("v:"))).map((p) => p.slice(2));
-  const [analysisIdsPicked, setAnalysisIds] = useState<string[]>([]);
-  const src = useBuilderSources(manuscriptId, datasets, versionIdsPicked, analysisIdsPicked);
+  const src = useBuilderSources(manuscriptId, datasets, versionIdsPicked);
   const all: Source[] = [...src.versionSources, ...src.analysisSources];
-  const chosen = (key: string) => all.find((s) => sourceKey(s) === picks[key]);
 
-  const derivedKey = dataFields.map((f) => chosen(f.key)).filter((s): s is Extract<Source, { kind: "analysis" }> => s?.kind === "analysis").map((s) => s.derivedVersionId).join(",");
-  useEffect(() => setAnalysisIds(derivedKey ? derivedKey.split(",") : []), [derivedKey]);
-
-  // A fit chosen for nothing yet is filled with the newest analysis of the measured data.
+  // A fit nobody has chosen yet (undefined, not "(none)") reads as the newest analysis of the measured data.
   const newest = src.analysisSources.find((a) => a.kind === "analysis" && versionIdsPicked.includes(a.versionId));
   const newestKey = newest ? sourceKey(newest) : null;
-  useEffect(() => {
-    if (!newestKey) return;
-    setPicks((p) => {
-      const next = { ...p };
-      for (const f of dataFields) if (f.binds !== "dataset" && next[f.key] === undefined) next[f.key] = newestKey;
-      return next;
-    });
-  }, [newestKey, templateId]); // dataFields follows templateId
+  const pickOf = (f: DataField) => (picks[f.key] !== undefined || f.binds === "dataset" ? picks[f.key] : newestKey);
+  const chosen = (key: string) => {
+    const f = dataFields.find((d) => d.key === key);
+    return f ? all.find((s) => sourceKey(s) === pickOf(f)) : undefined;
+  };
+
+  const columnsOf = useSourceColumns(dataFields.map((f) => chosen(f.key)).filter((s): s is Extract<Source, { kind: "analysis" }> => s?.kind === "analysis").map((s) => s.derivedVersionId));
 
   const fieldByKey = new Map(template.options.map((f) => [f.key, f]));
-  const columnsFor = (f: TemplateOptionField): ColumnInfo[] => (f.kind === "column" ? src.columnsOf(chosen(f.dataKey)) : []);
+  const columnsFor = (f: TemplateOptionField): ColumnInfo[] => (f.kind === "column" ? columnsOf(chosen(f.dataKey)) : []);
   const columnValue = (f: Extract<TemplateOptionField, { kind: "column" }>): string => {
     if (values[f.key] !== undefined) return String(values[f.key]);
     const cols = columnsFor(f);
@@ -58,6 +52,8 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
     return "";
   };
   const set = (key: string, v: unknown) => setValues((s) => ({ ...s, [key]: v }));
+  /** The data name typed for a data field (its input stores strings only). */
+  const dataNameOf = (f: DataField) => values[f.key] as string | undefined;
 
   function generate() {
     setProblem(null);
@@ -71,7 +67,7 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
           opts[f.key] = "";
           continue;
         }
-        const name = String(values[f.key] || f.default || FALLBACK_NAME[f.binds]);
+        const name = dataNameOf(f) || f.default || FALLBACK_NAME[f.binds];
         if (choices[name]) return setProblem(`Two data sources are named “${name}”; give one another name.`);
         opts[f.key] = name;
         choices[name] = s.kind === "version"
@@ -109,7 +105,7 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
           return (
             <div key={f.key} className="grid gap-2 sm:grid-cols-[minmax(0,1fr)_8rem_8rem] sm:items-start">
               <Field label={f.label} hint={f.help}>
-                <Select value={picks[f.key] ?? ""} onChange={(e) => setPicks((p) => ({ ...p, [f.key]: e.target.value || null }))}>
+                <Select value={pickOf(f) ?? ""} onChange={(e) => setPicks((p) => ({ ...p, [f.key]: e.target.value || null }))}>
                   <option value="">{f.required ? "choose…" : "(none)"}</option>
                   {options.map((o) => <option key={sourceKey(o)} value={sourceKey(o)}>{o.label}</option>)}
                   {f.binds !== "dataset" && options.length === 0 ? <option disabled>{versionIdsPicked.length ? (src.loadingAnalyses ? "loading analyses…" : "no stored fit of the chosen data") : "choose the measured data first"}</option> : null}
@@ -122,7 +118,7 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
                   </Select>
                 </Field>
               ) : <span />}
-              <Field label="Data name"><TextInput value={String(values[f.key] ?? f.default ?? FALLBACK_NAME[f.binds])} onChange={(e) => set(f.key, e.target.value)} /></Field>
+              <Field label="Data name"><TextInput value={dataNameOf(f) ?? f.default ?? FALLBACK_NAME[f.binds]} onChange={(e) => set(f.key, e.target.value)} /></Field>
             </div>
           );
         })}
@@ -132,7 +128,7 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
         <fieldset>
           <legend className="mb-2 text-sm font-semibold">Columns</legend>
           <div className="grid gap-3 sm:grid-cols-2">
-            {columnFields.map((f) => <OptionInput key={f.key} field={f} value={columnValue(f as Extract<TemplateOptionField, { kind: "column" }>)} onChange={(v) => set(f.key, v)} columns={columnsFor(f)} />)}
+            {columnFields.map((f) => <OptionInput key={f.key} field={f} value={columnValue(f)} onChange={(v) => set(f.key, v)} columns={columnsFor(f)} />)}
           </div>
         </fieldset>
       ) : null}

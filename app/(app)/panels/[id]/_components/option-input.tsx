@@ -28,14 +28,14 @@ export function OptionInput({ field, value, onChange, columns }: {
     case "number":
       return (
         <Field label={label} hint={field.help}>
-          <TextInput type="number" step="any" min={field.min} max={field.max} value={value === undefined || value === null ? "" : String(value)}
+          <TextInput type="number" step="any" min={field.min} max={field.max} value={typeof value === "number" || typeof value === "string" ? String(value) : ""}
             onChange={(e) => onChange(e.target.value === "" ? undefined : Number(e.target.value))} />
         </Field>
       );
     case "select":
       return (
         <Field label={label} hint={field.help}>
-          <Select value={String(value ?? field.default)} onChange={(e) => onChange(e.target.value)}>
+          <Select value={typeof value === "string" ? value : field.default} onChange={(e) => onChange(e.target.value)}>
             {field.choices.map((c) => <option key={c.value} value={c.value}>{c.label}</option>)}
           </Select>
         </Field>
@@ -50,7 +50,7 @@ export function OptionInput({ field, value, onChange, columns }: {
     case "markers":
       return <MarkersInput label={label} help={field.help} value={(value as Marker[] | undefined) ?? field.default} onChange={onChange} />;
     case "text":
-      return <Field label={label} hint={field.help}><TextInput value={String(value ?? field.default ?? "")} onChange={(e) => onChange(e.target.value)} /></Field>;
+      return <Field label={label} hint={field.help}><TextInput value={typeof value === "string" ? value : field.default ?? ""} onChange={(e) => onChange(e.target.value)} /></Field>;
     default:
       return null;
   }

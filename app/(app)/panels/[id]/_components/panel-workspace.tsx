@@ -112,7 +112,7 @@ export function PanelWorkspace({ initial, widthMm, members, datasets, me }: {
               </div>
               {tab === "bindings" ? (
                 <div role="tabpanel" id="tabpanel-bindings" aria-labelledby="tab-bindings">
-                  <BindingsTab figureId={panel.figureId} panelId={panel.id} revision={rev ? (rev as unknown as RevisionView) : null} editable={editable} onSaved={onSaved} />
+                  <BindingsTab figureId={panel.figureId} panelId={panel.id} revision={rev ? rev : null} editable={editable} onSaved={onSaved} />
                 </div>
               ) : null}
               {tab === "revisions" ? (

@@ -24,11 +24,12 @@ export function SpecEditorTab({ panelId, text, onText, choices, revision, baseRe
 
   useEffect(() => {
     let stale = false;
-    const t = setTimeout(async () => {
-      const c = await checkSpecText(text);
-      if (stale) return;
-      setCheck(c);
-      try { setPreviewSpec(JSON.parse(text)); } catch { /* keep the last good preview */ }
+    const t = setTimeout(() => {
+      void checkSpecText(text).then((c) => {
+        if (stale) return;
+        setCheck(c);
+        try { setPreviewSpec(JSON.parse(text)); } catch { /* keep the last good preview */ }
+      });
     }, 450);
     return () => { stale = true; clearTimeout(t); };
   }, [text]);
@@ -42,8 +43,8 @@ export function SpecEditorTab({ panelId, text, onText, choices, revision, baseRe
   const unbound = used.filter((n) => !choices[n]);
   const save = useMutation({
     mutationFn: () => {
-      const bindings = Object.fromEntries(used.filter((n) => choices[n]).map((n) => [n, toBinding(choices[n]!)]));
-      return sendJson<RevisionView>(`/api/panels/${panelId}/revisions`, "POST", { spec: JSON.parse(text), bindings, baseRevisionId, message });
+      const bindings = Object.fromEntries(used.filter((n) => choices[n]).map((n) => [n, toBinding(choices[n])]));
+      return sendJson<RevisionView>(`/api/panels/${panelId}/revisions`, "POST", { spec: JSON.parse(text) as unknown, bindings, baseRevisionId, message });
     },
     onSuccess: (r) => { setMessage(""); onSaved(r); },
   });
@@ -83,7 +84,7 @@ export function SpecEditorTab({ panelId, text, onText, choices, revision, baseRe
               <p className="mt-1 text-xs">Someone saved a newer revision. Copy your edits if you want to keep them, then reload and apply them again.</p>
               <Button type="button" variant="danger" className="mt-2" onClick={() => window.location.reload()}>Reload</Button>
             </div>
-          ) : save.isError ? <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>{(save.error as Error).message}</p> : null}
+          ) : save.isError ? <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>{save.error.message}</p> : null}
           {save.isSuccess ? <p role="status" className="text-sm text-good"><span aria-hidden>✓ </span>Saved revision {save.data.number}.</p> : null}
         </form>
       </div> : <p className="text-sm text-muted">PI and authors edit specs; you can read the current one here (drawn above).</p>}

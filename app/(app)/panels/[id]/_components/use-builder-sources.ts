@@ -14,7 +14,7 @@ export type Source =
 export const sourceKey = (s: Source) => (s.kind === "version" ? `v:${s.versionId}` : `a:${s.analysisId}`);
 
 /** Datasets of the manuscript (measurements first; derived fit tables are reached through their analyses). */
-export function useBuilderSources(manuscriptId: string, initialDatasets: DatasetItem[], analysedVersionIds: string[], derivedVersionIds: string[]) {
+export function useBuilderSources(manuscriptId: string, initialDatasets: DatasetItem[], analysedVersionIds: string[]) {
   const datasets = useQuery({
     queryKey: queryKeys.datasets(manuscriptId),
     queryFn: async () => (await fetchJson<{ items: DatasetItem[] }>(`/api/manuscripts/${manuscriptId}/datasets`)).items,
@@ -33,19 +33,23 @@ export function useBuilderSources(manuscriptId: string, initialDatasets: Dataset
     })),
   });
   const analysisSources: Source[] = analyses.flatMap((q, i) => (q.data ?? []).filter((a) => a.derivedVersionId).map((a) => ({
-    kind: "analysis" as const, analysisId: a.id, derivedVersionId: a.derivedVersionId!, versionId: ids[i]!, createdAt: String(a.createdAt),
-    label: `${a.model} fit of ${(nameOfVersion.get(ids[i]!) ?? "").replace(/^.* · /, "") || "the data"}, run ${formatDate(a.createdAt)}`,
+    kind: "analysis" as const, analysisId: a.id, derivedVersionId: a.derivedVersionId!, versionId: ids[i], createdAt: String(a.createdAt),
+    label: `${a.model} fit of ${(nameOfVersion.get(ids[i]) ?? "").replace(/^.* · /, "") || "the data"}, run ${formatDate(a.createdAt)}`,
   })));
 
+  return { versionSources, analysisSources, loadingAnalyses: analyses.some((q) => q.isLoading) };
+}
+
+/** Columns of a chosen source; an analysis output's come from its derived version, fetched for the analyses picked. */
+export function useSourceColumns(derivedVersionIds: string[]) {
   const derived = [...new Set(derivedVersionIds)].sort();
   const derivedVersions = useQueries({
     queries: derived.map((id) => ({ queryKey: ["version", id], queryFn: () => fetchJson<VersionView>(`/api/versions/${id}`), staleTime: Infinity })),
   });
-  const columnsOf = (s: Source | undefined): ColumnInfo[] => {
+  return (s: Source | undefined): ColumnInfo[] => {
     if (!s) return [];
     if (s.kind === "version") return s.columns;
     const v = derivedVersions[derived.indexOf(s.derivedVersionId)]?.data;
     return (v?.columns ?? []).filter((c) => c.name !== "series");
   };
-  return { versionSources, analysisSources, columnsOf, loadingAnalyses: analyses.some((q) => q.isLoading) };
 }

@@ -2,6 +2,6 @@
 import { withPermission } from "@/lib/http/route";
 import { listFiguresForManuscript } from "@/lib/server/figures/figures";
 
-export const GET = withPermission("manuscript.read", { scope: ({ params }) => params.id! }, async ({ user, params }) => ({
-  items: await listFiguresForManuscript(user, params.id!),
+export const GET = withPermission("manuscript.read", { scope: ({ params }) => params.id }, async ({ user, params }) => ({
+  items: await listFiguresForManuscript(user, params.id),
 }));

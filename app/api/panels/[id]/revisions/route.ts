@@ -5,9 +5,9 @@ import { createRevision, listRevisions } from "@/lib/server/figures/revisions";
 import { revisionInput } from "@/lib/server/figures/schemas";
 import { manuscriptOfPanel } from "@/lib/server/figures/scope";
 
-export const GET = withPermission("manuscript.read", { scope: ({ params }) => manuscriptOfPanel(params.id!) }, async ({ user, params }) => ({
-  items: await listRevisions(user, params.id!),
+export const GET = withPermission("manuscript.read", { scope: ({ params }) => manuscriptOfPanel(params.id) }, async ({ user, params }) => ({
+  items: await listRevisions(user, params.id),
 }));
 
-export const POST = withPermission("figure.edit", { scope: ({ params }) => manuscriptOfPanel(params.id!), body: revisionInput, maxBodyBytes: SPEC_BODY_MAX_BYTES }, async ({ user, params, body }) =>
-  created(await createRevision(user, params.id!, body)));
+export const POST = withPermission("figure.edit", { scope: ({ params }) => manuscriptOfPanel(params.id), body: revisionInput, maxBodyBytes: SPEC_BODY_MAX_BYTES }, async ({ user, params, body }) =>
+  created(await createRevision(user, params.id, body)));
