@@ -8,7 +8,9 @@ import { recordSignInFailure, signInBlockedReason } from "@/lib/server/sign-in-l
 import { consumeSignInLink } from "@/lib/server/sign-in-links";
 import { verifyPassword } from "@/lib/server/users";
 
-class RateLimited extends CredentialsSignin { code = "rate_limited"; }
+class RateLimited extends CredentialsSignin {
+  code = "rate_limited";
+}
 
 /** A submitted credential as text (a missing or non-text field is empty). */
 const text = (v: unknown): string => (typeof v === "string" ? v : "");

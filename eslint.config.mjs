@@ -20,7 +20,10 @@ const SERVER_DIRS = /^(?:lib\/server|db)(?:\/|$)|^lib\/authz(?:\/index(?:\.ts)?)
 const clientBoundary = {
   meta: {
     type: "problem",
-    messages: { server: '"use client" module imports {{source}}: server code would ship to the browser. Import types only, call the API or a server action, or move the helper to a pure module.' },
+    messages: {
+      server:
+        '"use client" module imports {{source}}: server code would ship to the browser. Import types only, call the API or a server action, or move the helper to a pure module.',
+    },
   },
   create(context) {
     const body = context.sourceCode.ast.body;
@@ -29,28 +32,61 @@ const clientBoundary = {
     const serverSide = (source) => {
       if (SERVER_SIDE.test(source)) return true;
       if (!source.startsWith(".")) return false;
-      const rel = path.relative(context.cwd, path.resolve(path.dirname(context.filename), source)).split(path.sep).join("/");
+      const rel = path
+        .relative(context.cwd, path.resolve(path.dirname(context.filename), source))
+        .split(path.sep)
+        .join("/");
       return SERVER_DIRS.test(rel);
     };
-    const typeOnly = (node) => node.importKind === "type" || node.exportKind === "type" ||
+    const typeOnly = (node) =>
+      node.importKind === "type" ||
+      node.exportKind === "type" ||
       (node.specifiers?.length > 0 && node.specifiers.every((sp) => sp.importKind === "type" || sp.exportKind === "type"));
     const check = (node, source) => {
       if (typeof source === "string" && serverSide(source)) context.report({ node, messageId: "server", data: { source } });
     };
     return {
-      ImportDeclaration: (node) => { if (!typeOnly(node)) check(node, node.source.value); },
-      ExportNamedDeclaration: (node) => { if (node.source && !typeOnly(node)) check(node, node.source.value); },
-      ExportAllDeclaration: (node) => { if (node.exportKind !== "type") check(node, node.source.value); },
-      ImportExpression: (node) => { if (node.source.type === "Literal") check(node, node.source.value); },
+      ImportDeclaration: (node) => {
+        if (!typeOnly(node)) check(node, node.source.value);
+      },
+      ExportNamedDeclaration: (node) => {
+        if (node.source && !typeOnly(node)) check(node, node.source.value);
+      },
+      ExportAllDeclaration: (node) => {
+        if (node.exportKind !== "type") check(node, node.source.value);
+      },
+      ImportExpression: (node) => {
+        if (node.source.type === "Literal") check(node, node.source.value);
+      },
     };
   },
 };
 
 /** Type-aware linting (the TypeScript project service) covers the shipped code; tests keep the lighter set. */
-const typeChecked = ["auth.ts", "proxy.ts", "instrumentation.ts", "app/**/*.{ts,tsx}", "components/**/*.{ts,tsx}", "lib/**/*.{ts,tsx}", "db/**/*.ts", "scripts/**/*.ts"];
+const typeChecked = [
+  "auth.ts",
+  "proxy.ts",
+  "instrumentation.ts",
+  "app/**/*.{ts,tsx}",
+  "components/**/*.{ts,tsx}",
+  "lib/**/*.{ts,tsx}",
+  "db/**/*.ts",
+  "scripts/**/*.ts",
+];
 
 export default tseslint.config(
-  { ignores: [".next/**", "node_modules/**", "bench/results/**", "test-results/**", "playwright-report/**", ".test-work/**", "next-env.d.ts", "db/migrations/**"] },
+  {
+    ignores: [
+      ".next/**",
+      "node_modules/**",
+      "bench/results/**",
+      "test-results/**",
+      "playwright-report/**",
+      ".test-work/**",
+      "next-env.d.ts",
+      "db/migrations/**",
+    ],
+  },
   js.configs.recommended,
   // Next's own set (React, hooks, a11y, import, @next/next with the Core Web Vitals rules as errors).
   ...nextCoreWebVitals,
@@ -88,12 +124,18 @@ export default tseslint.config(
     // The pure core takes and returns plain data: no framework, no database, no file system.
     files: pureCore,
     rules: {
-      "no-restricted-imports": ["error", {
-        patterns: [
-          { group: ["next", "next/*", "react", "react-dom", "@/db/*", "@/lib/server/*", "@/app/*", "@libsql/*", "drizzle-orm", "drizzle-orm/*"], message: "The pure core must not depend on the framework or the database." },
-          { group: ["node:fs", "fs", "node:fs/*", "node:stream", "node:path"], message: "The pure core takes bytes in, not files." },
-        ],
-      }],
+      "no-restricted-imports": [
+        "error",
+        {
+          patterns: [
+            {
+              group: ["next", "next/*", "react", "react-dom", "@/db/*", "@/lib/server/*", "@/app/*", "@libsql/*", "drizzle-orm", "drizzle-orm/*"],
+              message: "The pure core must not depend on the framework or the database.",
+            },
+            { group: ["node:fs", "fs", "node:fs/*", "node:stream", "node:path"], message: "The pure core takes bytes in, not files." },
+          ],
+        },
+      ],
     },
   },
   {
@@ -108,13 +150,20 @@ export default tseslint.config(
     // not the authz gate (it reads the database; the policy table is @/lib/authz/policy). Types pass.
     files: ["components/**"],
     rules: {
-      "no-restricted-imports": ["error", {
-        patterns: [
-          dbDriverPattern,
-          { group: ["@/lib/server", "@/lib/server/*", "@/db/*", "server-only"], allowTypeImports: true, message: "Components reach the server through the API or a server action; import types only." },
-          { regex: "^@/lib/authz(/index)?$", allowTypeImports: true, message: "The authz gate reads the database; use @/lib/authz/policy." },
-        ],
-      }],
+      "no-restricted-imports": [
+        "error",
+        {
+          patterns: [
+            dbDriverPattern,
+            {
+              group: ["@/lib/server", "@/lib/server/*", "@/db/*", "server-only"],
+              allowTypeImports: true,
+              message: "Components reach the server through the API or a server action; import types only.",
+            },
+            { regex: "^@/lib/authz(/index)?$", allowTypeImports: true, message: "The authz gate reads the database; use @/lib/authz/policy." },
+          ],
+        },
+      ],
     },
   },
   {
@@ -128,36 +177,63 @@ export default tseslint.config(
     // db/ is the inner layer (schema, migrations, client): it imports no service, gate, route or component.
     files: ["db/**"],
     rules: {
-      "no-restricted-imports": ["error", {
-        patterns: [
-          { group: ["@/lib/server", "@/lib/server/*", "@/lib/authz", "@/lib/authz/*", "@/lib/http/*", "@/app/*", "@/components/*"], message: "db/ holds only schema, migrations and client; seeds and services live in lib/server." },
-          { regex: "^(\\.\\./)+(lib/(server|authz|http)|app|components)(/|$)", message: "db/ holds only schema, migrations and client; seeds and services live in lib/server." },
-        ],
-      }],
+      "no-restricted-imports": [
+        "error",
+        {
+          patterns: [
+            {
+              group: ["@/lib/server", "@/lib/server/*", "@/lib/authz", "@/lib/authz/*", "@/lib/http/*", "@/app/*", "@/components/*"],
+              message: "db/ holds only schema, migrations and client; seeds and services live in lib/server.",
+            },
+            {
+              regex: "^(\\.\\./)+(lib/(server|authz|http)|app|components)(/|$)",
+              message: "db/ holds only schema, migrations and client; seeds and services live in lib/server.",
+            },
+          ],
+        },
+      ],
     },
   },
   {
     // The policy gate sits below the services: it may use the db client, the schema and @/lib/errors.
     files: ["lib/authz/**"],
     rules: {
-      "no-restricted-imports": ["error", {
-        patterns: [
-          { group: ["@/lib/server", "@/lib/server/*", "@/lib/http/*", "@/app/*", "@/components/*"], message: "lib/authz must not depend on services, routes or components (errors come from @/lib/errors)." },
-          { regex: "^\\.\\./(server|http)(/|$)|^(\\.\\./)+(app|components)(/|$)", message: "lib/authz must not depend on services, routes or components (errors come from @/lib/errors)." },
-        ],
-      }],
+      "no-restricted-imports": [
+        "error",
+        {
+          patterns: [
+            {
+              group: ["@/lib/server", "@/lib/server/*", "@/lib/http/*", "@/app/*", "@/components/*"],
+              message: "lib/authz must not depend on services, routes or components (errors come from @/lib/errors).",
+            },
+            {
+              regex: "^\\.\\./(server|http)(/|$)|^(\\.\\./)+(app|components)(/|$)",
+              message: "lib/authz must not depend on services, routes or components (errors come from @/lib/errors).",
+            },
+          ],
+        },
+      ],
     },
   },
   {
     // Services never reach back up into routes, the HTTP glue or components.
     files: ["lib/server/**"],
     rules: {
-      "no-restricted-imports": ["error", {
-        patterns: [
-          { group: ["@/lib/http/*", "@/app/*", "@/components/*"], message: "lib/server is below lib/http and app: move the shared piece down (lib/ or lib/server)." },
-          { regex: "^(\\.\\./)+(http|app|components)(/|$)", message: "lib/server is below lib/http and app: move the shared piece down (lib/ or lib/server)." },
-        ],
-      }],
+      "no-restricted-imports": [
+        "error",
+        {
+          patterns: [
+            {
+              group: ["@/lib/http/*", "@/app/*", "@/components/*"],
+              message: "lib/server is below lib/http and app: move the shared piece down (lib/ or lib/server).",
+            },
+            {
+              regex: "^(\\.\\./)+(http|app|components)(/|$)",
+              message: "lib/server is below lib/http and app: move the shared piece down (lib/ or lib/server).",
+            },
+          ],
+        },
+      ],
     },
   },
   {

@@ -4,7 +4,19 @@ import { DOWNLOAD_CONTENT_SECURITY_POLICY } from "./lib/http/csp";
 const nextConfig: NextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
-  serverExternalPackages: ["@libsql/client", "libsql", "smtp-server", "mailparser", "bcryptjs", "@resvg/resvg-js", "pdfkit", "svg-to-pdfkit", "vega", "vega-lite", "vega-interpreter"],
+  serverExternalPackages: [
+    "@libsql/client",
+    "libsql",
+    "smtp-server",
+    "mailparser",
+    "bcryptjs",
+    "@resvg/resvg-js",
+    "pdfkit",
+    "svg-to-pdfkit",
+    "vega",
+    "vega-lite",
+    "vega-interpreter",
+  ],
   typedRoutes: false,
   async headers() {
     return [

@@ -25,7 +25,10 @@ export type BuildOutcome = "fresh" | "built" | "stale (another server was using 
 
 export function portOpen(port: number): Promise<boolean> {
   return new Promise((resolve) => {
-    const s = net.connect({ port, host: "127.0.0.1" }, () => { s.destroy(); resolve(true); });
+    const s = net.connect({ port, host: "127.0.0.1" }, () => {
+      s.destroy();
+      resolve(true);
+    });
     s.on("error", () => resolve(false));
   });
 }
@@ -34,16 +37,27 @@ function waitForExit(child: ChildProcess, timeoutMs: number): Promise<boolean> {
   if (child.exitCode !== null || child.signalCode !== null) return Promise.resolve(true);
   return new Promise((resolve) => {
     const timer = setTimeout(() => resolve(false), timeoutMs);
-    child.once("exit", () => { clearTimeout(timer); resolve(true); });
+    child.once("exit", () => {
+      clearTimeout(timer);
+      resolve(true);
+    });
   });
 }
 
 /** SIGTERM to the process group we started, SIGKILL if it is still there after `graceMs`. */
 export async function stopGroup(child: ChildProcess, graceMs = 10_000): Promise<void> {
   if (!child.pid) return;
-  try { process.kill(-child.pid, "SIGTERM"); } catch { return; }
+  try {
+    process.kill(-child.pid, "SIGTERM");
+  } catch {
+    return;
+  }
   if (!(await waitForExit(child, graceMs))) {
-    try { process.kill(-child.pid, "SIGKILL"); } catch { /* gone */ }
+    try {
+      process.kill(-child.pid, "SIGKILL");
+    } catch {
+      /* gone */
+    }
     await waitForExit(child, 2_000);
   }
 }
@@ -129,7 +143,8 @@ export interface BenchServer {
 /** Starts the server; on failure everything begun so far is undone before the error is thrown. */
 export async function startBenchServer(opts: BenchServerOptions): Promise<BenchServer> {
   const base = `http://localhost:${opts.appPort}`;
-  for (const port of [opts.appPort, opts.smtpPort]) if (await portOpen(port)) throw new Error(`port ${port} is already in use; stop whatever listens there first.`);
+  for (const port of [opts.appPort, opts.smtpPort])
+    if (await portOpen(port)) throw new Error(`port ${port} is already in use; stop whatever listens there first.`);
 
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "prooflight-bench-"));
   const removeDir = () => fs.rmSync(dir, { recursive: true, force: true });
@@ -155,11 +170,16 @@ export async function startBenchServer(opts: BenchServerOptions): Promise<BenchS
     if (stopped) return;
     stopped = true;
     if (server) await stopGroup(server);
-    if (lock) { lock.stdin!.end(); await stopGroup(lock, 2_000); }
+    if (lock) {
+      lock.stdin!.end();
+      await stopGroup(lock, 2_000);
+    }
     if (sink) await sink.close();
     const { closeDb } = await import("@/db/client");
     closeDb();
-    for (const [k, v] of Object.entries(savedEnv)) if (v === undefined) delete process.env[k]; else process.env[k] = v;
+    for (const [k, v] of Object.entries(savedEnv))
+      if (v === undefined) delete process.env[k];
+      else process.env[k] = v;
     (await import("@/lib/env")).resetEnvForTests();
     process.removeListener("exit", removeDir);
     removeDir();

@@ -30,9 +30,7 @@ function tripletDatasets(count: number, points: number): Dataset[] {
   const line = (f: number, centre: number): number => 1 / (1 + ((2 * (f - centre)) / 0.6) ** 2);
   return Array.from({ length: count }, () => ({
     x,
-    y: x.map(
-      (f) => 1 - 0.05 * (line(f, 2868.14) + line(f, 2870.3) + line(f, 2872.46)) + 0.005 * gaussianNoise(uniform),
-    ),
+    y: x.map((f) => 1 - 0.05 * (line(f, 2868.14) + line(f, 2870.3) + line(f, 2872.46)) + 0.005 * gaussianNoise(uniform)),
   }));
 }
 

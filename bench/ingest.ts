@@ -44,8 +44,11 @@ const GOALS = { rssFactor: 5, rowsMedianMs: 30 };
 function multipartFromFile(file: string, fileName: string, fields: Record<string, string>) {
   const boundary = `----prooflight-bench-${randomBytes(12).toString("hex")}`;
   const fieldParts = Object.entries(fields)
-    .map(([k, v]) => `--${boundary}\r\nContent-Disposition: form-data; name="${k}"\r\n\r\n${v}\r\n`).join("");
-  const head = Buffer.from(`${fieldParts}--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${fileName}"\r\nContent-Type: text/csv\r\n\r\n`);
+    .map(([k, v]) => `--${boundary}\r\nContent-Disposition: form-data; name="${k}"\r\n\r\n${v}\r\n`)
+    .join("");
+  const head = Buffer.from(
+    `${fieldParts}--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${fileName}"\r\nContent-Type: text/csv\r\n\r\n`,
+  );
   const tail = Buffer.from(`\r\n--${boundary}--\r\n`);
   const length = head.length + fs.statSync(file).size + tail.length;
   async function* parts() {
@@ -112,119 +115,171 @@ export async function benchIngest(): Promise<Record<string, unknown>> {
   // Parser anchors first, while nothing else runs.
   const parse = await benchParse(bytes);
 
-  return withBenchServer({ appPort: APP_PORT, smtpPort: SMTP_PORT, tokensFor: ["author@lab.example.org"] }, async ({ dir, tokens, server: srv, groupPid, build, readyMs: startMs }) => {
-    const token = tokens["author@lab.example.org"]!;
-    const files = writeVariants(dir, bytes, UPLOADS);
+  return withBenchServer(
+    { appPort: APP_PORT, smtpPort: SMTP_PORT, tokensFor: ["author@lab.example.org"] },
+    async ({ dir, tokens, server: srv, groupPid, build, readyMs: startMs }) => {
+      const token = tokens["author@lab.example.org"]!;
+      const files = writeVariants(dir, bytes, UPLOADS);
 
-    // Load the upload route once with a tiny file (not timed).
-    const tiny = path.join(dir, "warmup.csv");
-    fs.writeFileSync(tiny, "t_us,signal_1\n0,1\n1,2\n");
-    await upload(token, tiny, "warmup.csv", "bench warm-up");
+      // Load the upload route once with a tiny file (not timed).
+      const tiny = path.join(dir, "warmup.csv");
+      fs.writeFileSync(tiny, "t_us,signal_1\n0,1\n1,2\n");
+      await upload(token, tiny, "warmup.csv", "bench warm-up");
 
-    const idleRssKb = statusKb(srv.pid, "VmRSS") ?? 0;
-    const startupHwmKb = statusKb(srv.pid, "VmHWM") ?? 0;
-    // Resetting the high-water mark before each upload gives each upload's exact peak.
-    const resetHwm = () => { try { fs.writeFileSync(`/proc/${srv.pid}/clear_refs`, "5"); return true; } catch { return false; } };
-    const hwmReset = resetHwm(); // when not permitted, VmHWM includes start-up and the sampler is the measure
-    const sampler = new RssSampler(srv.pid, SAMPLE_MS);
-    sampler.start();
-    const uploads: Array<{ ms: number; MBps: number; peakRssKb: number | null; rssAfterKb: number | null; versionId: string; rowCount: number }> = [];
-    for (const [k, file] of files.entries()) {
-      if (hwmReset) resetHwm();
-      const r = await upload(token, file, path.basename(file), `bench upload ${k + 1}`);
-      if (r.version.rowCount !== ROWS || r.version.byteSize !== fileBytes) {
-        throw new Error(`upload ${k + 1}: stored ${r.version.rowCount} rows / ${r.version.byteSize} bytes, expected ${ROWS} / ${fileBytes}`);
+      const idleRssKb = statusKb(srv.pid, "VmRSS") ?? 0;
+      const startupHwmKb = statusKb(srv.pid, "VmHWM") ?? 0;
+      // Resetting the high-water mark before each upload gives each upload's exact peak.
+      const resetHwm = () => {
+        try {
+          fs.writeFileSync(`/proc/${srv.pid}/clear_refs`, "5");
+          return true;
+        } catch {
+          return false;
+        }
+      };
+      const hwmReset = resetHwm(); // when not permitted, VmHWM includes start-up and the sampler is the measure
+      const sampler = new RssSampler(srv.pid, SAMPLE_MS);
+      sampler.start();
+      const uploads: Array<{ ms: number; MBps: number; peakRssKb: number | null; rssAfterKb: number | null; versionId: string; rowCount: number }> = [];
+      for (const [k, file] of files.entries()) {
+        if (hwmReset) resetHwm();
+        const r = await upload(token, file, path.basename(file), `bench upload ${k + 1}`);
+        if (r.version.rowCount !== ROWS || r.version.byteSize !== fileBytes) {
+          throw new Error(`upload ${k + 1}: stored ${r.version.rowCount} rows / ${r.version.byteSize} bytes, expected ${ROWS} / ${fileBytes}`);
+        }
+        uploads.push({
+          ms: round(r.ms),
+          MBps: round(fileMB / (r.ms / 1000)),
+          peakRssKb: hwmReset ? statusKb(srv.pid, "VmHWM") : null,
+          rssAfterKb: statusKb(srv.pid, "VmRSS"),
+          versionId: r.version.id,
+          rowCount: r.version.rowCount,
+        });
       }
-      uploads.push({
-        ms: round(r.ms), MBps: round(fileMB / (r.ms / 1000)),
-        peakRssKb: hwmReset ? statusKb(srv.pid, "VmHWM") : null, rssAfterKb: statusKb(srv.pid, "VmRSS"),
-        versionId: r.version.id, rowCount: r.version.rowCount,
-      });
-    }
-    sampler.stop();
-    const uploadHwmKb = hwmReset ? Math.max(...uploads.map((u) => u.peakRssKb ?? 0)) : 0;
-    const afterUploadsRssKb = statusKb(srv.pid, "VmRSS") ?? 0;
+      sampler.stop();
+      const uploadHwmKb = hwmReset ? Math.max(...uploads.map((u) => u.peakRssKb ?? 0)) : 0;
+      const afterUploadsRssKb = statusKb(srv.pid, "VmRSS") ?? 0;
 
-    const rowsUrl = `${BASE}/api/versions/${uploads[uploads.length - 1]!.versionId}/rows?offset=900000&limit=1000`;
-    for (let i = 0; i < ROW_WARMUPS; i++) {
-      const { body } = await timedGet(token, rowsUrl);
-      const page = body as { offset: number; rows: unknown[] };
-      if (i === 0 && (page.offset !== 900000 || page.rows.length !== 1000)) throw new Error(`rows page: offset ${page.offset}, ${page.rows.length} rows`);
-    }
-    const rowTimes: number[] = [];
-    for (let i = 0; i < ROW_REQUESTS; i++) rowTimes.push((await timedGet(token, rowsUrl)).ms);
-    // With the resets, the process's lifetime peak is the largest of the pieces.
-    const lifetimeHwmKb = Math.max(startupHwmKb, uploadHwmKb, statusKb(srv.pid, "VmHWM") ?? 0);
+      const rowsUrl = `${BASE}/api/versions/${uploads[uploads.length - 1]!.versionId}/rows?offset=900000&limit=1000`;
+      for (let i = 0; i < ROW_WARMUPS; i++) {
+        const { body } = await timedGet(token, rowsUrl);
+        const page = body as { offset: number; rows: unknown[] };
+        if (i === 0 && (page.offset !== 900000 || page.rows.length !== 1000)) throw new Error(`rows page: offset ${page.offset}, ${page.rows.length} rows`);
+      }
+      const rowTimes: number[] = [];
+      for (let i = 0; i < ROW_REQUESTS; i++) rowTimes.push((await timedGet(token, rowsUrl)).ms);
+      // With the resets, the process's lifetime peak is the largest of the pieces.
+      const lifetimeHwmKb = Math.max(startupHwmKb, uploadHwmKb, statusKb(srv.pid, "VmHWM") ?? 0);
 
-    const mark = (p: boolean) => (p ? "PASS" : "MISS");
-    const MiB = (kb: number) => `${(kb / 1024).toFixed(0)} MiB`;
-    const uploadMedianMs = median(uploads.map((u) => u.ms));
-    const e2eMBps = fileMB / (uploadMedianMs / 1000);
-    const peakRssKb = Math.max(sampler.peakKb, hwmReset ? uploadHwmKb : 0);
-    const rssRatio = (peakRssKb * 1024) / fileBytes;
-    const rowsMedian = median(rowTimes);
-    const rowsP95 = percentile(rowTimes, 95);
-    const goals = {
-      e2eVsPapaBare: { goal: `≥ ${parse.papaparse_bare_MBps!.toFixed(1)} MB/s (PapaParse bare)`, value: round(e2eMBps), pass: e2eMBps >= parse.papaparse_bare_MBps! },
-      peakRss: { goal: `< ${GOALS.rssFactor} × file = ${((GOALS.rssFactor * fileBytes) / 1048576).toFixed(0)} MiB`, value: round(rssRatio, 2), pass: rssRatio < GOALS.rssFactor },
-      rowsMedian: { goal: `< ${GOALS.rowsMedianMs} ms`, value: round(rowsMedian, 2), pass: rowsMedian < GOALS.rowsMedianMs },
-    };
-    // The idle server alone is about 6 × this file, so the goal above cannot be met as written;
-    // this reading (what the uploads add) is printed beside it, marked as a proposal.
-    const aboveIdleRatio = ((peakRssKb - idleRssKb) * 1024) / fileBytes;
-    const proposed = { peakAboveIdle: { goal: `< ${GOALS.rssFactor} × file above idle (proposed)`, value: round(aboveIdleRatio, 2), pass: aboveIdleRatio < GOALS.rssFactor } };
+      const mark = (p: boolean) => (p ? "PASS" : "MISS");
+      const MiB = (kb: number) => `${(kb / 1024).toFixed(0)} MiB`;
+      const uploadMedianMs = median(uploads.map((u) => u.ms));
+      const e2eMBps = fileMB / (uploadMedianMs / 1000);
+      const peakRssKb = Math.max(sampler.peakKb, hwmReset ? uploadHwmKb : 0);
+      const rssRatio = (peakRssKb * 1024) / fileBytes;
+      const rowsMedian = median(rowTimes);
+      const rowsP95 = percentile(rowTimes, 95);
+      const goals = {
+        e2eVsPapaBare: {
+          goal: `≥ ${parse.papaparse_bare_MBps!.toFixed(1)} MB/s (PapaParse bare)`,
+          value: round(e2eMBps),
+          pass: e2eMBps >= parse.papaparse_bare_MBps!,
+        },
+        peakRss: {
+          goal: `< ${GOALS.rssFactor} × file = ${((GOALS.rssFactor * fileBytes) / 1048576).toFixed(0)} MiB`,
+          value: round(rssRatio, 2),
+          pass: rssRatio < GOALS.rssFactor,
+        },
+        rowsMedian: { goal: `< ${GOALS.rowsMedianMs} ms`, value: round(rowsMedian, 2), pass: rowsMedian < GOALS.rowsMedianMs },
+      };
+      // The idle server alone is about 6 × this file, so the goal above cannot be met as written;
+      // this reading (what the uploads add) is printed beside it, marked as a proposal.
+      const aboveIdleRatio = ((peakRssKb - idleRssKb) * 1024) / fileBytes;
+      const proposed = {
+        peakAboveIdle: { goal: `< ${GOALS.rssFactor} × file above idle (proposed)`, value: round(aboveIdleRatio, 2), pass: aboveIdleRatio < GOALS.rssFactor },
+      };
 
-    console.log();
-    printTable([
-      ["ingest (1M × 3 CSV)", "value", "goal", ""],
-      ["file", `${fileMB.toFixed(2)} MB`, "", ""],
-      ["parse: Prooflight", `${parse.prooflight_MBps!.toFixed(1)} MB/s (${parse.prooflight_ms!.toFixed(0)} ms)`, "", ""],
-      ["parse: PapaParse (decode + parse)", `${parse.papaparse_MBps!.toFixed(1)} MB/s (${parse.papaparse_ms!.toFixed(0)} ms)`, "", ""],
-      ["parse: PapaParse bare (string)", `${parse.papaparse_bare_MBps!.toFixed(1)} MB/s (${parse.papaparse_bare_ms!.toFixed(0)} ms)`, "", ""],
-      ["parse: uDSV", `${parse.udsv_MBps!.toFixed(1)} MB/s (${parse.udsv_ms!.toFixed(0)} ms)`, "", ""],
-      ...uploads.map((u, i) => [`upload ${i + 1} (HTTP, streamed multipart)`,
-        `${u.MBps.toFixed(1)} MB/s (${u.ms.toFixed(0)} ms)${u.peakRssKb ? `, RSS peak ${MiB(u.peakRssKb)} → ${MiB(u.rssAfterKb ?? 0)}` : ""}`, "", ""]),
-      ["upload median, end to end", `${e2eMBps.toFixed(1)} MB/s (${uploadMedianMs.toFixed(0)} ms)`, goals.e2eVsPapaBare.goal, mark(goals.e2eVsPapaBare.pass)],
-      ["server RSS idle before uploads", MiB(idleRssKb), "", ""],
-      [`server peak RSS during uploads (${hwmReset ? "VmHWM, reset per upload" : `${sampler.samples} samples`})`, `${MiB(peakRssKb)} = ${rssRatio.toFixed(2)} × file`, goals.peakRss.goal, mark(goals.peakRss.pass)],
-      ["  sampled max VmRSS (20 ms)", `${MiB(sampler.peakKb)} (${sampler.samples} samples)`, "", ""],
-      ["  peak above idle", `${MiB(peakRssKb - idleRssKb)} = ${aboveIdleRatio.toFixed(2)} × file`, proposed.peakAboveIdle.goal, mark(proposed.peakAboveIdle.pass)],
-      ["  RSS after uploads", MiB(afterUploadsRssKb), "", ""],
-      ["  VmHWM at end (process lifetime)", `${MiB(lifetimeHwmKb)} (start-up ${MiB(startupHwmKb)})`, "", ""],
-      [`rows offset 900000 limit 1000 (n=${ROW_REQUESTS})`, `median ${rowsMedian.toFixed(2)} ms, p95 ${rowsP95.toFixed(2)} ms`, goals.rowsMedian.goal, mark(goals.rowsMedian.pass)],
-    ]);
-    console.log(`  server: pid ${srv.pid} (${srv.comm}), group ${groupPid}: ${srv.group.map((p) => `${p.pid} ${p.comm}`).join(", ")}; build ${build}; ready in ${(startMs / 1000).toFixed(1)} s`);
+      console.log();
+      printTable([
+        ["ingest (1M × 3 CSV)", "value", "goal", ""],
+        ["file", `${fileMB.toFixed(2)} MB`, "", ""],
+        ["parse: Prooflight", `${parse.prooflight_MBps!.toFixed(1)} MB/s (${parse.prooflight_ms!.toFixed(0)} ms)`, "", ""],
+        ["parse: PapaParse (decode + parse)", `${parse.papaparse_MBps!.toFixed(1)} MB/s (${parse.papaparse_ms!.toFixed(0)} ms)`, "", ""],
+        ["parse: PapaParse bare (string)", `${parse.papaparse_bare_MBps!.toFixed(1)} MB/s (${parse.papaparse_bare_ms!.toFixed(0)} ms)`, "", ""],
+        ["parse: uDSV", `${parse.udsv_MBps!.toFixed(1)} MB/s (${parse.udsv_ms!.toFixed(0)} ms)`, "", ""],
+        ...uploads.map((u, i) => [
+          `upload ${i + 1} (HTTP, streamed multipart)`,
+          `${u.MBps.toFixed(1)} MB/s (${u.ms.toFixed(0)} ms)${u.peakRssKb ? `, RSS peak ${MiB(u.peakRssKb)} → ${MiB(u.rssAfterKb ?? 0)}` : ""}`,
+          "",
+          "",
+        ]),
+        ["upload median, end to end", `${e2eMBps.toFixed(1)} MB/s (${uploadMedianMs.toFixed(0)} ms)`, goals.e2eVsPapaBare.goal, mark(goals.e2eVsPapaBare.pass)],
+        ["server RSS idle before uploads", MiB(idleRssKb), "", ""],
+        [
+          `server peak RSS during uploads (${hwmReset ? "VmHWM, reset per upload" : `${sampler.samples} samples`})`,
+          `${MiB(peakRssKb)} = ${rssRatio.toFixed(2)} × file`,
+          goals.peakRss.goal,
+          mark(goals.peakRss.pass),
+        ],
+        ["  sampled max VmRSS (20 ms)", `${MiB(sampler.peakKb)} (${sampler.samples} samples)`, "", ""],
+        [
+          "  peak above idle",
+          `${MiB(peakRssKb - idleRssKb)} = ${aboveIdleRatio.toFixed(2)} × file`,
+          proposed.peakAboveIdle.goal,
+          mark(proposed.peakAboveIdle.pass),
+        ],
+        ["  RSS after uploads", MiB(afterUploadsRssKb), "", ""],
+        ["  VmHWM at end (process lifetime)", `${MiB(lifetimeHwmKb)} (start-up ${MiB(startupHwmKb)})`, "", ""],
+        [
+          `rows offset 900000 limit 1000 (n=${ROW_REQUESTS})`,
+          `median ${rowsMedian.toFixed(2)} ms, p95 ${rowsP95.toFixed(2)} ms`,
+          goals.rowsMedian.goal,
+          mark(goals.rowsMedian.pass),
+        ],
+      ]);
+      console.log(
+        `  server: pid ${srv.pid} (${srv.comm}), group ${groupPid}: ${srv.group.map((p) => `${p.pid} ${p.comm}`).join(", ")}; build ${build}; ready in ${(startMs / 1000).toFixed(1)} s`,
+      );
 
-    return {
-      file: { rows: ROWS, cols: COLS, seed: SEED, bytes: fileBytes, megabytes: round(fileMB, 3) },
-      parse: Object.fromEntries(Object.entries(parse).map(([k, v]) => [k, round(v, 2)])),
-      upload: {
-        method: "multipart/form-data built by the bench, streamed from the file in 1 MiB reads (Content-Length set); 1 untimed warm-up upload of a tiny file",
-        runs: uploads,
-        medianMs: round(uploadMedianMs),
-        medianMBps: round(e2eMBps, 2),
-      },
-      memory: {
-        serverPid: srv.pid,
-        serverComm: srv.comm,
-        sampleIntervalMs: SAMPLE_MS,
-        samples: sampler.samples,
-        idleRssKb,
-        sampledPeakRssKb: sampler.peakKb,
-        hwmResetBeforeUploads: hwmReset,
-        uploadHwmKb,
-        peakRssKb,
-        peakToFileRatio: round(rssRatio, 2),
-        peakAboveIdleToFileRatio: round(aboveIdleRatio, 2),
-        afterUploadsRssKb,
-        startupHwmKb,
-        lifetimeHwmKb,
-      },
-      rows: { url: "/api/versions/{id}/rows?offset=900000&limit=1000", warmups: ROW_WARMUPS, requests: ROW_REQUESTS, medianMs: round(rowsMedian, 2), p95Ms: round(rowsP95, 2), minMs: round(Math.min(...rowTimes), 2), maxMs: round(Math.max(...rowTimes), 2) },
-      goals,
-      proposedGoals: proposed,
-      serverReadyMs: Math.round(startMs),
-      build,
-    };
-  });
+      return {
+        file: { rows: ROWS, cols: COLS, seed: SEED, bytes: fileBytes, megabytes: round(fileMB, 3) },
+        parse: Object.fromEntries(Object.entries(parse).map(([k, v]) => [k, round(v, 2)])),
+        upload: {
+          method: "multipart/form-data built by the bench, streamed from the file in 1 MiB reads (Content-Length set); 1 untimed warm-up upload of a tiny file",
+          runs: uploads,
+          medianMs: round(uploadMedianMs),
+          medianMBps: round(e2eMBps, 2),
+        },
+        memory: {
+          serverPid: srv.pid,
+          serverComm: srv.comm,
+          sampleIntervalMs: SAMPLE_MS,
+          samples: sampler.samples,
+          idleRssKb,
+          sampledPeakRssKb: sampler.peakKb,
+          hwmResetBeforeUploads: hwmReset,
+          uploadHwmKb,
+          peakRssKb,
+          peakToFileRatio: round(rssRatio, 2),
+          peakAboveIdleToFileRatio: round(aboveIdleRatio, 2),
+          afterUploadsRssKb,
+          startupHwmKb,
+          lifetimeHwmKb,
+        },
+        rows: {
+          url: "/api/versions/{id}/rows?offset=900000&limit=1000",
+          warmups: ROW_WARMUPS,
+          requests: ROW_REQUESTS,
+          medianMs: round(rowsMedian, 2),
+          p95Ms: round(rowsP95, 2),
+          minMs: round(Math.min(...rowTimes), 2),
+          maxMs: round(Math.max(...rowTimes), 2),
+        },
+        goals,
+        proposedGoals: proposed,
+        serverReadyMs: Math.round(startMs),
+        build,
+      };
+    },
+  );
 }

@@ -12,7 +12,10 @@
 import type { Dispatcher } from "undici-types";
 import { percentile, round } from "./report";
 
-export interface LoadRequest { url: string; init?: RequestInit }
+export interface LoadRequest {
+  url: string;
+  init?: RequestInit;
+}
 
 export interface LoadOptions {
   /** Closed-loop clients (concurrent requests); the agent keeps at most this many connections. */
@@ -51,13 +54,22 @@ type FetchInit = RequestInit & { dispatcher?: Dispatcher };
  * connections apart from any other fetch and caps their number.
  */
 async function makeAgent(probeUrl: string, connections: number): Promise<Dispatcher | undefined> {
-  await fetch(probeUrl).then((r) => r.arrayBuffer()).catch(() => undefined);
+  await fetch(probeUrl)
+    .then((r) => r.arrayBuffer())
+    .catch(() => undefined);
   const global = (globalThis as Record<symbol, unknown>)[Symbol.for("undici.globalDispatcher.1")] as { constructor: new (o: object) => Dispatcher } | undefined;
   if (!global || global.constructor.name !== "Agent") return undefined; // fall back to the global dispatcher (also keep-alive)
   return new global.constructor({ connections, pipelining: 1, keepAliveTimeout: 30_000, keepAliveMaxTimeout: 60_000 });
 }
 
-interface Raw { latencies: number[]; statuses: Record<string, number>; errors: number; errorSamples: string[]; bytes: number; elapsedMs: number }
+interface Raw {
+  latencies: number[];
+  statuses: Record<string, number>;
+  errors: number;
+  errorSamples: string[];
+  bytes: number;
+  elapsedMs: number;
+}
 
 /** One closed-loop slice of `durationMs`; `seq` numbers requests across the slices of one target. */
 async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationMs: number, kind: "warmup" | "timed", counter: { seq: number }): Promise<Raw> {
@@ -102,8 +114,12 @@ function merge(raws: Raw[]): Raw {
   const statuses: Record<string, number> = {};
   for (const r of raws) for (const [k, v] of Object.entries(r.statuses)) statuses[k] = (statuses[k] ?? 0) + v;
   return {
-    latencies: raws.flatMap((r) => r.latencies), statuses, errors: raws.reduce((a, r) => a + r.errors, 0),
-    errorSamples: raws.flatMap((r) => r.errorSamples).slice(0, 5), bytes: raws.reduce((a, r) => a + r.bytes, 0), elapsedMs: raws.reduce((a, r) => a + r.elapsedMs, 0),
+    latencies: raws.flatMap((r) => r.latencies),
+    statuses,
+    errors: raws.reduce((a, r) => a + r.errors, 0),
+    errorSamples: raws.flatMap((r) => r.errorSamples).slice(0, 5),
+    bytes: raws.reduce((a, r) => a + r.bytes, 0),
+    elapsedMs: raws.reduce((a, r) => a + r.elapsedMs, 0),
   };
 }
 
@@ -117,10 +133,22 @@ function summarize(r: Raw, w: Raw | null): LoadResult {
     errorSamples: r.errorSamples,
     durationS: round(r.elapsedMs / 1000, 2),
     rps: round(n / (r.elapsedMs / 1000)),
-    latencyMs: n ? {
-      p50: round(percentile(l, 50), 2), p95: round(percentile(l, 95), 2), p99: round(percentile(l, 99), 2),
-      mean: round(l.reduce((a, b) => a + b, 0) / n, 2), max: round(l.reduce((a, b) => Math.max(a, b), 0), 2), min: round(l.reduce((a, b) => Math.min(a, b), Infinity), 2),
-    } : { p50: NaN, p95: NaN, p99: NaN, mean: NaN, max: NaN, min: NaN },
+    latencyMs: n
+      ? {
+          p50: round(percentile(l, 50), 2),
+          p95: round(percentile(l, 95), 2),
+          p99: round(percentile(l, 99), 2),
+          mean: round(l.reduce((a, b) => a + b, 0) / n, 2),
+          max: round(
+            l.reduce((a, b) => Math.max(a, b), 0),
+            2,
+          ),
+          min: round(
+            l.reduce((a, b) => Math.min(a, b), Infinity),
+            2,
+          ),
+        }
+      : { p50: NaN, p95: NaN, p99: NaN, mean: NaN, max: NaN, min: NaN },
     bytesPerResponse: n ? Math.round(r.bytes / n) : 0,
     warmup: { requests: w?.latencies.length ?? 0, errors: w?.errors ?? 0, statuses: w?.statuses ?? {} },
   };
@@ -131,7 +159,11 @@ function summarize(r: Raw, w: Raw | null): LoadResult {
  * target for durationMs / rounds in turn, so that other work on the machine weighs on all of them
  * alike. `around` is called before and after each timed slice (e.g. to read the server's CPU time).
  */
-export async function runInterleaved(targets: LoadOptions[], rounds: number, around?: (target: number, when: "before" | "after") => void): Promise<LoadResult[]> {
+export async function runInterleaved(
+  targets: LoadOptions[],
+  rounds: number,
+  around?: (target: number, when: "before" | "after") => void,
+): Promise<LoadResult[]> {
   const agents: Array<Dispatcher | undefined> = [];
   try {
     for (const t of targets) {

@@ -7,12 +7,27 @@ import fs from "node:fs";
 /** Clock ticks per second of utime/stime in /proc/<pid>/stat (USER_HZ, 100 on every Linux we run on). */
 const CLOCK_TICKS = 100;
 
-export interface ProcStat { pid: number; ppid: number; pgrp: number; comm: string; utime: number; stime: number }
+export interface ProcStat {
+  pid: number;
+  ppid: number;
+  pgrp: number;
+  comm: string;
+  utime: number;
+  stime: number;
+}
 
-const pids = () => fs.readdirSync("/proc").filter((d) => /^\d+$/.test(d)).map(Number);
+const pids = () =>
+  fs
+    .readdirSync("/proc")
+    .filter((d) => /^\d+$/.test(d))
+    .map(Number);
 
 function cmdline(pid: number): string {
-  try { return fs.readFileSync(`/proc/${pid}/cmdline`, "utf8"); } catch { return ""; }
+  try {
+    return fs.readFileSync(`/proc/${pid}/cmdline`, "utf8");
+  } catch {
+    return "";
+  }
 }
 
 /** pid, parent, process group and CPU ticks from /proc/<pid>/stat (the command name may hold spaces and parentheses). */
@@ -29,7 +44,9 @@ export function readStat(pid: number): ProcStat | null {
 }
 
 export function processGroup(pgid: number): ProcStat[] {
-  return pids().map(readStat).filter((p): p is ProcStat => p !== null && p.pgrp === pgid);
+  return pids()
+    .map(readStat)
+    .filter((p): p is ProcStat => p !== null && p.pgrp === pgid);
 }
 
 /** kB fields of /proc/<pid>/status (VmRSS, VmHWM); null once the process is gone. */
@@ -48,7 +65,11 @@ export function cpuMs(pid: number): number | null {
   return s ? ((s.utime + s.stime) * 1000) / CLOCK_TICKS : null;
 }
 
-export interface ServerProcess { pid: number; comm: string; group: Array<{ pid: number; comm: string }> }
+export interface ServerProcess {
+  pid: number;
+  comm: string;
+  group: Array<{ pid: number; comm: string }>;
+}
 
 /** The next-server process of the group started by spawnNext: by name, else the largest. */
 export function findServerPid(pgid: number): ServerProcess {
@@ -76,10 +97,16 @@ export class RssSampler {
   samples = 0;
   peakKb = 0;
   private timer: NodeJS.Timeout | undefined;
-  constructor(private readonly pid: number, private readonly intervalMs = 20) {}
+  constructor(
+    private readonly pid: number,
+    private readonly intervalMs = 20,
+  ) {}
   private take(): void {
     const kb = statusKb(this.pid, "VmRSS");
-    if (kb !== null) { this.samples++; this.peakKb = Math.max(this.peakKb, kb); }
+    if (kb !== null) {
+      this.samples++;
+      this.peakKb = Math.max(this.peakKb, kb);
+    }
   }
   start(): void {
     this.take();

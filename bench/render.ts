@@ -45,7 +45,10 @@ async function alternatingBlocks(a: () => Promise<unknown>, b: () => Promise<unk
   const ta: number[] = [];
   const tb: number[] = [];
   for (let block = 0; block < Math.ceil(RUNS / (BLOCK - 1)) + 1; block++) {
-    for (const [fn, out] of [[a, ta], [b, tb]] as const) {
+    for (const [fn, out] of [
+      [a, ta],
+      [b, tb],
+    ] as const) {
       for (let i = 0; i < BLOCK; i++) {
         const ms = await time(fn);
         if (i > 0 && block > 0) out.push(ms);
@@ -61,7 +64,10 @@ async function panelComparison() {
   const heightMm = 60;
   // The bare path renders the very spec our path compiles: same size, autosize, font and (off) ARIA.
   const sized = (aria: boolean) => ({
-    ...panelSpec, width: widthMm * PT_PER_MM, height: heightMm * PT_PER_MM, autosize: { type: "fit", contains: "padding" },
+    ...panelSpec,
+    width: widthMm * PT_PER_MM,
+    height: heightMm * PT_PER_MM,
+    autosize: { type: "fit", contains: "padding" },
     config: { aria, font: "Inter" },
   });
   const bareOf = (aria: boolean) => {
@@ -85,8 +91,13 @@ async function panelComparison() {
     insideTimes.push(lastWorkerRenderMs);
   }
   return {
-    points: trace.length, oursMs: round(oursMs), bareMs: round(bareMs), ratio: round(oursMs / bareMs, 2),
-    bareWithAriaMs: round(bareAriaMs), workerMs: round(median(workerTimes)), workerInsideMs: round(median(insideTimes)),
+    points: trace.length,
+    oursMs: round(oursMs),
+    bareMs: round(bareMs),
+    ratio: round(oursMs / bareMs, 2),
+    bareWithAriaMs: round(bareAriaMs),
+    workerMs: round(median(workerTimes)),
+    workerInsideMs: round(median(insideTimes)),
   };
 }
 
@@ -113,10 +124,16 @@ async function figurePdf() {
   const tau = Array.from({ length: 60 }, (_, i) => 2 + i * 4);
   const model = (t: number) => 0.5 + 0.4 * Math.exp(-((t / 80) ** 1.5));
   const echo = tau.map((t) => ({ tau: t, signal: model(t) + 0.01 * Math.sin(t * 7), sigma: 0.01 }));
-  const fit = [...tau.map((t) => ({ series: "curve", tau: t, signal: model(t) })), ...tau.map((t) => ({ series: "residual", tau: t, signal: 0.01 * Math.sin(t * 7) }))];
+  const fit = [
+    ...tau.map((t) => ({ series: "curve", tau: t, signal: model(t) })),
+    ...tau.map((t) => ({ series: "residual", tau: t, signal: 0.01 * Math.sin(t * 7) })),
+  ];
   const spectrum = Array.from({ length: 2000 }, (_, i) => {
     const w = 550 + i * 0.1;
-    return { wavelength: w, intensity: 10 + 50 * Math.exp(-(((w - 637.4) / 1) ** 2)) + 20 * Math.exp(-(((w - 575.1) / 1.5) ** 2)) + 30 * Math.exp(-(((w - 690) / 30) ** 2)) };
+    return {
+      wavelength: w,
+      intensity: 10 + 50 * Math.exp(-(((w - 637.4) / 1) ** 2)) + 20 * Math.exp(-(((w - 575.1) / 1.5) ** 2)) + 30 * Math.exp(-(((w - 690) / 30) ** 2)),
+    };
   });
   const data = { echo, fit, residuals: fit, spectrum };
   const widthMm = 183;
@@ -128,7 +145,14 @@ async function figurePdf() {
     const a = await renderSpecToSvg(decayCurveTemplate.build({ sigmaField: "sigma" }), data, { widthMm: cell });
     const b = await renderSpecToSvg(spectrumTemplate.build({}), data, { widthMm: cell });
     const t1 = performance.now();
-    const fig = composeFigure([{ letter: "a", ...a }, { letter: "b", ...b }], { columns: 2 }, widthMm);
+    const fig = composeFigure(
+      [
+        { letter: "a", ...a },
+        { letter: "b", ...b },
+      ],
+      { columns: 2 },
+      widthMm,
+    );
     const t2 = performance.now();
     const pdf = await svgToPdf(fig.svg);
     const t3 = performance.now();
@@ -142,7 +166,14 @@ async function figurePdf() {
     steps.png300Ms.push(t4 - t3);
   }
   const m = (v: number[]) => round(median(v));
-  return { panelsMs: m(steps.panelsMs), composeMs: m(steps.composeMs), pdfMs: m(steps.pdfMs), totalPdfMs: round(median(steps.panelsMs) + median(steps.composeMs) + median(steps.pdfMs)), png300Ms: m(steps.png300Ms), pdfBytes: bytes };
+  return {
+    panelsMs: m(steps.panelsMs),
+    composeMs: m(steps.composeMs),
+    pdfMs: m(steps.pdfMs),
+    totalPdfMs: round(median(steps.panelsMs) + median(steps.composeMs) + median(steps.pdfMs)),
+    png300Ms: m(steps.png300Ms),
+    pdfBytes: bytes,
+  };
 }
 
 /**
@@ -162,8 +193,12 @@ async function budgetEnforcement() {
   const answers: string[] = [];
   for (let i = 0; i < 3; i++) {
     const t0 = performance.now();
-    answers.push(await renderSpecInWorker(huge, {}, { widthMm: 89 }, { timeoutMs: budgetMs, maxOldGenerationSizeMb: 2048 })
-      .then(() => "rendered", (err: { code?: string }) => err.code ?? "error"));
+    answers.push(
+      await renderSpecInWorker(huge, {}, { widthMm: 89 }, { timeoutMs: budgetMs, maxOldGenerationSizeMb: 2048 }).then(
+        () => "rendered",
+        (err: { code?: string }) => err.code ?? "error",
+      ),
+    );
     times.push(performance.now() - t0);
   }
   return { budgetMs, stoppedAfterMs: round(median(times)), answers };
@@ -190,7 +225,12 @@ export async function benchRender(): Promise<Record<string, unknown>> {
       ["  PDF (pdfkit + svg-to-pdfkit)", `${figure.pdfMs} ms, ${Math.round(figure.pdfBytes / 1024)} kB`, "", ""],
       ["  total to PDF", `${figure.totalPdfMs} ms`, "", ""],
       ["  PNG 300 dpi from the composed SVG", `${figure.png300Ms} ms`, "", ""],
-      [`render past its ${budget.budgetMs} ms budget: stopped after (median of 3)`, `${budget.stoppedAfterMs} ms (${budget.answers.join(", ")})`, "answer timeout", ok(budget.answers.every((a) => a === "timeout"))],
+      [
+        `render past its ${budget.budgetMs} ms budget: stopped after (median of 3)`,
+        `${budget.stoppedAfterMs} ms (${budget.answers.join(", ")})`,
+        "answer timeout",
+        ok(budget.answers.every((a) => a === "timeout")),
+      ],
     ]);
     return { panel, series, figure, budget };
   } finally {

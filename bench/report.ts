@@ -4,7 +4,11 @@
 export function printTable(rows: Array<Array<string | number>>): void {
   const cells = rows.map((r) => r.map(String));
   const widths = cells[0]!.map((_, j) => Math.max(...cells.map((r) => (r[j] ?? "").length)));
-  const line = (r: string[]) => r.map((c, j) => c.padEnd(widths[j]!)).join("  ").trimEnd();
+  const line = (r: string[]) =>
+    r
+      .map((c, j) => c.padEnd(widths[j]!))
+      .join("  ")
+      .trimEnd();
   console.log(line(cells[0]!));
   console.log(widths.map((w) => "-".repeat(w)).join("  "));
   for (const r of cells.slice(1)) console.log(line(r));

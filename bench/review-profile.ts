@@ -9,7 +9,9 @@ import path from "node:path";
 import type { Client, InStatement, TransactionMode } from "@libsql/client";
 import { percentile, round } from "./report";
 
-interface Executes { execute(stmt: InStatement): Promise<unknown> }
+interface Executes {
+  execute(stmt: InStatement): Promise<unknown>;
+}
 
 /**
  * Wraps execute (of the client and of every transaction it opens) and begin/commit; `log` collects
@@ -18,14 +20,20 @@ interface Executes { execute(stmt: InStatement): Promise<unknown> }
  */
 function instrument(client: Client) {
   const state = { on: false, log: [] as Array<{ sql: string; ms: number }>, restore: () => {} };
-  const record = (sql: string, t0: number) => { if (state.on) state.log.push({ sql, ms: performance.now() - t0 }); };
+  const record = (sql: string, t0: number) => {
+    if (state.on) state.log.push({ sql, ms: performance.now() - t0 });
+  };
   let queue: Promise<unknown> = Promise.resolve();
   const wrap = (target: Executes) => {
     const orig = target.execute.bind(target);
     target.execute = (stmt: InStatement) => {
       const run = queue.then(async () => {
         const t0 = performance.now();
-        try { return await orig(stmt); } finally { record(typeof stmt === "string" ? stmt : stmt.sql, t0); }
+        try {
+          return await orig(stmt);
+        } finally {
+          record(typeof stmt === "string" ? stmt : stmt.sql, t0);
+        }
       });
       queue = run.catch(() => undefined);
       return run;
@@ -33,7 +41,10 @@ function instrument(client: Client) {
   };
   const origExecute = client.execute;
   const origTransaction = client.transaction;
-  state.restore = () => { client.execute = origExecute; client.transaction = origTransaction; };
+  state.restore = () => {
+    client.execute = origExecute;
+    client.transaction = origTransaction;
+  };
   wrap(client as unknown as Executes);
   const origTx = client.transaction.bind(client);
   client.transaction = (async (mode?: TransactionMode) => {
@@ -42,7 +53,14 @@ function instrument(client: Client) {
     record(`BEGIN ${(mode ?? "write").toUpperCase()}`, t0);
     wrap(tx as unknown as Executes);
     const commit = tx.commit.bind(tx);
-    tx.commit = async () => { const c0 = performance.now(); try { return await commit(); } finally { record("COMMIT", c0); } };
+    tx.commit = async () => {
+      const c0 = performance.now();
+      try {
+        return await commit();
+      } finally {
+        record("COMMIT", c0);
+      }
+    };
     return tx;
   }) as Client["transaction"];
   return state;
@@ -50,11 +68,19 @@ function instrument(client: Client) {
 
 /** A statement reduced to what identifies it: column lists folded, values gone. */
 function shortSql(sql: string): string {
-  return sql.replace(/^select .*? from /i, "select … from ").replace(/^insert into ("\w+") \(.*?\) values .*/i, "insert into $1 …")
-    .replace(/^update ("\w+") set .*? where /i, "update $1 set … where ").replace(/\s+/g, " ").slice(0, 110);
+  return sql
+    .replace(/^select .*? from /i, "select … from ")
+    .replace(/^insert into ("\w+") \(.*?\) values .*/i, "insert into $1 …")
+    .replace(/^update ("\w+") set .*? where /i, "update $1 set … where ")
+    .replace(/\s+/g, " ")
+    .slice(0, 110);
 }
 
-interface ProfileNode { id: number; callFrame: { functionName: string; url: string }; hitCount?: number }
+interface ProfileNode {
+  id: number;
+  callFrame: { functionName: string; url: string };
+  hitCount?: number;
+}
 
 /** Where a sampled frame's code lives: a package of node_modules, a file of ours, or V8/Node itself. */
 function codeOwner(frame: ProfileNode["callFrame"]): string {
@@ -62,7 +88,12 @@ function codeOwner(frame: ProfileNode["callFrame"]): string {
   // Once any napi-rs addon is loaded (resvg is, in this process), V8 names the samples taken inside
   // libsql's native calls (SQLite stepping rows) after napi-rs's `custom_gc`; without one they show
   // as libsql_js::statement::Rows::js_next. Both are SQLite's own time.
-  if (!url) return functionName.startsWith("(") ? functionName : /libsql|^custom_gc$/.test(functionName) ? "libsql native (SQLite)" : `native: ${functionName || "(anonymous)"}`;
+  if (!url)
+    return functionName.startsWith("(")
+      ? functionName
+      : /libsql|^custom_gc$/.test(functionName)
+        ? "libsql native (SQLite)"
+        : `native: ${functionName || "(anonymous)"}`;
   if (url.startsWith("node:")) return "(Node internals)";
   const pkg = /node_modules\/((?:@[^/]+\/)?[^/]+)/.exec(url);
   if (pkg) return pkg[1]!;
@@ -70,7 +101,11 @@ function codeOwner(frame: ProfileNode["callFrame"]): string {
   return path.relative(process.cwd(), file.split("?")[0]!);
 }
 
-export interface CpuShare { owner: string; share: number; msPerRequest: number }
+export interface CpuShare {
+  owner: string;
+  share: number;
+  msPerRequest: number;
+}
 
 /** A sampling CPU profile (V8 inspector, 100 µs) of `iterations` calls of `run`, self time grouped by owner. */
 async function cpuProfile(iterations: number, run: (i: number) => Promise<unknown>): Promise<CpuShare[]> {
@@ -94,16 +129,34 @@ async function cpuProfile(iterations: number, run: (i: number) => Promise<unknow
       total += h;
     }
     // Samples are spread over the busy wall time of the loop; scale shares to ms per request.
-    return [...hits].map(([owner, h]) => ({ owner, share: round((100 * h) / total, 1), msPerRequest: round(((h / total) * wallMs) / iterations, 3) }))
+    return [...hits]
+      .map(([owner, h]) => ({ owner, share: round((100 * h) / total, 1), msPerRequest: round(((h / total) * wallMs) / iterations, 3) }))
       .sort((a, b) => b.share - a.share);
   } finally {
     session.disconnect();
   }
 }
 
-export interface StageTiming { stage: string; meanMs: number; p95Ms: number }
-export interface StatementTiming { sql: string; perRequest: number; meanMs: number; msPerRequest: number }
-export interface ServiceProfile { iterations: number; stages: StageTiming[]; statements: StatementTiming[]; statementsPerRequest: number; sqlMsPerRequest: number; totalMsPerRequest: number; responseBytes: number }
+export interface StageTiming {
+  stage: string;
+  meanMs: number;
+  p95Ms: number;
+}
+export interface StatementTiming {
+  sql: string;
+  perRequest: number;
+  meanMs: number;
+  msPerRequest: number;
+}
+export interface ServiceProfile {
+  iterations: number;
+  stages: StageTiming[];
+  statements: StatementTiming[];
+  statementsPerRequest: number;
+  sqlMsPerRequest: number;
+  totalMsPerRequest: number;
+  responseBytes: number;
+}
 
 async function profile(iterations: number, state: ReturnType<typeof instrument>, stages: Array<[string, () => Promise<unknown>]>): Promise<ServiceProfile> {
   const times = new Map<string, number[]>(stages.map(([s]) => [s, []]));
@@ -121,16 +174,25 @@ async function profile(iterations: number, state: ReturnType<typeof instrument>,
   }
   const bySql = new Map<string, number[]>();
   for (const { sql, ms } of state.log) bySql.set(shortSql(sql), [...(bySql.get(shortSql(sql)) ?? []), ms]);
-  const statements = [...bySql].map(([sql, ms]) => ({
-    sql, perRequest: round(ms.length / iterations, 2), meanMs: round(ms.reduce((a, b) => a + b, 0) / ms.length, 3),
-    msPerRequest: round(ms.reduce((a, b) => a + b, 0) / iterations, 3),
-  })).sort((a, b) => b.msPerRequest - a.msPerRequest);
+  const statements = [...bySql]
+    .map(([sql, ms]) => ({
+      sql,
+      perRequest: round(ms.length / iterations, 2),
+      meanMs: round(ms.reduce((a, b) => a + b, 0) / ms.length, 3),
+      msPerRequest: round(ms.reduce((a, b) => a + b, 0) / iterations, 3),
+    }))
+    .sort((a, b) => b.msPerRequest - a.msPerRequest);
   const stageRows = [...times].map(([stage, t]) => ({ stage, meanMs: round(t.reduce((a, b) => a + b, 0) / t.length, 3), p95Ms: round(percentile(t, 95), 3) }));
   return {
-    iterations, stages: stageRows, statements,
+    iterations,
+    stages: stageRows,
+    statements,
     statementsPerRequest: round(state.log.length / iterations, 1),
     sqlMsPerRequest: round(state.log.reduce((a, b) => a + b.ms, 0) / iterations, 3),
-    totalMsPerRequest: round(stageRows.reduce((a, b) => a + b.meanMs, 0), 3),
+    totalMsPerRequest: round(
+      stageRows.reduce((a, b) => a + b.meanMs, 0),
+      3,
+    ),
     responseBytes,
   };
 }
@@ -139,7 +201,13 @@ async function profile(iterations: number, state: ReturnType<typeof instrument>,
  * The board read (token lookup, the gate's authorize, getManuscript, JSON) and a comment post
  * (token lookup, the gate's scope + authorize, replyToThread, JSON) on `threadId`.
  */
-export async function profileReviewServices(opts: { token: string; manuscriptId: string; threadId: string; boardIterations: number; commentIterations: number }) {
+export async function profileReviewServices(opts: {
+  token: string;
+  manuscriptId: string;
+  threadId: string;
+  boardIterations: number;
+  commentIterations: number;
+}) {
   const { getClient } = await import("@/db/client");
   const { userForApiToken } = await import("@/lib/server/api-tokens");
   const { authorize } = await import("@/lib/authz");
@@ -158,14 +226,24 @@ export async function profileReviewServices(opts: { token: string; manuscriptId:
   const boardProfile = await profile(opts.boardIterations, state, [
     ["token lookup (userForApiToken)", () => userForApiToken(opts.token)],
     ["gate: authorize", () => authorize(user, "manuscript.read", opts.manuscriptId)],
-    ["getManuscript", async () => { board = await getManuscript(user, opts.manuscriptId); }],
+    [
+      "getManuscript",
+      async () => {
+        board = await getManuscript(user, opts.manuscriptId);
+      },
+    ],
     ["JSON.stringify", async () => JSON.stringify(board)],
   ]);
   let k = 0;
   const commentProfile = await profile(opts.commentIterations, state, [
     ["token lookup (userForApiToken)", () => userForApiToken(opts.token)],
     ["gate: scope (manuscriptOfThread) + authorize", async () => authorize(user, "comment.write", await manuscriptOfThread(opts.threadId))],
-    ["replyToThread (incl. getThread)", async () => { thread = await replyToThread(user, opts.threadId, { body: plainDoc(`profile comment ${k}`), clientKey: `bench-profile-${k++}` }); }],
+    [
+      "replyToThread (incl. getThread)",
+      async () => {
+        thread = await replyToThread(user, opts.threadId, { body: plainDoc(`profile comment ${k}`), clientKey: `bench-profile-${k++}` });
+      },
+    ],
     ["JSON.stringify", async () => JSON.stringify(thread)],
   ]);
   const getThreadProfile = await profile(opts.commentIterations, state, [["getThread alone", () => getThread(user, opts.threadId)]]);

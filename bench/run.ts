@@ -30,7 +30,11 @@ if (unknown.length) {
 const names = requested.length ? [...new Set(requested)] : Object.keys(BENCHMARKS);
 
 const machine = { date: new Date().toISOString(), node: process.version, cpu: os.cpus()[0]?.model ?? "unknown" };
-const load = () => os.loadavg().map((l) => l.toFixed(2)).join(" ");
+const load = () =>
+  os
+    .loadavg()
+    .map((l) => l.toFixed(2))
+    .join(" ");
 console.log(`Node ${machine.node} · ${machine.cpu} · ${os.cpus().length} cores · ${(os.totalmem() / 2 ** 30).toFixed(1)} GiB · load ${load()}`);
 
 fs.mkdirSync(resultsDir, { recursive: true });
@@ -57,7 +61,9 @@ if (Object.keys(results).length) {
   let previous: { results?: Record<string, unknown> } = {};
   try {
     previous = JSON.parse(fs.readFileSync(latestFile, "utf8"));
-  } catch { /* first run, or unreadable: start afresh */ }
+  } catch {
+    /* first run, or unreadable: start afresh */
+  }
   const latest = { ...machine, results: { ...(previous.results ?? {}), ...results } };
   fs.writeFileSync(latestFile, `${JSON.stringify(latest, null, 2)}\n`);
   console.log(`\nWrote ${path.relative(process.cwd(), latestFile)} (${Object.keys(results).join(", ")} updated)`);

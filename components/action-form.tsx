@@ -6,8 +6,17 @@ import { Notice } from "./ui";
 type ServerAction = (prev: ActionState, form: FormData) => Promise<ActionState>;
 
 /** A form bound to a server action, showing its answer next to the fields. */
-export function ActionForm({ action, children, className, hidden, render }: {
-  action: ServerAction; children?: ReactNode; className?: string; hidden?: Record<string, string>;
+export function ActionForm({
+  action,
+  children,
+  className,
+  hidden,
+  render,
+}: {
+  action: ServerAction;
+  children?: ReactNode;
+  className?: string;
+  hidden?: Record<string, string>;
   render?: (state: ActionState, pending: boolean) => ReactNode;
 }) {
   const [state, formAction, pending] = useActionState(action, null);

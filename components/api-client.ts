@@ -5,20 +5,23 @@
  */
 
 /** What JSON makes of a server type: dates arrive as strings (server components still pass Dates). */
-export type Wire<T> = T extends Date ? Date | string
-  : T extends Array<infer U> ? Array<Wire<U>>
-  : T extends object ? { [K in keyof T]: Wire<T[K]> }
-  : T;
+export type Wire<T> = T extends Date ? Date | string : T extends Array<infer U> ? Array<Wire<U>> : T extends object ? { [K in keyof T]: Wire<T[K]> } : T;
 
 /** An error answer of our API, carrying the server's own message and `error.details`. */
 export class ApiError extends Error {
-  constructor(readonly status: number, message: string, readonly details?: unknown) {
+  constructor(
+    readonly status: number,
+    message: string,
+    readonly details?: unknown,
+  ) {
     super(message);
     this.name = "ApiError";
   }
 }
 
-interface ErrorBody { error?: { message?: string; details?: unknown } }
+interface ErrorBody {
+  error?: { message?: string; details?: unknown };
+}
 
 function errorBody(text: string): ErrorBody["error"] {
   try {
@@ -34,7 +37,10 @@ export function messageFromBody(status: number, text: string): string {
 }
 
 export async function fetchJson<T>(url: string, init?: RequestInit): Promise<T> {
-  const res = await fetch(url, { ...init, headers: { accept: "application/json", ...(init?.body ? { "content-type": "application/json" } : {}), ...init?.headers } });
+  const res = await fetch(url, {
+    ...init,
+    headers: { accept: "application/json", ...(init?.body ? { "content-type": "application/json" } : {}), ...init?.headers },
+  });
   const text = await res.text();
   if (!res.ok) throw new ApiError(res.status, messageFromBody(res.status, text), errorBody(text)?.details);
   return JSON.parse(text) as T;

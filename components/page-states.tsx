@@ -17,7 +17,9 @@ export function PageSkeleton({ what, layout = "single" }: { what: string; layout
   return (
     <div role="status" aria-busy="true" data-testid="page-loading">
       <div className="mb-6 border-b border-rule pb-4">
-        <p className="text-sm text-muted"><span aria-hidden>◌ </span>Loading {what}…</p>
+        <p className="text-sm text-muted">
+          <span aria-hidden>◌ </span>Loading {what}…
+        </p>
         <div aria-hidden className="mt-2 h-7 w-2/5 animate-pulse rounded-sm bg-sheet" />
       </div>
       <div aria-hidden className={layout === "with-aside" ? "grid gap-6 lg:grid-cols-[1fr_280px]" : "grid gap-6"}>
@@ -41,7 +43,9 @@ export function SegmentNotFound({ what, children }: { what: string; children?: R
         No {what} has this address, or it belongs to a manuscript you are not a member of.
         {children ? <> {children}</> : null}
       </p>
-      <Link href="/manuscripts" className="mt-6 inline-block text-accent underline">Your manuscripts</Link>
+      <Link href="/manuscripts" className="mt-6 inline-block text-accent underline">
+        Your manuscripts
+      </Link>
     </div>
   );
 }

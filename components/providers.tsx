@@ -10,11 +10,14 @@ function shouldRetry(failures: number, error: unknown): boolean {
 }
 
 export function Providers({ children }: { children: ReactNode }) {
-  const [client] = useState(() => new QueryClient({
-    defaultOptions: {
-      queries: { staleTime: 30_000, refetchOnWindowFocus: true, retry: shouldRetry },
-      mutations: { retry: false },
-    },
-  }));
+  const [client] = useState(
+    () =>
+      new QueryClient({
+        defaultOptions: {
+          queries: { staleTime: 30_000, refetchOnWindowFocus: true, retry: shouldRetry },
+          mutations: { retry: false },
+        },
+      }),
+  );
   return <QueryClientProvider client={client}>{children}</QueryClientProvider>;
 }

@@ -1,4 +1,13 @@
-import { cloneElement, isValidElement, useId, type ReactElement, type ReactNode, type ButtonHTMLAttributes, type InputHTMLAttributes, type SelectHTMLAttributes } from "react";
+import {
+  cloneElement,
+  isValidElement,
+  useId,
+  type ReactElement,
+  type ReactNode,
+  type ButtonHTMLAttributes,
+  type InputHTMLAttributes,
+  type SelectHTMLAttributes,
+} from "react";
 import type { Role } from "@/db/schema";
 import { ROLE_LABELS } from "@/lib/authz/policy";
 
@@ -18,7 +27,11 @@ export function Sheet({ children, className = "" }: { children: ReactNode; class
   return <section className={`rounded-sm border border-rule bg-sheet p-5 shadow-[0_1px_0_rgba(0,0,0,0.03)] ${className}`}>{children}</section>;
 }
 
-export function Button({ variant = "primary", className = "", ...rest }: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: "primary" | "quiet" | "danger" }) {
+export function Button({
+  variant = "primary",
+  className = "",
+  ...rest
+}: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: "primary" | "quiet" | "danger" }) {
   const look = {
     primary: "bg-accent text-white hover:bg-[#163d6c] disabled:opacity-60",
     quiet: "border border-rule bg-sheet text-ink hover:bg-paper",
@@ -28,16 +41,36 @@ export function Button({ variant = "primary", className = "", ...rest }: ButtonH
 }
 
 /** A label bound by id (not by wrapping), so a select's options never leak into its accessible name. */
-export function Field({ label, hint, error, children }: { label: string; hint?: string; error?: string; children: ReactElement<{ id?: string; "aria-describedby"?: string }> }) {
+export function Field({
+  label,
+  hint,
+  error,
+  children,
+}: {
+  label: string;
+  hint?: string;
+  error?: string;
+  children: ReactElement<{ id?: string; "aria-describedby"?: string }>;
+}) {
   const id = useId();
   const hintId = `${id}-hint`;
   const control = isValidElement(children) ? cloneElement(children, { id, "aria-describedby": hint ? hintId : undefined }) : children;
   return (
     <div className="block text-sm">
-      <label htmlFor={id} className="mb-1 block font-medium">{label}</label>
+      <label htmlFor={id} className="mb-1 block font-medium">
+        {label}
+      </label>
       {control}
-      {hint ? <span id={hintId} className="mt-1 block text-xs text-muted">{hint}</span> : null}
-      {error ? <span role="alert" className="mt-1 block text-xs text-bad">✕ {error}</span> : null}
+      {hint ? (
+        <span id={hintId} className="mt-1 block text-xs text-muted">
+          {hint}
+        </span>
+      ) : null}
+      {error ? (
+        <span role="alert" className="mt-1 block text-xs text-bad">
+          ✕ {error}
+        </span>
+      ) : null}
     </div>
   );
 }
@@ -50,7 +83,9 @@ export const Select = (p: SelectHTMLAttributes<HTMLSelectElement>) => <select cl
 export function Notice({ ok, children }: { ok: boolean; children: ReactNode }) {
   return (
     <p role={ok ? "status" : "alert"} className={`mt-3 flex items-start gap-2 text-sm ${ok ? "text-good" : "text-bad"}`}>
-      <span aria-hidden className="font-bold">{ok ? "✓" : "✕"}</span>
+      <span aria-hidden className="font-bold">
+        {ok ? "✓" : "✕"}
+      </span>
       <span>{children}</span>
     </p>
   );

@@ -10,7 +10,11 @@ export type Database = LibSQLDatabase<typeof schema>;
 export type Transaction = Parameters<Parameters<Database["transaction"]>[0]>[0];
 export type Executor = Database | Transaction;
 
-interface Handle { url: string; client: Client; db: Database }
+interface Handle {
+  url: string;
+  client: Client;
+  db: Database;
+}
 let handle: Handle | undefined;
 
 function ensureParentDir(url: string) {
@@ -39,4 +43,3 @@ export function closeDb(): void {
   handle?.client.close();
   handle = undefined;
 }
-

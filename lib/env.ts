@@ -14,7 +14,11 @@ const schema = z.object({
   MAIL_SINK_DIR: z.string().min(1).default(".mail"),
   MAIL_FROM: z.string().min(3).default("Prooflight <no-reply@prooflight.localhost>"),
   AUTH_SECRET: z.string().optional(),
-  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(200 * 1024 * 1024),
+  UPLOAD_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(200 * 1024 * 1024),
   MAIL_SINK_PAGE: z.enum(["on", "off", "auto"]).default("auto"),
   /** "demo" is set by `npm run demo`; `next dev` runs as development; anything else is production. */
   PROOFLIGHT_INSTANCE: z.enum(["demo", "development", "production"]).optional(),
@@ -24,7 +28,11 @@ const schema = z.object({
   UPLOAD_IDLE_TIMEOUT_MS: z.coerce.number().int().positive().default(60_000),
   UPLOADS_PER_USER: z.coerce.number().int().positive().default(2),
   UPLOADS_IN_TOTAL: z.coerce.number().int().positive().default(4),
-  JSON_BODY_MAX_BYTES: z.coerce.number().int().positive().default(1024 * 1024),
+  JSON_BODY_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(1024 * 1024),
   COMMENTS_PER_MINUTE: z.coerce.number().int().positive().default(30),
 });
 
@@ -61,7 +69,9 @@ function load() {
      * MAIL_SINK_PAGE=on: signed-in lab members, their own mail only) or nobody.
      */
     mailSinkPage: mailSinkAudience(e.MAIL_SINK_PAGE, instance, usesLocalSink),
-    trustedProxies: e.TRUSTED_PROXIES.split(",").map((a) => a.trim()).filter(Boolean),
+    trustedProxies: e.TRUSTED_PROXIES.split(",")
+      .map((a) => a.trim())
+      .filter(Boolean),
     uploadIdleTimeoutMs: e.UPLOAD_IDLE_TIMEOUT_MS,
     uploadsPerUser: e.UPLOADS_PER_USER,
     uploadsInTotal: e.UPLOADS_IN_TOTAL,

@@ -17,8 +17,7 @@ export class AppError extends Error {
 }
 
 export const badRequest = (message: string, details?: unknown) => new AppError(400, "bad_request", message, details);
-export const unauthorized = (message = "Sign in or send an API token (Authorization: Bearer …).") =>
-  new AppError(401, "unauthorized", message);
+export const unauthorized = (message = "Sign in or send an API token (Authorization: Bearer …).") => new AppError(401, "unauthorized", message);
 export const forbidden = (message: string) => new AppError(403, "forbidden", message);
 export const notFound = (what = "Not found.") => new AppError(404, "not_found", what);
 export const conflict = (message: string, details?: unknown) => new AppError(409, "conflict", message, details);

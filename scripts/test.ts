@@ -26,8 +26,16 @@ function runAsync(cmd: string, args: string[], env: Record<string, string> = {})
 }
 
 /** The parts of Vitest's and Playwright's JSON reports read here. */
-interface VitestReport { numPassedTests: number; numFailedTests: number; numFailedTestSuites?: number; numPendingTests: number; numTodoTests: number }
-interface PlaywrightReport { stats: { expected: number; unexpected: number; flaky: number; skipped: number } }
+interface VitestReport {
+  numPassedTests: number;
+  numFailedTests: number;
+  numFailedTestSuites?: number;
+  numPendingTests: number;
+  numTodoTests: number;
+}
+interface PlaywrightReport {
+  stats: { expected: number; unexpected: number; flaky: number; skipped: number };
+}
 
 function counts(file: string, kind: "vitest" | "playwright"): { passed: number; failed: number; skipped: number } {
   if (!fs.existsSync(file)) return { passed: 0, failed: 1, skipped: 0 };
@@ -45,7 +53,9 @@ function counts(file: string, kind: "vitest" | "playwright"): { passed: number; 
 const browserOnly = process.argv.includes("--browser-only");
 const playwrightArgs = process.argv.slice(2).filter((a) => a !== "--browser-only");
 const vitestJson = path.join(work, "vitest.json");
-const vitestCode = browserOnly ? 0 : run(process.execPath, ["node_modules/vitest/vitest.mjs", "run", "--reporter=default", "--reporter=json", `--outputFile.json=${vitestJson}`]);
+const vitestCode = browserOnly
+  ? 0
+  : run(process.execPath, ["node_modules/vitest/vitest.mjs", "run", "--reporter=default", "--reporter=json", `--outputFile.json=${vitestJson}`]);
 const total = browserOnly ? { passed: 0, failed: 0, skipped: 0 } : counts(vitestJson, "vitest");
 let e2eCode = 0;
 
@@ -55,12 +65,16 @@ if (!fs.existsSync(chromium)) {
     console.error(`\n✕ Chromium not found at ${chromium}; CI must install Debian's chromium (see .ci/run).`);
     e2eCode = 1;
   } else {
-    console.warn(`\n!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!\n!! BROWSER TESTS SKIPPED: no Chromium at ${chromium}.\n!! Install it (apt-get install -y chromium) to run tests/e2e.\n!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!\n`);
+    console.warn(
+      `\n!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!\n!! BROWSER TESTS SKIPPED: no Chromium at ${chromium}.\n!! Install it (apt-get install -y chromium) to run tests/e2e.\n!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!\n`,
+    );
   }
 } else {
   e2eCode = await runBrowserTests();
   const e2e = counts(path.join(work, "playwright.json"), "playwright");
-  total.passed += e2e.passed; total.failed += e2e.failed; total.skipped += e2e.skipped;
+  total.passed += e2e.passed;
+  total.failed += e2e.failed;
+  total.skipped += e2e.skipped;
 }
 
 async function runBrowserTests(): Promise<number> {
@@ -94,9 +108,17 @@ async function runBrowserTests(): Promise<number> {
   const server = spawnNext(["start", "-p", port], env);
   try {
     await waitForHttp(`http://localhost:${port}/api/health`, 90_000);
-    return await runAsync(process.execPath, ["node_modules/@playwright/test/cli.js", "test", ...playwrightArgs], { ...env, BASE_URL: `http://localhost:${port}` });
+    return await runAsync(process.execPath, ["node_modules/@playwright/test/cli.js", "test", ...playwrightArgs], {
+      ...env,
+      BASE_URL: `http://localhost:${port}`,
+    });
   } finally {
-    if (server.pid) try { process.kill(-server.pid, "SIGTERM"); } catch { /* gone */ }
+    if (server.pid)
+      try {
+        process.kill(-server.pid, "SIGTERM");
+      } catch {
+        /* gone */
+      }
     await sink.close();
   }
 }

@@ -28,13 +28,10 @@ export const signInWithPassword = publicAction(
   },
 );
 
-export const requestLinkAction = publicAction(
-  z.object({ email: emailInput }),
-  async ({ email }) => {
-    await requestSignInLink(email, clientAddress(await headers()));
-    return { ok: true, message: "If the address has an account, a sign-in link is on its way. It works once, for 15 minutes." };
-  },
-);
+export const requestLinkAction = publicAction(z.object({ email: emailInput }), async ({ email }) => {
+  await requestSignInLink(email, clientAddress(await headers()));
+  return { ok: true, message: "If the address has an account, a sign-in link is on its way. It works once, for 15 minutes." };
+});
 
 export const signInWithLinkAction = publicAction(z.object({ token: z.string().min(10) }), async ({ token }) => {
   try {

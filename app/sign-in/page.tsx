@@ -22,7 +22,11 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
       </div>
       {outbox ? (
         <p className="mt-6 text-center text-xs text-muted">
-          Demo instance, seen from this machine: mail goes to the local sink — read it in the <Link className="underline" href="/dev/mail">mail outbox</Link>.
+          Demo instance, seen from this machine: mail goes to the local sink — read it in the{" "}
+          <Link className="underline" href="/dev/mail">
+            mail outbox
+          </Link>
+          .
         </p>
       ) : null}
     </main>

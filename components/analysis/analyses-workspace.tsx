@@ -8,11 +8,21 @@ import type { BatchDataset } from "./batch-types";
 import { PopulationStatistics } from "./population-statistics";
 
 /** The batch of fits and the population statistics of the same model, refreshed when a batch ends. */
-export function AnalysesWorkspace({ manuscriptId, datasets, models, groupings, mayRun }: {
-  manuscriptId: string; datasets: BatchDataset[]; models: ModelInfo[]; groupings: string[]; mayRun: boolean;
+export function AnalysesWorkspace({
+  manuscriptId,
+  datasets,
+  models,
+  groupings,
+  mayRun,
+}: {
+  manuscriptId: string;
+  datasets: BatchDataset[];
+  models: ModelInfo[];
+  groupings: string[];
+  mayRun: boolean;
 }) {
   const [modelId, setModelId] = useState(models.some((m) => m.id === "hahn_echo") ? "hahn_echo" : models[0].id);
-  const [kind, setKind] = useState(datasets.some((d) => d.kind === "hahn_echo") ? "hahn_echo" : datasets[0]?.kind ?? "hahn_echo");
+  const [kind, setKind] = useState(datasets.some((d) => d.kind === "hahn_echo") ? "hahn_echo" : (datasets[0]?.kind ?? "hahn_echo"));
   const [refreshKey, setRefreshKey] = useState(0);
   const model = models.find((m) => m.id === modelId)!;
 
@@ -33,14 +43,27 @@ export function AnalysesWorkspace({ manuscriptId, datasets, models, groupings, m
     <div className="space-y-6">
       <section aria-labelledby="batch-heading">
         <Sheet>
-          <h2 id="batch-heading" className="mb-3 text-lg font-semibold">Batch fits</h2>
-          <BatchRunner key={kind} datasets={datasets} models={models} model={model} onModel={pickModel} kind={kind} onKind={pickKind}
-            mayRun={mayRun} onFinished={() => setRefreshKey((k) => k + 1)} />
+          <h2 id="batch-heading" className="mb-3 text-lg font-semibold">
+            Batch fits
+          </h2>
+          <BatchRunner
+            key={kind}
+            datasets={datasets}
+            models={models}
+            model={model}
+            onModel={pickModel}
+            kind={kind}
+            onKind={pickKind}
+            mayRun={mayRun}
+            onFinished={() => setRefreshKey((k) => k + 1)}
+          />
         </Sheet>
       </section>
       <section aria-labelledby="statistics-heading">
         <Sheet>
-          <h2 id="statistics-heading" className="mb-3 text-lg font-semibold">Population statistics</h2>
+          <h2 id="statistics-heading" className="mb-3 text-lg font-semibold">
+            Population statistics
+          </h2>
           <PopulationStatistics manuscriptId={manuscriptId} model={model} groupings={groupings} refreshKey={refreshKey} />
         </Sheet>
       </section>

@@ -15,5 +15,10 @@ export type PopulationStats = Wire<Awaited<ReturnType<typeof populationStatistic
 
 /** The part of a stored run's result this UI reads (the service stores describeRun without data and curve). */
 export interface StoredResult {
-  parameters?: FitParameter[]; chi2red?: number | null; r2?: number | null; converged?: boolean; reason?: string; warnings?: string[];
+  parameters?: FitParameter[];
+  chi2red?: number | null;
+  r2?: number | null;
+  converged?: boolean;
+  reason?: string;
+  warnings?: string[];
 }

@@ -3,12 +3,26 @@ export function BatchProgress({ done, total, failed }: { done: number; total: nu
   const pct = total ? Math.round((done / total) * 100) : 0;
   return (
     <div className="flex items-center gap-3">
-      <div role="progressbar" aria-label="Batch fit progress" aria-valuemin={0} aria-valuemax={total} aria-valuenow={done}
-        aria-valuetext={`${done} of ${total} fits`} className="h-3 flex-1 overflow-hidden rounded-sm border border-rule bg-paper">
+      <div
+        role="progressbar"
+        aria-label="Batch fit progress"
+        aria-valuemin={0}
+        aria-valuemax={total}
+        aria-valuenow={done}
+        aria-valuetext={`${done} of ${total} fits`}
+        className="h-3 flex-1 overflow-hidden rounded-sm border border-rule bg-paper"
+      >
         <div className="h-full bg-accent transition-[width]" style={{ width: `${pct}%` }} />
       </div>
       <span className="whitespace-nowrap text-sm tabular-nums" data-testid="batch-progress-text">
-        {done}/{total} fits{failed ? <span className="text-bad"> · <span aria-hidden>✕ </span>{failed} failed</span> : null}
+        {done}/{total} fits
+        {failed ? (
+          <span className="text-bad">
+            {" "}
+            · <span aria-hidden>✕ </span>
+            {failed} failed
+          </span>
+        ) : null}
       </span>
     </div>
   );

@@ -10,8 +10,14 @@ import { defaultColumns } from "./fit-options";
 import { ColumnSelects, kindWords, ModelSelect } from "./model-and-columns";
 
 interface Props {
-  datasets: BatchDataset[]; models: ModelInfo[]; model: ModelInfo; onModel: (id: string) => void;
-  kind: string; onKind: (kind: string) => void; mayRun: boolean; onFinished: () => void;
+  datasets: BatchDataset[];
+  models: ModelInfo[];
+  model: ModelInfo;
+  onModel: (id: string) => void;
+  kind: string;
+  onKind: (kind: string) => void;
+  mayRun: boolean;
+  onFinished: () => void;
 }
 
 /** Runs one model (remounted per kind, so ticks and columns start fresh) over the current version of every ticked dataset of a kind, one at a time, storing each run. */
@@ -28,13 +34,20 @@ export function BatchRunner({ datasets, models, model, onModel, kind, onKind, ma
   const chosen = matching.filter((d) => !unticked.has(d.id));
 
   function toggle(id: string, on: boolean) {
-    setUnticked((s) => { const n = new Set(s); if (on) n.delete(id); else n.add(id); return n; });
+    setUnticked((s) => {
+      const n = new Set(s);
+      if (on) n.delete(id);
+      else n.add(id);
+      return n;
+    });
   }
 
   async function run() {
     const queue = chosen;
     stop.current = false;
-    setRunning(true); setOutcomes([]); setRanModel(model);
+    setRunning(true);
+    setOutcomes([]);
+    setRanModel(model);
     let failed = 0;
     setProgress({ done: 0, total: queue.length, failed });
     const options = { x: cols.x, y: cols.y, ...(cols.sigma ? { sigma: cols.sigma } : {}) };
@@ -62,7 +75,11 @@ export function BatchRunner({ datasets, models, model, onModel, kind, onKind, ma
         <div className="space-y-4">
           <Field label="Measurement kind">
             <Select value={kind} onChange={(e) => onKind(e.target.value)}>
-              {kinds.map((k) => <option key={k} value={k}>{kindWords(k)} ({datasets.filter((d) => d.kind === k).length})</option>)}
+              {kinds.map((k) => (
+                <option key={k} value={k}>
+                  {kindWords(k)} ({datasets.filter((d) => d.kind === k).length})
+                </option>
+              ))}
             </Select>
           </Field>
           <ColumnSelects columns={matching[0]?.columns ?? []} value={cols} onChange={setCols} />
@@ -70,13 +87,21 @@ export function BatchRunner({ datasets, models, model, onModel, kind, onKind, ma
       </div>
       {matching.length ? (
         <fieldset className="rounded-sm border border-rule">
-          <legend className="ml-3 px-1 text-sm font-semibold">Datasets to fit — current versions ({chosen.length} of {matching.length} ticked)</legend>
+          <legend className="ml-3 px-1 text-sm font-semibold">
+            Datasets to fit — current versions ({chosen.length} of {matching.length} ticked)
+          </legend>
           <ul className="grid gap-x-6 gap-y-1 px-3 py-2 text-sm sm:grid-cols-2">
             {matching.map((d) => (
               <li key={d.id}>
                 <label className="flex items-baseline gap-2">
                   <input type="checkbox" checked={!unticked.has(d.id)} disabled={running} onChange={(e) => toggle(d.id, e.target.checked)} />
-                  <span>{d.name} <span className="text-xs text-muted">v{d.versionNumber}{d.tags.group ? ` · ${d.tags.group}` : ""}</span></span>
+                  <span>
+                    {d.name}{" "}
+                    <span className="text-xs text-muted">
+                      v{d.versionNumber}
+                      {d.tags.group ? ` · ${d.tags.group}` : ""}
+                    </span>
+                  </span>
                 </label>
               </li>
             ))}
@@ -90,14 +115,30 @@ export function BatchRunner({ datasets, models, model, onModel, kind, onKind, ma
           <Button type="button" onClick={() => void run()} disabled={running || !chosen.length || !cols.x || !cols.y}>
             {running ? "Fitting…" : `Run ${chosen.length} fit${chosen.length === 1 ? "" : "s"}`}
           </Button>
-          {running ? <Button type="button" variant="quiet" onClick={() => { stop.current = true; }}>Stop after this fit</Button> : null}
+          {running ? (
+            <Button
+              type="button"
+              variant="quiet"
+              onClick={() => {
+                stop.current = true;
+              }}
+            >
+              Stop after this fit
+            </Button>
+          ) : null}
           <span className="text-xs text-muted">Each run is stored with a derived version ({sigmaDefault}; automatic start values and default bounds).</span>
         </div>
       ) : (
-        <p className="text-sm text-muted"><span aria-hidden>○ </span>Only the PI and authors run analyses; the statistics below are open to every member.</p>
+        <p className="text-sm text-muted">
+          <span aria-hidden>○ </span>Only the PI and authors run analyses; the statistics below are open to every member.
+        </p>
       )}
       {progress ? <BatchProgress {...progress} /> : null}
-      {progress && !running && progress.failed ? <Notice ok={false}>{progress.failed} of {progress.total} fits failed; the reason is in each row.</Notice> : null}
+      {progress && !running && progress.failed ? (
+        <Notice ok={false}>
+          {progress.failed} of {progress.total} fits failed; the reason is in each row.
+        </Notice>
+      ) : null}
       {outcomes.length ? <BatchResults outcomes={outcomes} model={ranModel} groupTag="group" /> : null}
     </div>
   );

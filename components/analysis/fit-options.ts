@@ -1,18 +1,27 @@
 /** Turning the fit form (strings the user typed) into the API's options, and the form's defaults. */
 import type { FitOptions, FitParameter, ModelInfo } from "./api";
 
-export interface ParamDraft { start: string; fixed: boolean; fixedValue: string; lower: string; upper: string }
+export interface ParamDraft {
+  start: string;
+  fixed: boolean;
+  fixedValue: string;
+  lower: string;
+  upper: string;
+}
 export const EMPTY_DRAFT: ParamDraft = { start: "", fixed: false, fixedValue: "", lower: "", upper: "" };
 
 /** The model's default bounds per parameter, as the last fit reported them (null = unlimited). */
 export type DefaultBounds = Record<string, Array<number | null>>;
 
-export interface Column { name: string; unit: string | null; type: "number" | "string" }
+export interface Column {
+  name: string;
+  unit: string | null;
+  type: "number" | "string";
+}
 
 /** Models made for this kind of measurement first (those naming it first at the very top), then the rest. */
 export function orderModels(models: readonly ModelInfo[], kind: string): { suggested: ModelInfo[]; others: ModelInfo[] } {
-  const suggested = models.filter((m) => m.kinds.includes(kind))
-    .sort((a, b) => Number(b.kinds[0] === kind) - Number(a.kinds[0] === kind));
+  const suggested = models.filter((m) => m.kinds.includes(kind)).sort((a, b) => Number(b.kinds[0] === kind) - Number(a.kinds[0] === kind));
   return { suggested, others: models.filter((m) => !m.kinds.includes(kind)) };
 }
 
@@ -42,11 +51,16 @@ export type BuildResult = { options: FitOptions } | { error: string } | { needDe
  * model's default, which needs the defaults of a previous fit when only one side is typed.
  */
 export function buildOptions(
-  params: ModelInfo["parameters"], drafts: Record<string, ParamDraft>, columns: { x: string; y: string; sigma: string }, defaults?: DefaultBounds,
+  params: ModelInfo["parameters"],
+  drafts: Record<string, ParamDraft>,
+  columns: { x: string; y: string; sigma: string },
+  defaults?: DefaultBounds,
 ): BuildResult {
   if (!columns.x) return { error: "x: choose the x column." };
   if (!columns.y) return { error: "y: choose the y column." };
-  const start: Record<string, number> = {}, fixed: Record<string, number> = {}, bounds: Record<string, [number, number]> = {};
+  const start: Record<string, number> = {},
+    fixed: Record<string, number> = {},
+    bounds: Record<string, [number, number]> = {};
   try {
     for (const p of params) {
       const d = drafts[p.name] ?? EMPTY_DRAFT;

@@ -3,13 +3,19 @@ import { useId, useState } from "react";
 import { extent, linearScale, logScale, padRange, type Scale } from "@/components/data/plot-scales";
 
 const W = 720;
-const LEFT = 70, RIGHT = 16, TOP = 12;
-const MAIN_H = 250, GAP = 18, RES_H = 90;
+const LEFT = 70,
+  RIGHT = 16,
+  TOP = 12;
+const MAIN_H = 250,
+  GAP = 18,
+  RES_H = 90;
 const MAIN_BOTTOM = TOP + MAIN_H;
-const RES_TOP = MAIN_BOTTOM + GAP, RES_BOTTOM = RES_TOP + RES_H;
+const RES_TOP = MAIN_BOTTOM + GAP,
+  RES_BOTTOM = RES_TOP + RES_H;
 const H = RES_BOTTOM + 48;
 /** Okabe–Ito blue and vermillion: told apart with every common colour-vision deficiency, and by shape (dots vs line). */
-const DATA = "#0072B2", CURVE = "#D55E00";
+const DATA = "#0072B2",
+  CURVE = "#D55E00";
 
 export interface FitPlotProps {
   data: { x: number[]; y: number[]; residuals: Array<number | null> };
@@ -39,8 +45,18 @@ export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle
     <figure className="m-0">
       <div className="mb-2 flex flex-wrap items-center justify-between gap-3 text-xs text-muted">
         <p className="flex flex-wrap items-center gap-4" aria-hidden>
-          <span className="inline-flex items-center gap-1.5"><svg width="10" height="10"><circle cx="5" cy="5" r="3.5" fill={DATA} /></svg>data</span>
-          <span className="inline-flex items-center gap-1.5"><svg width="22" height="10"><line x1="1" x2="21" y1="5" y2="5" stroke={CURVE} strokeWidth="2.5" /></svg>fit: {modelTitle}</span>
+          <span className="inline-flex items-center gap-1.5">
+            <svg width="10" height="10">
+              <circle cx="5" cy="5" r="3.5" fill={DATA} />
+            </svg>
+            data
+          </span>
+          <span className="inline-flex items-center gap-1.5">
+            <svg width="22" height="10">
+              <line x1="1" x2="21" y1="5" y2="5" stroke={CURVE} strokeWidth="2.5" />
+            </svg>
+            fit: {modelTitle}
+          </span>
           <span>lower strip: residual = data − fit</span>
         </p>
         <label className="inline-flex items-center gap-1.5 text-ink">
@@ -48,9 +64,17 @@ export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle
           Logarithmic x axis
         </label>
       </div>
-      <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full rounded-sm border border-rule bg-white" role="img" aria-label={`${yTitle} against ${xTitle}: ${data.x.length} data points with the fitted curve; residuals beneath`} data-testid="fit-plot">
+      <svg
+        viewBox={`0 0 ${W} ${H}`}
+        className="h-auto w-full rounded-sm border border-rule bg-white"
+        role="img"
+        aria-label={`${yTitle} against ${xTitle}: ${data.x.length} data points with the fitted curve; residuals beneath`}
+        data-testid="fit-plot"
+      >
         <defs>
-          <clipPath id={`${clip}-main`}><rect x={LEFT} y={TOP} width={W - LEFT - RIGHT} height={MAIN_H} /></clipPath>
+          <clipPath id={`${clip}-main`}>
+            <rect x={LEFT} y={TOP} width={W - LEFT - RIGHT} height={MAIN_H} />
+          </clipPath>
         </defs>
         <Frame top={TOP} bottom={MAIN_BOTTOM} />
         <Frame top={RES_TOP} bottom={RES_BOTTOM} />
@@ -59,17 +83,27 @@ export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle
             <line x1={xs(t.value)} x2={xs(t.value)} y1={TOP} y2={MAIN_BOTTOM} stroke="#eeeae1" />
             <line x1={xs(t.value)} x2={xs(t.value)} y1={RES_TOP} y2={RES_BOTTOM} stroke="#eeeae1" />
             <line x1={xs(t.value)} x2={xs(t.value)} y1={RES_BOTTOM} y2={RES_BOTTOM + 4} stroke="#5b6168" />
-            <text x={xs(t.value)} y={RES_BOTTOM + 16} textAnchor="middle" className="fill-muted text-[11px]">{t.label}</text>
+            <text x={xs(t.value)} y={RES_BOTTOM + 16} textAnchor="middle" className="fill-muted text-[11px]">
+              {t.label}
+            </text>
           </g>
         ))}
         <YTicks scale={ys} />
         <YTicks scale={rs} />
         <line x1={LEFT} x2={W - RIGHT} y1={rs(0)} y2={rs(0)} stroke="#5b6168" strokeDasharray="4 3" />
-        <text x={(LEFT + W - RIGHT) / 2} y={H - 8} textAnchor="middle" className="fill-ink text-[12px]">{xTitle}</text>
-        <text transform={`translate(14 ${(TOP + MAIN_BOTTOM) / 2}) rotate(-90)`} textAnchor="middle" className="fill-ink text-[12px]">{yTitle}</text>
-        <text transform={`translate(14 ${(RES_TOP + RES_BOTTOM) / 2}) rotate(-90)`} textAnchor="middle" className="fill-ink text-[10px]">{residualTitle}</text>
+        <text x={(LEFT + W - RIGHT) / 2} y={H - 8} textAnchor="middle" className="fill-ink text-[12px]">
+          {xTitle}
+        </text>
+        <text transform={`translate(14 ${(TOP + MAIN_BOTTOM) / 2}) rotate(-90)`} textAnchor="middle" className="fill-ink text-[12px]">
+          {yTitle}
+        </text>
+        <text transform={`translate(14 ${(RES_TOP + RES_BOTTOM) / 2}) rotate(-90)`} textAnchor="middle" className="fill-ink text-[10px]">
+          {residualTitle}
+        </text>
         <g clipPath={`url(#${clip}-main)`}>
-          {data.x.map((x, i) => <circle key={i} cx={xs(x)} cy={ys(data.y[i])} r={2.6} fill={DATA} fillOpacity={0.85} />)}
+          {data.x.map((x, i) => (
+            <circle key={i} cx={xs(x)} cy={ys(data.y[i])} r={2.6} fill={DATA} fillOpacity={0.85} />
+          ))}
           <path d={path} fill="none" stroke={CURVE} strokeWidth={2} />
         </g>
         {data.x.map((x, i) => {
@@ -91,7 +125,9 @@ function YTicks({ scale }: { scale: Scale }) {
       {scale.ticks.map((t) => (
         <g key={t.value}>
           <line x1={LEFT - 4} x2={LEFT} y1={scale(t.value)} y2={scale(t.value)} stroke="#5b6168" />
-          <text x={LEFT - 7} y={scale(t.value) + 3.5} textAnchor="end" className="fill-muted text-[11px]">{t.label}</text>
+          <text x={LEFT - 7} y={scale(t.value) + 3.5} textAnchor="end" className="fill-muted text-[11px]">
+            {t.label}
+          </text>
         </g>
       ))}
     </>

@@ -9,16 +9,33 @@ function Warnings({ items, label = "Fit warnings" }: { items: string[]; label?: 
   return (
     <ul aria-label={label} className="space-y-1 text-sm text-warn">
       {items.map((w) => (
-        <li key={w} className="flex items-start gap-2"><span aria-hidden className="font-bold">⚠</span><span>{w}</span></li>
+        <li key={w} className="flex items-start gap-2">
+          <span aria-hidden className="font-bold">
+            ⚠
+          </span>
+          <span>{w}</span>
+        </li>
       ))}
     </ul>
   );
 }
 
 export function Converged({ ok, reason }: { ok: boolean | undefined; reason?: string }) {
-  return ok
-    ? <span className="text-good"><span aria-hidden className="font-bold">✓ </span>converged{reason ? <span className="text-muted"> ({reason})</span> : null}</span>
-    : <span className="text-bad"><span aria-hidden className="font-bold">✕ </span>did not converge{reason ? <span className="text-muted"> ({reason})</span> : null}</span>;
+  return ok ? (
+    <span className="text-good">
+      <span aria-hidden className="font-bold">
+        ✓{" "}
+      </span>
+      converged{reason ? <span className="text-muted"> ({reason})</span> : null}
+    </span>
+  ) : (
+    <span className="text-bad">
+      <span aria-hidden className="font-bold">
+        ✕{" "}
+      </span>
+      did not converge{reason ? <span className="text-muted"> ({reason})</span> : null}
+    </span>
+  );
 }
 
 /** The fitted curve over the data with residuals, the parameters with standard errors, and how well it fits. */
@@ -26,34 +43,76 @@ export function FitResultView({ result, modelTitle, xName, yName }: { result: Fi
   const yTitle = axisTitle(yName, result.units.y);
   return (
     <div className="grid gap-6 lg:grid-cols-[minmax(0,1.45fr)_minmax(0,1fr)]">
-      <FitPlot data={result.data} curve={result.curve} modelTitle={modelTitle}
-        xTitle={axisTitle(xName, result.units.x)} yTitle={yTitle} residualTitle={axisTitle("residual", result.units.y)} />
+      <FitPlot
+        data={result.data}
+        curve={result.curve}
+        modelTitle={modelTitle}
+        xTitle={axisTitle(xName, result.units.x)}
+        yTitle={yTitle}
+        residualTitle={axisTitle("residual", result.units.y)}
+      />
       <div className="space-y-4">
         <table className="w-full text-sm" aria-label="Fitted parameters">
           <thead className="text-left text-xs uppercase tracking-wide text-muted">
-            <tr className="border-b border-rule"><th className="py-1.5 pr-3">Parameter</th><th className="py-1.5 pr-3">Value ± standard error</th><th className="py-1.5 pr-3">Unit</th><th className="py-1.5">Note</th></tr>
+            <tr className="border-b border-rule">
+              <th className="py-1.5 pr-3">Parameter</th>
+              <th className="py-1.5 pr-3">Value ± standard error</th>
+              <th className="py-1.5 pr-3">Unit</th>
+              <th className="py-1.5">Note</th>
+            </tr>
           </thead>
           <tbody className="divide-y divide-rule/70">
             {result.parameters.map((p) => (
               <tr key={p.name} data-testid={`param-${p.name}`}>
-                <th scope="row" className="py-1.5 pr-3 text-left font-mono font-medium">{p.name}</th>
+                <th scope="row" className="py-1.5 pr-3 text-left font-mono font-medium">
+                  {p.name}
+                </th>
                 <td className="py-1.5 pr-3 tabular-nums">{formatValueError(p.value, p.fixed ? null : p.stderr)}</td>
                 <td className="py-1.5 pr-3">{p.unit || <span className="text-muted">1</span>}</td>
                 <td className="py-1.5 text-xs">
-                  {p.fixed ? <span className="text-muted"><span aria-hidden>◇ </span>held fixed</span> : null}
-                  {p.atBound ? <span className="text-warn"><span aria-hidden className="font-bold">⚠ </span>at a bound</span> : null}
-                  {!p.fixed && p.stderr === null ? <span className="text-warn"><span aria-hidden className="font-bold">⚠ </span>not determined</span> : null}
+                  {p.fixed ? (
+                    <span className="text-muted">
+                      <span aria-hidden>◇ </span>held fixed
+                    </span>
+                  ) : null}
+                  {p.atBound ? (
+                    <span className="text-warn">
+                      <span aria-hidden className="font-bold">
+                        ⚠{" "}
+                      </span>
+                      at a bound
+                    </span>
+                  ) : null}
+                  {!p.fixed && p.stderr === null ? (
+                    <span className="text-warn">
+                      <span aria-hidden className="font-bold">
+                        ⚠{" "}
+                      </span>
+                      not determined
+                    </span>
+                  ) : null}
                 </td>
               </tr>
             ))}
           </tbody>
         </table>
         <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm" aria-label="Goodness of fit">
-          <dt className="text-muted">χ²ᵣ</dt><dd className="tabular-nums" data-testid="chi2red">{formatNumber(result.chi2red, 3)}</dd>
-          <dt className="text-muted">R²</dt><dd className="tabular-nums">{formatNumber(result.r2, 5)}</dd>
-          <dt className="text-muted">Points · dof</dt><dd className="tabular-nums">{result.points} · {result.dof}</dd>
-          <dt className="text-muted">Iterations</dt><dd className="tabular-nums">{result.iterations}</dd>
-          <dt className="text-muted">Solver</dt><dd><Converged ok={result.converged} reason={result.reason} /></dd>
+          <dt className="text-muted">χ²ᵣ</dt>
+          <dd className="tabular-nums" data-testid="chi2red">
+            {formatNumber(result.chi2red, 3)}
+          </dd>
+          <dt className="text-muted">R²</dt>
+          <dd className="tabular-nums">{formatNumber(result.r2, 5)}</dd>
+          <dt className="text-muted">Points · dof</dt>
+          <dd className="tabular-nums">
+            {result.points} · {result.dof}
+          </dd>
+          <dt className="text-muted">Iterations</dt>
+          <dd className="tabular-nums">{result.iterations}</dd>
+          <dt className="text-muted">Solver</dt>
+          <dd>
+            <Converged ok={result.converged} reason={result.reason} />
+          </dd>
         </dl>
         <p className="text-xs text-muted">
           {result.options.sigma ? `Weighted by the ${result.options.sigma} column; ` : "Unweighted (no σ column); "}

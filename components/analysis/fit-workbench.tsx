@@ -13,17 +13,29 @@ import { ParameterInputs } from "./parameter-inputs";
 import { StoredRuns } from "./stored-runs";
 
 interface Props {
-  versionId: string; kind: string; columns: Column[]; models: ModelInfo[]; mayRun: boolean; initialRuns: StoredRun[];
+  versionId: string;
+  kind: string;
+  columns: Column[];
+  models: ModelInfo[];
+  mayRun: boolean;
+  initialRuns: StoredRun[];
 }
 
-interface Shown { key: string; run: FitResult; modelTitle: string; xName: string; yName: string }
+interface Shown {
+  key: string;
+  run: FitResult;
+  modelTitle: string;
+  xName: string;
+  yName: string;
+}
 
 /** Choose a model and columns, adjust the parameters, fit (nothing stored), then save the run with its derived version. */
 export function FitWorkbench({ versionId, kind, columns, models, mayRun, initialRuns }: Props) {
   const queryClient = useQueryClient();
   const runsKey = ["version-analyses", versionId];
   const runs = useQuery({
-    queryKey: runsKey, initialData: { items: initialRuns },
+    queryKey: runsKey,
+    initialData: { items: initialRuns },
     queryFn: () => fetchJson<{ items: StoredRun[] }>(`/api/versions/${versionId}/analyses`),
   });
   const [modelId, setModelId] = useState(() => (orderModels(models, kind).suggested[0] ?? models[0])?.id ?? "");
@@ -53,7 +65,9 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
   };
 
   async function fit() {
-    setBusy("fit"); setError(null); setSaved(null);
+    setBusy("fit");
+    setError(null);
+    setSaved(null);
     try {
       let request = built;
       let base = knownDefaults;
@@ -65,7 +79,10 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
         base = learn(probe, probeOptions.options, base);
         request = buildOptions(model?.parameters ?? [], drafts, cols, base);
       }
-      if ("error" in request) { setError(request.error); return; }
+      if ("error" in request) {
+        setError(request.error);
+        return;
+      }
       if (!("options" in request)) return;
       const run = await preview(request.options);
       learn(run, request.options, base);
@@ -79,7 +96,8 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
 
   async function save() {
     if (!shown) return;
-    setBusy("save"); setError(null);
+    setBusy("save");
+    setError(null);
     try {
       const run = await sendJson<SavedRun>("/api/analyses", "POST", { versionId, model: shown.run.model, options: shown.run.options });
       setShown({ ...shown, run });
@@ -93,7 +111,11 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
     }
   }
 
-  const pickModel = (id: string) => { setModelId(id); setDrafts({}); setSaved(null); };
+  const pickModel = (id: string) => {
+    setModelId(id);
+    setDrafts({});
+    setSaved(null);
+  };
   const stale = shown !== null && shown.key !== currentKey;
 
   return (
@@ -103,29 +125,60 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
           <h2 className="sr-only">Fit settings</h2>
           <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1.3fr)]">
             <ModelSelect models={models} kind={kind} value={modelId} onChange={pickModel} />
-            <ColumnSelects columns={columns} value={cols} onChange={(v) => { setCols(v); setSaved(null); }} />
+            <ColumnSelects
+              columns={columns}
+              value={cols}
+              onChange={(v) => {
+                setCols(v);
+                setSaved(null);
+              }}
+            />
           </div>
           <h3 className="mb-1 mt-5 text-sm font-semibold">Parameters</h3>
-          <p className="mb-2 text-xs text-muted">Blank start = automatic guess from the data; blank bound = the model&apos;s default (shown once you have fitted).</p>
-          <ParameterInputs rows={rows} drafts={drafts} defaults={knownDefaults} lastValues={lastValues}
-            onChange={(name, d) => { setDrafts((all) => ({ ...all, [name]: d })); setSaved(null); }} />
+          <p className="mb-2 text-xs text-muted">
+            Blank start = automatic guess from the data; blank bound = the model&apos;s default (shown once you have fitted).
+          </p>
+          <ParameterInputs
+            rows={rows}
+            drafts={drafts}
+            defaults={knownDefaults}
+            lastValues={lastValues}
+            onChange={(name, d) => {
+              setDrafts((all) => ({ ...all, [name]: d }));
+              setSaved(null);
+            }}
+          />
           <div className="mt-4 flex flex-wrap items-center gap-3">
-            <Button type="button" onClick={() => void fit()} disabled={busy !== null || !model}>{busy === "fit" ? "Fitting…" : "Fit"}</Button>
-            <Button type="button" variant="quiet" onClick={() => void save()} disabled={busy !== null || !shown || stale}>{busy === "save" ? "Saving…" : "Save run"}</Button>
+            <Button type="button" onClick={() => void fit()} disabled={busy !== null || !model}>
+              {busy === "fit" ? "Fitting…" : "Fit"}
+            </Button>
+            <Button type="button" variant="quiet" onClick={() => void save()} disabled={busy !== null || !shown || stale}>
+              {busy === "save" ? "Saving…" : "Save run"}
+            </Button>
             <span className="text-xs text-muted">
-              {!shown ? "Fit first: nothing is stored until you save." : stale ? "The settings changed since this fit; fit again before saving." : "Save stores exactly the fit shown, with a derived version."}
+              {!shown
+                ? "Fit first: nothing is stored until you save."
+                : stale
+                  ? "The settings changed since this fit; fit again before saving."
+                  : "Save stores exactly the fit shown, with a derived version."}
             </span>
           </div>
           {error ? <Notice ok={false}>{error}</Notice> : null}
           {saved ? (
             <Notice ok>
-              Saved — <Link href={`/datasets/${saved.datasetId}?v=${saved.id}`} className="underline">derived version {saved.number}</Link> (fitted curve, data and residuals, traceable to this version).
+              Saved —{" "}
+              <Link href={`/datasets/${saved.datasetId}?v=${saved.id}`} className="underline">
+                derived version {saved.number}
+              </Link>{" "}
+              (fitted curve, data and residuals, traceable to this version).
             </Notice>
           ) : null}
         </Sheet>
       ) : (
         <Sheet>
-          <p className="text-sm text-muted"><span aria-hidden>○ </span>You can look at the stored fits on this version. Only the PI and authors run analyses.</p>
+          <p className="text-sm text-muted">
+            <span aria-hidden>○ </span>You can look at the stored fits on this version. Only the PI and authors run analyses.
+          </p>
         </Sheet>
       )}
       {shown ? (
@@ -134,14 +187,20 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
             <h2 id="fit-result-heading" className="mb-3 text-lg font-semibold">
               {shown.modelTitle}
               <span className="ml-2 text-sm font-normal text-muted">{"id" in shown.run ? "— stored run" : "— preview, not stored"}</span>
-              {stale ? <span className="ml-2 text-sm font-normal text-warn"><span aria-hidden>⚠ </span>settings changed since this fit</span> : null}
+              {stale ? (
+                <span className="ml-2 text-sm font-normal text-warn">
+                  <span aria-hidden>⚠ </span>settings changed since this fit
+                </span>
+              ) : null}
             </h2>
             <FitResultView result={shown.run} modelTitle={shown.modelTitle} xName={shown.xName} yName={shown.yName} />
           </Sheet>
         </section>
       ) : null}
       <section aria-labelledby="stored-runs-heading">
-        <h2 id="stored-runs-heading" className="mb-2 text-lg font-semibold">Stored runs on this version</h2>
+        <h2 id="stored-runs-heading" className="mb-2 text-lg font-semibold">
+          Stored runs on this version
+        </h2>
         <StoredRuns runs={runs.data.items} models={models} />
       </section>
     </div>

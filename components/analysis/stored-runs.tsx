@@ -20,7 +20,9 @@ function ParameterSummary({ params }: { params: readonly FitParameter[] }) {
     <span className="flex flex-wrap gap-x-4 gap-y-0.5">
       {params.map((p) => (
         <span key={p.name} className="whitespace-nowrap tabular-nums">
-          <span className="font-mono">{p.name}</span> = {formatValueError(p.value, p.fixed ? null : p.stderr)}{p.unit ? ` ${p.unit}` : ""}{p.fixed ? " (fixed)" : ""}
+          <span className="font-mono">{p.name}</span> = {formatValueError(p.value, p.fixed ? null : p.stderr)}
+          {p.unit ? ` ${p.unit}` : ""}
+          {p.fixed ? " (fixed)" : ""}
         </span>
       ))}
     </span>
@@ -29,13 +31,21 @@ function ParameterSummary({ params }: { params: readonly FitParameter[] }) {
 
 /** Runs stored on this version, newest first. */
 export function StoredRuns({ runs, models }: { runs: StoredRun[]; models: readonly ModelInfo[] }) {
-  if (!runs.length) return <EmptyState title="No stored runs on this version yet">A saved fit appears here with its parameters and a derived version.</EmptyState>;
+  if (!runs.length)
+    return <EmptyState title="No stored runs on this version yet">A saved fit appears here with its parameters and a derived version.</EmptyState>;
   const byId = new Map(models.map((m) => [m.id, m]));
   return (
     <div className="overflow-x-auto">
       <table className="w-full border border-rule bg-sheet text-sm" aria-label="Stored runs on this version">
         <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
-          <tr><th className="px-3 py-2">When</th><th className="px-3 py-2">Model</th><th className="px-3 py-2">Result</th><th className="px-3 py-2 normal-case">χ²ᵣ</th><th className="px-3 py-2">Solver</th><th className="px-3 py-2">Derived</th></tr>
+          <tr>
+            <th className="px-3 py-2">When</th>
+            <th className="px-3 py-2">Model</th>
+            <th className="px-3 py-2">Result</th>
+            <th className="px-3 py-2 normal-case">χ²ᵣ</th>
+            <th className="px-3 py-2">Solver</th>
+            <th className="px-3 py-2">Derived</th>
+          </tr>
         </thead>
         <tbody className="divide-y divide-rule">
           {runs.map((r) => {
@@ -44,10 +54,19 @@ export function StoredRuns({ runs, models }: { runs: StoredRun[]; models: readon
             return (
               <tr key={r.id}>
                 <td className="whitespace-nowrap px-3 py-2 text-muted">{formatDate(r.createdAt)}</td>
-                <td className="px-3 py-2">{model?.title ?? r.model}<span className="block text-xs text-muted">{r.model} · v{r.modelVersion}</span></td>
-                <td className="px-3 py-2"><ParameterSummary params={keyParameters(model, result.parameters ?? [])} /></td>
+                <td className="px-3 py-2">
+                  {model?.title ?? r.model}
+                  <span className="block text-xs text-muted">
+                    {r.model} · v{r.modelVersion}
+                  </span>
+                </td>
+                <td className="px-3 py-2">
+                  <ParameterSummary params={keyParameters(model, result.parameters ?? [])} />
+                </td>
                 <td className="px-3 py-2 tabular-nums">{formatNumber(result.chi2red, 3)}</td>
-                <td className="whitespace-nowrap px-3 py-2"><Converged ok={result.converged} /></td>
+                <td className="whitespace-nowrap px-3 py-2">
+                  <Converged ok={result.converged} />
+                </td>
                 <td className="whitespace-nowrap px-3 py-2">{r.derivedVersionId ? <DerivedLink versionId={r.derivedVersionId} /> : "—"}</td>
               </tr>
             );
@@ -60,7 +79,15 @@ export function StoredRuns({ runs, models }: { runs: StoredRun[]; models: readon
 
 /** The derived version of a run (curve, data, residuals), linked on its dataset page. */
 function DerivedLink({ versionId }: { versionId: string }) {
-  const v = useQuery({ queryKey: ["version", versionId], queryFn: () => fetchJson<{ number: number; datasetId: string }>(`/api/versions/${versionId}`), staleTime: Infinity });
+  const v = useQuery({
+    queryKey: ["version", versionId],
+    queryFn: () => fetchJson<{ number: number; datasetId: string }>(`/api/versions/${versionId}`),
+    staleTime: Infinity,
+  });
   if (!v.data) return <span className="text-muted">…</span>;
-  return <Link href={`/datasets/${v.data.datasetId}?v=${versionId}`} className="underline">version {v.data.number}</Link>;
+  return (
+    <Link href={`/datasets/${v.data.datasetId}?v=${versionId}`} className="underline">
+      version {v.data.number}
+    </Link>
+  );
 }

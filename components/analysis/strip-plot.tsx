@@ -2,7 +2,12 @@ import { extent, linearScale, padRange } from "@/components/data/plot-scales";
 import { formatNumber } from "@/lib/data/format";
 import type { PopulationStats } from "./api";
 
-const W = 720, H = 300, LEFT = 70, RIGHT = 16, TOP = 14, BOTTOM = H - 56;
+const W = 720,
+  H = 300,
+  LEFT = 70,
+  RIGHT = 16,
+  TOP = 14,
+  BOTTOM = H - 56;
 const POINT = "#0072B2";
 
 /** A small fixed spread so equal values stay visible side by side; the same every render. */
@@ -16,23 +21,43 @@ export function StripPlot({ stats, yTitle }: { stats: PopulationStats; yTitle: s
   const band = (W - LEFT - RIGHT) / Math.max(1, groups.length);
   const cx = (i: number) => LEFT + band * (i + 0.5);
   return (
-    <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full rounded-sm border border-rule bg-white" role="img" data-testid="strip-plot"
-      aria-label={`${yTitle} per ${stats.groupBy}: ${groups.map((g) => `${g.group} n = ${g.n}, mean ${formatNumber(g.mean, 3)}`).join("; ")}`}>
+    <svg
+      viewBox={`0 0 ${W} ${H}`}
+      className="h-auto w-full rounded-sm border border-rule bg-white"
+      role="img"
+      data-testid="strip-plot"
+      aria-label={`${yTitle} per ${stats.groupBy}: ${groups.map((g) => `${g.group} n = ${g.n}, mean ${formatNumber(g.mean, 3)}`).join("; ")}`}
+    >
       <rect x={LEFT} y={TOP} width={W - LEFT - RIGHT} height={BOTTOM - TOP} fill="none" stroke="#ddd8cc" />
       {ys.ticks.map((t) => (
         <g key={t.value}>
           <line x1={LEFT} x2={W - RIGHT} y1={ys(t.value)} y2={ys(t.value)} stroke="#eeeae1" />
-          <text x={LEFT - 7} y={ys(t.value) + 3.5} textAnchor="end" className="fill-muted text-[11px]">{t.label}</text>
+          <text x={LEFT - 7} y={ys(t.value) + 3.5} textAnchor="end" className="fill-muted text-[11px]">
+            {t.label}
+          </text>
         </g>
       ))}
-      <text transform={`translate(14 ${(TOP + BOTTOM) / 2}) rotate(-90)`} textAnchor="middle" className="fill-ink text-[12px]">{yTitle}</text>
+      <text transform={`translate(14 ${(TOP + BOTTOM) / 2}) rotate(-90)`} textAnchor="middle" className="fill-ink text-[12px]">
+        {yTitle}
+      </text>
       {groups.map((g, i) => {
         const values = stats.members.filter((m) => m.group === g.group);
         const half = Math.min(60, band * 0.3);
         const hasSd = g.sd !== null && Number.isFinite(g.sd);
         return (
           <g key={g.group}>
-            {values.map((m, k) => <circle key={m.analysisId} cx={cx(i) + jitter(k + 1) * half * 1.2} cy={ys(m.value)} r={4} fill={POINT} fillOpacity={0.75} stroke="#fff" strokeWidth={0.8} />)}
+            {values.map((m, k) => (
+              <circle
+                key={m.analysisId}
+                cx={cx(i) + jitter(k + 1) * half * 1.2}
+                cy={ys(m.value)}
+                r={4}
+                fill={POINT}
+                fillOpacity={0.75}
+                stroke="#fff"
+                strokeWidth={0.8}
+              />
+            ))}
             {hasSd ? (
               <g stroke="#1f2328" strokeWidth={1.5}>
                 <line x1={cx(i) + half} x2={cx(i) + half} y1={ys(g.mean - g.sd)} y2={ys(g.mean + g.sd)} />
@@ -41,12 +66,18 @@ export function StripPlot({ stats, yTitle }: { stats: PopulationStats; yTitle: s
               </g>
             ) : null}
             <line x1={cx(i) - half} x2={cx(i) + half + 8} y1={ys(g.mean)} y2={ys(g.mean)} stroke="#1f2328" strokeWidth={2.5} />
-            <text x={cx(i)} y={BOTTOM + 18} textAnchor="middle" className="fill-ink text-[12px]">{g.group}</text>
-            <text x={cx(i)} y={BOTTOM + 34} textAnchor="middle" className="fill-muted text-[11px]">n = {g.n}</text>
+            <text x={cx(i)} y={BOTTOM + 18} textAnchor="middle" className="fill-ink text-[12px]">
+              {g.group}
+            </text>
+            <text x={cx(i)} y={BOTTOM + 34} textAnchor="middle" className="fill-muted text-[11px]">
+              n = {g.n}
+            </text>
           </g>
         );
       })}
-      <text x={W - RIGHT} y={H - 6} textAnchor="end" className="fill-muted text-[10px]">dots: one fitted value each · thick line: mean · bar: ± sd</text>
+      <text x={W - RIGHT} y={H - 6} textAnchor="end" className="fill-muted text-[10px]">
+        dots: one fitted value each · thick line: mean · bar: ± sd
+      </text>
     </svg>
   );
 }

@@ -7,12 +7,19 @@ export type DatasetDetail = Wire<Awaited<ReturnType<typeof getDataset>>>;
 export type VersionView = Wire<VersionDto>;
 
 export interface RowsPage {
-  versionId: string; offset: number; limit: number; rowCount: number;
+  versionId: string;
+  offset: number;
+  limit: number;
+  rowCount: number;
   columns: Array<{ name: string; unit: string | null; type: "number" | "string" }>;
-  names: string[]; rows: Array<Array<number | string | null>>;
+  names: string[];
+  rows: Array<Array<number | string | null>>;
 }
 
 export interface PlotData {
-  x: { name: string; unit: string | null }; y: { name: string; unit: string | null };
-  rowCount: number; downsampled: boolean; points: { x: Array<number | null>; y: Array<number | null> };
+  x: { name: string; unit: string | null };
+  y: { name: string; unit: string | null };
+  rowCount: number;
+  downsampled: boolean;
+  points: { x: Array<number | null>; y: Array<number | null> };
 }

@@ -14,8 +14,13 @@ export function CopyButton({ value, label }: { value: string; label: string }) {
     setTimeout(() => setState("idle"), 2000);
   };
   return (
-    <button type="button" onClick={() => void copy()} aria-label={label} title={label}
-      className="rounded-sm border border-rule bg-sheet px-1.5 py-0.5 text-xs text-muted hover:bg-paper hover:text-ink">
+    <button
+      type="button"
+      onClick={() => void copy()}
+      aria-label={label}
+      title={label}
+      className="rounded-sm border border-rule bg-sheet px-1.5 py-0.5 text-xs text-muted hover:bg-paper hover:text-ink"
+    >
       {state === "copied" ? "✓ copied" : state === "failed" ? "✕ select and copy" : "copy"}
     </button>
   );

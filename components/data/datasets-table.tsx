@@ -16,24 +16,59 @@ const time = (d: Date | string) => new Date(d).getTime();
 const columns = [
   col.accessor("name", {
     header: "Name",
-    cell: (c) => <Link href={`/datasets/${c.row.original.id}`} className="block min-w-[13rem] font-medium text-accent underline-offset-2 hover:underline">{c.getValue()}</Link>,
-  }),
-  col.accessor("kind", { header: "Kind", cell: (c) => kindLabel(c.getValue()), sortingFn: (a, b) => KIND_ORDER[a.original.kind] - KIND_ORDER[b.original.kind] || a.original.name.localeCompare(b.original.name) }),
-  col.accessor((d) => d.sample ?? "", { id: "sample", header: "Sample", cell: (c) => c.getValue() || <span className="text-muted">—</span> }),
-  col.accessor((d) => Object.entries(d.tags ?? {}).map(([k, v]) => `${k}=${v}`).join(" "), {
-    id: "tags", header: "Tags", enableSorting: false,
     cell: (c) => (
-      <ul className="flex flex-wrap gap-1">
-        {Object.entries(c.row.original.tags ?? {}).map(([k, v]) => <li key={k} className="rounded-sm border border-rule bg-paper px-1.5 py-px text-xs">{k}={v}</li>)}
-      </ul>
+      <Link href={`/datasets/${c.row.original.id}`} className="block min-w-[13rem] font-medium text-accent underline-offset-2 hover:underline">
+        {c.getValue()}
+      </Link>
     ),
   }),
+  col.accessor("kind", {
+    header: "Kind",
+    cell: (c) => kindLabel(c.getValue()),
+    sortingFn: (a, b) => KIND_ORDER[a.original.kind] - KIND_ORDER[b.original.kind] || a.original.name.localeCompare(b.original.name),
+  }),
+  col.accessor((d) => d.sample ?? "", { id: "sample", header: "Sample", cell: (c) => c.getValue() || <span className="text-muted">—</span> }),
+  col.accessor(
+    (d) =>
+      Object.entries(d.tags ?? {})
+        .map(([k, v]) => `${k}=${v}`)
+        .join(" "),
+    {
+      id: "tags",
+      header: "Tags",
+      enableSorting: false,
+      cell: (c) => (
+        <ul className="flex flex-wrap gap-1">
+          {Object.entries(c.row.original.tags ?? {}).map(([k, v]) => (
+            <li key={k} className="rounded-sm border border-rule bg-paper px-1.5 py-px text-xs">
+              {k}={v}
+            </li>
+          ))}
+        </ul>
+      ),
+    },
+  ),
   col.accessor("versionCount", { header: "Versions", cell: (c) => c.getValue(), meta: { numeric: true } }),
   col.accessor((d) => d.latestVersion?.rowCount ?? 0, {
-    id: "latest", header: "Rows · size", meta: { numeric: true },
-    cell: (c) => { const v = c.row.original.latestVersion; return v ? <>{formatCount(v.rowCount)} · {formatBytes(v.byteSize)}</> : "—"; },
+    id: "latest",
+    header: "Rows · size",
+    meta: { numeric: true },
+    cell: (c) => {
+      const v = c.row.original.latestVersion;
+      return v ? (
+        <>
+          {formatCount(v.rowCount)} · {formatBytes(v.byteSize)}
+        </>
+      ) : (
+        "—"
+      );
+    },
   }),
-  col.accessor((d) => time(d.latestVersion?.createdAt ?? d.createdAt), { id: "uploaded", header: "Last upload", cell: (c) => <span className="whitespace-nowrap text-xs text-muted">{formatDate(c.getValue())}</span> }),
+  col.accessor((d) => time(d.latestVersion?.createdAt ?? d.createdAt), {
+    id: "uploaded",
+    header: "Last upload",
+    cell: (c) => <span className="whitespace-nowrap text-xs text-muted">{formatDate(c.getValue())}</span>,
+  }),
 ];
 
 /** The manuscript's datasets, kept fresh through the API (uploads by colleagues and scripts show up on focus). */
@@ -47,7 +82,14 @@ export function DatasetsTable({ manuscriptId, initial }: { manuscriptId: string;
   const groupedByKind = sorting[0]?.id === "kind";
   const kindCounts = new Map<string, number>();
   for (const d of data) kindCounts.set(d.kind, (kindCounts.get(d.kind) ?? 0) + 1);
-  const table = useReactTable({ data, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
+  const table = useReactTable({
+    data,
+    columns,
+    state: { sorting },
+    onSortingChange: setSorting,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+  });
 
   if (!data.length) {
     return <EmptyState title="No datasets yet">Measurement files uploaded here, or from a script, appear in this list with their versions.</EmptyState>;
@@ -55,7 +97,9 @@ export function DatasetsTable({ manuscriptId, initial }: { manuscriptId: string;
   return (
     <div>
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2 text-xs text-muted">
-        <span>{data.length} dataset{data.length === 1 ? "" : "s"} · {groupedByKind ? "grouped by kind; " : ""}select a column heading to sort</span>
+        <span>
+          {data.length} dataset{data.length === 1 ? "" : "s"} · {groupedByKind ? "grouped by kind; " : ""}select a column heading to sort
+        </span>
         <span aria-live="polite">{isFetching ? "Refreshing…" : error ? `✕ Could not refresh: ${error.message}` : ""}</span>
       </div>
       <div className="relative overflow-x-auto border border-rule bg-sheet">
@@ -63,7 +107,11 @@ export function DatasetsTable({ manuscriptId, initial }: { manuscriptId: string;
           <caption className="sr-only">Datasets of this manuscript</caption>
           <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
             {table.getHeaderGroups().map((hg) => (
-              <tr key={hg.id}>{hg.headers.map((h) => <SortHeader key={h.id} header={h} />)}</tr>
+              <tr key={hg.id}>
+                {hg.headers.map((h) => (
+                  <SortHeader key={h.id} header={h} />
+                ))}
+              </tr>
             ))}
           </thead>
           <tbody>

@@ -4,7 +4,10 @@
  */
 import { formatNumber } from "@/lib/data/format";
 
-interface Tick { value: number; label: string }
+interface Tick {
+  value: number;
+  label: string;
+}
 
 /** Data units in, pixels out; `domain` is what the axis spans, `ticks` lie inside it. */
 export interface Scale {

@@ -33,16 +33,42 @@ export function QuickPlotPanel({ version }: { version: VersionView }) {
   return (
     <div>
       <div className="mb-3 flex flex-wrap items-end gap-3">
-        <div className="w-44"><Field label="x axis"><Select value={x} onChange={(e) => setX(e.target.value)}>{numeric.map((c) => <option key={c.name} value={c.name}>{axisTitle(c.name, c.unit)}</option>)}</Select></Field></div>
-        <div className="w-44"><Field label="y axis"><Select value={y} onChange={(e) => setY(e.target.value)}>{numeric.map((c) => <option key={c.name} value={c.name}>{axisTitle(c.name, c.unit)}</option>)}</Select></Field></div>
+        <div className="w-44">
+          <Field label="x axis">
+            <Select value={x} onChange={(e) => setX(e.target.value)}>
+              {numeric.map((c) => (
+                <option key={c.name} value={c.name}>
+                  {axisTitle(c.name, c.unit)}
+                </option>
+              ))}
+            </Select>
+          </Field>
+        </div>
+        <div className="w-44">
+          <Field label="y axis">
+            <Select value={y} onChange={(e) => setY(e.target.value)}>
+              {numeric.map((c) => (
+                <option key={c.name} value={c.name}>
+                  {axisTitle(c.name, c.unit)}
+                </option>
+              ))}
+            </Select>
+          </Field>
+        </div>
         <label className="flex items-center gap-2 pb-1.5 text-sm">
           <input type="checkbox" checked={logShown} disabled={!canLog} onChange={(e) => setLogX(e.target.checked)} className="h-4 w-4 accent-accent" />
-          log x
-          {!canLog && data ? <span className="text-xs text-muted">(needs positive x values)</span> : null}
+          log x{!canLog && data ? <span className="text-xs text-muted">(needs positive x values)</span> : null}
         </label>
-        <span className="pb-1.5 text-xs text-muted" aria-live="polite">{isFetching ? "loading…" : ""}</span>
+        <span className="pb-1.5 text-xs text-muted" aria-live="polite">
+          {isFetching ? "loading…" : ""}
+        </span>
       </div>
-      {isError ? <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>{error.message}</p> : null}
+      {isError ? (
+        <p role="alert" className="text-sm text-bad">
+          <span aria-hidden>✕ </span>
+          {error.message}
+        </p>
+      ) : null}
       {data ? <QuickPlot data={data} logX={logShown} /> : <div className="h-64 animate-pulse rounded-sm bg-paper" aria-hidden />}
       {data ? (
         <p className="mt-1 text-xs text-muted">
@@ -51,7 +77,9 @@ export function QuickPlotPanel({ version }: { version: VersionView }) {
           {data.downsampled ? (
             <span className="block" data-testid="downsampled-note">
               <span aria-hidden>◇ </span>
-              {ordered ? "downsampled for display: min/max per pixel column, extremes kept" : "downsampled for display: x is not in order, so every k-th row is shown"}
+              {ordered
+                ? "downsampled for display: min/max per pixel column, extremes kept"
+                : "downsampled for display: x is not in order, so every k-th row is shown"}
             </span>
           ) : null}
         </p>

@@ -15,7 +15,10 @@ function linePath(xs: Array<number | null>, ys: Array<number | null>, sx: Scale,
   for (let i = 0; i < xs.length; i++) {
     const x = xs[i];
     const y = ys[i];
-    if (x === null || y === null || !Number.isFinite(x) || !Number.isFinite(y) || (sx.log && x <= 0)) { pen = false; continue; }
+    if (x === null || y === null || !Number.isFinite(x) || !Number.isFinite(y) || (sx.log && x <= 0)) {
+      pen = false;
+      continue;
+    }
     d += `${pen ? "L" : "M"}${sx(x).toFixed(1)},${sy(y).toFixed(1)}`;
     pen = true;
   }
@@ -29,7 +32,9 @@ function useWidth(initial: number) {
   useEffect(() => {
     const el = ref.current;
     if (!el) return;
-    const observer = new ResizeObserver(([entry]) => { if (entry) setWidth(Math.round(entry.contentRect.width)); });
+    const observer = new ResizeObserver(([entry]) => {
+      if (entry) setWidth(Math.round(entry.contentRect.width));
+    });
     observer.observe(el);
     return () => observer.disconnect();
   }, []);
@@ -47,7 +52,12 @@ export function QuickPlot({ data, logX }: { data: PlotData; logX: boolean }) {
   const { x: xs, y: ys } = data.points;
   const xRange = extent([xs], logX);
   const yRange = extent([ys]);
-  if (!xRange || !yRange) return <div ref={box} className="text-sm text-muted">Nothing to draw: {logX ? "no positive x values" : "these columns have no finite values"}.</div>;
+  if (!xRange || !yRange)
+    return (
+      <div ref={box} className="text-sm text-muted">
+        Nothing to draw: {logX ? "no positive x values" : "these columns have no finite values"}.
+      </div>
+    );
   const sx = logX ? logScale(padRange(xRange, 0, true), X_PX) : linearScale(padRange(xRange, 0), X_PX, W < 520 ? 4 : 8);
   const sy = linearScale(padRange(yRange, 0.05), Y_PX, W < 520 ? 5 : 7);
   const ordered = isAscending(xs);
@@ -57,28 +67,46 @@ export function QuickPlot({ data, logX }: { data: PlotData; logX: boolean }) {
 
   return (
     <div ref={box}>
-      <svg viewBox={`0 0 ${W} ${H}`} width={W} height={H} className="block h-auto max-w-full" role="img" aria-label={`${yTitle} against ${xTitle}${logX ? " (log x)" : ""}, ${xs.length} points`} data-testid="quick-plot">
+      <svg
+        viewBox={`0 0 ${W} ${H}`}
+        width={W}
+        height={H}
+        className="block h-auto max-w-full"
+        role="img"
+        aria-label={`${yTitle} against ${xTitle}${logX ? " (log x)" : ""}, ${xs.length} points`}
+        data-testid="quick-plot"
+      >
         <rect x={M.left} y={M.top} width={W - M.left - M.right} height={H - M.top - M.bottom} fill="#fff" stroke="var(--color-rule)" />
         <g fontSize={12} fill="var(--color-muted)">
-          {sy.ticks.filter((t) => inside(t.value, sy)).map((t) => (
-            <g key={`y${t.value}`}>
-              <line x1={M.left} x2={W - M.right} y1={sy(t.value)} y2={sy(t.value)} stroke="#eeeae1" />
-              <line x1={M.left - 5} x2={M.left} y1={sy(t.value)} y2={sy(t.value)} stroke="var(--color-ink)" />
-              <text x={M.left - 8} y={sy(t.value)} textAnchor="end" dominantBaseline="middle">{t.label}</text>
-            </g>
-          ))}
-          {sx.ticks.filter((t) => inside(t.value, sx)).map((t) => (
-            <g key={`x${t.value}`}>
-              <line y1={M.top} y2={H - M.bottom} x1={sx(t.value)} x2={sx(t.value)} stroke="#eeeae1" />
-              <line y1={H - M.bottom} y2={H - M.bottom + 5} x1={sx(t.value)} x2={sx(t.value)} stroke="var(--color-ink)" />
-              <text y={H - M.bottom + 18} x={sx(t.value)} textAnchor="middle">{t.label}</text>
-            </g>
-          ))}
+          {sy.ticks
+            .filter((t) => inside(t.value, sy))
+            .map((t) => (
+              <g key={`y${t.value}`}>
+                <line x1={M.left} x2={W - M.right} y1={sy(t.value)} y2={sy(t.value)} stroke="#eeeae1" />
+                <line x1={M.left - 5} x2={M.left} y1={sy(t.value)} y2={sy(t.value)} stroke="var(--color-ink)" />
+                <text x={M.left - 8} y={sy(t.value)} textAnchor="end" dominantBaseline="middle">
+                  {t.label}
+                </text>
+              </g>
+            ))}
+          {sx.ticks
+            .filter((t) => inside(t.value, sx))
+            .map((t) => (
+              <g key={`x${t.value}`}>
+                <line y1={M.top} y2={H - M.bottom} x1={sx(t.value)} x2={sx(t.value)} stroke="#eeeae1" />
+                <line y1={H - M.bottom} y2={H - M.bottom + 5} x1={sx(t.value)} x2={sx(t.value)} stroke="var(--color-ink)" />
+                <text y={H - M.bottom + 18} x={sx(t.value)} textAnchor="middle">
+                  {t.label}
+                </text>
+              </g>
+            ))}
         </g>
         <line x1={M.left} x2={W - M.right} y1={H - M.bottom} y2={H - M.bottom} stroke="var(--color-ink)" />
         <line x1={M.left} x2={M.left} y1={M.top} y2={H - M.bottom} stroke="var(--color-ink)" />
         <g clipPath={`url(#${clipId})`}>
-          <clipPath id={clipId}><rect x={M.left} y={M.top} width={W - M.left - M.right} height={H - M.top - M.bottom} /></clipPath>
+          <clipPath id={clipId}>
+            <rect x={M.left} y={M.top} width={W - M.left - M.right} height={H - M.top - M.bottom} />
+          </clipPath>
           {ordered ? (
             <path d={linePath(xs, ys, sx, sy)} fill="none" stroke={LINE} strokeWidth={1.25} strokeLinejoin="round" />
           ) : (
@@ -89,8 +117,12 @@ export function QuickPlot({ data, logX }: { data: PlotData; logX: boolean }) {
             })
           )}
         </g>
-        <text x={(X_PX[0] + X_PX[1]) / 2} y={H - 12} textAnchor="middle" fontSize={13} fill="var(--color-ink)">{xTitle}</text>
-        <text transform={`translate(18 ${(Y_PX[0] + Y_PX[1]) / 2}) rotate(-90)`} textAnchor="middle" fontSize={13} fill="var(--color-ink)">{yTitle}</text>
+        <text x={(X_PX[0] + X_PX[1]) / 2} y={H - 12} textAnchor="middle" fontSize={13} fill="var(--color-ink)">
+          {xTitle}
+        </text>
+        <text transform={`translate(18 ${(Y_PX[0] + Y_PX[1]) / 2}) rotate(-90)`} textAnchor="middle" fontSize={13} fill="var(--color-ink)">
+          {yTitle}
+        </text>
       </svg>
     </div>
   );

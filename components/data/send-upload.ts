@@ -2,11 +2,12 @@ import { messageFromBody } from "@/components/api-client";
 import type { VersionView } from "./api";
 
 export type UploadedVersion = VersionView & { deduplicated: boolean };
-type UploadOutcome =
-  | { ok: true; version: UploadedVersion }
-  | { ok: false; cancelled: boolean; message: string; retryAfterSeconds?: number };
+type UploadOutcome = { ok: true; version: UploadedVersion } | { ok: false; cancelled: boolean; message: string; retryAfterSeconds?: number };
 
-export interface UploadHandle { done: Promise<UploadOutcome>; abort: () => void }
+export interface UploadHandle {
+  done: Promise<UploadOutcome>;
+  abort: () => void;
+}
 
 /**
  * One multipart POST through XMLHttpRequest, because fetch cannot report upload progress.
@@ -17,7 +18,9 @@ export function sendUpload(url: string, form: FormData, on: { progress: (loaded:
   const done = new Promise<UploadOutcome>((resolve) => {
     xhr.open("POST", url);
     xhr.setRequestHeader("accept", "application/json");
-    xhr.upload.onprogress = (e) => { if (e.lengthComputable) on.progress(e.loaded, e.total); };
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable) on.progress(e.loaded, e.total);
+    };
     xhr.upload.onload = () => on.sent();
     xhr.onload = () => {
       if (xhr.status >= 200 && xhr.status < 300) {

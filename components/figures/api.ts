@@ -18,13 +18,26 @@ export type ThreadView = Wire<Awaited<ReturnType<typeof listThreads>>[number]>;
 export type DatasetItem = Wire<Awaited<ReturnType<typeof listDatasets>>[number]>;
 export type AnalysisItem = Wire<Awaited<ReturnType<typeof listAnalysesForVersion>>[number]>;
 
-export interface MemberView { userId: string; name: string; email: string; role: "pi" | "author" | "reviewer" | "viewer" }
+export interface MemberView {
+  userId: string;
+  name: string;
+  email: string;
+  role: "pi" | "author" | "reviewer" | "viewer";
+}
 
 export type Row = Record<string, number | string | null>;
-export interface BoundRows { rows: Row[]; reduced: boolean; sourceRows: number }
+export interface BoundRows {
+  rows: Row[];
+  reduced: boolean;
+  sourceRows: number;
+}
 /** A field the data lacks, data with no rows, rows left out (lib/server/figures/integrity). */
 export type DataWarningView = DataWarning;
-export interface RevisionData { revisionId: string; data: Record<string, BoundRows>; warnings?: DataWarningView[] }
+export interface RevisionData {
+  revisionId: string;
+  data: Record<string, BoundRows>;
+  warnings?: DataWarningView[];
+}
 
 /** A binding as the API stores it. */
 export type Binding = { versionId: string } | { analysisId: string; output: "curve" | "residuals" | "data" };

@@ -3,7 +3,8 @@ import type { BoundRows, DataWarningView } from "./api";
 
 /** "Nothing was drawn" from the browser: Vega's scenegraph has data marks but none holds an item. */
 export const NOTHING_DRAWN: DataWarningView = {
-  kind: "no_rows", dataName: "",
+  kind: "no_rows",
+  dataName: "",
   message: "Nothing was drawn: after rendering, every data mark of this plot is empty (no row reached it — check the fields, filters and bound data).",
 };
 
@@ -14,10 +15,15 @@ export const NOTHING_DRAWN: DataWarningView = {
 export function DataWarningList({ warnings, className = "" }: { warnings: DataWarningView[]; className?: string }) {
   if (!warnings.length) return null;
   return (
-    <ul aria-label="Data warnings" data-testid="data-warnings" className={`space-y-1 rounded-sm border border-warn/60 bg-white px-2.5 py-1.5 text-xs text-warn ${className}`}>
+    <ul
+      aria-label="Data warnings"
+      data-testid="data-warnings"
+      className={`space-y-1 rounded-sm border border-warn/60 bg-white px-2.5 py-1.5 text-xs text-warn ${className}`}
+    >
       {warnings.map((w, i) => (
         <li key={`${w.kind}-${w.dataName}-${w.field ?? ""}-${i}`} data-kind={w.kind}>
-          <span aria-hidden>△ </span><CodeText text={w.message} />
+          <span aria-hidden>△ </span>
+          <CodeText text={w.message} />
         </li>
       ))}
     </ul>
@@ -27,7 +33,19 @@ export function DataWarningList({ warnings, className = "" }: { warnings: DataWa
 /** Backticked names in a message as code. */
 function CodeText({ text }: { text: string }) {
   const parts = text.split(/(`[^`]*`)/);
-  return <>{parts.map((p, i) => (p.length > 1 && p.startsWith("`") && p.endsWith("`") ? <code key={i} className="rounded-sm bg-paper px-0.5 text-ink">{p.slice(1, -1)}</code> : p))}</>;
+  return (
+    <>
+      {parts.map((p, i) =>
+        p.length > 1 && p.startsWith("`") && p.endsWith("`") ? (
+          <code key={i} className="rounded-sm bg-paper px-0.5 text-ink">
+            {p.slice(1, -1)}
+          </code>
+        ) : (
+          p
+        ),
+      )}
+    </>
+  );
 }
 
 /**
@@ -45,7 +63,11 @@ export function previewWarnings(spec: unknown, data: Record<string, BoundRows>):
     else columns[name] = Object.keys(rows[0]).map((c) => ({ name: c }));
   }
   const missing = checkSpecFields(spec, columns).map((p): DataWarningView => ({
-    kind: "missing_field", dataName: p.dataName, field: p.field, columns: p.columns, suggestion: p.suggestion?.column ?? null,
+    kind: "missing_field",
+    dataName: p.dataName,
+    field: p.field,
+    columns: p.columns,
+    suggestion: p.suggestion?.column ?? null,
     message: blanksPlot(p.channel) ? `Nothing to draw: ${p.message}` : p.message.charAt(0).toUpperCase() + p.message.slice(1),
   }));
   return [...missing, ...out];

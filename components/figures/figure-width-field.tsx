@@ -23,7 +23,11 @@ export function WidthPresetField({ value, onChange }: { value: string; onChange:
   return (
     <Field label="Width">
       <Select value={value} onChange={(e) => onChange(e.target.value)}>
-        {WIDTH_PRESETS.map((p) => <option key={p.id} value={p.id}>{p.label}</option>)}
+        {WIDTH_PRESETS.map((p) => (
+          <option key={p.id} value={p.id}>
+            {p.label}
+          </option>
+        ))}
         <option value="custom">Custom…</option>
       </Select>
     </Field>

@@ -3,8 +3,14 @@
  * pointer) can be shown as inline diagnostics. Parses valid JSON only; returns null otherwise.
  */
 
-export interface Span { from: number; to: number }
-export interface JsonPositions { values: Map<string, Span>; keys: Map<string, Span> }
+export interface Span {
+  from: number;
+  to: number;
+}
+export interface JsonPositions {
+  values: Map<string, Span>;
+  keys: Map<string, Span>;
+}
 
 const escapeSeg = (s: string) => s.replace(/~/g, "~0").replace(/\//g, "~1");
 
@@ -12,8 +18,12 @@ export function jsonPositions(text: string): JsonPositions | null {
   const values = new Map<string, Span>();
   const keys = new Map<string, Span>();
   let i = 0;
-  const ws = () => { while (i < text.length && /\s/.test(text[i])) i++; };
-  const fail = (): never => { throw new Error("bad json"); };
+  const ws = () => {
+    while (i < text.length && /\s/.test(text[i])) i++;
+  };
+  const fail = (): never => {
+    throw new Error("bad json");
+  };
 
   function str(): string {
     const start = i;
@@ -30,7 +40,8 @@ export function jsonPositions(text: string): JsonPositions | null {
     const from = i;
     const c = text[i];
     if (c === "{") {
-      i++; ws();
+      i++;
+      ws();
       if (text[i] === "}") i++;
       else {
         for (;;) {
@@ -44,20 +55,33 @@ export function jsonPositions(text: string): JsonPositions | null {
           i++;
           value(child);
           ws();
-          if (text[i] === ",") { i++; continue; }
-          if (text[i] === "}") { i++; break; }
+          if (text[i] === ",") {
+            i++;
+            continue;
+          }
+          if (text[i] === "}") {
+            i++;
+            break;
+          }
           fail();
         }
       }
     } else if (c === "[") {
-      i++; ws();
+      i++;
+      ws();
       if (text[i] === "]") i++;
       else {
         for (let n = 0; ; n++) {
           value(`${pointer}/${n}`);
           ws();
-          if (text[i] === ",") { i++; continue; }
-          if (text[i] === "]") { i++; break; }
+          if (text[i] === ",") {
+            i++;
+            continue;
+          }
+          if (text[i] === "]") {
+            i++;
+            break;
+          }
           fail();
         }
       }

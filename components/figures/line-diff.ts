@@ -10,8 +10,12 @@ export function lineDiff(oldText: string, newText: string): DiffLine[] {
   const b = newText.split("\n");
   let start = 0;
   while (start < a.length && start < b.length && a[start] === b[start]) start++;
-  let endA = a.length, endB = b.length;
-  while (endA > start && endB > start && a[endA - 1] === b[endB - 1]) { endA--; endB--; }
+  let endA = a.length,
+    endB = b.length;
+  while (endA > start && endB > start && a[endA - 1] === b[endB - 1]) {
+    endA--;
+    endB--;
+  }
 
   const out: DiffLine[] = [];
   for (let i = 0; i < start; i++) out.push({ kind: "same", text: a[i], oldNo: i + 1, newNo: i + 1 });
@@ -21,7 +25,8 @@ export function lineDiff(oldText: string, newText: string): DiffLine[] {
 }
 
 function middle(a: string[], b: string[], offset: number): DiffLine[] {
-  const n = a.length, m = b.length;
+  const n = a.length,
+    m = b.length;
   if ((n + 1) * (m + 1) > MAX_CELLS) {
     return [
       ...a.map((text, i) => ({ kind: "removed" as const, text, oldNo: offset + i + 1 })),
@@ -37,11 +42,13 @@ function middle(a: string[], b: string[], offset: number): DiffLine[] {
     }
   }
   const out: DiffLine[] = [];
-  let i = 0, j = 0;
+  let i = 0,
+    j = 0;
   while (i < n || j < m) {
     if (i < n && j < m && a[i] === b[j]) {
       out.push({ kind: "same", text: a[i], oldNo: offset + i + 1, newNo: offset + j + 1 });
-      i++; j++;
+      i++;
+      j++;
     } else if (i < n && (j === m || lcs[(i + 1) * w + j] >= lcs[i * w + j + 1])) {
       out.push({ kind: "removed", text: a[i], oldNo: offset + i + 1 });
       i++;
@@ -55,7 +62,8 @@ function middle(a: string[], b: string[], offset: number): DiffLine[] {
 
 /** Counts of added and removed lines. */
 export function diffStats(lines: DiffLine[]): { added: number; removed: number } {
-  let added = 0, removed = 0;
+  let added = 0,
+    removed = 0;
   for (const l of lines) {
     if (l.kind === "added") added++;
     else if (l.kind === "removed") removed++;

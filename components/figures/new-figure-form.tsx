@@ -34,15 +34,32 @@ export function NewFigureForm({ manuscriptId }: { manuscriptId: string }) {
     <form onSubmit={(e) => void submit(e)} aria-label="New figure" className="mt-4 rounded-sm border border-rule bg-sheet p-4">
       <h3 className="mb-3 text-sm font-semibold">New figure</h3>
       <div className="grid gap-3 sm:grid-cols-[minmax(0,2fr)_minmax(0,1.4fr)_minmax(0,0.6fr)]">
-        <Field label="Title"><TextInput required value={title} onChange={(e) => setTitle(e.target.value)} placeholder="e.g. T₂ across the sample series" /></Field>
+        <Field label="Title">
+          <TextInput required value={title} onChange={(e) => setTitle(e.target.value)} placeholder="e.g. T₂ across the sample series" />
+        </Field>
         <WidthPresetField value={preset} onChange={setPreset} />
-        <Field label="Columns"><Select value={columns} onChange={(e) => setColumns(e.target.value)}>{[1, 2, 3, 4].map((n) => <option key={n}>{n}</option>)}</Select></Field>
+        <Field label="Columns">
+          <Select value={columns} onChange={(e) => setColumns(e.target.value)}>
+            {[1, 2, 3, 4].map((n) => (
+              <option key={n}>{n}</option>
+            ))}
+          </Select>
+        </Field>
       </div>
       {preset === "custom" ? (
-        <div className="mt-3 w-40"><CustomWidthField value={customMm} onChange={setCustomMm} /></div>
+        <div className="mt-3 w-40">
+          <CustomWidthField value={customMm} onChange={setCustomMm} />
+        </div>
       ) : null}
-      {error ? <p role="alert" className="mt-2 text-sm text-bad"><span aria-hidden>✕ </span>{error}</p> : null}
-      <Button type="submit" className="mt-3" disabled={busy}>{busy ? "Creating…" : "Create figure"}</Button>
+      {error ? (
+        <p role="alert" className="mt-2 text-sm text-bad">
+          <span aria-hidden>✕ </span>
+          {error}
+        </p>
+      ) : null}
+      <Button type="submit" className="mt-3" disabled={busy}>
+        {busy ? "Creating…" : "Create figure"}
+      </Button>
     </form>
   );
 }

@@ -8,7 +8,18 @@ import { fetchJson } from "@/components/api-client";
 import { queryKeys, type BoundRows, type RevisionData, type ThreadAnchor } from "./api";
 import { ChartAnchors, type ChartAnchor, type PickMode } from "./chart-anchors";
 import { DataWarningList, NOTHING_DRAWN, previewWarnings } from "./data-warnings";
-import { dataMarkItems, dataNamesOf, plotGeometry, prepareSpec, PX_PER_MM, refusalOf, refusingLoader, shippedFontFamily, svgNaturalSize, type PlotGeometry } from "./vega-render";
+import {
+  dataMarkItems,
+  dataNamesOf,
+  plotGeometry,
+  prepareSpec,
+  PX_PER_MM,
+  refusalOf,
+  refusingLoader,
+  shippedFontFamily,
+  svgNaturalSize,
+  type PlotGeometry,
+} from "./vega-render";
 
 export interface PanelChartProps {
   spec: unknown;
@@ -27,7 +38,10 @@ export interface PanelChartProps {
   className?: string;
 }
 
-interface Rendered { natural: { width: number; height: number }; geometry: PlotGeometry | null }
+interface Rendered {
+  natural: { width: number; height: number };
+  geometry: PlotGeometry | null;
+}
 
 /**
  * A panel's Vega-Lite spec rendered in the browser at its printed size, with bound data only
@@ -66,13 +80,23 @@ export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors 
     let result: Result | null = null;
     const refusals: string[] = [];
     // Bound rows go in as named datasets, so the first layout (axes, autosize) already sees the data.
-    const withData = { ...parsed, datasets: { ...((parsed as { datasets?: object }).datasets ?? {}), ...Object.fromEntries(names.map((n) => [n, rows?.[n]?.rows ?? []])) } };
+    const withData = {
+      ...parsed,
+      datasets: { ...((parsed as { datasets?: object }).datasets ?? {}), ...Object.fromEntries(names.map((n) => [n, rows?.[n]?.rows ?? []])) },
+    };
     const prepared = prepareSpec(withData, widthMm, shippedFontFamily());
     void (async () => {
       try {
         result = await embed(host.current!, prepared, {
-          mode: "vega-lite", renderer: "svg", actions: false, tooltip: false, defaultStyle: false, logLevel: 0,
-          ast: true, expr: expressionInterpreter, loader: refusingLoader(refusals),
+          mode: "vega-lite",
+          renderer: "svg",
+          actions: false,
+          tooltip: false,
+          defaultStyle: false,
+          logLevel: 0,
+          ast: true,
+          expr: expressionInterpreter,
+          loader: refusingLoader(refusals),
         });
         if (cancelled) return result.finalize();
         await result.view.runAsync();
@@ -84,7 +108,11 @@ export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors 
           setDrewNothing(dataMarkItems(result.view) === 0);
         }
       } catch (e) {
-        if (!cancelled) { setError((e as Error).message); setRendered(null); setDrewNothing(false); }
+        if (!cancelled) {
+          setError((e as Error).message);
+          setRendered(null);
+          setDrewNothing(false);
+        }
       }
     })();
     return () => {
@@ -121,15 +149,37 @@ export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors 
         <div ref={host} className={error ? "hidden" : ""} />
         {!rendered && !error ? <div className="absolute inset-0 animate-pulse bg-paper" aria-hidden /> : null}
         {rendered?.geometry && !error ? (
-          <ChartAnchors geometry={rendered.geometry} scale={scale} width={targetPx} height={heightPx ?? 0} anchors={anchors} pickMode={pickMode} onPick={onPick} />
+          <ChartAnchors
+            geometry={rendered.geometry}
+            scale={scale}
+            width={targetPx}
+            height={heightPx ?? 0}
+            anchors={anchors}
+            pickMode={pickMode}
+            onPick={onPick}
+          />
         ) : null}
-        {error ? <p role="alert" className="p-3 text-sm text-bad"><span aria-hidden>✕ </span>This spec cannot be drawn: {error}</p> : null}
+        {error ? (
+          <p role="alert" className="p-3 text-sm text-bad">
+            <span aria-hidden>✕ </span>This spec cannot be drawn: {error}
+          </p>
+        ) : null}
       </div>
-      {fetched.isError ? <p role="alert" className="mt-1 text-xs text-bad">✕ {fetched.error.message}</p> : null}
-      {missing.length ? <p className="mt-1 text-xs text-warn"><span aria-hidden>△ </span>No data bound to {missing.map((n) => `“${n}”`).join(", ")}</p> : null}
+      {fetched.isError ? (
+        <p role="alert" className="mt-1 text-xs text-bad">
+          ✕ {fetched.error.message}
+        </p>
+      ) : null}
+      {missing.length ? (
+        <p className="mt-1 text-xs text-warn">
+          <span aria-hidden>△ </span>No data bound to {missing.map((n) => `“${n}”`).join(", ")}
+        </p>
+      ) : null}
       {reduced.length ? (
         <figcaption className="mt-1 text-xs text-muted" data-testid="reduced-note">
-          <span aria-hidden>◇ </span>reduced for display: {reduced.map(([n, v]) => `${n} ${v.rows.length.toLocaleString("en")} of ${v.sourceRows.toLocaleString("en")} rows`).join(", ")} — exports use every row
+          <span aria-hidden>◇ </span>reduced for display:{" "}
+          {reduced.map(([n, v]) => `${n} ${v.rows.length.toLocaleString("en")} of ${v.sourceRows.toLocaleString("en")} rows`).join(", ")} — exports use every
+          row
         </figcaption>
       ) : null}
     </figure>

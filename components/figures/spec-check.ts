@@ -1,6 +1,11 @@
 import { jsonPositions, spanFor } from "./json-positions";
 
-interface SpecProblem { path: string; message: string; from: number; to: number }
+interface SpecProblem {
+  path: string;
+  message: string;
+  from: number;
+  to: number;
+}
 export type SpecCheck = { ok: true; spec: Record<string, unknown>; dataNames: string[] } | { ok: false; syntax: boolean; problems: SpecProblem[] };
 
 /** JSON syntax, then the same validation the server runs (loaded on first use: the Vega-Lite schema is large). */
@@ -16,7 +21,8 @@ export async function checkSpecText(text: string): Promise<SpecCheck> {
   if (r.ok) return { ok: true, spec: r.spec as unknown as Record<string, unknown>, dataNames: r.dataNames };
   const pos = jsonPositions(text);
   return {
-    ok: false, syntax: false,
+    ok: false,
+    syntax: false,
     problems: r.errors.map((e) => ({ path: e.path, message: e.message, ...(pos ? spanFor(pos, e.pointer) : { from: 0, to: 1 }) })),
   };
 }

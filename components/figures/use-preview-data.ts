@@ -21,13 +21,18 @@ export function toBinding(c: BindingChoice): Binding {
   return "analysisId" in c ? { analysisId: c.analysisId, output: c.output } : { versionId: c.versionId };
 }
 
-export function choicesFromRevision(rev: { bindings: Record<string, Binding>; bound: Record<string, { versionId: string }> } | null | undefined): Record<string, BindingChoice> {
+export function choicesFromRevision(
+  rev: { bindings: Record<string, Binding>; bound: Record<string, { versionId: string }> } | null | undefined,
+): Record<string, BindingChoice> {
   if (!rev) return {};
-  return Object.fromEntries(Object.entries(rev.bindings).map(([n, b]) => [n, { ...b, rowsVersionId: rev.bound[n]?.versionId ?? ("versionId" in b ? b.versionId : "") }]));
+  return Object.fromEntries(
+    Object.entries(rev.bindings).map(([n, b]) => [n, { ...b, rowsVersionId: rev.bound[n]?.versionId ?? ("versionId" in b ? b.versionId : "") }]),
+  );
 }
 
 function sameBindings(a: Record<string, BindingChoice>, b: Record<string, Binding>): boolean {
-  const ka = Object.keys(a).sort(), kb = Object.keys(b).sort();
+  const ka = Object.keys(a).sort(),
+    kb = Object.keys(b).sort();
   return ka.length === kb.length && ka.every((k, i) => k === kb[i] && JSON.stringify(toBinding(a[k])) === JSON.stringify(b[k]));
 }
 
@@ -37,7 +42,9 @@ function toRecords(page: RowsPage, series: string | null): Row[] {
   for (const r of page.rows) {
     if (s >= 0 && r[s] !== series) continue;
     const row: Row = {};
-    page.names.forEach((n, i) => { row[n] = r[i] ?? null; });
+    page.names.forEach((n, i) => {
+      row[n] = r[i] ?? null;
+    });
     out.push(row);
   }
   return out;
@@ -55,7 +62,17 @@ export function usePreviewData(choices: Record<string, BindingChoice>, revision:
     enabled: saved,
     staleTime: Infinity,
   });
-  const ids = useMemo(() => [...new Set(Object.values(choices).map((c) => c.rowsVersionId).filter(Boolean))].sort(), [choices]);
+  const ids = useMemo(
+    () =>
+      [
+        ...new Set(
+          Object.values(choices)
+            .map((c) => c.rowsVersionId)
+            .filter(Boolean),
+        ),
+      ].sort(),
+    [choices],
+  );
   const { data: pageData, error: failed } = useQueries({
     queries: ids.map((id) => ({
       queryKey: queryKeys.versionRows(id),

@@ -17,10 +17,12 @@ type Json = { [key: string]: unknown };
 /** Every entry point refuses and the request is remembered, so the render can fail visibly. */
 export function refusingLoader(refusals: string[]): Loader {
   const l = vegaLoader();
-  const refuse = (what: string) => (uri: unknown): Promise<never> => {
-    refusals.push(`${what}: ${typeof uri === "string" ? uri : JSON.stringify(uri)}`);
-    return Promise.reject(new Error("Prooflight renders bound data only; loading is disabled"));
-  };
+  const refuse =
+    (what: string) =>
+    (uri: unknown): Promise<never> => {
+      refusals.push(`${what}: ${typeof uri === "string" ? uri : JSON.stringify(uri)}`);
+      return Promise.reject(new Error("Prooflight renders bound data only; loading is disabled"));
+    };
   Object.assign(l, { load: refuse("load"), sanitize: refuse("sanitize"), http: refuse("http"), file: refuse("file") });
   return l;
 }
@@ -73,7 +75,8 @@ export function dataNamesOf(spec: unknown): string[] {
     if (!node || typeof node !== "object") return;
     for (const [k, v] of Object.entries(node)) {
       if (k === "usermeta" || k === "datasets" || k === "values") continue;
-      if (k === "data" && v && typeof v === "object" && typeof (v as Json).name === "string" && !("values" in v) && !("url" in v)) out.add((v as Json).name as string);
+      if (k === "data" && v && typeof v === "object" && typeof (v as Json).name === "string" && !("values" in v) && !("url" in v))
+        out.add((v as Json).name as string);
       walk(v);
     }
   };
@@ -87,16 +90,31 @@ type PlotScale = ((v: number) => number) & { invert(px: number): number };
 
 export interface PlotGeometry {
   /** Plot area in the rendered SVG's own units. */
-  left: number; top: number; width: number; height: number;
-  x: PlotScale | null; y: PlotScale | null;
+  left: number;
+  top: number;
+  width: number;
+  height: number;
+  x: PlotScale | null;
+  y: PlotScale | null;
 }
 
-interface SceneItem { x?: number; y?: number; width?: number; height?: number; items?: SceneMark[] }
-interface SceneMark { name?: string; marktype?: string; items?: SceneItem[] }
+interface SceneItem {
+  x?: number;
+  y?: number;
+  width?: number;
+  height?: number;
+  items?: SceneMark[];
+}
+interface SceneMark {
+  name?: string;
+  marktype?: string;
+  items?: SceneItem[];
+}
 
 function findGroup(mark: SceneMark, name: string, ox: number, oy: number): { x: number; y: number; item: SceneItem } | null {
   for (const item of mark.items ?? []) {
-    const x = ox + (item.x ?? 0), y = oy + (item.y ?? 0);
+    const x = ox + (item.x ?? 0),
+      y = oy + (item.y ?? 0);
     if (mark.name === name) return { x, y, item };
     for (const child of item.items ?? []) {
       const found = child.marktype === "group" ? findGroup(child, name, x, y) : null;
@@ -109,15 +127,18 @@ function findGroup(mark: SceneMark, name: string, ox: number, oy: number): { x: 
 /** The x/y scales of the first unit view (for stacked specs, the top plot) and where its plot area is. */
 export function plotGeometry(view: View): PlotGeometry | null {
   const names = Object.keys((view as unknown as { _runtime?: { scales?: Json } })._runtime?.scales ?? {});
-  const pick = (axis: "x" | "y") => (names.includes(axis) ? axis : names.find((n) => n.endsWith(`_${axis}`)) ?? null);
-  const xName = pick("x"), yName = pick("y");
+  const pick = (axis: "x" | "y") => (names.includes(axis) ? axis : (names.find((n) => n.endsWith(`_${axis}`)) ?? null));
+  const xName = pick("x"),
+    yName = pick("y");
   if (!xName && !yName) return null;
   const safeScale = (n: string | null): PlotScale | null => {
     if (!n) return null;
     try {
       const s = view.scale(n) as unknown as PlotScale | undefined;
       return typeof s === "function" && typeof (s as { invert?: unknown }).invert === "function" ? s : null;
-    } catch { return null; }
+    } catch {
+      return null;
+    }
   };
   // The renderer translates the scene by the view's origin (padding plus room for axes).
   const [ox, oy] = view.origin();
@@ -139,14 +160,19 @@ export function svgNaturalSize(svg: SVGSVGElement): { width: number; height: num
   return { width: Number(svg.getAttribute("width")) || 1, height: Number(svg.getAttribute("height")) || 1 };
 }
 
-interface SceneNode { marktype?: string; role?: string; items?: Array<{ items?: SceneNode[] }> }
+interface SceneNode {
+  marktype?: string;
+  role?: string;
+  items?: Array<{ items?: SceneNode[] }>;
+}
 
 /**
  * Items in the data marks of a rendered view (Vega role "mark", not groups, axes, legends or
  * titles); null when the view has no data mark at all. 0 means the plot drew nothing.
  */
 export function dataMarkItems(view: View): number | null {
-  let marks = 0, items = 0;
+  let marks = 0,
+    items = 0;
   const walk = (node: SceneNode | undefined) => {
     if (!node) return;
     if (node.marktype === "group") {

@@ -9,9 +9,26 @@ import { RICH_TEXT } from "./rich-text-look";
  * An editor with a send button. The client key stays the same until a send succeeds, so
  * retrying after a failure can never store the comment twice.
  */
-export function CommentBox({ members, initial, label, submitLabel, busy, onSubmit, onCancel, autofocus = false, children }: {
-  members: MentionItem[]; initial?: JSONContent | null; label: string; submitLabel: string; busy?: boolean;
-  onSubmit: (v: { body: JSONContent; text: string; clientKey: string }) => Promise<unknown>; onCancel?: () => void; autofocus?: boolean; children?: React.ReactNode;
+export function CommentBox({
+  members,
+  initial,
+  label,
+  submitLabel,
+  busy,
+  onSubmit,
+  onCancel,
+  autofocus = false,
+  children,
+}: {
+  members: MentionItem[];
+  initial?: JSONContent | null;
+  label: string;
+  submitLabel: string;
+  busy?: boolean;
+  onSubmit: (v: { body: JSONContent; text: string; clientKey: string }) => Promise<unknown>;
+  onCancel?: () => void;
+  autofocus?: boolean;
+  children?: React.ReactNode;
 }) {
   const editor = useCommentEditor(members, initial, label, autofocus);
   const clientKey = useRef<string>(newKey());
@@ -32,8 +49,14 @@ export function CommentBox({ members, initial, label, submitLabel, busy, onSubmi
       <CommentEditor editor={editor} />
       {children}
       <div className="mt-2 flex items-center gap-2">
-        <Button type="button" onClick={() => void send()} disabled={busy || !editor}>{submitLabel}</Button>
-        {onCancel ? <Button type="button" variant="quiet" onClick={onCancel}>Cancel</Button> : null}
+        <Button type="button" onClick={() => void send()} disabled={busy || !editor}>
+          {submitLabel}
+        </Button>
+        {onCancel ? (
+          <Button type="button" variant="quiet" onClick={onCancel}>
+            Cancel
+          </Button>
+        ) : null}
       </div>
     </div>
   );

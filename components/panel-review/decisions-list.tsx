@@ -7,11 +7,18 @@ export function DecisionsList({ decisions }: { decisions: PanelView["decisions"]
   return (
     <ul className="space-y-2 text-sm" aria-label="Decisions">
       {[...decisions].reverse().map((d) => (
-        <li key={d.id} className={`rounded-sm border p-2 ${d.stale ? "border-dashed border-rule bg-paper" : "border-rule bg-sheet"}`} data-testid="decision" data-stale={d.stale}>
+        <li
+          key={d.id}
+          className={`rounded-sm border p-2 ${d.stale ? "border-dashed border-rule bg-paper" : "border-rule bg-sheet"}`}
+          data-testid="decision"
+          data-stale={d.stale}
+        >
           <p className="flex flex-wrap items-center gap-x-2">
             <b className={d.decision === "approved" ? "text-good" : "text-bad"}>{d.decision === "approved" ? "✓ Approved" : "✕ Needs revision"}</b>
             <span>{d.userName}</span>
-            <span className="text-xs text-muted">{relativeTime(d.createdAt)} · hash <code>{shortHash(d.contentHash, 8)}</code></span>
+            <span className="text-xs text-muted">
+              {relativeTime(d.createdAt)} · hash <code>{shortHash(d.contentHash, 8)}</code>
+            </span>
             {d.stale ? <span className="ml-auto rounded-full border border-warn px-1.5 text-xs font-medium text-warn">◌ Stale</span> : null}
           </p>
           {d.note ? <p className="mt-1 text-xs">“{d.note}”</p> : null}

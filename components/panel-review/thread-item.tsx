@@ -11,8 +11,21 @@ import type { ShownComment, ShownThread, useThreadActions } from "./use-threads"
 const EDIT_WINDOW_MS = 15 * 60 * 1000;
 
 /** One thread: its anchor and the revision it was written on, the comments, reply, resolve / reopen. */
-export function ThreadItem({ thread, index, currentRevisionNumber, me, members, canWrite, actions }: {
-  thread: ShownThread; index: number; currentRevisionNumber: number | null; me: string; members: MentionItem[]; canWrite: boolean;
+export function ThreadItem({
+  thread,
+  index,
+  currentRevisionNumber,
+  me,
+  members,
+  canWrite,
+  actions,
+}: {
+  thread: ShownThread;
+  index: number;
+  currentRevisionNumber: number | null;
+  me: string;
+  members: MentionItem[];
+  canWrite: boolean;
   actions: ReturnType<typeof useThreadActions>;
 }) {
   const [replying, setReplying] = useState(false);
@@ -24,28 +37,54 @@ export function ThreadItem({ thread, index, currentRevisionNumber, me, members, 
       <div className="mb-2 flex flex-wrap items-center gap-x-2 gap-y-1 text-xs">
         <span className="rounded-sm bg-[#fbefe6] px-1.5 font-semibold text-[#a34700]">#{index}</span>
         <span data-testid="thread-anchor">{describeAnchor(thread.anchor)}</span>
-        <span className={older ? "font-medium text-warn" : "text-muted"}>· written on revision {thread.revisionNumber}{older ? "" : " (current)"}</span>
+        <span className={older ? "font-medium text-warn" : "text-muted"}>
+          · written on revision {thread.revisionNumber}
+          {older ? "" : " (current)"}
+        </span>
         <span className="ml-auto">{resolved ? <span className="text-good">✓ Resolved</span> : <span>○ Open</span>}</span>
       </div>
       <ol className="space-y-2">
-        {thread.comments.map((c) => <CommentItem key={c.id} c={c} me={me} members={members} actions={actions} />)}
+        {thread.comments.map((c) => (
+          <CommentItem key={c.id} c={c} me={me} members={members} actions={actions} />
+        ))}
       </ol>
       {thread.pending ? <p className="mt-1 text-xs text-muted">sending…</p> : null}
       {canWrite && !thread.pending ? (
         <div className="mt-2">
           {replying ? (
-            <CommentBox autofocus members={members} label={`Reply in thread ${index}`} submitLabel="Send reply" busy={actions.reply.isPending} onCancel={() => setReplying(false)}
+            <CommentBox
+              autofocus
+              members={members}
+              label={`Reply in thread ${index}`}
+              submitLabel="Send reply"
+              busy={actions.reply.isPending}
+              onCancel={() => setReplying(false)}
               onSubmit={async (v) => {
                 setError(null);
-                try { await actions.reply.mutateAsync({ threadId: thread.id, ...v }); setReplying(false); } catch (e) { setError((e as Error).message); throw e; }
-              }} />
+                try {
+                  await actions.reply.mutateAsync({ threadId: thread.id, ...v });
+                  setReplying(false);
+                } catch (e) {
+                  setError((e as Error).message);
+                  throw e;
+                }
+              }}
+            />
           ) : (
             <div className="flex gap-3 text-xs">
-              <button type="button" className="underline" onClick={() => setReplying(true)}>Reply</button>
-              <button type="button" className="underline" onClick={() => actions.resolve.mutate({ threadId: thread.id, reopen: resolved })}>{resolved ? "Reopen" : "Resolve"}</button>
+              <button type="button" className="underline" onClick={() => setReplying(true)}>
+                Reply
+              </button>
+              <button type="button" className="underline" onClick={() => actions.resolve.mutate({ threadId: thread.id, reopen: resolved })}>
+                {resolved ? "Reopen" : "Resolve"}
+              </button>
             </div>
           )}
-          {error ? <p role="alert" className="mt-1 text-xs text-bad">✕ {error}</p> : null}
+          {error ? (
+            <p role="alert" className="mt-1 text-xs text-bad">
+              ✕ {error}
+            </p>
+          ) : null}
         </div>
       ) : null}
     </li>
@@ -73,27 +112,53 @@ function CommentItem({ c, me, members, actions }: { c: ShownComment; me: string;
       <p className="text-xs text-muted">
         <span className="font-medium text-ink">{c.authorName}</span> · <span title={String(c.createdAt)}>{relativeTime(c.createdAt)}</span>
         {c.editedAt ? " · edited" : ""}
-        {mayEdit && !editing ? <> · <button type="button" className="underline" onClick={() => setEditing(true)}>Edit</button></> : null}
+        {mayEdit && !editing ? (
+          <>
+            {" "}
+            ·{" "}
+            <button type="button" className="underline" onClick={() => setEditing(true)}>
+              Edit
+            </button>
+          </>
+        ) : null}
       </p>
       {editing ? (
-        <CommentBox autofocus members={members} initial={c.body} label="Edit comment" submitLabel="Save edit" busy={actions.edit.isPending} onCancel={() => setEditing(false)}
+        <CommentBox
+          autofocus
+          members={members}
+          initial={c.body}
+          label="Edit comment"
+          submitLabel="Save edit"
+          busy={actions.edit.isPending}
+          onCancel={() => setEditing(false)}
           onSubmit={async ({ body }) => {
             setError(null);
             try {
               await actions.edit.mutateAsync({ commentId: c.id, body, baseEditedAt: c.editedAt ? new Date(c.editedAt).getTime() : null });
               setEditing(false);
             } catch (e) {
-              setError(e instanceof ApiError && e.status === 409 ? "Someone changed this comment since you opened it — reload to see the current text." : (e as Error).message);
+              setError(
+                e instanceof ApiError && e.status === 409
+                  ? "Someone changed this comment since you opened it — reload to see the current text."
+                  : (e as Error).message,
+              );
               throw e;
             }
-          }} />
+          }}
+        />
       ) : c.pendingText !== undefined ? (
-        <p className="mt-0.5 whitespace-pre-wrap text-muted" data-pending>{c.pendingText}</p>
+        <p className="mt-0.5 whitespace-pre-wrap text-muted" data-pending>
+          {c.pendingText}
+        </p>
       ) : (
         // The server renders comments from validated Tiptap JSON and sanitises the HTML with an allow-list.
         <div className={`mt-0.5 break-words ${RICH_TEXT}`} dangerouslySetInnerHTML={{ __html: c.html }} />
       )}
-      {error ? <p role="alert" className="mt-1 text-xs text-bad">✕ {error}</p> : null}
+      {error ? (
+        <p role="alert" className="mt-1 text-xs text-bad">
+          ✕ {error}
+        </p>
+      ) : null}
     </li>
   );
 }

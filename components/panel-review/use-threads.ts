@@ -17,9 +17,20 @@ export function useThreads(panelId: string) {
   });
 }
 
-interface Me { id: string; name: string }
+interface Me {
+  id: string;
+  name: string;
+}
 const pendingComment = (me: Me, clientKey: string, text: string): ShownComment => ({
-  id: `pending-${clientKey}`, body: {}, html: "", mentions: [], createdBy: me.id, authorName: me.name, createdAt: new Date().toISOString(), editedAt: null, pendingText: text,
+  id: `pending-${clientKey}`,
+  body: {},
+  html: "",
+  mentions: [],
+  createdBy: me.id,
+  authorName: me.name,
+  createdAt: new Date().toISOString(),
+  editedAt: null,
+  pendingText: text,
 });
 
 /** Posting, replying, resolving and editing, with optimistic updates rolled back on failure. */
@@ -39,8 +50,18 @@ export function useThreadActions(panelId: string, me: Me) {
     onMutate: async (v) => {
       const before = await snapshot();
       const optimistic: ShownThread = {
-        id: `pending-${v.clientKey}`, panelId, revisionId: v.revisionId, anchor: v.anchor, createdBy: me.id, createdAt: new Date().toISOString(),
-        resolvedAt: null, resolvedBy: null, revisionNumber: v.revisionNumber, status: "open", pending: true, comments: [pendingComment(me, v.clientKey, v.text)],
+        id: `pending-${v.clientKey}`,
+        panelId,
+        revisionId: v.revisionId,
+        anchor: v.anchor,
+        createdBy: me.id,
+        createdAt: new Date().toISOString(),
+        resolvedAt: null,
+        resolvedBy: null,
+        revisionNumber: v.revisionNumber,
+        status: "open",
+        pending: true,
+        comments: [pendingComment(me, v.clientKey, v.text)],
       };
       qc.setQueryData<ShownThread[]>(key, [...(before ?? []), optimistic]);
       return { before };
@@ -54,7 +75,10 @@ export function useThreadActions(panelId: string, me: Me) {
       sendJson<ShownThread>(`/api/threads/${v.threadId}/comments`, "POST", { body: v.body, clientKey: v.clientKey }),
     onMutate: async (v) => {
       const before = await snapshot();
-      qc.setQueryData<ShownThread[]>(key, (before ?? []).map((t) => (t.id === v.threadId ? { ...t, comments: [...t.comments, pendingComment(me, v.clientKey, v.text)] } : t)));
+      qc.setQueryData<ShownThread[]>(
+        key,
+        (before ?? []).map((t) => (t.id === v.threadId ? { ...t, comments: [...t.comments, pendingComment(me, v.clientKey, v.text)] } : t)),
+      );
       return { before };
     },
     onError: rollback,
@@ -65,7 +89,10 @@ export function useThreadActions(panelId: string, me: Me) {
     mutationFn: (v: { threadId: string; reopen: boolean }) => sendJson<ShownThread>(`/api/threads/${v.threadId}/resolve`, "POST", { reopen: v.reopen }),
     onMutate: async (v) => {
       const before = await snapshot();
-      qc.setQueryData<ShownThread[]>(key, (before ?? []).map((t) => (t.id === v.threadId ? { ...t, status: v.reopen ? "open" : "resolved" } : t)));
+      qc.setQueryData<ShownThread[]>(
+        key,
+        (before ?? []).map((t) => (t.id === v.threadId ? { ...t, status: v.reopen ? "open" : "resolved" } : t)),
+      );
       return { before };
     },
     onError: rollback,

@@ -34,7 +34,8 @@ export function useActivity(manuscriptId: string, initial?: ActivityEntry[]) {
 export function ActivityLog({ manuscriptId, initial }: { manuscriptId: string; initial: ActivityEntry[] }) {
   const { data, isFetching, error } = useActivity(manuscriptId, initial);
   const items = data ?? [];
-  if (!items.length) return <EmptyState title="Nothing has happened yet">Uploads, analyses, revisions, comments, decisions and sign-offs are recorded here.</EmptyState>;
+  if (!items.length)
+    return <EmptyState title="Nothing has happened yet">Uploads, analyses, revisions, comments, decisions and sign-offs are recorded here.</EmptyState>;
   return (
     <div>
       <p className="mb-3 text-xs text-muted" aria-live="polite">
@@ -49,12 +50,22 @@ export function ActivityLog({ manuscriptId, initial }: { manuscriptId: string; i
             </h2>
             <ol className="divide-y divide-rule border border-rule bg-sheet">
               {g.items.map((e) => (
-                <li key={e.seq} className="grid grid-cols-[3.5rem_1fr] gap-x-3 gap-y-1 px-4 py-2.5 text-sm sm:grid-cols-[3.5rem_1fr_auto]" data-action={e.action}>
-                  <time dateTime={new Date(e.at).toISOString()} className="pt-px text-xs text-muted tabular">{timeOf(e.at)}</time>
-                  <p className="min-w-0 break-words"><span className="font-medium">{e.actor}</span> {e.text}</p>
+                <li
+                  key={e.seq}
+                  className="grid grid-cols-[3.5rem_1fr] gap-x-3 gap-y-1 px-4 py-2.5 text-sm sm:grid-cols-[3.5rem_1fr_auto]"
+                  data-action={e.action}
+                >
+                  <time dateTime={new Date(e.at).toISOString()} className="pt-px text-xs text-muted tabular">
+                    {timeOf(e.at)}
+                  </time>
+                  <p className="min-w-0 break-words">
+                    <span className="font-medium">{e.actor}</span> {e.text}
+                  </p>
                   <p className="col-start-2 text-xs text-muted sm:col-start-3 sm:text-right">
                     <span className="tabular">#{e.seq}</span>{" "}
-                    <code className="rounded-sm bg-paper px-1 font-mono" title={`entry hash ${e.hash}`}>{shortHash(e.hash)}</code>
+                    <code className="rounded-sm bg-paper px-1 font-mono" title={`entry hash ${e.hash}`}>
+                      {shortHash(e.hash)}
+                    </code>
                   </p>
                 </li>
               ))}

@@ -23,7 +23,12 @@ function Last({ last }: { last: LastActivity | null }) {
   return (
     <span className="min-w-0">
       <RelativeTime at={last.at} />
-      {last.who || last.text ? <span className="block truncate text-muted" title={`${last.who ?? ""} ${last.text ?? ""}`.trim()}>{last.who ? `${last.who} ` : ""}{last.text}</span> : null}
+      {last.who || last.text ? (
+        <span className="block truncate text-muted" title={`${last.who ?? ""} ${last.text ?? ""}`.trim()}>
+          {last.who ? `${last.who} ` : ""}
+          {last.text}
+        </span>
+      ) : null}
     </span>
   );
 }
@@ -31,7 +36,11 @@ function Last({ last }: { last: LastActivity | null }) {
 function PanelCell({ p, names, byTarget }: { p: BoardPanel; names: Names; byTarget: Map<string, ActivityEntry> }) {
   const rev = p.currentRevision;
   return (
-    <li className="flex min-w-0 flex-col gap-2 rounded-sm border border-rule bg-sheet p-3" data-testid={`panel-cell-${p.letter}`} aria-label={`Panel ${p.letter}`}>
+    <li
+      className="flex min-w-0 flex-col gap-2 rounded-sm border border-rule bg-sheet p-3"
+      data-testid={`panel-cell-${p.letter}`}
+      aria-label={`Panel ${p.letter}`}
+    >
       <div className="flex flex-wrap items-start justify-between gap-x-2 gap-y-1">
         <Link href={`/panels/${p.id}`} className="min-w-0 flex-1 hover:underline">
           <span className="mr-1.5 font-semibold">{p.letter}</span>
@@ -46,7 +55,8 @@ function PanelCell({ p, names, byTarget }: { p: BoardPanel; names: Names; byTarg
         </span>
         {p.dataWarnings ? (
           <span className="block font-medium text-warn" data-testid="panel-data-warnings">
-            <span aria-hidden>△ </span>{p.dataWarnings} data warning{p.dataWarnings === 1 ? "" : "s"} — open the panel to read {p.dataWarnings === 1 ? "it" : "them"}
+            <span aria-hidden>△ </span>
+            {p.dataWarnings} data warning{p.dataWarnings === 1 ? "" : "s"} — open the panel to read {p.dataWarnings === 1 ? "it" : "them"}
           </span>
         ) : null}
       </p>
@@ -54,7 +64,12 @@ function PanelCell({ p, names, byTarget }: { p: BoardPanel; names: Names; byTarg
         <People label="Approved by" ids={p.approvedBy} names={names} testId="approved-by" />
         <People label="Waiting on" ids={p.waitingOn} names={names} testId="waiting-on" />
         {p.needsRevisionBy.length ? <People label="Asked for changes" ids={p.needsRevisionBy} names={names} /> : null}
-        <div className="flex gap-1.5"><dt className="shrink-0 text-muted">Last activity</dt><dd className="min-w-0"><Last last={panelLastActivity(p, byTarget)} /></dd></div>
+        <div className="flex gap-1.5">
+          <dt className="shrink-0 text-muted">Last activity</dt>
+          <dd className="min-w-0">
+            <Last last={panelLastActivity(p, byTarget)} />
+          </dd>
+        </div>
       </dl>
     </li>
   );
@@ -66,20 +81,51 @@ export function BoardFigureRow({ f, names, byTarget, isPi }: { f: BoardFigure; n
   const warned = f.panels.filter((p) => p.dataWarnings > 0).length;
   const last = figureLastActivity(f, byTarget);
   return (
-    <li className="grid gap-4 border-t border-rule py-5 first:border-t-0 md:grid-cols-[17rem_1fr]" aria-labelledby={`figure-${f.id}`} data-testid={`figure-row-${f.number}`}>
+    <li
+      className="grid gap-4 border-t border-rule py-5 first:border-t-0 md:grid-cols-[17rem_1fr]"
+      aria-labelledby={`figure-${f.id}`}
+      data-testid={`figure-row-${f.number}`}
+    >
       <div className="space-y-3">
         <div>
           <h2 id={`figure-${f.id}`} className="font-semibold">
-            <Link href={`/figures/${f.id}`} className="hover:underline">Figure {f.number}</Link>
+            <Link href={`/figures/${f.id}`} className="hover:underline">
+              Figure {f.number}
+            </Link>
           </h2>
           <p className="text-sm">{f.title}</p>
         </div>
         <dl className="space-y-0.5 text-xs">
-          <div className="flex gap-1.5"><dt className="text-muted">State</dt><dd><StateBadge state={f.reviewState} /></dd></div>
-          <div className="flex gap-1.5"><dt className="text-muted">Panels</dt><dd>{f.panels.length} · {open} open thread{open === 1 ? "" : "s"}{warned ? <> · <span className="text-warn"><span aria-hidden>△ </span>{warned} with data warnings</span></> : null}</dd></div>
+          <div className="flex gap-1.5">
+            <dt className="text-muted">State</dt>
+            <dd>
+              <StateBadge state={f.reviewState} />
+            </dd>
+          </div>
+          <div className="flex gap-1.5">
+            <dt className="text-muted">Panels</dt>
+            <dd>
+              {f.panels.length} · {open} open thread{open === 1 ? "" : "s"}
+              {warned ? (
+                <>
+                  {" "}
+                  ·{" "}
+                  <span className="text-warn">
+                    <span aria-hidden>△ </span>
+                    {warned} with data warnings
+                  </span>
+                </>
+              ) : null}
+            </dd>
+          </div>
           <People label="Required reviewers" ids={f.requiredReviewers} names={names} />
           {!f.requiredReviewers.length ? <p className="text-muted">(none named: one approval per panel suffices)</p> : null}
-          <div className="flex gap-1.5"><dt className="shrink-0 text-muted">Last activity</dt><dd className="min-w-0"><Last last={last} /></dd></div>
+          <div className="flex gap-1.5">
+            <dt className="shrink-0 text-muted">Last activity</dt>
+            <dd className="min-w-0">
+              <Last last={last} />
+            </dd>
+          </div>
         </dl>
         {isPi || f.signoffs.length ? (
           <section aria-label={`Sign-off of figure ${f.number}`} className="rounded-sm border border-rule bg-sheet p-4">
@@ -90,7 +136,9 @@ export function BoardFigureRow({ f, names, byTarget, isPi }: { f: BoardFigure; n
       </div>
       {f.panels.length ? (
         <ol className="grid content-start gap-3 sm:grid-cols-[repeat(auto-fill,minmax(14rem,1fr))]" aria-label={`Panels of figure ${f.number}`}>
-          {f.panels.map((p) => <PanelCell key={p.id} p={p} names={names} byTarget={byTarget} />)}
+          {f.panels.map((p) => (
+            <PanelCell key={p.id} p={p} names={names} byTarget={byTarget} />
+          ))}
         </ol>
       ) : (
         <p className="self-center rounded-sm border border-dashed border-rule p-4 text-sm text-muted">No panels yet.</p>

@@ -1,6 +1,10 @@
 import { toTime, type ActivityEntry, type BoardFigure, type BoardPanel } from "./review-api";
 
-export interface LastActivity { at: number; who: string | null; text: string | null }
+export interface LastActivity {
+  at: number;
+  who: string | null;
+  text: string | null;
+}
 
 /** The newest audit entry per target ("panel:…", "revision:…", "figure:…"); the feed is newest first. */
 export function latestByTarget(items: ActivityEntry[]): Map<string, ActivityEntry> {

@@ -12,7 +12,11 @@ import { StateBadge, StateLegend } from "./state-badge";
 
 /** Every figure and panel of a manuscript with its review state, kept fresh on focus and every 30 s. */
 export function ManuscriptBoard({ initial, initialActivity }: { initial: ManuscriptView; initialActivity: ActivityEntry[] }) {
-  const { data: m, isFetching, error } = useQuery({
+  const {
+    data: m,
+    isFetching,
+    error,
+  } = useQuery({
     queryKey: reviewKeys.manuscript(initial.id),
     queryFn: () => fetchJson<ManuscriptView>(`/api/manuscripts/${initial.id}`),
     initialData: initial,
@@ -37,16 +41,25 @@ export function ManuscriptBoard({ initial, initialActivity }: { initial: Manuscr
       </div>
       <section aria-label="Figures and panels" className="min-w-0">
         <p className="mb-2 flex flex-wrap items-center gap-2 text-xs text-muted" aria-live="polite">
-          <span>{m.figures.length} figure{m.figures.length === 1 ? "" : "s"}</span>
-          {[...counts.entries()].map(([s, n]) => <span key={s} className="inline-flex items-center gap-1">{n} × <StateBadge state={s} /></span>)}
+          <span>
+            {m.figures.length} figure{m.figures.length === 1 ? "" : "s"}
+          </span>
+          {[...counts.entries()].map(([s, n]) => (
+            <span key={s} className="inline-flex items-center gap-1">
+              {n} × <StateBadge state={s} />
+            </span>
+          ))}
           <span data-testid="data-warning-count" className={warned ? "font-medium text-warn" : ""}>
-            {warned ? <span aria-hidden>△ </span> : null}{warned} panel{warned === 1 ? "" : "s"} with data warnings
+            {warned ? <span aria-hidden>△ </span> : null}
+            {warned} panel{warned === 1 ? "" : "s"} with data warnings
           </span>
           <span className="ml-auto">{isFetching ? "refreshing…" : error ? `✕ could not refresh: ${error.message}` : ""}</span>
         </p>
         {m.figures.length ? (
           <ol className="rounded-sm border border-rule bg-paper/60 px-4">
-            {m.figures.map((f) => <BoardFigureRow key={f.id} f={f} names={names} byTarget={byTarget} isPi={roleAllows(m.role, "figure.signoff")} />)}
+            {m.figures.map((f) => (
+              <BoardFigureRow key={f.id} f={f} names={names} byTarget={byTarget} isPi={roleAllows(m.role, "figure.signoff")} />
+            ))}
           </ol>
         ) : (
           <EmptyState title="No figures yet">Figures and their panels appear here with their review state as soon as an author creates them.</EmptyState>

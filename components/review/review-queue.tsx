@@ -1,8 +1,15 @@
 "use client";
 import { useQuery } from "@tanstack/react-query";
 import {
-  createColumnHelper, flexRender, getCoreRowModel, getFilteredRowModel, getSortedRowModel, useReactTable,
-  type ColumnFiltersState, type FilterFn, type SortingState,
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getFilteredRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type ColumnFiltersState,
+  type FilterFn,
+  type SortingState,
 } from "@tanstack/react-table";
 import Link from "next/link";
 import { useState } from "react";
@@ -28,8 +35,9 @@ const matchesText: FilterFn<QueueEntry> = (row, _columnId, value: string) => {
   const q = value.trim().toLowerCase();
   if (!q) return true;
   const i = row.original;
-  return [i.what, i.manuscriptTitle, i.figureTitle, `figure ${i.figureNumber}`, i.letter ?? "", KIND_LABELS[i.kind].label]
-    .some((s) => s.toLowerCase().includes(q));
+  return [i.what, i.manuscriptTitle, i.figureTitle, `figure ${i.figureNumber}`, i.letter ?? "", KIND_LABELS[i.kind].label].some((s) =>
+    s.toLowerCase().includes(q),
+  );
 };
 
 const col = createColumnHelper<QueueEntry>();
@@ -43,25 +51,47 @@ const columns = [
     ),
   }),
   col.accessor("kind", {
-    header: "Kind", filterFn: "equals",
+    header: "Kind",
+    filterFn: "equals",
     sortingFn: (a, b) => KINDS.indexOf(a.original.kind) - KINDS.indexOf(b.original.kind),
-    cell: (c) => <span className="whitespace-nowrap"><span aria-hidden className="mr-1 inline-block w-3 text-center">{KIND_LABELS[c.getValue()].shape}</span>{KIND_LABELS[c.getValue()].label}</span>,
+    cell: (c) => (
+      <span className="whitespace-nowrap">
+        <span aria-hidden className="mr-1 inline-block w-3 text-center">
+          {KIND_LABELS[c.getValue()].shape}
+        </span>
+        {KIND_LABELS[c.getValue()].label}
+      </span>
+    ),
   }),
   col.accessor("manuscriptTitle", {
     header: "Manuscript",
     cell: (c) => (
-      <Link href={`/manuscripts/${c.row.original.manuscriptId}/board`} className="line-clamp-2 min-w-[12rem] hover:underline" title={`${c.getValue()} — open the board`}>
+      <Link
+        href={`/manuscripts/${c.row.original.manuscriptId}/board`}
+        className="line-clamp-2 min-w-[12rem] hover:underline"
+        title={`${c.getValue()} — open the board`}
+      >
         {c.getValue()}
       </Link>
     ),
   }),
   col.accessor("figureNumber", {
-    header: "Figure", meta: { numeric: true }, sortDescFirst: false,
+    header: "Figure",
+    meta: { numeric: true },
+    sortDescFirst: false,
     cell: (c) => <span title={c.row.original.figureTitle}>Figure {c.getValue()}</span>,
   }),
   col.accessor((i) => i.letter ?? "", {
-    id: "panel", header: "Panel",
-    cell: (c) => c.getValue() ? <span className="font-semibold">{c.getValue()}</span> : <span className="text-muted" title="the whole figure">—</span>,
+    id: "panel",
+    header: "Panel",
+    cell: (c) =>
+      c.getValue() ? (
+        <span className="font-semibold">{c.getValue()}</span>
+      ) : (
+        <span className="text-muted" title="the whole figure">
+          —
+        </span>
+      ),
   }),
   col.accessor("state", {
     header: "State",
@@ -69,7 +99,8 @@ const columns = [
     cell: (c) => <StateBadge state={c.getValue()} />,
   }),
   col.accessor((i) => toTime(i.since), {
-    id: "since", header: "Since",
+    id: "since",
+    header: "Since",
     cell: (c) => <RelativeTime at={c.getValue()} className="text-xs text-muted" />,
   }),
 ];
@@ -90,19 +121,39 @@ export function ReviewQueue() {
   const [columnFilters, setColumnFilters] = useState<ColumnFiltersState>([]);
   const [text, setText] = useState("");
   const table = useReactTable({
-    data: data ?? [], columns, state: { sorting, columnFilters, globalFilter: text },
-    onSortingChange: setSorting, onColumnFiltersChange: setColumnFilters, onGlobalFilterChange: setText,
+    data: data ?? [],
+    columns,
+    state: { sorting, columnFilters, globalFilter: text },
+    onSortingChange: setSorting,
+    onColumnFiltersChange: setColumnFilters,
+    onGlobalFilterChange: setText,
     globalFilterFn: matchesText,
-    getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel(), getFilteredRowModel: getFilteredRowModel(),
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+    getFilteredRowModel: getFilteredRowModel(),
   });
   const kind = (columnFilters.find((f) => f.id === "kind")?.value as Kind | undefined) ?? "";
   const counts = new Map<Kind, number>();
   for (const i of data ?? []) counts.set(i.kind, (counts.get(i.kind) ?? 0) + 1);
 
-  if (isPending) return <p className="text-sm text-muted" aria-busy>Loading what waits on you…</p>;
-  if (error && !data) return <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>Could not load the queue: {error.message}</p>;
+  if (isPending)
+    return (
+      <p className="text-sm text-muted" aria-busy>
+        Loading what waits on you…
+      </p>
+    );
+  if (error && !data)
+    return (
+      <p role="alert" className="text-sm text-bad">
+        <span aria-hidden>✕ </span>Could not load the queue: {error.message}
+      </p>
+    );
   if (!data?.length) {
-    return <EmptyState title="Nothing waits on you.">Panels to review, threads that mention you and figures to sign off appear here as soon as they need you.</EmptyState>;
+    return (
+      <EmptyState title="Nothing waits on you.">
+        Panels to review, threads that mention you and figures to sign off appear here as soon as they need you.
+      </EmptyState>
+    );
   }
   const rows = table.getRowModel().rows;
   return (
@@ -110,17 +161,25 @@ export function ReviewQueue() {
       <div className="mb-3 flex flex-wrap items-end gap-3">
         <Field label="Kind">
           <select
-            value={kind} onChange={(e) => table.getColumn("kind")!.setFilterValue(e.target.value || undefined)}
+            value={kind}
+            onChange={(e) => table.getColumn("kind")!.setFilterValue(e.target.value || undefined)}
             className="rounded-sm border border-rule bg-white px-2.5 py-1.5 text-sm focus:border-accent"
           >
             <option value="">All kinds ({data.length})</option>
-            {KINDS.map((k) => <option key={k} value={k}>{KIND_LABELS[k].label} ({counts.get(k) ?? 0})</option>)}
+            {KINDS.map((k) => (
+              <option key={k} value={k}>
+                {KIND_LABELS[k].label} ({counts.get(k) ?? 0})
+              </option>
+            ))}
           </select>
         </Field>
         <div className="min-w-[16rem] flex-1 sm:max-w-sm">
           <Field label="Filter">
             <input
-              type="search" value={text} onChange={(e) => setText(e.target.value)} placeholder="panel, figure, manuscript…"
+              type="search"
+              value={text}
+              onChange={(e) => setText(e.target.value)}
+              placeholder="panel, figure, manuscript…"
               className="w-full rounded-sm border border-rule bg-white px-2.5 py-1.5 text-sm focus:border-accent"
             />
           </Field>
@@ -133,7 +192,13 @@ export function ReviewQueue() {
         <table className="w-full text-sm">
           <caption className="sr-only">What waits on you; select a column heading to sort</caption>
           <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
-            {table.getHeaderGroups().map((hg) => <tr key={hg.id}>{hg.headers.map((h) => <SortHeader key={h.id} header={h} />)}</tr>)}
+            {table.getHeaderGroups().map((hg) => (
+              <tr key={hg.id}>
+                {hg.headers.map((h) => (
+                  <SortHeader key={h.id} header={h} />
+                ))}
+              </tr>
+            ))}
           </thead>
           <tbody>
             {rows.map((row) => (
@@ -146,7 +211,11 @@ export function ReviewQueue() {
               </tr>
             ))}
             {!rows.length ? (
-              <tr><td colSpan={columns.length} className="px-3 py-6 text-center text-muted">Nothing matches these filters.</td></tr>
+              <tr>
+                <td colSpan={columns.length} className="px-3 py-6 text-center text-muted">
+                  Nothing matches these filters.
+                </td>
+              </tr>
             ) : null}
           </tbody>
         </table>

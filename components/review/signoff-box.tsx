@@ -28,14 +28,18 @@ function openIssuesOf(err: ApiError | null): string[] | null {
 
 /** An error answer as `fallback`: the names are a nicety, the box works without them. */
 const orWhenRefused = <T,>(p: Promise<T>, fallback: T): Promise<T> =>
-  p.catch((e: unknown) => { if (e instanceof ApiError) return fallback; throw e; });
+  p.catch((e: unknown) => {
+    if (e instanceof ApiError) return fallback;
+    throw e;
+  });
 
 /** Names of the manuscript's members, for saying who signed off (the props carry only user ids). */
 function useMemberNames(figureId: string, enabled: boolean) {
   const queryClient = useQueryClient();
   return useQuery({
     queryKey: ["figure-member-names", figureId],
-    enabled, staleTime: 5 * 60_000,
+    enabled,
+    staleTime: 5 * 60_000,
     // A page that already holds the manuscript (the board) answers from its cache without a request.
     initialData: () => {
       for (const [, m] of queryClient.getQueriesData<ManuscriptView>({ queryKey: ["manuscript"] })) {
@@ -46,14 +50,19 @@ function useMemberNames(figureId: string, enabled: boolean) {
     queryFn: async () => {
       const fig = await orWhenRefused(fetchJson<{ manuscriptId?: string } | null>(`/api/figures/${figureId}`), null);
       if (!fig?.manuscriptId) return {};
-      const m = await orWhenRefused(fetchJson<{ items: Array<{ userId: string; name: string }> }>(`/api/manuscripts/${fig.manuscriptId}/members`), { items: [] });
+      const m = await orWhenRefused(fetchJson<{ items: Array<{ userId: string; name: string }> }>(`/api/manuscripts/${fig.manuscriptId}/members`), {
+        items: [],
+      });
       return Object.fromEntries(m.items.map((u) => [u.userId, u.name]));
     },
   });
 }
 
 /** The server names the field first ("reason: open issues …"); a person reads the sentence. */
-const sentence = (m: string) => { const t = m.replace(/^reason:\s*/, ""); return t.charAt(0).toUpperCase() + t.slice(1); };
+const sentence = (m: string) => {
+  const t = m.replace(/^reason:\s*/, "");
+  return t.charAt(0).toUpperCase() + t.slice(1);
+};
 
 /** The figure's review state, its current hash, its sign-offs (stale ones marked) and, for the PI, the sign-off itself. */
 export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, signoffs }: SignoffBoxProps) {
@@ -86,7 +95,12 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
     <div className="text-sm" data-testid={`signoff-box-${figureId}`}>
       <p className="flex flex-wrap items-center gap-2 text-xs text-muted">
         <StateBadge state={reviewState} />
-        <span>figure hash <code className="rounded-sm bg-paper px-1 font-mono text-ink" title={figureHash} data-testid="figure-hash">{shortHash(figureHash, 12)}</code></span>
+        <span>
+          figure hash{" "}
+          <code className="rounded-sm bg-paper px-1 font-mono text-ink" title={figureHash} data-testid="figure-hash">
+            {shortHash(figureHash, 12)}
+          </code>
+        </span>
       </p>
 
       {signoffs.length ? (
@@ -94,11 +108,18 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
           {signoffs.map((s) => (
             <li key={s.id} className={`border-l-2 pl-2 ${s.stale ? "border-dashed border-warn" : "border-ink"}`}>
               <p className="flex items-start gap-1.5">
-                <span aria-hidden className="w-3 text-center">{s.stale ? "◇" : "◆"}</span>
-                <span><span className="font-medium">{names[s.userId] ?? "The PI"}</span> signed off</span>
+                <span aria-hidden className="w-3 text-center">
+                  {s.stale ? "◇" : "◆"}
+                </span>
+                <span>
+                  <span className="font-medium">{names[s.userId] ?? "The PI"}</span> signed off
+                </span>
               </p>
               <p className="ml-[1.125rem] text-xs text-muted">
-                <time dateTime={new Date(s.createdAt).toISOString()}>{formatDate(s.createdAt)}</time> · hash <code className="font-mono" title={s.figureHash}>{shortHash(s.figureHash, 12)}</code>
+                <time dateTime={new Date(s.createdAt).toISOString()}>{formatDate(s.createdAt)}</time> · hash{" "}
+                <code className="font-mono" title={s.figureHash}>
+                  {shortHash(s.figureHash, 12)}
+                </code>
               </p>
               {s.stale ? (
                 <p className="ml-[1.125rem] text-xs font-medium text-warn">Stale — signed off an earlier version of this figure</p>
@@ -110,37 +131,81 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
           ))}
         </ul>
       ) : (
-        <p className="mt-3 text-xs text-muted"><span aria-hidden>○ </span>Not signed off yet.</p>
+        <p className="mt-3 text-xs text-muted">
+          <span aria-hidden>○ </span>Not signed off yet.
+        </p>
       )}
 
       {!canSignOff ? (
-        signedOff ? null : <p className="mt-3 text-xs text-muted">Only the PI signs off a figure.</p>
+        signedOff ? null : (
+          <p className="mt-3 text-xs text-muted">Only the PI signs off a figure.</p>
+        )
       ) : signedOff ? null : changed ? (
         <div className="mt-3">
-          <Notice ok={false}>The figure changed since this page loaded: the hash you saw is no longer current. Look at the figure as it is now before signing off.</Notice>
-          <Button type="button" variant="quiet" className="mt-2" onClick={() => void reload()}>Reload the figure</Button>
+          <Notice ok={false}>
+            The figure changed since this page loaded: the hash you saw is no longer current. Look at the figure as it is now before signing off.
+          </Notice>
+          <Button type="button" variant="quiet" className="mt-2" onClick={() => void reload()}>
+            Reload the figure
+          </Button>
         </div>
       ) : needsReason ? (
-        <form className="mt-3 space-y-2" onSubmit={(e) => { e.preventDefault(); sign.mutate(true); }}>
+        <form
+          className="mt-3 space-y-2"
+          onSubmit={(e) => {
+            e.preventDefault();
+            sign.mutate(true);
+          }}
+        >
           <div role="alert" className="text-sm text-bad">
-            <p className="flex gap-2"><span aria-hidden className="font-bold">✕</span><span>{sentence(err.message)}</span></p>
-            {open.length ? <ul className="ml-5 mt-1 list-disc text-ink">{open.map((o) => <li key={o}>{o}</li>)}</ul> : null}
+            <p className="flex gap-2">
+              <span aria-hidden className="font-bold">
+                ✕
+              </span>
+              <span>{sentence(err.message)}</span>
+            </p>
+            {open.length ? (
+              <ul className="ml-5 mt-1 list-disc text-ink">
+                {open.map((o) => (
+                  <li key={o}>{o}</li>
+                ))}
+              </ul>
+            ) : null}
           </div>
           <Field label="Reason for signing off with open issues">
             <textarea
-              required value={reason} onChange={(e) => setReason(e.target.value)} rows={3} maxLength={5000}
+              required
+              value={reason}
+              onChange={(e) => setReason(e.target.value)}
+              rows={3}
+              maxLength={5000}
               className="w-full rounded-sm border border-rule bg-white px-2.5 py-1.5 text-sm focus:border-accent"
             />
           </Field>
           <div className="flex flex-wrap gap-2">
-            <Button type="submit" disabled={sign.isPending || !reason.trim()}>{sign.isPending ? "Signing off…" : "Sign off with this reason"}</Button>
-            <Button type="button" variant="quiet" onClick={() => { sign.reset(); setReason(""); }}>Cancel</Button>
+            <Button type="submit" disabled={sign.isPending || !reason.trim()}>
+              {sign.isPending ? "Signing off…" : "Sign off with this reason"}
+            </Button>
+            <Button
+              type="button"
+              variant="quiet"
+              onClick={() => {
+                sign.reset();
+                setReason("");
+              }}
+            >
+              Cancel
+            </Button>
           </div>
         </form>
       ) : (
         <div className="mt-3">
-          {reviewState !== "approved" ? <p className="mb-2 text-xs text-muted">Not every panel is approved on its current revision; signing off now asks for a reason.</p> : null}
-          <Button type="button" onClick={() => sign.mutate(false)} disabled={sign.isPending}>{sign.isPending ? "Signing off…" : "Sign off this figure"}</Button>
+          {reviewState !== "approved" ? (
+            <p className="mb-2 text-xs text-muted">Not every panel is approved on its current revision; signing off now asks for a reason.</p>
+          ) : null}
+          <Button type="button" onClick={() => sign.mutate(false)} disabled={sign.isPending}>
+            {sign.isPending ? "Signing off…" : "Sign off this figure"}
+          </Button>
           {err ? <Notice ok={false}>{err.message}</Notice> : sign.error ? <Notice ok={false}>{sign.error.message}</Notice> : null}
         </div>
       )}

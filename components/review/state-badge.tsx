@@ -19,8 +19,13 @@ export function StateBadge({ state, className = "" }: { state: string; className
   if (!isReviewState(state)) return <span className="text-xs text-muted">{state}</span>;
   const { label, shape } = STATE_LABELS[state];
   return (
-    <span data-state={state} className={`inline-flex items-center gap-1 whitespace-nowrap rounded-full border px-2 py-0.5 text-xs font-medium ${LOOK[state]} ${className}`}>
-      <span aria-hidden className="w-3 text-center">{shape}</span>
+    <span
+      data-state={state}
+      className={`inline-flex items-center gap-1 whitespace-nowrap rounded-full border px-2 py-0.5 text-xs font-medium ${LOOK[state]} ${className}`}
+    >
+      <span aria-hidden className="w-3 text-center">
+        {shape}
+      </span>
       {label}
     </span>
   );
@@ -41,7 +46,9 @@ export function StateLegend() {
     <dl aria-label="Review states" className="flex flex-wrap gap-x-5 gap-y-2 text-xs">
       {states.map((s) => (
         <div key={s} className="flex items-center gap-1.5">
-          <dt><StateBadge state={s} /></dt>
+          <dt>
+            <StateBadge state={s} />
+          </dt>
           <dd className="text-muted">{MEANING[s]}</dd>
         </div>
       ))}

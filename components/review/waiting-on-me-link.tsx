@@ -19,7 +19,8 @@ export function WaitingOnMeLink() {
       Waiting on me
       {n > 0 ? (
         <span className="rounded-full bg-accent px-1.5 py-px text-[11px] font-semibold leading-4 text-white tabular" data-testid="waiting-count">
-          {n}<span className="sr-only"> {n === 1 ? "item" : "items"}</span>
+          {n}
+          <span className="sr-only"> {n === 1 ? "item" : "items"}</span>
         </span>
       ) : null}
     </Link>

@@ -3,4 +3,6 @@ import { text, integer } from "drizzle-orm/sqlite-core";
 
 export const id = () => text("id").primaryKey();
 export const createdAt = () =>
-  integer("created_at", { mode: "timestamp_ms" }).notNull().default(sql`(unixepoch('subsec') * 1000)`);
+  integer("created_at", { mode: "timestamp_ms" })
+    .notNull()
+    .default(sql`(unixepoch('subsec') * 1000)`);

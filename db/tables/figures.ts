@@ -6,14 +6,18 @@ export const figures = sqliteTable(
   "figures",
   {
     id: id(),
-    manuscriptId: text("manuscript_id").notNull().references(() => manuscripts.id, { onDelete: "cascade" }),
+    manuscriptId: text("manuscript_id")
+      .notNull()
+      .references(() => manuscripts.id, { onDelete: "cascade" }),
     number: integer("number").notNull(),
     title: text("title").notNull(),
     widthMm: real("width_mm").notNull().default(183),
     maxHeightMm: real("max_height_mm").notNull().default(170),
     columns: integer("columns").notNull().default(2),
     requiredReviewers: text("required_reviewers", { mode: "json" }).$type<string[]>().notNull().default([]),
-    createdBy: text("created_by").notNull().references(() => users.id),
+    createdBy: text("created_by")
+      .notNull()
+      .references(() => users.id),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex("figures_manuscript_number").on(t.manuscriptId, t.number)],
@@ -23,34 +27,47 @@ export const panels = sqliteTable(
   "panels",
   {
     id: id(),
-    figureId: text("figure_id").notNull().references(() => figures.id, { onDelete: "cascade" }),
+    figureId: text("figure_id")
+      .notNull()
+      .references(() => figures.id, { onDelete: "cascade" }),
     position: integer("position").notNull(),
     title: text("title").notNull().default(""),
     colSpan: integer("col_span").notNull().default(1),
     currentRevisionId: text("current_revision_id"),
-    createdBy: text("created_by").notNull().references(() => users.id),
+    createdBy: text("created_by")
+      .notNull()
+      .references(() => users.id),
     createdAt: createdAt(),
   },
   (t) => [index("panels_figure").on(t.figureId, t.position)],
 );
 
-export interface BoundInput { kind: "version" | "analysis"; id: string; versionId: string; sha256: string; output?: string }
+export interface BoundInput {
+  kind: "version" | "analysis";
+  id: string;
+  versionId: string;
+  sha256: string;
+  output?: string;
+}
 export type Binding = { versionId: string } | { analysisId: string; output: "curve" | "residuals" | "data" };
 
 export const revisions = sqliteTable(
   "revisions",
   {
     id: id(),
-    panelId: text("panel_id").notNull().references(() => panels.id, { onDelete: "cascade" }),
+    panelId: text("panel_id")
+      .notNull()
+      .references(() => panels.id, { onDelete: "cascade" }),
     number: integer("number").notNull(),
     spec: text("spec").notNull(),
     bindings: text("bindings", { mode: "json" }).$type<Record<string, Binding>>().notNull(),
     bound: text("bound", { mode: "json" }).$type<Record<string, BoundInput>>().notNull(),
     message: text("message").notNull().default(""),
     contentHash: text("content_hash").notNull(),
-    createdBy: text("created_by").notNull().references(() => users.id),
+    createdBy: text("created_by")
+      .notNull()
+      .references(() => users.id),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex("revisions_panel_number").on(t.panelId, t.number), index("revisions_hash").on(t.contentHash)],
 );
-

@@ -23,8 +23,12 @@ export const labs = sqliteTable("labs", {
 export const labMembers = sqliteTable(
   "lab_members",
   {
-    labId: text("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
-    userId: text("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+    labId: text("lab_id")
+      .notNull()
+      .references(() => labs.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
     role: text("role", { enum: LAB_ROLES }).notNull(),
     createdAt: createdAt(),
   },
@@ -33,17 +37,25 @@ export const labMembers = sqliteTable(
 
 export const manuscripts = sqliteTable("manuscripts", {
   id: id(),
-  labId: text("lab_id").notNull().references(() => labs.id),
+  labId: text("lab_id")
+    .notNull()
+    .references(() => labs.id),
   title: text("title").notNull(),
-  createdBy: text("created_by").notNull().references(() => users.id),
+  createdBy: text("created_by")
+    .notNull()
+    .references(() => users.id),
   createdAt: createdAt(),
 });
 
 export const manuscriptMembers = sqliteTable(
   "manuscript_members",
   {
-    manuscriptId: text("manuscript_id").notNull().references(() => manuscripts.id, { onDelete: "cascade" }),
-    userId: text("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+    manuscriptId: text("manuscript_id")
+      .notNull()
+      .references(() => manuscripts.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
     role: text("role", { enum: ROLES }).notNull(),
     createdAt: createdAt(),
   },
@@ -52,11 +64,15 @@ export const manuscriptMembers = sqliteTable(
 
 export const invitations = sqliteTable("invitations", {
   id: id(),
-  manuscriptId: text("manuscript_id").notNull().references(() => manuscripts.id, { onDelete: "cascade" }),
+  manuscriptId: text("manuscript_id")
+    .notNull()
+    .references(() => manuscripts.id, { onDelete: "cascade" }),
   email: text("email").notNull(),
   role: text("role", { enum: ROLES }).notNull(),
   tokenHash: text("token_hash").notNull().unique(),
-  invitedBy: text("invited_by").notNull().references(() => users.id),
+  invitedBy: text("invited_by")
+    .notNull()
+    .references(() => users.id),
   createdAt: createdAt(),
   expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
   acceptedAt: integer("accepted_at", { mode: "timestamp_ms" }),
@@ -65,7 +81,9 @@ export const invitations = sqliteTable("invitations", {
 
 export const apiTokens = sqliteTable("api_tokens", {
   id: id(),
-  userId: text("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+  userId: text("user_id")
+    .notNull()
+    .references(() => users.id, { onDelete: "cascade" }),
   name: text("name").notNull(),
   tokenHash: text("token_hash").notNull().unique(),
   prefix: text("prefix").notNull(),
@@ -76,7 +94,9 @@ export const apiTokens = sqliteTable("api_tokens", {
 
 export const signInLinks = sqliteTable("sign_in_links", {
   id: id(),
-  userId: text("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+  userId: text("user_id")
+    .notNull()
+    .references(() => users.id, { onDelete: "cascade" }),
   tokenHash: text("token_hash").notNull().unique(),
   createdAt: createdAt(),
   expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
@@ -99,7 +119,9 @@ export const sessions = sqliteTable(
   "sessions",
   {
     id: id(),
-    userId: text("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
     createdAt: createdAt(),
     expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
     revokedAt: integer("revoked_at", { mode: "timestamp_ms" }),
@@ -143,7 +165,9 @@ export const mailOutbox = sqliteTable(
     subject: text("subject").notNull(),
     text: text("text_body").notNull(),
     html: text("html_body"),
-    status: text("status", { enum: ["pending", "sending", "sent", "failed"] }).notNull().default("pending"),
+    status: text("status", { enum: ["pending", "sending", "sent", "failed"] })
+      .notNull()
+      .default("pending"),
     attempts: integer("attempts").notNull().default(0),
     nextAttemptAt: integer("next_attempt_at", { mode: "timestamp_ms" }).notNull(),
     leaseUntil: integer("lease_until", { mode: "timestamp_ms" }),
@@ -153,4 +177,3 @@ export const mailOutbox = sqliteTable(
   },
   (t) => [index("mail_outbox_due").on(t.status, t.nextAttemptAt)],
 );
-

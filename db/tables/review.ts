@@ -9,12 +9,18 @@ export const threads = sqliteTable(
   "threads",
   {
     id: id(),
-    panelId: text("panel_id").notNull().references(() => panels.id, { onDelete: "cascade" }),
-    revisionId: text("revision_id").notNull().references(() => revisions.id),
+    panelId: text("panel_id")
+      .notNull()
+      .references(() => panels.id, { onDelete: "cascade" }),
+    revisionId: text("revision_id")
+      .notNull()
+      .references(() => revisions.id),
     anchor: text("anchor", { mode: "json" }).$type<Anchor | null>(),
     resolvedAt: integer("resolved_at", { mode: "timestamp_ms" }),
     resolvedBy: text("resolved_by").references(() => users.id),
-    createdBy: text("created_by").notNull().references(() => users.id),
+    createdBy: text("created_by")
+      .notNull()
+      .references(() => users.id),
     createdAt: createdAt(),
   },
   (t) => [index("threads_panel").on(t.panelId)],
@@ -24,12 +30,16 @@ export const comments = sqliteTable(
   "comments",
   {
     id: id(),
-    threadId: text("thread_id").notNull().references(() => threads.id, { onDelete: "cascade" }),
+    threadId: text("thread_id")
+      .notNull()
+      .references(() => threads.id, { onDelete: "cascade" }),
     body: text("body", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
     html: text("html").notNull(),
     mentions: text("mentions", { mode: "json" }).$type<string[]>().notNull().default([]),
     clientKey: text("client_key"),
-    createdBy: text("created_by").notNull().references(() => users.id),
+    createdBy: text("created_by")
+      .notNull()
+      .references(() => users.id),
     createdAt: createdAt(),
     editedAt: integer("edited_at", { mode: "timestamp_ms" }),
     deletedAt: integer("deleted_at", { mode: "timestamp_ms" }),
@@ -39,7 +49,9 @@ export const comments = sqliteTable(
 
 export const commentEdits = sqliteTable("comment_edits", {
   id: id(),
-  commentId: text("comment_id").notNull().references(() => comments.id, { onDelete: "cascade" }),
+  commentId: text("comment_id")
+    .notNull()
+    .references(() => comments.id, { onDelete: "cascade" }),
   body: text("body", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
   html: text("html").notNull(),
   replacedAt: integer("replaced_at", { mode: "timestamp_ms" }).notNull(),
@@ -51,12 +63,18 @@ export const decisions = sqliteTable(
   "decisions",
   {
     id: id(),
-    panelId: text("panel_id").notNull().references(() => panels.id, { onDelete: "cascade" }),
-    revisionId: text("revision_id").notNull().references(() => revisions.id),
+    panelId: text("panel_id")
+      .notNull()
+      .references(() => panels.id, { onDelete: "cascade" }),
+    revisionId: text("revision_id")
+      .notNull()
+      .references(() => revisions.id),
     contentHash: text("content_hash").notNull(),
     decision: text("decision", { enum: DECISIONS }).notNull(),
     note: text("note").notNull().default(""),
-    userId: text("user_id").notNull().references(() => users.id),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id),
     createdAt: createdAt(),
   },
   (t) => [index("decisions_panel").on(t.panelId)],
@@ -66,12 +84,15 @@ export const signoffs = sqliteTable(
   "signoffs",
   {
     id: id(),
-    figureId: text("figure_id").notNull().references(() => figures.id, { onDelete: "cascade" }),
+    figureId: text("figure_id")
+      .notNull()
+      .references(() => figures.id, { onDelete: "cascade" }),
     figureHash: text("figure_hash").notNull(),
     reason: text("reason").notNull().default(""),
-    userId: text("user_id").notNull().references(() => users.id),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id),
     createdAt: createdAt(),
   },
   (t) => [index("signoffs_figure").on(t.figureId)],
 );
-

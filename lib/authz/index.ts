@@ -7,7 +7,11 @@ import { isManuscriptAction, roleAllows, type Action, type ManuscriptAction } fr
 
 export * from "./policy";
 
-export interface SessionUser { id: string; email: string; name: string }
+export interface SessionUser {
+  id: string;
+  email: string;
+  name: string;
+}
 
 async function roleOn(userId: string, manuscriptId: string): Promise<Role | null> {
   const [m] = await getDb()
@@ -45,7 +49,9 @@ export async function authorize(user: SessionUser, action: Action, manuscriptId?
 
 /** Lab scope: creating a manuscript in a lab needs membership of that lab; others get 404. */
 export async function authorizeLab(user: SessionUser, labId: string): Promise<void> {
-  const [m] = await getDb().select({ role: labMembers.role }).from(labMembers)
+  const [m] = await getDb()
+    .select({ role: labMembers.role })
+    .from(labMembers)
     .where(and(eq(labMembers.userId, user.id), eq(labMembers.labId, labId)));
   if (!m) throw notFound("No such lab.");
 }

@@ -5,7 +5,11 @@
  */
 
 const SUPERSCRIPT: Record<string, string> = { "-": "⁻", "0": "⁰", "1": "¹", "2": "²", "3": "³", "4": "⁴", "5": "⁵", "6": "⁶", "7": "⁷", "8": "⁸", "9": "⁹" };
-const superscript = (n: number) => String(n).split("").map((c) => SUPERSCRIPT[c] ?? c).join("");
+const superscript = (n: number) =>
+  String(n)
+    .split("")
+    .map((c) => SUPERSCRIPT[c] ?? c)
+    .join("");
 
 /** Up to `digits` significant digits; ×10ⁿ form outside 1e-3 … 1e5 so tables and ticks stay short. */
 export function formatNumber(v: number | null | undefined, digits = 4): string {
@@ -59,7 +63,10 @@ export function formatBytes(n: number): string {
   const units = ["kB", "MB", "GB"];
   let v = n / 1024;
   let i = 0;
-  while (v >= 1024 && i < units.length - 1) { v /= 1024; i++; }
+  while (v >= 1024 && i < units.length - 1) {
+    v /= 1024;
+    i++;
+  }
   return `${v < 10 ? v.toFixed(1) : Math.round(v)} ${units[i]}`;
 }
 
@@ -80,8 +87,12 @@ export function formatDate(d: Date | string | number | null | undefined): string
 }
 
 const UNITS: Array<[Intl.RelativeTimeFormatUnit, number]> = [
-  ["year", 365 * 86_400_000], ["month", 30 * 86_400_000], ["week", 7 * 86_400_000],
-  ["day", 86_400_000], ["hour", 3_600_000], ["minute", 60_000],
+  ["year", 365 * 86_400_000],
+  ["month", 30 * 86_400_000],
+  ["week", 7 * 86_400_000],
+  ["day", 86_400_000],
+  ["hour", 3_600_000],
+  ["minute", 60_000],
 ];
 const rtf = new Intl.RelativeTimeFormat("en", { numeric: "auto" });
 

@@ -36,13 +36,47 @@ interface Issue {
 }
 
 const IGNORED = new Set([
-  "$schema", "$id", "$comment", "title", "description", "default", "examples", "format", "definitions",
-  "markdownDescription", "deprecated", "readOnly", "writeOnly", "patternProperties", "propertyNames", "errorMessage",
+  "$schema",
+  "$id",
+  "$comment",
+  "title",
+  "description",
+  "default",
+  "examples",
+  "format",
+  "definitions",
+  "markdownDescription",
+  "deprecated",
+  "readOnly",
+  "writeOnly",
+  "patternProperties",
+  "propertyNames",
+  "errorMessage",
 ]);
 const HANDLED = new Set([
-  "$ref", "type", "anyOf", "allOf", "oneOf", "not", "properties", "additionalProperties", "required", "items",
-  "enum", "const", "minimum", "maximum", "exclusiveMinimum", "exclusiveMaximum", "minItems", "maxItems",
-  "minLength", "maxLength", "minProperties", "maxProperties", "uniqueItems",
+  "$ref",
+  "type",
+  "anyOf",
+  "allOf",
+  "oneOf",
+  "not",
+  "properties",
+  "additionalProperties",
+  "required",
+  "items",
+  "enum",
+  "const",
+  "minimum",
+  "maximum",
+  "exclusiveMinimum",
+  "exclusiveMaximum",
+  "minItems",
+  "maxItems",
+  "minLength",
+  "maxLength",
+  "minProperties",
+  "maxProperties",
+  "uniqueItems",
 ]);
 
 /** Keywords present in `schema` (recursively) that this checker neither handles nor ignores. */
@@ -52,7 +86,10 @@ export function unsupportedKeywords(schema: JsonSchema): string[] {
     if (Array.isArray(s)) return s.forEach((v) => walk(v, false));
     if (!s || typeof s !== "object") return;
     for (const [k, v] of Object.entries(s)) {
-      if (isMap) { walk(v, false); continue; }
+      if (isMap) {
+        walk(v, false);
+        continue;
+      }
       if (!HANDLED.has(k) && !IGNORED.has(k)) found.add(k);
       if (k === "properties" || k === "definitions" || k === "patternProperties") walk(v, true);
       else if (k !== "enum" && k !== "const" && k !== "default" && k !== "examples") walk(v, false);
@@ -75,7 +112,13 @@ function matchesType(value: unknown, type: string): boolean {
 }
 
 const ARTICLE: Record<string, string> = {
-  string: "a string", number: "a number", integer: "an integer", boolean: "true or false", object: "an object", array: "an array", null: "null",
+  string: "a string",
+  number: "a number",
+  integer: "an integer",
+  boolean: "true or false",
+  object: "an object",
+  array: "an array",
+  null: "null",
 };
 
 function show(value: unknown): string {
@@ -104,8 +147,7 @@ function joinExpected(list: string[]): string {
 const prefix = (seg: PathSegment, issues: Issue[]): Issue[] => issues.map((i) => ({ ...i, path: [seg, ...i.path] }));
 const maxDepth = (issues: Issue[]): number => Math.max(...issues.map((i) => i.path.length + (i.shallow ? 0 : 0.5)));
 /** How strongly a failing anyOf branch looks like the wrong form altogether (lower is a better match). */
-const mismatch = (issues: Issue[]): number =>
-  issues.filter((i) => (i.structural && i.path.length <= 1) || (i.shallow && i.path.length === 0)).length;
+const mismatch = (issues: Issue[]): number => issues.filter((i) => (i.structural && i.path.length <= 1) || (i.shallow && i.path.length === 0)).length;
 
 export type SchemaChecker = (value: unknown) => SchemaIssue[];
 
@@ -198,7 +240,9 @@ export function createSchemaChecker(root: JsonSchema): SchemaChecker {
     if (typeof s.minItems === "number" && v.length < s.minItems) issues.push({ path: [], message: `must have at least ${s.minItems} items` });
     if (typeof s.maxItems === "number" && v.length > s.maxItems) issues.push({ path: [], message: `must have at most ${s.maxItems} items` });
     if (Array.isArray(s.items)) {
-      s.items.forEach((sub, i) => { if (i < v.length) issues.push(...prefix(i, check(sub as JsonSchema, v[i]))); });
+      s.items.forEach((sub, i) => {
+        if (i < v.length) issues.push(...prefix(i, check(sub as JsonSchema, v[i])));
+      });
     } else if (s.items !== undefined) {
       v.forEach((item, i) => issues.push(...prefix(i, check(s.items as JsonSchema, item))));
     }
@@ -207,8 +251,10 @@ export function createSchemaChecker(root: JsonSchema): SchemaChecker {
 
   function checkObject(s: JsonSchema, v: Record<string, unknown>, issues: Issue[]): void {
     const keys = Object.keys(v);
-    if (typeof s.minProperties === "number" && keys.length < s.minProperties) issues.push({ path: [], message: `must have at least ${s.minProperties} properties` });
-    if (typeof s.maxProperties === "number" && keys.length > s.maxProperties) issues.push({ path: [], message: `must have at most ${s.maxProperties} properties` });
+    if (typeof s.minProperties === "number" && keys.length < s.minProperties)
+      issues.push({ path: [], message: `must have at least ${s.minProperties} properties` });
+    if (typeof s.maxProperties === "number" && keys.length > s.maxProperties)
+      issues.push({ path: [], message: `must have at most ${s.maxProperties} properties` });
     const props = (s.properties ?? {}) as Record<string, JsonSchema>;
     if (Array.isArray(s.required)) {
       for (const r of s.required as string[]) if (!(r in v)) issues.push({ path: [], message: `needs the property "${r}"`, structural: true });

@@ -67,7 +67,10 @@ export function columnOfField(field: string): string {
   let out = "";
   for (let i = 0; i < field.length; i++) {
     const c = field[i];
-    if (c === "\\" && i + 1 < field.length) { out += field[++i]; continue; }
+    if (c === "\\" && i + 1 < field.length) {
+      out += field[++i];
+      continue;
+    }
     if (c === "." || c === "[") break;
     out += c;
   }
@@ -113,12 +116,20 @@ export function specFieldUses(spec: unknown): FieldUse[] {
     for (const op of ["and", "or", "not"]) if (op in p) predicate(p[op], scope, [...path, op]);
     if ("field" in p) fieldRef(p.field, scope, [...path, "field"], "filter");
   };
-  const create = (scope: Scope, names: Json) => { for (const n of strings(names)) scope.created.add(n); };
+  const create = (scope: Scope, names: Json) => {
+    for (const n of strings(names)) scope.created.add(n);
+  };
   const createWithEnd = (scope: Scope, as: Json) => {
-    if (typeof as === "string") { scope.created.add(as); scope.created.add(`${as}_end`); } else create(scope, as);
+    if (typeof as === "string") {
+      scope.created.add(as);
+      scope.created.add(`${as}_end`);
+    } else create(scope, as);
   };
   const sortFields = (sort: Json, scope: Scope, path: SpecPath, channel: string) => {
-    if (Array.isArray(sort)) sort.forEach((s, i) => { if (isObj(s)) fieldRef(s.field, scope, [...path, i, "field"], channel); });
+    if (Array.isArray(sort))
+      sort.forEach((s, i) => {
+        if (isObj(s)) fieldRef(s.field, scope, [...path, i, "field"], channel);
+      });
     else if (isObj(sort) && "field" in sort) fieldRef(sort.field, scope, [...path, "field"], channel);
   };
 
@@ -129,10 +140,13 @@ export function specFieldUses(spec: unknown): FieldUse[] {
       const continuous = POSITION.has(channel) && CONTINUOUS_TYPES.has(def.type as string) && !def.aggregate && !def.bin;
       fieldRef(def.field, scope, [...path, "field"], channel, continuous, typeof def.type === "string" ? def.type : null);
     }
-    if (isObj(def.aggregate)) for (const k of ["argmin", "argmax"]) if (k in def.aggregate) fieldRef(def.aggregate[k], scope, [...path, "aggregate", k], channel);
+    if (isObj(def.aggregate))
+      for (const k of ["argmin", "argmax"]) if (k in def.aggregate) fieldRef(def.aggregate[k], scope, [...path, "aggregate", k], channel);
     if ("sort" in def) sortFields(def.sort, scope, [...path, "sort"], channel);
     if ("condition" in def) {
-      const conds = Array.isArray(def.condition) ? def.condition.map((c, i) => [c, [...path, "condition", i]] as const) : [[def.condition, [...path, "condition"]] as const];
+      const conds = Array.isArray(def.condition)
+        ? def.condition.map((c, i) => [c, [...path, "condition", i]] as const)
+        : [[def.condition, [...path, "condition"]] as const];
       for (const [c, at] of conds) {
         if (!isObj(c)) continue;
         if ("test" in c) predicate(c.test, scope, [...at, "test"]);
@@ -146,8 +160,10 @@ export function specFieldUses(spec: unknown): FieldUse[] {
     const at = (...k: Array<string | number>) => [...path, ...k];
     const groupby = () => fieldList(t.groupby, scope, at("groupby"), "transform");
     if ("filter" in t) predicate(t.filter, scope, at("filter"));
-    else if ("calculate" in t) { expression(t.calculate, scope, at("calculate"), "transform"); create(scope, t.as); }
-    else if ("lookup" in t) {
+    else if ("calculate" in t) {
+      expression(t.calculate, scope, at("calculate"), "transform");
+      create(scope, t.as);
+    } else if ("lookup" in t) {
       fieldRef(t.lookup, scope, at("lookup"), "transform");
       const from = isObj(t.from) ? t.from : {};
       if (isObj(from.data)) {
@@ -232,9 +248,10 @@ export function specFieldUses(spec: unknown): FieldUse[] {
     const encoding = [...inheritedEncoding.filter(([k]) => !own.some(([o]) => o === k)), ...own];
     if ("mark" in node) {
       for (const [k, def, at] of encoding) channelDef(def, k, at, scope);
-      if (Array.isArray(node.params)) node.params.forEach((p, i) => {
-        if (isObj(p) && isObj(p.select)) fieldList(p.select.fields, scope, [...path, "params", i, "select", "fields"], "params");
-      });
+      if (Array.isArray(node.params))
+        node.params.forEach((p, i) => {
+          if (isObj(p) && isObj(p.select)) fieldList(p.select.fields, scope, [...path, "params", i, "select", "fields"], "params");
+        });
     }
     if (Array.isArray(node.layer)) node.layer.forEach((child, i) => view(child, [...path, "layer", i], scope, encoding));
     for (const key of ["concat", "hconcat", "vconcat"]) {
@@ -249,8 +266,11 @@ export function specFieldUses(spec: unknown): FieldUse[] {
     let inner = scope;
     if ("repeat" in node) {
       const r = node.repeat;
-      const lists: Record<string, string[]> = Array.isArray(r) ? { repeat: strings(r) }
-        : isObj(r) ? Object.fromEntries(["row", "column", "layer"].filter((k) => k in r).map((k) => [k, strings(r[k])])) : {};
+      const lists: Record<string, string[]> = Array.isArray(r)
+        ? { repeat: strings(r) }
+        : isObj(r)
+          ? Object.fromEntries(["row", "column", "layer"].filter((k) => k in r).map((k) => [k, strings(r[k])]))
+          : {};
       inner = { ...scope, repeat: { ...scope.repeat, ...lists } };
     }
     if (isObj(node.spec)) view(node.spec, [...path, "spec"], inner, []);
@@ -264,11 +284,19 @@ export function specFieldUses(spec: unknown): FieldUse[] {
 export function specFields(spec: unknown): Record<string, string[]> {
   const out: Record<string, Set<string>> = {};
   for (const u of specFieldUses(spec)) (out[u.dataName] ??= new Set()).add(u.field);
-  return Object.fromEntries(Object.entries(out).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)).map(([k, v]) => [k, [...v].sort()]));
+  return Object.fromEntries(
+    Object.entries(out)
+      .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))
+      .map(([k, v]) => [k, [...v].sort()]),
+  );
 }
 
 /** A column of bound data as the check sees it; `header` is the file's header cell, when recorded. */
-export interface ColumnInfo { name: string; unit?: string | null; header?: string | null }
+export interface ColumnInfo {
+  name: string;
+  unit?: string | null;
+  header?: string | null;
+}
 
 export interface Suggestion {
   column: string;
@@ -373,8 +401,14 @@ export function checkSpecFields(spec: unknown, columnsByName: Record<string, Col
     const suggestion = suggestColumn(u.written, u.field, columns);
     const what = u.written === u.field ? tick(u.field) : `${tick(u.written)} (column ${tick(u.field)})`;
     problems.push({
-      dataName: u.dataName, field: u.field, written: u.written, channel: u.channel, path: formatPath(u.path), pointer: toPointer(u.path),
-      columns: names, suggestion,
+      dataName: u.dataName,
+      field: u.field,
+      written: u.written,
+      channel: u.channel,
+      path: formatPath(u.path),
+      pointer: toPointer(u.path),
+      columns: names,
+      suggestion,
       message: `the field ${what} is not a column of the data ${tick(u.dataName)} (${listColumns(names)}).${suggestion ? ` ${suggestion.text}` : ""}`,
     });
   }

@@ -36,7 +36,7 @@ const USERMETA_KEYS: ReadonlySet<string> = new Set(["description", "note", "note
 /** Nesting allowed inside an allowed usermeta key: `{ note: { sample: { id: "B14" } } }`. */
 const MAX_USERMETA_NESTING = 2;
 const EMBED_OPTIONS_MESSAGE = "display options (usermeta.embedOptions) are set by Prooflight and cannot come from a spec";
-const PROTO_MESSAGE = "the key \"__proto__\" is not allowed";
+const PROTO_MESSAGE = 'the key "__proto__" is not allowed';
 
 interface SecurityIssue {
   path: SpecPath;
@@ -50,7 +50,8 @@ const PREDICATE_KEYS = new Set(["filter", "test"]);
 const FIELD_KEYS = new Set(["field", "as", "groupby", "fields", "key"]);
 const FORMAT_TYPES = new Set(["number", "time", "utc"]);
 const SCHEMA_URL = /^https:\/\/vega\.github\.io\/schema\/vega-lite\/v[56](?:\.\d+){0,2}\.json$/;
-const PLAIN_EVENT = /^(?:click|dblclick|pointerover|pointerout|pointerdown|pointerup|pointermove|mouseover|mouseout|mousedown|mouseup|mousemove|touchstart|touchend|touchmove|keydown|keyup|wheel)$/;
+const PLAIN_EVENT =
+  /^(?:click|dblclick|pointerover|pointerout|pointerdown|pointerup|pointermove|mouseover|mouseout|mousedown|mouseup|mousemove|touchstart|touchend|touchmove|keydown|keyup|wheel)$/;
 
 interface Context {
   issues: SecurityIssue[];
@@ -90,7 +91,10 @@ export function checkSpecSecurity(spec: Record<string, unknown>): SecurityReport
   const views = countViews(spec as Json);
   if (views > MAX_VIEWS) {
     const key = ["repeat", "vconcat", "hconcat", "concat", "layer", "facet"].find((k) => k in spec);
-    ctx.issues.push({ path: key ? [key] : [], message: `the spec draws ${fmt(views)} views; the limit is ${fmt(MAX_VIEWS)} (each layer, concatenated and repeated view counts)` });
+    ctx.issues.push({
+      path: key ? [key] : [],
+      message: `the spec draws ${fmt(views)} views; the limit is ${fmt(MAX_VIEWS)} (each layer, concatenated and repeated view counts)`,
+    });
   }
   const total = ctx.inline.reduce((s, x) => s + x.count, 0);
   if (total > MAX_INLINE_VALUES) {
@@ -121,27 +125,57 @@ function walk(node: Json, path: SpecPath, ctx: Context): void {
   for (const [key, value] of Object.entries(node)) {
     const at = [...path, key];
     const issue = (message: string, where: SpecPath = at) => ctx.issues.push({ path: where, message });
-    if (key === "__proto__") { issue(PROTO_MESSAGE); continue; }
-    if (key === "usermeta") { checkUsermeta(value, at, ctx); continue; }
+    if (key === "__proto__") {
+      issue(PROTO_MESSAGE);
+      continue;
+    }
+    if (key === "usermeta") {
+      checkUsermeta(value, at, ctx);
+      continue;
+    }
     if (key === "datasets" && path.length === 0) continue;
     if (!budget(key, value, path, ctx)) continue;
-    if (key === "url") { issue("images and URLs are not allowed in figures"); continue; }
-    if (key === "href") { issue("links (href) are not allowed in figures"); continue; }
+    if (key === "url") {
+      issue("images and URLs are not allowed in figures");
+      continue;
+    }
+    if (key === "href") {
+      issue("links (href) are not allowed in figures");
+      continue;
+    }
     if (key === "mark" && (value === "image" || (isObject(value) && value.type === "image"))) {
       issue("image marks are not allowed in figures", isObject(value) ? [...at, "type"] : at);
       continue;
     }
-    if (key === "data" && isObject(value)) { checkData(value, at, ctx); continue; }
-    if (EXPRESSION_KEYS.has(key) && typeof value === "string") { expression(value, at, ctx); continue; }
-    if (PREDICATE_KEYS.has(key)) { predicate(value, at, ctx); continue; }
+    if (key === "data" && isObject(value)) {
+      checkData(value, at, ctx);
+      continue;
+    }
+    if (EXPRESSION_KEYS.has(key) && typeof value === "string") {
+      expression(value, at, ctx);
+      continue;
+    }
+    if (PREDICATE_KEYS.has(key)) {
+      predicate(value, at, ctx);
+      continue;
+    }
     const onIsField = key === "on" && ("regression" in node || "loess" in node); // the predictor field, not an event
     if ((key === "on" || key === "clear") && typeof value === "string" && !onIsField) {
       if (!PLAIN_EVENT.test(value)) issue("only plain event names (click, pointerover, …) are allowed; event filters and streams are not");
       continue;
     }
-    if (key === "bind" && isObject(value) && "element" in value) { issue("binding inputs to page elements is not allowed", [...at, "element"]); continue; }
-    if (key === "formatType" && typeof value === "string" && !FORMAT_TYPES.has(value)) { issue("formatType must be number, time or utc"); continue; }
-    if (key === "customFormatTypes" && value === true) { issue("custom format types are not allowed"); continue; }
+    if (key === "bind" && isObject(value) && "element" in value) {
+      issue("binding inputs to page elements is not allowed", [...at, "element"]);
+      continue;
+    }
+    if (key === "formatType" && typeof value === "string" && !FORMAT_TYPES.has(value)) {
+      issue("formatType must be number, time or utc");
+      continue;
+    }
+    if (key === "customFormatTypes" && value === true) {
+      issue("custom format types are not allowed");
+      continue;
+    }
     if (FIELD_KEYS.has(key) || onIsField) {
       const fields = typeof value === "string" ? [value] : Array.isArray(value) ? value : [];
       fields.forEach((f, i) => {
@@ -203,7 +237,10 @@ function checkUsermeta(value: Json, at: SpecPath, ctx: Context): void {
     if (key === "embedOptions") ctx.issues.push({ path: where, message: EMBED_OPTIONS_MESSAGE });
     else if (key === "__proto__") ctx.issues.push({ path: where, message: PROTO_MESSAGE });
     else if (!USERMETA_KEYS.has(key)) {
-      ctx.issues.push({ path: where, message: `usermeta may only hold description, note, notes, source and tags; "${key}" is not one of them (display options are set by Prooflight)` });
+      ctx.issues.push({
+        path: where,
+        message: `usermeta may only hold description, note, notes, source and tags; "${key}" is not one of them (display options are set by Prooflight)`,
+      });
     } else usermetaValue(v, where, 1, ctx);
   }
 }
@@ -211,7 +248,10 @@ function checkUsermeta(value: Json, at: SpecPath, ctx: Context): void {
 function usermetaValue(value: Json, at: SpecPath, level: number, ctx: Context): void {
   if (value === null || typeof value !== "object") return;
   if (level > MAX_USERMETA_NESTING) {
-    ctx.issues.push({ path: at, message: `usermeta values must be text, numbers or small lists or objects of them (nested at most ${MAX_USERMETA_NESTING} levels)` });
+    ctx.issues.push({
+      path: at,
+      message: `usermeta values must be text, numbers or small lists or objects of them (nested at most ${MAX_USERMETA_NESTING} levels)`,
+    });
     return;
   }
   if (Array.isArray(value)) return value.forEach((v, i) => usermetaValue(v, [...at, i], level + 1, ctx));
@@ -226,7 +266,10 @@ function usermetaValue(value: Json, at: SpecPath, level: number, ctx: Context): 
 function refuseProtoKeys(rows: Json[], at: SpecPath, ctx: Context): void {
   const find = (node: Json, path: SpecPath): SpecPath | null => {
     if (Array.isArray(node)) {
-      for (let i = 0; i < node.length; i++) { const p = find(node[i], [...path, i]); if (p) return p; }
+      for (let i = 0; i < node.length; i++) {
+        const p = find(node[i], [...path, i]);
+        if (p) return p;
+      }
     } else if (isObject(node)) {
       for (const [k, v] of Object.entries(node)) {
         if (k === "__proto__") return [...path, k];
@@ -267,7 +310,10 @@ function budget(key: string, value: Json, path: SpecPath, ctx: Context): boolean
     if (!isNum(step) || step <= 0) ctx.issues.push({ path: [...at, "step"], message: `${key} step must be a positive number` });
     else if (isNum(start) && isNum(stop) && countOf(Math.min(start, stop), Math.max(start, stop), step) > MAX_BINS) {
       const n = countOf(Math.min(start, stop), Math.max(start, stop), step);
-      ctx.issues.push({ path: [...at, "step"], message: `${key} step ${fmt(step)} from ${fmt(start)} to ${fmt(stop)} makes ${fmt(n)} bins; the limit is ${fmt(MAX_BINS)}` });
+      ctx.issues.push({
+        path: [...at, "step"],
+        message: `${key} step ${fmt(step)} from ${fmt(start)} to ${fmt(stop)} makes ${fmt(n)} bins; the limit is ${fmt(MAX_BINS)}`,
+      });
     }
   } else if (key === "keyvals" && isObject(value)) {
     const { start = 0, stop } = value;
@@ -291,9 +337,13 @@ function budget(key: string, value: Json, path: SpecPath, ctx: Context): boolean
 function transformBudget(node: Record<string, Json>, path: SpecPath, ctx: Context): void {
   if ("quantile" in node && node.step !== undefined) {
     const { step } = node;
-    if (!isNum(step) || step <= 0 || step >= 1) ctx.issues.push({ path: [...path, "step"], message: "the quantile step must be a probability between 0 and 1" });
+    if (!isNum(step) || step <= 0 || step >= 1)
+      ctx.issues.push({ path: [...path, "step"], message: "the quantile step must be a probability between 0 and 1" });
     else if (Math.ceil(1 / step - 1e-9) > MAX_SAMPLE_STEPS) {
-      ctx.issues.push({ path: [...path, "step"], message: `a quantile step of ${fmt(step)} asks for ${fmt(Math.ceil(1 / step - 1e-9))} quantiles; the limit is ${fmt(MAX_SAMPLE_STEPS)}` });
+      ctx.issues.push({
+        path: [...path, "step"],
+        message: `a quantile step of ${fmt(step)} asks for ${fmt(Math.ceil(1 / step - 1e-9))} quantiles; the limit is ${fmt(MAX_SAMPLE_STEPS)}`,
+      });
     }
   }
   if ("regression" in node && isNum(node.order) && node.order > MAX_REGRESSION_ORDER) {

@@ -17,7 +17,12 @@ export { expectedNucleusMarker, spectrumTemplate } from "./plots/spectrum";
 
 // The registry is heterogeneous: each template fills and checks its own options when it builds.
 export const FIGURE_TEMPLATES: ReadonlyArray<FigureTemplate<any>> = [
-  decayCurveTemplate, spectrumTemplate, plMapTemplate, groupStripTemplate, nvNmrTemplate, scatterLineTemplate,
+  decayCurveTemplate,
+  spectrumTemplate,
+  plMapTemplate,
+  groupStripTemplate,
+  nvNmrTemplate,
+  scatterLineTemplate,
 ];
 
 export function getTemplate(id: string): FigureTemplate<CommonOptions> | undefined {

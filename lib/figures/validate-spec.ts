@@ -22,9 +22,7 @@ export interface SpecError {
   message: string;
 }
 
-export type ValidateSpecResult =
-  | { ok: true; spec: TopLevelSpec; dataNames: string[] }
-  | { ok: false; errors: SpecError[] };
+export type ValidateSpecResult = { ok: true; spec: TopLevelSpec; dataNames: string[] } | { ok: false; errors: SpecError[] };
 
 let checker: SchemaChecker | null = null;
 function schemaChecker(): SchemaChecker {
@@ -89,7 +87,9 @@ function validate(spec: unknown): ValidateSpecResult {
   if (bytes > MAX_SPEC_BYTES) {
     return {
       ok: false,
-      errors: [error([], `the spec is ${Math.ceil(bytes / 1024)} kB of JSON; the limit is ${MAX_SPEC_BYTES / 1024} kB (bind large data instead of inlining it)`)],
+      errors: [
+        error([], `the spec is ${Math.ceil(bytes / 1024)} kB of JSON; the limit is ${MAX_SPEC_BYTES / 1024} kB (bind large data instead of inlining it)`),
+      ],
     };
   }
   const badNumber = findNonFinite(spec);

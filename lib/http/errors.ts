@@ -2,7 +2,9 @@ import { ZodError } from "zod";
 import { AppError } from "@/lib/errors";
 import { describeForLog } from "./redact";
 
-interface ErrorBody { error: { code: string; message: string; details?: unknown } }
+interface ErrorBody {
+  error: { code: string; message: string; details?: unknown };
+}
 
 export function errorResponse(status: number, code: string, message: string, details?: unknown, retryAfterSeconds?: number): Response {
   const body: ErrorBody = { error: { code, message, ...(details === undefined ? {} : { details }) } };

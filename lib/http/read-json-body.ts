@@ -73,7 +73,12 @@ export async function withBufferedBody(req: Request, maxBytes: number): Promise<
 
 const IDENTIFIER = /^[A-Za-z_$][\w$]*$/;
 
-interface Frame { value: object; depth: number; parent: Frame | null; key: string | number | null }
+interface Frame {
+  value: object;
+  depth: number;
+  parent: Frame | null;
+  key: string | number | null;
+}
 
 function pathOf(frame: Frame | null, last?: string): string {
   const steps: Array<string | number> = last === undefined ? [] : [last];

@@ -4,7 +4,10 @@ import { userForApiToken } from "@/lib/server/api-tokens";
 import { unauthorized } from "@/lib/errors";
 import { getUserById } from "@/lib/server/users";
 
-export interface Caller { user: SessionUser; via: "token" | "session" }
+export interface Caller {
+  user: SessionUser;
+  via: "token" | "session";
+}
 
 /** A bearer token wins over the cookie; a bad token is 401 even when a cookie is present. */
 export async function resolveCaller(req: Request): Promise<Caller | null> {

@@ -10,10 +10,18 @@ import { resolveCaller } from "./request-user";
 type Params = Record<string, string>;
 type RouteContext = { params: Promise<Params> };
 export type RouteHandler = ((req: Request, ctx: RouteContext) => Promise<Response>) & { gate?: GateInfo };
-interface GateInfo { permission: Action | "public"; }
+interface GateInfo {
+  permission: Action | "public";
+}
 
 export interface HandlerArgs<B, Q> {
-  req: Request; user: SessionUser; role: Role | null; params: Params; body: B; query: Q; manuscriptId?: string;
+  req: Request;
+  user: SessionUser;
+  role: Role | null;
+  params: Params;
+  body: B;
+  query: Q;
+  manuscriptId?: string;
 }
 
 interface Options<B, Q> {
@@ -64,7 +72,7 @@ export function withPermission<B = undefined, Q = undefined>(
       const caller = await resolveCaller(req);
       if (!caller) throw unauthorized();
       if (caller.via === "session" && !SAFE_METHODS.has(req.method)) checkOrigin(req);
-      const params = ((await ctx?.params) ?? {});
+      const params = (await ctx?.params) ?? {};
       const url = new URL(req.url);
       const query = (options.query ? options.query.parse(Object.fromEntries(url.searchParams)) : undefined) as Q;
       const body = (options.body && !options.rawBody ? options.body.parse(await readJsonBody(req, { maxBytes: options.maxBodyBytes })) : undefined) as B;

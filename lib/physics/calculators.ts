@@ -2,12 +2,7 @@
  * Registry of the physics calculators. Each takes and returns plain numbers in the practical units
  * its descriptor names (MHz, mT, nm, nT, µs …); runCalculator validates the inputs first.
  */
-import {
-  type Calculator,
-  type CalculatorInput,
-  CalculatorInputError,
-  UnknownCalculatorError,
-} from "./calculator-types";
+import { type Calculator, type CalculatorInput, CalculatorInputError, UnknownCalculatorError } from "./calculator-types";
 import { chargeStateRatioCalculator } from "./charge-state";
 import { protonDipoleCalculator } from "./dipole";
 import { decouplingDipCalculator, larmorFieldCalculator, larmorFrequencyCalculator, nucleusMatchCalculator } from "./larmor";

@@ -14,11 +14,7 @@ export const PROTON_MOMENT_FROM_GAMMA = (REDUCED_PLANCK_CONSTANT * PROTON_GYROMA
  * Field of a point dipole `momentJT` (J/T) at distance `distanceM` (m) and polar angle `thetaRad`
  * from the moment axis. Returns |B| and the component along the moment, both in T.
  */
-export function pointDipoleField(
-  distanceM: number,
-  thetaRad: number,
-  momentJT: number = PROTON_MOMENT_FROM_GAMMA,
-): { magnitude: number; parallel: number } {
+export function pointDipoleField(distanceM: number, thetaRad: number, momentJT: number = PROTON_MOMENT_FROM_GAMMA): { magnitude: number; parallel: number } {
   const scale = ((VACUUM_PERMEABILITY / (4 * Math.PI)) * momentJT) / distanceM ** 3;
   const c = Math.cos(thetaRad);
   return { magnitude: scale * Math.sqrt(1 + 3 * c * c), parallel: scale * (3 * c * c - 1) };

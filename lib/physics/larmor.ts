@@ -7,8 +7,7 @@ import { type Calculator, withCaution } from "./calculator-types";
 import { MEGA, MILLI, NANO } from "./units";
 
 const SOURCE_GAMMA = "γ/2π: ¹H CODATA 2018; ¹³C, ¹⁹F, ¹⁴N, ¹⁵N IUPAC 2001 (Harris et al., Pure Appl. Chem. 73, 1795)";
-const BARE =
-  "Bare gyromagnetic ratios: chemical shift and Knight shift (ppm level) are ignored; ¹H uses the free proton, not shielded water.";
+const BARE = "Bare gyromagnetic ratios: chemical shift and Knight shift (ppm level) are ignored; ¹H uses the free proton, not shielded water.";
 /** Best relative mismatch above which the matcher says nothing fits (common practice). */
 const NO_MATCH_RELATIVE = 0.01;
 

@@ -9,8 +9,7 @@ import { type Calculator, withCaution } from "./calculator-types";
 import { NANO } from "./units";
 
 /** (μ0 ħ γp / 4π)² · 5π/96 in T² m⁶. */
-const PREFACTOR =
-  ((VACUUM_PERMEABILITY * REDUCED_PLANCK_CONSTANT * PROTON_GYROMAGNETIC_RATIO) / (4 * Math.PI)) ** 2 * ((5 * Math.PI) / 96);
+const PREFACTOR = ((VACUUM_PERMEABILITY * REDUCED_PLANCK_CONSTANT * PROTON_GYROMAGNETIC_RATIO) / (4 * Math.PI)) ** 2 * ((5 * Math.PI) / 96);
 
 /** 1 nm⁻³ in m⁻³. */
 const PER_NM3 = 1e27;
@@ -60,10 +59,7 @@ export const nmrDepthCalculator: Calculator = {
   formula: "d = [ρ (μ0 ħ γp / 4π)² · 5π / (96 B_rms²)]^(1/3)",
   assumptions: ASSUMPTIONS,
   source: SOURCE,
-  inputs: [
-    { name: "B_rms", label: "RMS field B_rms", unit: "nT", default: 300, min: 0, max: 1e7, exclusiveMin: true },
-    DENSITY_INPUT,
-  ],
+  inputs: [{ name: "B_rms", label: "RMS field B_rms", unit: "nT", default: 300, min: 0, max: 1e7, exclusiveMin: true }, DENSITY_INPUT],
   outputs: [{ name: "d", label: "NV depth d", unit: "nm" }],
   compute({ B_rms, rho }) {
     return { d: nmrDepthFromRmsField(B_rms * NANO, rho * PER_NM3) / NANO };

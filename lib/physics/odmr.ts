@@ -9,8 +9,7 @@ import { MEGA, MILLI } from "./units";
 const SOURCE_ODMR =
   "f± = D ± γB with γ = gμB/h, g = 2.0028 (Loubser & van Wyk 1978, from memory); D = 2.870 GHz (Acosta et al., PRL 104, 070801 (2010), from memory)";
 const AXIAL = "Field along the NV axis (no transverse component), NV⁻ ground state, room temperature.";
-const HYPERFINE =
-  "Line centres only: with ¹⁴N each line is a triplet spaced |A∥| ≈ 2.14 MHz, with ¹⁵N a doublet spaced 3.03 MHz.";
+const HYPERFINE = "Line centres only: with ¹⁴N each line is a triplet spaced |A∥| ≈ 2.14 MHz, with ¹⁵N a doublet spaced 3.03 MHz.";
 /** |D − 2870 MHz| above which the pair calculator warns (common practice). */
 const D_DEVIATION_WARN_HZ = 2e6;
 
@@ -82,10 +81,7 @@ export const odmrFieldFromSingleLineCalculator: Calculator = {
   formula: "B = (D − f₋) / γ_NV, valid only for B < D/γ_NV ≈ 102.38 mT",
   assumptions: withCaution(AXIAL, "The line is the lower (m_s = 0 ↔ −1) transition and D is known.", HYPERFINE),
   source: SOURCE_ODMR,
-  inputs: [
-    { name: "f_minus", label: "Lower resonance f₋", unit: "MHz", default: 2750, min: 0, max: 300_000, exclusiveMin: true },
-    D_INPUT,
-  ],
+  inputs: [{ name: "f_minus", label: "Lower resonance f₋", unit: "MHz", default: 2750, min: 0, max: 300_000, exclusiveMin: true }, D_INPUT],
   outputs: [
     { name: "B", label: "Axial field B", unit: "mT" },
     { name: "B_limit", label: "Validity limit D/γ", unit: "mT" },

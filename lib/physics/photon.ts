@@ -19,8 +19,7 @@ export function photonWavelengthNm(energyEv: number): number {
   return HC_EV_NM / energyEv;
 }
 
-const VACUUM =
-  "Vacuum wavelength; spectrometers calibrated in air read about 0.03 % (≈ 0.18 nm at 637 nm) shorter (common practice).";
+const VACUUM = "Vacuum wavelength; spectrometers calibrated in air read about 0.03 % (≈ 0.18 nm at 637 nm) shorter (common practice).";
 const SOURCE = "E = hc/λ with h, c, e exact (CODATA 2018)";
 
 export const photonEnergyCalculator: Calculator = {

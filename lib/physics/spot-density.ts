@@ -143,8 +143,22 @@ export function countSpots(map: LongFormatMap | MatrixMap, options: SpotCountOpt
   const { nx, ny, cells } = g;
   const offsets =
     connectivity === 4
-      ? [[1, 0], [-1, 0], [0, 1], [0, -1]]
-      : [[1, 0], [-1, 0], [0, 1], [0, -1], [1, 1], [1, -1], [-1, 1], [-1, -1]];
+      ? [
+          [1, 0],
+          [-1, 0],
+          [0, 1],
+          [0, -1],
+        ]
+      : [
+          [1, 0],
+          [-1, 0],
+          [0, 1],
+          [0, -1],
+          [1, 1],
+          [1, -1],
+          [-1, 1],
+          [-1, -1],
+        ];
   const seen = new Uint8Array(nx * ny);
   const spots: Spot[] = [];
   const stack: number[] = [];
@@ -152,7 +166,11 @@ export function countSpots(map: LongFormatMap | MatrixMap, options: SpotCountOpt
     if (seen[start] || !(cells[start] > options.threshold)) continue;
     seen[start] = 1;
     stack.push(start);
-    let pixels = 0, sx = 0, sy = 0, peak = -Infinity, touchesEdge = false;
+    let pixels = 0,
+      sx = 0,
+      sy = 0,
+      peak = -Infinity,
+      touchesEdge = false;
     while (stack.length > 0) {
       const k = stack.pop() as number;
       const ix = k % nx;

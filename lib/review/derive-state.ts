@@ -6,7 +6,12 @@
 export type ReviewState = "draft" | "in_review" | "needs_revision" | "approved" | "signed_off";
 type Decision = "approved" | "needs_revision";
 
-export interface DecisionRecord { userId: string; decision: Decision; contentHash: string; createdAt: number }
+export interface DecisionRecord {
+  userId: string;
+  decision: Decision;
+  contentHash: string;
+  createdAt: number;
+}
 
 export interface PanelStateInput {
   currentHash: string | null;
@@ -38,8 +43,14 @@ function latestDecisionsOn(hash: string, decisions: DecisionRecord[]): Map<strin
 export function panelReviewState(input: PanelStateInput): PanelState {
   if (!input.currentHash) return { state: "draft", approvedBy: [], needsRevisionBy: [], waitingOn: [] };
   const latest = [...latestDecisionsOn(input.currentHash, input.decisions).values()];
-  const approvedBy = latest.filter((d) => d.decision === "approved").map((d) => d.userId).sort();
-  const needsRevisionBy = latest.filter((d) => d.decision === "needs_revision").map((d) => d.userId).sort();
+  const approvedBy = latest
+    .filter((d) => d.decision === "approved")
+    .map((d) => d.userId)
+    .sort();
+  const needsRevisionBy = latest
+    .filter((d) => d.decision === "needs_revision")
+    .map((d) => d.userId)
+    .sort();
   const waitingOn = input.requiredReviewers.filter((u) => !approvedBy.includes(u));
   const base = { approvedBy, needsRevisionBy, waitingOn };
   if (input.signedOff) return { state: "signed_off", ...base };

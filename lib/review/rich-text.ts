@@ -15,7 +15,12 @@ export interface RichTextNode {
 }
 
 export class RichTextError extends Error {
-  constructor(readonly path: string, message: string) { super(`${path}: ${message}`); }
+  constructor(
+    readonly path: string,
+    message: string,
+  ) {
+    super(`${path}: ${message}`);
+  }
 }
 
 const BLOCKS: Record<string, string> = { paragraph: "p", bulletList: "ul", orderedList: "ol", listItem: "li", codeBlock: "pre", blockquote: "blockquote" };
@@ -64,7 +69,8 @@ function checkMarks(marks: unknown, path: string): void {
     const allowed = typeof m.type === "string" && Object.hasOwn(MARK_ATTRS, m.type) ? MARK_ATTRS[m.type] : undefined;
     if (!allowed) throw new RichTextError(at, `mark "${String(m.type)}" is not allowed`);
     for (const k of Object.keys(m)) {
-      if (k !== "type" && !(k === "attrs" && allowed.length)) throw new RichTextError(`${at}.${k}`, `${JSON.stringify(k)} is not allowed on a ${String(m.type)} mark`);
+      if (k !== "type" && !(k === "attrs" && allowed.length))
+        throw new RichTextError(`${at}.${k}`, `${JSON.stringify(k)} is not allowed on a ${String(m.type)} mark`);
     }
     if (m.attrs !== undefined) checkAttrs(m.attrs, allowed, `${at}.attrs`, `a ${String(m.type)} mark`);
   });
@@ -98,8 +104,7 @@ function checkShape(doc: unknown): void {
   }
 }
 
-const escapeHtml = (s: string) =>
-  s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;").replace(/'/g, "&#39;");
+const escapeHtml = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;").replace(/'/g, "&#39;");
 
 function safeHref(href: unknown): string | null {
   if (typeof href !== "string") return null;
@@ -110,7 +115,12 @@ function safeHref(href: unknown): string | null {
   return SAFE_SCHEMES.test(trimmed) ? trimmed : null;
 }
 
-interface Walk { nodes: number; chars: number; visible: number; mentions: Set<string> }
+interface Walk {
+  nodes: number;
+  chars: number;
+  visible: number;
+  mentions: Set<string>;
+}
 
 function renderNode(node: unknown, path: string, w: Walk): string {
   if (!node || typeof node !== "object" || Array.isArray(node)) throw new RichTextError(path, "expected a node object");
@@ -122,7 +132,8 @@ function renderNode(node: unknown, path: string, w: Walk): string {
     return n.content.map((c, i) => renderNode(c, `${path}.content[${i}]`, w)).join("");
   };
   switch (n.type) {
-    case "doc": return children();
+    case "doc":
+      return children();
     case "text": {
       if (typeof n.text !== "string") throw new RichTextError(`${path}.text`, "expected text");
       w.chars += n.text.length;
@@ -140,7 +151,8 @@ function renderNode(node: unknown, path: string, w: Walk): string {
       }
       return html;
     }
-    case "hardBreak": return "<br>";
+    case "hardBreak":
+      return "<br>";
     case "mention": {
       const id = n.attrs?.id;
       const label = n.attrs?.label;
@@ -160,7 +172,8 @@ function renderNode(node: unknown, path: string, w: Walk): string {
 /** Validates and renders; throws RichTextError naming the place of the first problem. */
 /** `visibleLength` counts text that is not white space: a comment of spaces says nothing. */
 export function renderRichText(doc: unknown): { html: string; mentions: string[]; plainLength: number; visibleLength: number } {
-  if (!doc || typeof doc !== "object" || (doc as RichTextNode).type !== "doc") throw new RichTextError("body", 'expected a Tiptap document ({ "type": "doc", … })');
+  if (!doc || typeof doc !== "object" || (doc as RichTextNode).type !== "doc")
+    throw new RichTextError("body", 'expected a Tiptap document ({ "type": "doc", … })');
   checkShape(doc);
   const w: Walk = { nodes: 0, chars: 0, visible: 0, mentions: new Set() };
   const html = renderNode(doc, "body", w);

@@ -24,15 +24,25 @@ export async function createApiToken(user: SessionUser, input: z.infer<typeof cr
 }
 
 export async function listApiTokens(user: SessionUser) {
-  return getDb().select({
-    id: apiTokens.id, name: apiTokens.name, prefix: apiTokens.prefix, createdAt: apiTokens.createdAt,
-    lastUsedAt: apiTokens.lastUsedAt, revokedAt: apiTokens.revokedAt,
-  }).from(apiTokens).where(eq(apiTokens.userId, user.id)).orderBy(desc(apiTokens.createdAt));
+  return getDb()
+    .select({
+      id: apiTokens.id,
+      name: apiTokens.name,
+      prefix: apiTokens.prefix,
+      createdAt: apiTokens.createdAt,
+      lastUsedAt: apiTokens.lastUsedAt,
+      revokedAt: apiTokens.revokedAt,
+    })
+    .from(apiTokens)
+    .where(eq(apiTokens.userId, user.id))
+    .orderBy(desc(apiTokens.createdAt));
 }
 
 export async function revokeApiToken(user: SessionUser, tokenId: string): Promise<void> {
   await getDb().transaction(async (tx) => {
-    const done = await tx.update(apiTokens).set({ revokedAt: new Date() })
+    const done = await tx
+      .update(apiTokens)
+      .set({ revokedAt: new Date() })
       .where(and(eq(apiTokens.id, tokenId), eq(apiTokens.userId, user.id), isNull(apiTokens.revokedAt)))
       .returning({ id: apiTokens.id });
     if (!done[0]) throw notFound("No such active token.");
@@ -42,8 +52,10 @@ export async function revokeApiToken(user: SessionUser, tokenId: string): Promis
 
 export async function userForApiToken(token: string): Promise<SessionUser | null> {
   const db = getDb();
-  const [row] = await db.select({ tokenId: apiTokens.id, lastUsedAt: apiTokens.lastUsedAt, id: users.id, email: users.email, name: users.name })
-    .from(apiTokens).innerJoin(users, eq(users.id, apiTokens.userId))
+  const [row] = await db
+    .select({ tokenId: apiTokens.id, lastUsedAt: apiTokens.lastUsedAt, id: users.id, email: users.email, name: users.name })
+    .from(apiTokens)
+    .innerJoin(users, eq(users.id, apiTokens.userId))
     .where(and(eq(apiTokens.tokenHash, sha256Hex(token)), isNull(apiTokens.revokedAt)));
   if (!row) return null;
   // A write on every read would serialise all API traffic behind the disk; a minute's precision is enough.

@@ -41,7 +41,12 @@ export async function verifyAuditChain(db: Executor): Promise<{ ok: true; count:
   for (const r of rows) {
     if (r.prevHash !== prev) return { ok: false, seq: r.seq, reason: "link to the previous entry is broken" };
     const expected = entryHash(prev, {
-      at: r.at.getTime(), actorId: r.actorId, manuscriptId: r.manuscriptId, action: r.action, target: r.target, data: r.data,
+      at: r.at.getTime(),
+      actorId: r.actorId,
+      manuscriptId: r.manuscriptId,
+      action: r.action,
+      target: r.target,
+      data: r.data,
     });
     if (expected !== r.hash) return { ok: false, seq: r.seq, reason: "entry content does not match its hash" };
     prev = r.hash;

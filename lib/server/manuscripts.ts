@@ -14,19 +14,29 @@ export const createManuscriptInput = z.object({
 });
 
 export async function listLabsForUser(user: SessionUser) {
-  return getDb().select({ id: labs.id, name: labs.name, role: labMembers.role })
-    .from(labMembers).innerJoin(labs, eq(labs.id, labMembers.labId))
-    .where(eq(labMembers.userId, user.id)).orderBy(asc(labs.name));
+  return getDb()
+    .select({ id: labs.id, name: labs.name, role: labMembers.role })
+    .from(labMembers)
+    .innerJoin(labs, eq(labs.id, labMembers.labId))
+    .where(eq(labMembers.userId, user.id))
+    .orderBy(asc(labs.name));
 }
 
 export async function listManuscriptsForUser(user: SessionUser) {
-  return getDb().select({
-    id: manuscripts.id, title: manuscripts.title, labId: manuscripts.labId, labName: labs.name,
-    role: manuscriptMembers.role, createdAt: manuscripts.createdAt,
-  }).from(manuscriptMembers)
+  return getDb()
+    .select({
+      id: manuscripts.id,
+      title: manuscripts.title,
+      labId: manuscripts.labId,
+      labName: labs.name,
+      role: manuscriptMembers.role,
+      createdAt: manuscripts.createdAt,
+    })
+    .from(manuscriptMembers)
     .innerJoin(manuscripts, eq(manuscripts.id, manuscriptMembers.manuscriptId))
     .innerJoin(labs, eq(labs.id, manuscripts.labId))
-    .where(eq(manuscriptMembers.userId, user.id)).orderBy(asc(manuscripts.title));
+    .where(eq(manuscriptMembers.userId, user.id))
+    .orderBy(asc(manuscripts.title));
 }
 
 export async function createManuscript(user: SessionUser, input: z.infer<typeof createManuscriptInput>) {
@@ -48,18 +58,29 @@ export async function createManuscript(user: SessionUser, input: z.infer<typeof 
 }
 
 export async function listMembers(manuscriptId: string) {
-  return getDb().select({ userId: users.id, name: users.name, email: users.email, role: manuscriptMembers.role, since: manuscriptMembers.createdAt })
-    .from(manuscriptMembers).innerJoin(users, eq(users.id, manuscriptMembers.userId))
-    .where(eq(manuscriptMembers.manuscriptId, manuscriptId)).orderBy(asc(users.name));
+  return getDb()
+    .select({ userId: users.id, name: users.name, email: users.email, role: manuscriptMembers.role, since: manuscriptMembers.createdAt })
+    .from(manuscriptMembers)
+    .innerJoin(users, eq(users.id, manuscriptMembers.userId))
+    .where(eq(manuscriptMembers.manuscriptId, manuscriptId))
+    .orderBy(asc(users.name));
 }
 
 /** The manuscript with its figures, panels and derived review states (figures arrive with the figure work). */
 /** `knownRole` is the role the route gate already established for this request, so it is not looked up twice. */
 export async function getManuscript(user: SessionUser, manuscriptId: string, knownRole?: Role | null) {
   const role = knownRole ?? (await authorize(user, "manuscript.read", manuscriptId));
-  const [m] = await getDb().select({
-    id: manuscripts.id, title: manuscripts.title, labId: manuscripts.labId, labName: labs.name, createdAt: manuscripts.createdAt,
-  }).from(manuscripts).innerJoin(labs, eq(labs.id, manuscripts.labId)).where(eq(manuscripts.id, manuscriptId));
+  const [m] = await getDb()
+    .select({
+      id: manuscripts.id,
+      title: manuscripts.title,
+      labId: manuscripts.labId,
+      labName: labs.name,
+      createdAt: manuscripts.createdAt,
+    })
+    .from(manuscripts)
+    .innerJoin(labs, eq(labs.id, manuscripts.labId))
+    .where(eq(manuscripts.id, manuscriptId));
   if (!m) throw notFound();
   const { listFiguresForManuscript } = await import("./figures/figures");
   const [[dataCount], members, figures] = await Promise.all([
@@ -77,11 +98,12 @@ export async function getManuscriptTitle(manuscriptId: string): Promise<string> 
 }
 
 export async function membershipsForUser(userId: string) {
-  return getDb().select({ manuscriptId: manuscriptMembers.manuscriptId, role: manuscriptMembers.role })
-    .from(manuscriptMembers).where(eq(manuscriptMembers.userId, userId));
+  return getDb()
+    .select({ manuscriptId: manuscriptMembers.manuscriptId, role: manuscriptMembers.role })
+    .from(manuscriptMembers)
+    .where(eq(manuscriptMembers.userId, userId));
 }
 
 export async function labMembershipsForUser(userId: string) {
   return getDb().select({ labId: labMembers.labId, role: labMembers.role }).from(labMembers).where(eq(labMembers.userId, userId));
 }
-

@@ -36,7 +36,9 @@ export async function inviteMember(user: SessionUser, manuscriptId: string, inpu
   const { email: rawEmail, role } = inviteInput.parse(input);
   const email = normaliseEmail(rawEmail);
   const title = await getManuscriptTitle(manuscriptId);
-  const [existing] = await getDb().select({ role: manuscriptMembers.role }).from(manuscriptMembers)
+  const [existing] = await getDb()
+    .select({ role: manuscriptMembers.role })
+    .from(manuscriptMembers)
     .innerJoin(users, eq(users.id, manuscriptMembers.userId))
     .where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(users.email, email)));
   if (existing) throw conflict(`${email} is already a member (${existing.role}). Change the role instead.`);
@@ -54,7 +56,9 @@ export async function inviteMember(user: SessionUser, manuscriptId: string, inpu
 }
 
 async function pisLeft(tx: Transaction, manuscriptId: string, exceptUserId: string) {
-  const pis = await tx.select({ userId: manuscriptMembers.userId }).from(manuscriptMembers)
+  const pis = await tx
+    .select({ userId: manuscriptMembers.userId })
+    .from(manuscriptMembers)
     .where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(manuscriptMembers.role, "pi")));
   return pis.filter((p) => p.userId !== exceptUserId).length;
 }
@@ -63,12 +67,16 @@ export async function changeMemberRole(user: SessionUser, manuscriptId: string, 
   await authorize(user, "member.manage", manuscriptId);
   const { role } = changeRoleInput.parse(input);
   await getDb().transaction(async (tx) => {
-    const [m] = await tx.select().from(manuscriptMembers)
+    const [m] = await tx
+      .select()
+      .from(manuscriptMembers)
       .where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(manuscriptMembers.userId, memberId)));
     if (!m) throw notFound("No such member.");
     if (m.role === "pi" && role !== "pi" && (await pisLeft(tx, manuscriptId, memberId)) === 0)
       throw conflict("A manuscript always keeps at least one PI. Make someone else PI first.");
-    await tx.update(manuscriptMembers).set({ role })
+    await tx
+      .update(manuscriptMembers)
+      .set({ role })
       .where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(manuscriptMembers.userId, memberId)));
     await appendAudit(tx, { actorId: user.id, manuscriptId, action: "member.role", target: `user:${memberId}`, data: { from: m.role, to: role } });
   });
@@ -77,30 +85,38 @@ export async function changeMemberRole(user: SessionUser, manuscriptId: string, 
 export async function removeMember(user: SessionUser, manuscriptId: string, memberId: string) {
   await authorize(user, "member.manage", manuscriptId);
   await getDb().transaction(async (tx) => {
-    const [m] = await tx.select().from(manuscriptMembers)
+    const [m] = await tx
+      .select()
+      .from(manuscriptMembers)
       .where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(manuscriptMembers.userId, memberId)));
     if (!m) throw notFound("No such member.");
     if (m.role === "pi" && (await pisLeft(tx, manuscriptId, memberId)) === 0)
       throw conflict("A manuscript always keeps at least one PI. Make someone else PI first.");
-    await tx.delete(manuscriptMembers)
-      .where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(manuscriptMembers.userId, memberId)));
+    await tx.delete(manuscriptMembers).where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(manuscriptMembers.userId, memberId)));
     await appendAudit(tx, { actorId: user.id, manuscriptId, action: "member.remove", target: `user:${memberId}`, data: { role: m.role } });
   });
 }
 
 export async function listPendingInvitations(user: SessionUser, manuscriptId: string) {
   await authorize(user, "manuscript.read", manuscriptId);
-  return getDb().select({ id: invitations.id, email: invitations.email, role: invitations.role, expiresAt: invitations.expiresAt })
+  return getDb()
+    .select({ id: invitations.id, email: invitations.email, role: invitations.role, expiresAt: invitations.expiresAt })
     .from(invitations)
     .where(and(eq(invitations.manuscriptId, manuscriptId), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())));
 }
 
 /** What the invitation page shows before accepting; null when the link is unknown, used or expired. */
 export async function describeInvitation(token: string) {
-  const [inv] = await getDb().select({
-    id: invitations.id, email: invitations.email, role: invitations.role, manuscriptTitle: manuscripts.title,
-    manuscriptId: invitations.manuscriptId,
-  }).from(invitations).innerJoin(manuscripts, eq(manuscripts.id, invitations.manuscriptId))
+  const [inv] = await getDb()
+    .select({
+      id: invitations.id,
+      email: invitations.email,
+      role: invitations.role,
+      manuscriptTitle: manuscripts.title,
+      manuscriptId: invitations.manuscriptId,
+    })
+    .from(invitations)
+    .innerJoin(manuscripts, eq(manuscripts.id, invitations.manuscriptId))
     .where(and(eq(invitations.tokenHash, sha256Hex(token)), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())));
   if (!inv) return null;
   const [account] = await getDb().select({ id: users.id }).from(users).where(eq(users.email, inv.email));
@@ -121,7 +137,9 @@ export async function acceptInvitation(input: z.infer<typeof acceptInput>): Prom
   const { token, name, password } = acceptInput.parse(input);
   const pwHash = password ? await hashPassword(password) : null;
   return getDb().transaction(async (tx) => {
-    const [inv] = await tx.update(invitations).set({ acceptedAt: new Date() })
+    const [inv] = await tx
+      .update(invitations)
+      .set({ acceptedAt: new Date() })
       .where(and(eq(invitations.tokenHash, sha256Hex(token)), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())))
       .returning();
     if (!inv) throw notFound("This invitation is unknown, already used or expired. Ask the PI for a new one.");
@@ -132,9 +150,17 @@ export async function acceptInvitation(input: z.infer<typeof acceptInput>): Prom
       await tx.insert(users).values({ id: account.id, email: inv.email, name, passwordHash: pwHash });
     }
     await tx.update(invitations).set({ acceptedBy: account.id }).where(eq(invitations.id, inv.id));
-    await tx.insert(manuscriptMembers).values({ manuscriptId: inv.manuscriptId, userId: account.id, role: inv.role })
+    await tx
+      .insert(manuscriptMembers)
+      .values({ manuscriptId: inv.manuscriptId, userId: account.id, role: inv.role })
       .onConflictDoUpdate({ target: [manuscriptMembers.manuscriptId, manuscriptMembers.userId], set: { role: inv.role } });
-    await appendAudit(tx, { actorId: account.id, manuscriptId: inv.manuscriptId, action: "member.join", target: `user:${account.id}`, data: { role: inv.role } });
+    await appendAudit(tx, {
+      actorId: account.id,
+      manuscriptId: inv.manuscriptId,
+      action: "member.join",
+      target: `user:${account.id}`,
+      data: { role: inv.role },
+    });
     return { userId: account.id, manuscriptId: inv.manuscriptId, email: inv.email };
   });
 }

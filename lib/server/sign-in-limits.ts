@@ -15,7 +15,10 @@ const MAX_ACCOUNT_DELAY_S = 300;
 const IP_WINDOW_MS = 15 * 60 * 1000;
 const MAX_FAILURES_PER_IP = 20;
 
-export interface SignInBlock { message: string; retryAfterSeconds: number }
+export interface SignInBlock {
+  message: string;
+  retryAfterSeconds: number;
+}
 
 /** Seconds an account must wait after its latest failure, given its failures in the window. */
 function accountDelaySeconds(failures: number): number {
@@ -31,7 +34,9 @@ function accountDelaySeconds(failures: number): number {
 export async function signInBlock(email: string, ip: string, now = Date.now()): Promise<SignInBlock | null> {
   const db = getDb();
   const account = normaliseEmail(email);
-  const recent = await db.select({ at: signInFailures.at }).from(signInFailures)
+  const recent = await db
+    .select({ at: signInFailures.at })
+    .from(signInFailures)
     .where(and(eq(signInFailures.email, account), gt(signInFailures.at, new Date(now - SIGN_IN_WINDOW_MS))))
     .orderBy(desc(signInFailures.at));
   const delay = accountDelaySeconds(recent.length);
@@ -44,7 +49,9 @@ export async function signInBlock(email: string, ip: string, now = Date.now()): 
       };
     }
   }
-  const [byIp] = await db.select({ n: count() }).from(signInFailures)
+  const [byIp] = await db
+    .select({ n: count() })
+    .from(signInFailures)
     .where(and(eq(signInFailures.ip, ip), gt(signInFailures.at, new Date(now - IP_WINDOW_MS))));
   if ((byIp?.n ?? 0) >= MAX_FAILURES_PER_IP) {
     return { message: "Too many failed sign-ins from this address. Wait 15 minutes.", retryAfterSeconds: IP_WINDOW_MS / 1000 };

@@ -16,7 +16,12 @@ const HOUR_MS = 3600 * 1000;
 /** Counted per address asked for and per client address, whether or not an account exists, so a 429 reveals nothing. */
 function signInLinkRateRules(email: string, clientAddress: string): RateRule[] {
   return [
-    { bucket: `sign-in-link:to:${normaliseEmail(email)}`, max: 3, windowMs: 15 * 60 * 1000, message: "Three sign-in links were sent to this address in the last 15 minutes; use the newest." },
+    {
+      bucket: `sign-in-link:to:${normaliseEmail(email)}`,
+      max: 3,
+      windowMs: 15 * 60 * 1000,
+      message: "Three sign-in links were sent to this address in the last 15 minutes; use the newest.",
+    },
     { bucket: `sign-in-link:from:${clientAddress}`, max: 30, windowMs: HOUR_MS, message: "Too many sign-in links were asked for from this address." },
   ];
 }
@@ -37,7 +42,9 @@ export async function requestSignInLink(email: string, clientAddress: string): P
 /** Single use: the row is marked used by a conditional update, so two clicks cannot both sign in. */
 export async function consumeSignInLink(token: string): Promise<SessionUser | null> {
   const db = getDb();
-  const used = await db.update(signInLinks).set({ usedAt: new Date() })
+  const used = await db
+    .update(signInLinks)
+    .set({ usedAt: new Date() })
     .where(and(eq(signInLinks.tokenHash, sha256Hex(token)), isNull(signInLinks.usedAt), gt(signInLinks.expiresAt, new Date())))
     .returning({ userId: signInLinks.userId });
   if (!used[0]) return null;

@@ -18,7 +18,10 @@ export function hashPassword(password: string): Promise<string> {
 }
 
 export async function findUserByEmail(email: string) {
-  const [u] = await getDb().select().from(users).where(eq(users.email, normaliseEmail(email)));
+  const [u] = await getDb()
+    .select()
+    .from(users)
+    .where(eq(users.email, normaliseEmail(email)));
   return u ?? null;
 }
 

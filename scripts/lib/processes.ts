@@ -12,10 +12,18 @@ export function spawnNext(args: string[], env: Record<string, string> = {}): Chi
     env: { ...process.env, NEXT_TELEMETRY_DISABLED: "1", ...env },
   });
   const stop = () => {
-    try { if (child.pid) process.kill(-child.pid, "SIGTERM"); } catch { /* already gone */ }
+    try {
+      if (child.pid) process.kill(-child.pid, "SIGTERM");
+    } catch {
+      /* already gone */
+    }
   };
   process.once("exit", stop);
-  for (const sig of ["SIGINT", "SIGTERM"] as const) process.once(sig, () => { stop(); process.exit(0); });
+  for (const sig of ["SIGINT", "SIGTERM"] as const)
+    process.once(sig, () => {
+      stop();
+      process.exit(0);
+    });
   return child;
 }
 
@@ -53,7 +61,9 @@ export async function waitForHttp(url: string, timeoutMs = 60_000): Promise<void
     try {
       const r = await fetch(url);
       if (r.ok) return;
-    } catch { /* not up yet */ }
+    } catch {
+      /* not up yet */
+    }
     await new Promise((r) => setTimeout(r, 300));
   }
   throw new Error(`${url} did not answer within ${timeoutMs / 1000} s`);

@@ -130,7 +130,13 @@ describe("rate limits", () => {
   });
 
   it("invitations: three to one address a day", async () => {
-    const invite = () => call(members.POST, { method: "POST", token: tokens.pi, params: { id: DEMO_MANUSCRIPT_ID }, body: { email: "often@partner.example.org", role: "viewer" } });
+    const invite = () =>
+      call(members.POST, {
+        method: "POST",
+        token: tokens.pi,
+        params: { id: DEMO_MANUSCRIPT_ID },
+        body: { email: "often@partner.example.org", role: "viewer" },
+      });
     for (let i = 0; i < 3; i++) expect((await invite()).status).toBe(201);
     const r = await invite();
     expect(r.status).toBe(429);
@@ -141,11 +147,19 @@ describe("rate limits", () => {
   it("comments: the per-minute limit answers 429 with Retry-After, and a retry with the same clientKey is not counted", async () => {
     withEnv({ COMMENTS_PER_MINUTE: "3" });
     const post = (h: any, who: Who, params: Record<string, string>, body: unknown) => call(h, { method: "POST", token: tokens[who], params, body });
-    const v = (await call(upload.POST, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm("limits.csv", "tau (µs),signal\n1,0.9\n2,0.8\n") })).json;
+    const v = (
+      await call(upload.POST, {
+        method: "POST",
+        token: tokens.author,
+        params: { id: DEMO_MANUSCRIPT_ID },
+        rawBody: uploadForm("limits.csv", "tau (µs),signal\n1,0.9\n2,0.8\n"),
+      })
+    ).json;
     const figureId = (await post(figuresRoute.POST, "author", {}, { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Limits" })).json.id;
     const panelId = (await post(panelsRoute.POST, "author", { id: figureId }, {})).json.id;
     const spec = { data: { name: "d" }, mark: "point", encoding: { x: { field: "tau", type: "quantitative" }, y: { field: "signal", type: "quantitative" } } };
-    const rev = (await post(revisions.POST, "author", { id: panelId }, { spec, bindings: { d: { versionId: v.id } }, baseRevisionId: null, message: "first" })).json;
+    const rev = (await post(revisions.POST, "author", { id: panelId }, { spec, bindings: { d: { versionId: v.id } }, baseRevisionId: null, message: "first" }))
+      .json;
     const t = await post(threads.POST, "reviewer", { id: panelId }, { body: plainDoc("one"), revisionId: rev.id });
     expect(t.status).toBe(201);
     expect((await post(reply.POST, "reviewer", { id: t.json.id }, { body: plainDoc("two"), clientKey: "k2" })).status).toBe(201);

@@ -20,7 +20,9 @@ beforeAll(async () => {
   ({ tokens } = await setupTestApp());
   for (const f of hahnEchoFiles()) {
     const r = await call(upload.POST, {
-      method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID },
+      method: "POST",
+      token: tokens.author,
+      params: { id: DEMO_MANUSCRIPT_ID },
       rawBody: uploadForm(f.fileName, f.content, { name: f.name, metadata: JSON.stringify({ kind: f.kind, tags: f.tags }) }),
     });
     echoVersions.push({ id: r.json.id, trueT2: Number(/true T2 = ([\d.]+)/.exec(f.notes)![1]), group: f.tags.group! });
@@ -28,14 +30,21 @@ beforeAll(async () => {
 });
 
 const echoFit = (versionId: string, extra: Record<string, unknown> = {}) => ({
-  versionId, model: "hahn_echo", options: { x: "tau", y: "signal", sigma: "sigma", ...extra },
+  versionId,
+  model: "hahn_echo",
+  options: { x: "tau", y: "signal", sigma: "sigma", ...extra },
 });
 
 describe("analyses", () => {
   it("lists models and calculators with units", async () => {
     const r = await call(models.GET, { token: tokens.viewer });
     const echo = r.json.items.find((m: any) => m.id === "hahn_echo");
-    expect(echo.parameters.map((p: any) => [p.name, p.unit])).toEqual([["S0", "y"], ["A", "y"], ["T2", "x"], ["n", "1"]]);
+    expect(echo.parameters.map((p: any) => [p.name, p.unit])).toEqual([
+      ["S0", "y"],
+      ["A", "y"],
+      ["T2", "x"],
+      ["n", "1"],
+    ]);
     expect(r.json.calculators.length).toBeGreaterThan(10);
   });
 
@@ -104,7 +113,11 @@ describe("analyses", () => {
     const r = await call(statistics.GET, { token: tokens.reviewer, params: { id: DEMO_MANUSCRIPT_ID }, path: "/x?model=hahn_echo&parameter=T2&groupBy=group" });
     expect(r.status).toBe(200);
     expect(r.json.unit).toBe("µs");
-    expect(r.json.groups.map((g: any) => [g.group, g.n])).toEqual([["annealed-1200C", 4], ["as-grown", 4], ["oxygen-terminated", 4]]);
+    expect(r.json.groups.map((g: any) => [g.group, g.n])).toEqual([
+      ["annealed-1200C", 4],
+      ["as-grown", 4],
+      ["oxygen-terminated", 4],
+    ]);
     const asGrown = r.json.groups.find((g: any) => g.group === "as-grown");
     const oxygen = r.json.groups.find((g: any) => g.group === "oxygen-terminated");
     expect(oxygen.mean).toBeGreaterThan(asGrown.mean);
@@ -116,11 +129,21 @@ describe("analyses", () => {
   });
 
   it("calculators: ODMR pair → field (f₋ = 2750, f₊ = 2990 MHz → B = (f₊ − f₋)/(2γ_NV) = 240/(2 × 28.0317) = 4.2809 mT)", async () => {
-    const r = await call(calculator.POST, { method: "POST", token: tokens.viewer, params: { id: "odmr-field-from-pair" }, body: { inputs: { f_minus: 2750, f_plus: 2990 } } });
+    const r = await call(calculator.POST, {
+      method: "POST",
+      token: tokens.viewer,
+      params: { id: "odmr-field-from-pair" },
+      body: { inputs: { f_minus: 2750, f_plus: 2990 } },
+    });
     expect(r.status).toBe(200);
     expect(r.json.outputs.B).toBeCloseTo(4.2809, 4);
     expect(r.json.caution).toMatch(/estimate, not a calibration/);
-    const bad = await call(calculator.POST, { method: "POST", token: tokens.viewer, params: { id: "odmr-field-from-pair" }, body: { inputs: { f_minus: "x" } } });
+    const bad = await call(calculator.POST, {
+      method: "POST",
+      token: tokens.viewer,
+      params: { id: "odmr-field-from-pair" },
+      body: { inputs: { f_minus: "x" } },
+    });
     expect(bad.status).toBe(400);
     expect(bad.json.error.message).toMatch(/^inputs\.f_minus/);
     expect((await call(calculator.POST, { method: "POST", token: tokens.viewer, params: { id: "nope" }, body: { inputs: {} } })).status).toBe(404);

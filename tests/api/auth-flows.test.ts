@@ -23,13 +23,20 @@ beforeAll(async () => {
   ({ tokens } = await setupTestApp());
   sink = await startMailSink({ port: env().smtpPort, dir: env().mailSinkDir, quiet: true });
 });
-afterAll(async () => { await sink.close(); });
+afterAll(async () => {
+  await sink.close();
+});
 
 const tokenFrom = (text: string, pattern: RegExp) => decodeURIComponent(pattern.exec(text)![1]!);
 
 describe("invitations through the real SMTP sink", () => {
   it("an invitation mail arrives, its link creates the account once, and it is audited", async () => {
-    const r = await call(members.POST, { method: "POST", token: tokens.pi, params: { id: DEMO_MANUSCRIPT_ID }, body: { email: "guest@partner.example.org", role: "reviewer" } });
+    const r = await call(members.POST, {
+      method: "POST",
+      token: tokens.pi,
+      params: { id: DEMO_MANUSCRIPT_ID },
+      body: { email: "guest@partner.example.org", role: "reviewer" },
+    });
     expect(r.status).toBe(201);
     expect(await deliverOutbox()).toBeGreaterThanOrEqual(0);
     await deliverOutbox();
@@ -48,7 +55,12 @@ describe("invitations through the real SMTP sink", () => {
 
   it("a mail is never sent twice, even when delivery runs twice at once", async () => {
     const before = listSinkMessages().length;
-    await call(members.POST, { method: "POST", token: tokens.pi, params: { id: DEMO_MANUSCRIPT_ID }, body: { email: "once@partner.example.org", role: "viewer" } });
+    await call(members.POST, {
+      method: "POST",
+      token: tokens.pi,
+      params: { id: DEMO_MANUSCRIPT_ID },
+      body: { email: "once@partner.example.org", role: "viewer" },
+    });
     await Promise.all([deliverOutbox(), deliverOutbox(), deliverOutbox()]);
     await deliverOutbox();
     expect(listSinkMessages().filter((m) => m.envelope.to.includes("once@partner.example.org"))).toHaveLength(1);
@@ -96,7 +108,9 @@ describe("failed sign-ins are rate-limited", () => {
     for (let i = 0; i < 6; i++) await recordSignInFailure(email, "192.0.2.50");
     const form = new URLSearchParams({ email, password: "wrong" });
     const r = await call(authRoute.POST, {
-      method: "POST", path: "/api/auth/callback/password", rawBody: form,
+      method: "POST",
+      path: "/api/auth/callback/password",
+      rawBody: form,
       headers: { "content-type": "application/x-www-form-urlencoded" },
     });
     expect(r.status).toBe(429);

@@ -35,14 +35,46 @@ vi.mock("@/lib/http/request-user", async () => {
 });
 
 type Part = string | { repeat: string; times: number } | { hex: string };
-interface UploadPart { name: string; fileName?: string; value?: string; content?: string; contentParts?: Part[]; file?: string }
-interface Upload { fileName?: string; content?: string; contentParts?: Part[]; file?: string; fields?: Record<string, string>; parts?: UploadPart[] }
-interface Accepted { fileName?: string; warning?: string; mustNotExist?: string[]; cell?: { column: string; row: number; text: string } }
+interface UploadPart {
+  name: string;
+  fileName?: string;
+  value?: string;
+  content?: string;
+  contentParts?: Part[];
+  file?: string;
+}
+interface Upload {
+  fileName?: string;
+  content?: string;
+  contentParts?: Part[];
+  file?: string;
+  fields?: Record<string, string>;
+  parts?: UploadPart[];
+}
+interface Accepted {
+  fileName?: string;
+  warning?: string;
+  mustNotExist?: string[];
+  cell?: { column: string; row: number; text: string };
+}
 interface Case {
-  id: string; category: string; route: string; who: Who | "anonymous"; params?: Record<string, string>; query?: string;
-  headers?: Record<string, string>; cookie?: boolean; body?: unknown; raw?: Part | Part[]; upload?: Upload;
-  status: number; message?: string; knownIssue?: string; accepted?: Accepted;
-  env?: Record<string, string>; prefill?: { bucket: string; count: number };
+  id: string;
+  category: string;
+  route: string;
+  who: Who | "anonymous";
+  params?: Record<string, string>;
+  query?: string;
+  headers?: Record<string, string>;
+  cookie?: boolean;
+  body?: unknown;
+  raw?: Part | Part[];
+  upload?: Upload;
+  status: number;
+  message?: string;
+  knownIssue?: string;
+  accepted?: Accepted;
+  env?: Record<string, string>;
+  prefill?: { bucket: string; count: number };
 }
 
 const FIXTURES = path.resolve(__dirname, "../fixtures/bad");
@@ -54,13 +86,20 @@ function load(file: string): Case[] {
   const f = JSON.parse(fs.readFileSync(path.join(FIXTURES, file), "utf8"));
   const withDefaults = (c: any, d: any = {}): Case => {
     const own = c.body;
-    const body = isObj(own) && own.$omit ? undefined : isObj(d.body) && isObj(own) ? { ...d.body, ...own }
-      : own ?? (c.raw === undefined && c.upload === undefined ? d.body : undefined);
+    const body =
+      isObj(own) && own.$omit
+        ? undefined
+        : isObj(d.body) && isObj(own)
+          ? { ...d.body, ...own }
+          : (own ?? (c.raw === undefined && c.upload === undefined ? d.body : undefined));
     return { ...d, ...c, body, category: f.category };
   };
   const cases = (f.cases as any[]).map((c) => withDefaults(c, f.defaults));
   const m = f.everyWriteRoute;
-  if (m) for (const r of m.routes) for (const g of m.cases) cases.push(withDefaults({ ...g, ...r.overrides?.[g.id], id: `${r.route}: ${g.id}`, route: r.route, who: r.who, params: r.params }));
+  if (m)
+    for (const r of m.routes)
+      for (const g of m.cases)
+        cases.push(withDefaults({ ...g, ...r.overrides?.[g.id], id: `${r.route}: ${g.id}`, route: r.route, who: r.who, params: r.params }));
   return cases;
 }
 const CASES = FILES.flatMap(load);
@@ -71,7 +110,11 @@ const ids: Record<string, string> = { manuscriptId: DEMO_MANUSCRIPT_ID, otherMan
 
 /** Fills in `{{name}}` and the generators `$repeat`, `$array`, `$object`, `$concat`, `$json`; drops `$omit` keys. */
 function expand(v: unknown): any {
-  if (typeof v === "string") return v.replace(/\{\{(\w+)\}\}/g, (_, k: string) => { if (!(k in ids)) throw new Error(`no fixture id {{${k}}}`); return ids[k]!; });
+  if (typeof v === "string")
+    return v.replace(/\{\{(\w+)\}\}/g, (_, k: string) => {
+      if (!(k in ids)) throw new Error(`no fixture id {{${k}}}`);
+      return ids[k]!;
+    });
   if (Array.isArray(v)) return v.map(expand);
   if (!isObj(v)) return v;
   if ("$repeat" in v) return String(expand(v.$repeat)).repeat(v.times);
@@ -79,12 +122,21 @@ function expand(v: unknown): any {
   if ("$object" in v) return Object.fromEntries(Array.from({ length: v.times }, (_, i) => [`${expand(v.$object)}${i + 1}`, expand(v.value)]));
   if ("$concat" in v) return (v.$concat as unknown[]).map(expand).join("");
   if ("$json" in v) return JSON.stringify(expand(v.$json));
-  return Object.fromEntries(Object.entries(v).filter(([, x]) => !(isObj(x) && x.$omit)).map(([k, x]) => [k, expand(x)]));
+  return Object.fromEntries(
+    Object.entries(v)
+      .filter(([, x]) => !(isObj(x) && x.$omit))
+      .map(([k, x]) => [k, expand(x)]),
+  );
 }
 
 function bytes(parts: Part | Part[]): Uint8Array {
-  const chunks = (Array.isArray(parts) ? parts : [parts]).map((p) => typeof p === "string" ? new TextEncoder().encode(expand(p))
-    : "hex" in p ? Uint8Array.from(Buffer.from(p.hex.replace(/\s/g, ""), "hex")) : new TextEncoder().encode(expand(p.repeat).repeat(p.times)));
+  const chunks = (Array.isArray(parts) ? parts : [parts]).map((p) =>
+    typeof p === "string"
+      ? new TextEncoder().encode(expand(p))
+      : "hex" in p
+        ? Uint8Array.from(Buffer.from(p.hex.replace(/\s/g, ""), "hex"))
+        : new TextEncoder().encode(expand(p.repeat).repeat(p.times)),
+  );
   return new Uint8Array(Buffer.concat(chunks));
 }
 
@@ -106,7 +158,10 @@ function form(u: Upload): FormData {
 const handlers = new Map<string, string>(routeFiles().map((r) => [r.apiPath, r.file]));
 async function handlerFor(route: string): Promise<RouteHandler> {
   const [method, apiPath] = route.split(" ") as [string, string];
-  expect(API_OPERATIONS.some((op) => `${op.method} ${op.path}` === route), `${route} is not in the API catalogue`).toBe(true);
+  expect(
+    API_OPERATIONS.some((op) => `${op.method} ${op.path}` === route),
+    `${route} is not in the API catalogue`,
+  ).toBe(true);
   return (await import(handlers.get(apiPath)!))[method];
 }
 
@@ -124,7 +179,15 @@ async function send(raw: Case) {
     if (!headers["content-type"]) delete headers["content-type"];
   }
   const token = c.who === "anonymous" || c.cookie ? null : tokens[c.who];
-  return call(await handlerFor(c.route), { method, path: urlPath, token, params: c.params, headers, rawBody, body: c.body === undefined ? undefined : expand(c.body) });
+  return call(await handlerFor(c.route), {
+    method,
+    path: urlPath,
+    token,
+    params: c.params,
+    headers,
+    rawBody,
+    body: c.body === undefined ? undefined : expand(c.body),
+  });
 }
 
 // Only these may change when a request is refused: rate limits count attempts, sign-in failures count failures.
@@ -139,9 +202,13 @@ async function snapshot() {
   const tables: Record<string, string> = {};
   for (const name of names.filter((n) => !GROWS.has(n))) {
     const rs = await client.execute(`select * from "${name}"`);
-    const rows = rs.rows.map((r) => rs.columns.filter((col) => col !== "last_used_at").map((col) => r[col]))
+    const rows = rs.rows
+      .map((r) => rs.columns.filter((col) => col !== "last_used_at").map((col) => r[col]))
       .filter((r) => name !== "sqlite_sequence" || !GROWS.has(String(r[0])));
-    const digest = createHash("sha256").update(JSON.stringify(rows, (_, x) => (typeof x === "bigint" ? String(x) : x))).digest("hex").slice(0, 16);
+    const digest = createHash("sha256")
+      .update(JSON.stringify(rows, (_, x) => (typeof x === "bigint" ? String(x) : x)))
+      .digest("hex")
+      .slice(0, 16);
     tables[name] = COUNT_ONLY.has(name) ? `${rows.length} rows` : `${rows.length} rows ${digest}`;
   }
   return { tables, files: walk(path.join(dir, "uploads")) };
@@ -165,23 +232,51 @@ beforeAll(async () => {
     post("POST /api/manuscripts/{id}/datasets", who, { id }, undefined, form({ fileName: name, content: text, fields }));
   const echo = await upload("author", DEMO_MANUSCRIPT_ID, "echo.csv", "tau (µs),signal,label\n1,0.9,a\n2,0.8,b\n4,0.6,c\n");
   Object.assign(ids, { datasetId: echo.datasetId, versionId: echo.id });
-  const t1 = "wait (ms),p\n" + Array.from({ length: 30 }, (_, i) => { const t = 0.05 * 1.25 ** i; return `${t},${(0.7 + 0.3 * Math.exp(-t / 4) + 0.002 * Math.sin(7 * i)).toFixed(5)}`; }).join("\n");
+  const t1 =
+    "wait (ms),p\n" +
+    Array.from({ length: 30 }, (_, i) => {
+      const t = 0.05 * 1.25 ** i;
+      return `${t},${(0.7 + 0.3 * Math.exp(-t / 4) + 0.002 * Math.sin(7 * i)).toFixed(5)}`;
+    }).join("\n");
   ids.fitVersionId = (await upload("author", DEMO_MANUSCRIPT_ID, "t1.csv", t1, { metadata: JSON.stringify({ kind: "relaxation", tags: { group: "a" } }) })).id;
   ids.analysisId = (await post("POST /api/analyses", "author", {}, { versionId: ids.fitVersionId, model: "relaxation", options: { x: "wait", y: "p" } })).id;
   const theirs = await upload("outsider", OTHER_MANUSCRIPT_ID, "theirs.csv", "a,b\n1,2\n3,4\n");
   Object.assign(ids, { otherDatasetId: theirs.datasetId, otherVersionId: theirs.id });
-  const spec = (name: string) => ({ $schema: "https://vega.github.io/schema/vega-lite/v6.json", data: { name }, mark: "point", encoding: { x: { field: name === "echo" ? "tau" : "a", type: "quantitative" }, y: { field: name === "echo" ? "signal" : "b", type: "quantitative" } } });
+  const spec = (name: string) => ({
+    $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+    data: { name },
+    mark: "point",
+    encoding: { x: { field: name === "echo" ? "tau" : "a", type: "quantitative" }, y: { field: name === "echo" ? "signal" : "b", type: "quantitative" } },
+  });
   ids.otherFigureId = (await post("POST /api/figures", "outsider", {}, { manuscriptId: OTHER_MANUSCRIPT_ID, title: "Theirs" })).id;
   ids.otherPanelId = (await post("POST /api/figures/{id}/panels", "outsider", { id: ids.otherFigureId }, {})).id;
-  ids.otherRevisionId = (await post("POST /api/panels/{id}/revisions", "outsider", { id: ids.otherPanelId }, { spec: spec("theirs"), bindings: { theirs: { versionId: ids.otherVersionId } }, baseRevisionId: null })).id;
+  ids.otherRevisionId = (
+    await post(
+      "POST /api/panels/{id}/revisions",
+      "outsider",
+      { id: ids.otherPanelId },
+      { spec: spec("theirs"), bindings: { theirs: { versionId: ids.otherVersionId } }, baseRevisionId: null },
+    )
+  ).id;
   ids.figureId = (await post("POST /api/figures", "author", {}, { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Corpus" })).id;
   ids.panelId = (await post("POST /api/figures/{id}/panels", "author", { id: ids.figureId }, {})).id;
   ids.panel2Id = (await post("POST /api/figures/{id}/panels", "author", { id: ids.figureId }, {})).id;
-  const revise = (panel: string, base: string | null, message: string) => post("POST /api/panels/{id}/revisions", "author", { id: panel }, { spec: spec("echo"), bindings: { echo: { versionId: ids.versionId } }, baseRevisionId: base, message });
+  const revise = (panel: string, base: string | null, message: string) =>
+    post(
+      "POST /api/panels/{id}/revisions",
+      "author",
+      { id: panel },
+      { spec: spec("echo"), bindings: { echo: { versionId: ids.versionId } }, baseRevisionId: base, message },
+    );
   ids.staleRevisionId = (await revise(ids.panelId, null, "first")).id;
   ids.revisionId = (await revise(ids.panelId, ids.staleRevisionId, "second")).id;
   ids.revision2Id = (await revise(ids.panel2Id, null, "other panel")).id;
-  const thread = await post("POST /api/panels/{id}/threads", "reviewer", { id: ids.panelId }, { body: plainDoc("Is the baseline flat?"), revisionId: ids.revisionId });
+  const thread = await post(
+    "POST /api/panels/{id}/threads",
+    "reviewer",
+    { id: ids.panelId },
+    { body: plainDoc("Is the baseline flat?"), revisionId: ids.revisionId },
+  );
   Object.assign(ids, { threadId: thread.id, commentId: thread.comments[0].id });
   await post("POST /api/threads/{id}/comments", "author", { id: thread.id }, { body: plainDoc("It is.") });
   ids.figureHash = (await call(await handlerFor("GET /api/figures/{id}"), { token: tokens.pi, params: { id: ids.figureId } })).json.figureHash;
@@ -194,7 +289,11 @@ beforeAll(async () => {
 const ran: Record<string, number> = {};
 afterAll(() => {
   const total = Object.values(ran).reduce((a, b) => a + b, 0);
-  console.log(`bad-input corpus: ${Object.entries(ran).map(([k, n]) => `${k} ${n}`).join(", ")}; ${total} cases in all`);
+  console.log(
+    `bad-input corpus: ${Object.entries(ran)
+      .map(([k, n]) => `${k} ${n}`)
+      .join(", ")}; ${total} cases in all`,
+  );
 });
 
 /** Status, error shape and message; then nothing written, nothing left in uploads/tmp. */
@@ -222,10 +321,14 @@ async function acceptedInert(c: Case) {
   expect(r.status, JSON.stringify(r.json)).toBe(201);
   const a = expand(c.accepted) as Accepted;
   const after = await snapshot();
-  for (const t of Object.keys(before.tables)) expect(rowCount(after, t), t).toBe(rowCount(before, t) + (["datasets", "versions", "audit_log"].includes(t) ? 1 : 0));
+  for (const t of Object.keys(before.tables))
+    expect(rowCount(after, t), t).toBe(rowCount(before, t) + (["datasets", "versions", "audit_log"].includes(t) ? 1 : 0));
   const sha: string = r.json.sha256;
   const added = after.files.filter((f) => !before.files.includes(f));
-  expect(added.every((f) => [path.join(sha.slice(0, 2), sha.slice(2, 4), sha), path.join("cache", `${sha}.columns`)].includes(f)), added.join()).toBe(true);
+  expect(
+    added.every((f) => [path.join(sha.slice(0, 2), sha.slice(2, 4), sha), path.join("cache", `${sha}.columns`)].includes(f)),
+    added.join(),
+  ).toBe(true);
   expect(walk(path.join(dir, "uploads", "tmp"))).toEqual([]);
   expect(outside()).toEqual(beforeOutside);
   for (const p of a.mustNotExist ?? []) expect(fs.existsSync(path.resolve(dir, "uploads", p)), p).toBe(false);
@@ -259,12 +362,16 @@ describe("rate limits (a limit lowered or its bucket filled): 429 with Retry-Aft
     Object.assign(process.env, c.env);
     resetEnvForTests();
     await getDb().delete(rateEvents).where(eq(rateEvents.bucket, c.prefill!.bucket));
-    await getDb().insert(rateEvents).values(Array.from({ length: c.prefill!.count }, () => ({ bucket: c.prefill!.bucket, at })));
+    await getDb()
+      .insert(rateEvents)
+      .values(Array.from({ length: c.prefill!.count }, () => ({ bucket: c.prefill!.bucket, at })));
     try {
       const r = await refused(c);
       expect(r.headers.get("retry-after")).toMatch(/^[1-9]\d*$/);
     } finally {
-      for (const [k, v] of Object.entries(saved)) if (v === undefined) delete process.env[k]; else process.env[k] = v;
+      for (const [k, v] of Object.entries(saved))
+        if (v === undefined) delete process.env[k];
+        else process.env[k] = v;
       resetEnvForTests();
       await getDb().delete(rateEvents).where(eq(rateEvents.bucket, c.prefill!.bucket));
     }

@@ -19,17 +19,31 @@ import { call, setupTestApp, uploadForm, type Who } from "./harness";
 let tokens: Record<Who, string>;
 let datasetId: string, versionId: string, figureId: string, panelId: string, revisionId: string, threadId: string, commentId: string;
 
-const SPEC = { $schema: "https://vega.github.io/schema/vega-lite/v6.json", data: { name: "echo" }, mark: "point", encoding: { x: { field: "tau", type: "quantitative" }, y: { field: "signal", type: "quantitative" } } };
+const SPEC = {
+  $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+  data: { name: "echo" },
+  mark: "point",
+  encoding: { x: { field: "tau", type: "quantitative" }, y: { field: "signal", type: "quantitative" } },
+};
 const post = (h: RouteHandler, who: Who, params: Record<string, string>, body: unknown) => call(h, { method: "POST", token: tokens[who], params, body });
 
 beforeAll(async () => {
   ({ tokens } = await setupTestApp());
-  const v = (await call(upload.POST, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm("echo.csv", "tau (µs),signal\n1,0.9\n2,0.8\n") })).json;
+  const v = (
+    await call(upload.POST, {
+      method: "POST",
+      token: tokens.author,
+      params: { id: DEMO_MANUSCRIPT_ID },
+      rawBody: uploadForm("echo.csv", "tau (µs),signal\n1,0.9\n2,0.8\n"),
+    })
+  ).json;
   datasetId = v.datasetId;
   versionId = v.id;
   figureId = (await post(figuresRoute.POST, "author", {}, { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Coherence" })).json.id;
   panelId = (await post(panelsRoute.POST, "author", { id: figureId }, {})).json.id;
-  revisionId = (await post(revisions.POST, "author", { id: panelId }, { spec: SPEC, bindings: { echo: { versionId } }, baseRevisionId: null, message: "first" })).json.id;
+  revisionId = (
+    await post(revisions.POST, "author", { id: panelId }, { spec: SPEC, bindings: { echo: { versionId } }, baseRevisionId: null, message: "first" })
+  ).json.id;
   const t = (await post(threads.POST, "reviewer", { id: panelId }, { body: plainDoc("first"), revisionId })).json;
   threadId = t.id;
   commentId = t.comments[0].id;
@@ -39,15 +53,20 @@ beforeAll(async () => {
 function chunkedBody(totalChunks: number, first = '{"email":"a@b.example","pad":"') {
   const chunk = new Uint8Array(64 * 1024).fill(0x61);
   const stats = { pulled: 0, cancelled: false };
-  const stream = new ReadableStream<Uint8Array>({
-    pull(controller) {
-      stats.pulled++;
-      if (stats.pulled === 1) controller.enqueue(new TextEncoder().encode(first));
-      else if (stats.pulled <= totalChunks) controller.enqueue(chunk);
-      else controller.close();
+  const stream = new ReadableStream<Uint8Array>(
+    {
+      pull(controller) {
+        stats.pulled++;
+        if (stats.pulled === 1) controller.enqueue(new TextEncoder().encode(first));
+        else if (stats.pulled <= totalChunks) controller.enqueue(chunk);
+        else controller.close();
+      },
+      cancel() {
+        stats.cancelled = true;
+      },
     },
-    cancel() { stats.cancelled = true; },
-  }, { highWaterMark: 0 });
+    { highWaterMark: 0 },
+  );
   return { stream, stats };
 }
 
@@ -64,14 +83,23 @@ const nestedObject = (depth: number) => `${'{"a":'.repeat(depth)}1${"}".repeat(d
 
 describe("request bodies are capped while streaming", () => {
   it("a 2 MB body to the sign-in link endpoint is refused with 413 naming the limit", async () => {
-    const r = await call(signInLink.POST, { method: "POST", path: "/api/sign-in-link", body: JSON.stringify({ email: "author@lab.example.org", pad: "x".repeat(2 * 1024 * 1024) }) });
+    const r = await call(signInLink.POST, {
+      method: "POST",
+      path: "/api/sign-in-link",
+      body: JSON.stringify({ email: "author@lab.example.org", pad: "x".repeat(2 * 1024 * 1024) }),
+    });
     expect(r.status).toBe(413);
     expect(r.json.error).toEqual({ code: "too_large", message: "The request body is larger than the limit of 1 MB (1,048,576 bytes)." });
   });
 
   it("a Content-Length over the cap is refused before a byte is read", async () => {
     const { stream, stats } = chunkedBody(1000);
-    const req = new Request("http://localhost:3000/api/sign-in-link", { method: "POST", headers: { "content-type": "application/json", "content-length": "5000000" }, body: stream, duplex: "half" } as RequestInit);
+    const req = new Request("http://localhost:3000/api/sign-in-link", {
+      method: "POST",
+      headers: { "content-type": "application/json", "content-length": "5000000" },
+      body: stream,
+      duplex: "half",
+    } as RequestInit);
     const res = await signInLink.POST(req, { params: Promise.resolve({}) });
     expect(res.status).toBe(413);
     expect(stats.pulled).toBe(0);
@@ -90,7 +118,13 @@ describe("request bodies are capped while streaming", () => {
   it("a chunked body under the cap is read whole", async () => {
     const { stream } = chunkedBody(3, '{"email":"not-an-address","pad":"');
     const closing = new TextEncoder().encode('"}');
-    const joined = stream.pipeThrough(new TransformStream<Uint8Array, Uint8Array>({ flush(c) { c.enqueue(closing); } }));
+    const joined = stream.pipeThrough(
+      new TransformStream<Uint8Array, Uint8Array>({
+        flush(c) {
+          c.enqueue(closing);
+        },
+      }),
+    );
     const r = await callStream(signInLink.POST, "/api/sign-in-link", joined, { "content-type": "application/json" });
     expect(r.status).toBe(400);
     expect(r.json.error.message).toBe("email: Give a valid e-mail address.");
@@ -98,7 +132,8 @@ describe("request bodies are capped while streaming", () => {
 
   it("token-authenticated routes are capped too; a revision may carry up to 2 MB", async () => {
     // Pretty-printed specs are mostly whitespace: 1.5 MB of it is within the revision route's 2 MB.
-    const padded = (spaces: number) => `{${" ".repeat(spaces)}${JSON.stringify({ spec: SPEC, bindings: { echo: { versionId } }, baseRevisionId: revisionId, message: "padded" }).slice(1)}`;
+    const padded = (spaces: number) =>
+      `{${" ".repeat(spaces)}${JSON.stringify({ spec: SPEC, bindings: { echo: { versionId } }, baseRevisionId: revisionId, message: "padded" }).slice(1)}`;
     const rev = await call(revisions.POST, { method: "POST", token: tokens.author, params: { id: panelId }, body: padded(1536 * 1024) });
     expect(rev.status).toBe(201);
     expect(rev.json.message).toBe("padded");
@@ -111,7 +146,12 @@ describe("request bodies are capped while streaming", () => {
 
   it("the Auth.js endpoint refuses bodies over 64 kB, by Content-Length and by counting", async () => {
     const form = new URLSearchParams({ email: "author@lab.example.org", password: "p".repeat(70 * 1024) });
-    const r = await call(authRoute.POST, { method: "POST", path: "/api/auth/callback/password", rawBody: form, headers: { "content-type": "application/x-www-form-urlencoded" } });
+    const r = await call(authRoute.POST, {
+      method: "POST",
+      path: "/api/auth/callback/password",
+      rawBody: form,
+      headers: { "content-type": "application/x-www-form-urlencoded" },
+    });
     expect(r.status).toBe(413);
     expect(r.json.error.message).toBe("The request body is larger than the limit of 64 kB (65,536 bytes).");
     const { stream, stats } = chunkedBody(1000, "email=author%40lab.example.org&password=");
@@ -121,7 +161,12 @@ describe("request bodies are capped while streaming", () => {
     expect(stats.pulled).toBeLessThanOrEqual(3);
     expect(stats.cancelled).toBe(true);
     const declared = chunkedBody(1000, "email=");
-    const req = new Request("http://localhost:3000/api/auth/callback/password", { method: "POST", headers: { "content-type": "application/x-www-form-urlencoded", "content-length": "70000" }, body: declared.stream, duplex: "half" } as RequestInit);
+    const req = new Request("http://localhost:3000/api/auth/callback/password", {
+      method: "POST",
+      headers: { "content-type": "application/x-www-form-urlencoded", "content-length": "70000" },
+      body: declared.stream,
+      duplex: "half",
+    } as RequestInit);
     const d = await authRoute.POST(req, { params: Promise.resolve({}) });
     expect(d.status).toBe(413);
     expect(declared.stats.pulled).toBe(0);
@@ -135,7 +180,12 @@ describe("request bodies are capped while streaming", () => {
     }) as never);
     try {
       const form = "csrfToken=abc&email=nobody%40lab.example.org";
-      const r = await call(authRoute.POST, { method: "POST", path: "/api/auth/signin/nodemailer", rawBody: form, headers: { "content-type": "application/x-www-form-urlencoded" } });
+      const r = await call(authRoute.POST, {
+        method: "POST",
+        path: "/api/auth/signin/nodemailer",
+        rawBody: form,
+        headers: { "content-type": "application/x-www-form-urlencoded" },
+      });
       expect(r.status).toBe(204);
       const { stream } = chunkedBody(1, "csrfToken=abc&email=x%40y.example");
       const s = await callStream(authRoute.POST, "/api/auth/signin/nodemailer", stream, { "content-type": "application/x-www-form-urlencoded" });
@@ -180,7 +230,12 @@ describe("JSON shape", () => {
   });
 
   it("a body that is not UTF-8 is a 400", async () => {
-    const r = await call(signInLink.POST, { method: "POST", path: "/api/sign-in-link", rawBody: new Uint8Array([0x7b, 0x22, 0xff, 0x22, 0x3a, 0x31, 0x7d]), headers: { "content-type": "application/json" } });
+    const r = await call(signInLink.POST, {
+      method: "POST",
+      path: "/api/sign-in-link",
+      rawBody: new Uint8Array([0x7b, 0x22, 0xff, 0x22, 0x3a, 0x31, 0x7d]),
+      headers: { "content-type": "application/json" },
+    });
     expect(r.status).toBe(400);
     expect(r.json.error.message).toBe("The request body is not valid UTF-8 text.");
   });
@@ -247,18 +302,43 @@ describe("comment documents", () => {
     const r = await post(threads.POST, "reviewer", { id: panelId }, { body, revisionId });
     expect(r.status).toBe(400);
     expect(r.json.error.message).toBe('body.content[0].content[0].onclick: "onclick" is not allowed on a text node');
-    const attrs = { type: "doc", content: [{ type: "paragraph", content: [{ type: "text", text: "x", marks: [{ type: "link", attrs: { href: "https://example.org", style: "x" } }] }] }] };
+    const attrs = {
+      type: "doc",
+      content: [{ type: "paragraph", content: [{ type: "text", text: "x", marks: [{ type: "link", attrs: { href: "https://example.org", style: "x" } }] }] }],
+    };
     const e = await call(comment.PATCH, { method: "PATCH", token: tokens.reviewer, params: { id: commentId }, body: { body: attrs } });
     expect(e.status).toBe(400);
     expect(e.json.error.message).toBe('body.content[0].content[0].marks[0].attrs.style: "style" is not allowed on a link mark');
   });
 
   it("what the editor sends is still accepted", async () => {
-    const body = { type: "doc", content: [
-      { type: "paragraph", content: [{ type: "text", text: "see " }, { type: "text", text: "here", marks: [{ type: "link", attrs: { href: "https://example.org", target: "_blank", rel: "noopener noreferrer nofollow", class: null, title: null } }, { type: "bold" }] }, { type: "hardBreak" }, { type: "mention", attrs: { id: "demo-author", label: "Tomás", mentionSuggestionChar: "@" } }] },
-      { type: "orderedList", attrs: { start: 1, type: null }, content: [{ type: "listItem", content: [{ type: "paragraph", content: [{ type: "text", text: "one" }] }] }] },
-      { type: "codeBlock", attrs: { language: null }, content: [{ type: "text", text: "x = 1" }] },
-    ] };
+    const body = {
+      type: "doc",
+      content: [
+        {
+          type: "paragraph",
+          content: [
+            { type: "text", text: "see " },
+            {
+              type: "text",
+              text: "here",
+              marks: [
+                { type: "link", attrs: { href: "https://example.org", target: "_blank", rel: "noopener noreferrer nofollow", class: null, title: null } },
+                { type: "bold" },
+              ],
+            },
+            { type: "hardBreak" },
+            { type: "mention", attrs: { id: "demo-author", label: "Tomás", mentionSuggestionChar: "@" } },
+          ],
+        },
+        {
+          type: "orderedList",
+          attrs: { start: 1, type: null },
+          content: [{ type: "listItem", content: [{ type: "paragraph", content: [{ type: "text", text: "one" }] }] }],
+        },
+        { type: "codeBlock", attrs: { language: null }, content: [{ type: "text", text: "x = 1" }] },
+      ],
+    };
     const r = await post(reply.POST, "reviewer", { id: threadId }, { body });
     expect(r.status).toBe(201);
   });

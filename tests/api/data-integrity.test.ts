@@ -24,16 +24,28 @@ let gappyVersionId: string;
 let echoVersionId: string;
 let fitId: string;
 const VL = "https://vega.github.io/schema/vega-lite/v6.json";
-const spec = (x: string, y = "signal") => ({ $schema: VL, data: { name: "echo" }, mark: "point", encoding: { x: { field: x, type: "quantitative" }, y: { field: y, type: "quantitative" } } });
+const spec = (x: string, y = "signal") => ({
+  $schema: VL,
+  data: { name: "echo" },
+  mark: "point",
+  encoding: { x: { field: x, type: "quantitative" }, y: { field: y, type: "quantitative" } },
+});
 
 beforeAll(async () => {
   ({ tokens } = await setupTestApp());
-  const up = async (name: string, text: string) => (await call(upload.POST, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm(name, text) })).json;
+  const up = async (name: string, text: string) =>
+    (await call(upload.POST, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm(name, text) })).json;
   versionId = (await up("echo-tus.csv", "t_us,signal\n1,0.9\n2,0.8\n4,0.6\n")).id;
   gappyVersionId = (await up("echo-gaps.csv", "t_us,signal\n1,0.9\n2,\n4,0.6\n8,NaN\n")).id;
   const echo = hahnEchoFiles()[0]!;
   echoVersionId = (await up(echo.fileName, echo.content)).id;
-  fitId = (await call(analyses.POST, { method: "POST", token: tokens.author, body: { versionId: echoVersionId, model: "hahn_echo", options: { x: "tau", y: "signal", sigma: "sigma" } } })).json.id;
+  fitId = (
+    await call(analyses.POST, {
+      method: "POST",
+      token: tokens.author,
+      body: { versionId: echoVersionId, model: "hahn_echo", options: { x: "tau", y: "signal", sigma: "sigma" } },
+    })
+  ).json.id;
 }, 120_000);
 
 async function newPanel() {
@@ -42,11 +54,21 @@ async function newPanel() {
   return { figureId: f.json.id as string, panelId: p.json.id as string };
 }
 const revise = (panelId: string, body: Record<string, unknown>) =>
-  call(revisions.POST, { method: "POST", token: tokens.author, params: { id: panelId }, body: { bindings: { echo: { versionId } }, baseRevisionId: null, message: "m", ...body } });
+  call(revisions.POST, {
+    method: "POST",
+    token: tokens.author,
+    params: { id: panelId },
+    body: { bindings: { echo: { versionId } }, baseRevisionId: null, message: "m", ...body },
+  });
 
 describe("spec ↔ data integrity at save", () => {
   it("the upload keeps each column's original header", async () => {
-    const r = await call(upload.POST, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm("h.csv", "t_us,B [mT],signal\n1,2,3\n") });
+    const r = await call(upload.POST, {
+      method: "POST",
+      token: tokens.author,
+      params: { id: DEMO_MANUSCRIPT_ID },
+      rawBody: uploadForm("h.csv", "t_us,B [mT],signal\n1,2,3\n"),
+    });
     expect(r.json.columns).toEqual([
       { name: "t", unit: "µs", type: "number", header: "t_us" },
       { name: "B", unit: "mT", type: "number", header: "B [mT]" },
@@ -61,11 +83,19 @@ describe("spec ↔ data integrity at save", () => {
     expect(r.json.error.message).toBe(
       "spec: encoding.x.field: the field `t_us` is not a column of the data `echo` (columns: t, signal). Did you mean `t` (the column made from the header `t_us`)?",
     );
-    expect(r.json.error.details).toEqual([{
-      dataName: "echo", field: "t_us", written: "t_us", channel: "x", path: "encoding.x.field", pointer: "/encoding/x/field", columns: ["t", "signal"],
-      suggestion: { column: "t", reason: "header", write: "t", text: "Did you mean `t` (the column made from the header `t_us`)?" },
-      message: "the field `t_us` is not a column of the data `echo` (columns: t, signal). Did you mean `t` (the column made from the header `t_us`)?",
-    }]);
+    expect(r.json.error.details).toEqual([
+      {
+        dataName: "echo",
+        field: "t_us",
+        written: "t_us",
+        channel: "x",
+        path: "encoding.x.field",
+        pointer: "/encoding/x/field",
+        columns: ["t", "signal"],
+        suggestion: { column: "t", reason: "header", write: "t", text: "Did you mean `t` (the column made from the header `t_us`)?" },
+        message: "the field `t_us` is not a column of the data `echo` (columns: t, signal). Did you mean `t` (the column made from the header `t_us`)?",
+      },
+    ]);
     const unitSpelling = await revise(panelId, { spec: spec("t (µs)") });
     expect(unitSpelling.status).toBe(422);
     expect(unitSpelling.json.error.message).toContain("Did you mean `t` (the column made from the header `t_us`)?");
@@ -76,7 +106,9 @@ describe("spec ↔ data integrity at save", () => {
   it("fields made by transforms pass; a missing field in a filter or layer is refused", async () => {
     const { panelId } = await newPanel();
     const calculated = {
-      $schema: VL, data: { name: "echo" }, transform: [{ calculate: "datum.signal * 2", as: "double" }],
+      $schema: VL,
+      data: { name: "echo" },
+      transform: [{ calculate: "datum.signal * 2", as: "double" }],
       layer: [{ mark: "point", encoding: { x: { field: "t", type: "quantitative" }, y: { field: "double", type: "quantitative" } } }],
     };
     expect((await revise(panelId, { spec: calculated })).status).toBe(201);
@@ -85,15 +117,18 @@ describe("spec ↔ data integrity at save", () => {
     const r = await revise(p2, { spec: filtered });
     expect(r.status).toBe(422);
     expect(r.json.error.message).toBe(
-      "spec: transform[0].filter: the field `Signal` is not a column of the data `echo` (columns: t, signal). Did you mean `signal` (field names are case-sensitive)?; "
-      + "layer[0].encoding.y.field: the field `double` is not a column of the data `echo` (columns: t, signal).",
+      "spec: transform[0].filter: the field `Signal` is not a column of the data `echo` (columns: t, signal). Did you mean `signal` (field names are case-sensitive)?; " +
+        "layer[0].encoding.y.field: the field `double` is not a column of the data `echo` (columns: t, signal).",
     );
   });
 
   it("a revision bound to an analysis curve uses the derived file's columns", async () => {
     const { panelId } = await newPanel();
     const fitSpec = (x: string) => ({
-      $schema: VL, data: { name: "fit" }, transform: [{ filter: "datum['series'] === 'curve'" }], mark: "line",
+      $schema: VL,
+      data: { name: "fit" },
+      transform: [{ filter: "datum['series'] === 'curve'" }],
+      mark: "line",
       encoding: { x: { field: x, type: "quantitative" }, y: { field: "signal", type: "quantitative" } },
     });
     const bindings = { fit: { analysisId: fitId, output: "curve" } };
@@ -116,17 +151,34 @@ describe("data warnings at render", () => {
     const oldSpec = spec("t_us");
     const bound = await resolveBindings(DEMO_MANUSCRIPT_ID, { echo: { versionId } });
     const id = "old-revision-t-us";
-    await getDb().insert(revisionsTable).values({
-      id, panelId, number: 1, spec: canonicalJson(oldSpec), bindings: { echo: { versionId } }, bound, message: "old", contentHash: revisionContentHash(oldSpec, bound), createdBy: "demo-author",
-    });
+    await getDb()
+      .insert(revisionsTable)
+      .values({
+        id,
+        panelId,
+        number: 1,
+        spec: canonicalJson(oldSpec),
+        bindings: { echo: { versionId } },
+        bound,
+        message: "old",
+        contentHash: revisionContentHash(oldSpec, bound),
+        createdBy: "demo-author",
+      });
     await getDb().update(panels).set({ currentRevisionId: id }).where(eq(panels.id, panelId));
 
     const data = await call(revisionData.GET, { token: tokens.reviewer, params: { id } });
     expect(data.status).toBe(200);
-    expect(data.json.warnings).toEqual([{
-      kind: "missing_field", dataName: "echo", field: "t_us", columns: ["t", "signal"], suggestion: "t",
-      message: "Nothing to draw: the field `t_us` is not a column of the data `echo` (columns: t, signal). Did you mean `t` (the column made from the header `t_us`)?",
-    }]);
+    expect(data.json.warnings).toEqual([
+      {
+        kind: "missing_field",
+        dataName: "echo",
+        field: "t_us",
+        columns: ["t", "signal"],
+        suggestion: "t",
+        message:
+          "Nothing to draw: the field `t_us` is not a column of the data `echo` (columns: t, signal). Did you mean `t` (the column made from the header `t_us`)?",
+      },
+    ]);
     const p = await call(panel.GET, { token: tokens.reviewer, params: { id: panelId } });
     expect(p.json.dataWarnings).toEqual(data.json.warnings);
     const f = await call(figure.GET, { token: tokens.viewer, params: { id: figureId } });
@@ -136,9 +188,17 @@ describe("data warnings at render", () => {
     expect(mine.panels.map((x: { dataWarnings: number }) => x.dataWarnings)).toEqual([1]);
 
     // Approval stays possible (the warning is advisory); the acknowledgement is recorded.
-    const ok = await call(approvals.POST, { method: "POST", token: tokens.reviewer, params: { id: panelId }, body: { revisionId: id, decision: "approved", acknowledgedWarnings: true } });
+    const ok = await call(approvals.POST, {
+      method: "POST",
+      token: tokens.reviewer,
+      params: { id: panelId },
+      body: { revisionId: id, decision: "approved", acknowledgedWarnings: true },
+    });
     expect(ok.status).toBe(201);
-    const [entry] = await getDb().select().from(auditLog).where(and(eq(auditLog.action, "review.approved"), eq(auditLog.target, `panel:${panelId}`)));
+    const [entry] = await getDb()
+      .select()
+      .from(auditLog)
+      .where(and(eq(auditLog.action, "review.approved"), eq(auditLog.target, `panel:${panelId}`)));
     expect(JSON.parse(entry!.data)).toMatchObject({ revisionId: id, acknowledgedWarnings: true });
   });
 
@@ -147,9 +207,15 @@ describe("data warnings at render", () => {
     const r = await revise(panelId, { spec: spec("t"), bindings: { echo: { versionId: gappyVersionId } } });
     expect(r.status).toBe(201);
     const data = await call(revisionData.GET, { token: tokens.viewer, params: { id: r.json.id } });
-    expect(data.json.warnings).toEqual([{
-      kind: "invalid_rows", dataName: "echo", field: "signal", rows: 2, of: 4,
-      message: "2 of 4 rows of `echo` are not drawn: they have no number in `signal` (empty, NaN or text).",
-    }]);
+    expect(data.json.warnings).toEqual([
+      {
+        kind: "invalid_rows",
+        dataName: "echo",
+        field: "signal",
+        rows: 2,
+        of: 4,
+        message: "2 of 4 rows of `echo` are not drawn: they have no number in `signal` (empty, NaN or text).",
+      },
+    ]);
   });
 });

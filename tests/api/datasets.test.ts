@@ -27,12 +27,18 @@ const ECHO = "# sample: K17\n# instrument: confocal setup A\ntau (µs),signal,si
 
 describe("uploads", () => {
   it("stores a version with hash, rows, columns with units and header metadata", async () => {
-    const r = await upload(uploadForm("echo NV03.csv", ECHO, { name: "Hahn echo NV03", metadata: JSON.stringify({ kind: "hahn_echo", sample: "K17", tags: { group: "annealed" } }) }));
+    const r = await upload(
+      uploadForm("echo NV03.csv", ECHO, {
+        name: "Hahn echo NV03",
+        metadata: JSON.stringify({ kind: "hahn_echo", sample: "K17", tags: { group: "annealed" } }),
+      }),
+    );
     expect(r.status).toBe(201);
     expect(r.json).toMatchObject({ number: 1, rowCount: 4, byteSize: Buffer.byteLength(ECHO) });
     expect(r.json.sha256).toBe(createHash("sha256").update(ECHO, "utf8").digest("hex")); // of the bytes sent
     expect(r.json.columns).toEqual([
-      { name: "tau", unit: "µs", type: "number", header: "tau (µs)" }, { name: "signal", unit: null, type: "number", header: "signal" },
+      { name: "tau", unit: "µs", type: "number", header: "tau (µs)" },
+      { name: "signal", unit: null, type: "number", header: "signal" },
       { name: "sigma", unit: null, type: "number", header: "sigma" },
     ]);
     expect(r.json.warnings.join(" ")).toMatch(/blank line/);
@@ -43,13 +49,15 @@ describe("uploads", () => {
 
   it("the raw download is byte-for-byte, with a safely encoded file name", async () => {
     const bytes = new Uint8Array([0xef, 0xbb, 0xbf, ...Buffer.from("f (MHz);PL\r\n2870,5;0,97\r\n2871,0;0,96\r\n")]);
-    const r = await upload(uploadForm('spectre été ✓.csv', bytes));
+    const r = await upload(uploadForm("spectre été ✓.csv", bytes));
     expect(r.status).toBe(201);
-    const res = await raw.GET(new Request("http://localhost/x", { headers: { authorization: `Bearer ${tokens.viewer}` } }), { params: Promise.resolve({ id: r.json.id }) });
+    const res = await raw.GET(new Request("http://localhost/x", { headers: { authorization: `Bearer ${tokens.viewer}` } }), {
+      params: Promise.resolve({ id: r.json.id }),
+    });
     expect(res.status).toBe(200);
     expect(new Uint8Array(await res.arrayBuffer())).toEqual(bytes);
     const cd = res.headers.get("content-disposition")!;
-    expect(cd).toContain(`filename*=UTF-8''${encodeURIComponent('spectre été ✓.csv')}`);
+    expect(cd).toContain(`filename*=UTF-8''${encodeURIComponent("spectre été ✓.csv")}`);
     expect(cd).toContain('filename="spectre _t_ _.csv"');
     expect(res.headers.get("x-content-sha256")).toBe(createHash("sha256").update(bytes).digest("hex"));
     expect(r.json.sha256).toBe(res.headers.get("x-content-sha256"));
@@ -75,7 +83,10 @@ describe("uploads", () => {
     const ds = await call(dataset.GET, { token: tokens.pi, params: { id: v1.json.datasetId } });
     expect(ds.json.versions.map((v: any) => v.number)).toEqual([2, 1]);
     const old = await call(rows.GET, { token: tokens.pi, params: { id: v1.json.id }, path: "/x?offset=0&limit=10" });
-    expect(old.json.rows).toEqual([[0.1, 1], [1, 0.5]]);
+    expect(old.json.rows).toEqual([
+      [0.1, 1],
+      [1, 0.5],
+    ]);
   });
 
   it("a datasetId from another manuscript is 404", async () => {
@@ -114,7 +125,16 @@ describe("uploads", () => {
     expect(fs.readdirSync(path.join(dir, "uploads", "tmp"))).toEqual([]);
     const json = await call(list.POST, { method: "POST", token: tokens.author, params, body: { file: "x" } });
     expect(json.status).toBe(415);
-    const nofile = await call(list.POST, { method: "POST", token: tokens.author, params, rawBody: (() => { const f = new FormData(); f.set("name", "x"); return f; })() });
+    const nofile = await call(list.POST, {
+      method: "POST",
+      token: tokens.author,
+      params,
+      rawBody: (() => {
+        const f = new FormData();
+        f.set("name", "x");
+        return f;
+      })(),
+    });
     expect(nofile.status).toBe(400);
   });
 
@@ -148,7 +168,12 @@ describe("reading", () => {
 
   it("editing metadata is audited and makes no new version", async () => {
     const v = await upload(uploadForm("meta.csv", "a\n1\n"));
-    const r = await call(dataset.PATCH, { method: "PATCH", token: tokens.author, params: { id: v.json.datasetId }, body: { sample: "K17-b", tags: { group: "oxygen-terminated" } } });
+    const r = await call(dataset.PATCH, {
+      method: "PATCH",
+      token: tokens.author,
+      params: { id: v.json.datasetId },
+      body: { sample: "K17-b", tags: { group: "oxygen-terminated" } },
+    });
     expect(r.status).toBe(200);
     expect(r.json.versions).toHaveLength(1);
     const [row] = await getDb().select().from(datasets).where(eq(datasets.id, v.json.datasetId));

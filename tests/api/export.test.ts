@@ -17,26 +17,78 @@ const VL = "https://vega.github.io/schema/vega-lite/v6.json";
 
 async function download(path: string, who: Who = "viewer") {
   const { GET } = await import("@/app/api/figures/[id]/export/route");
-  const res = await GET(new Request(`http://localhost${path}`, { headers: { authorization: `Bearer ${tokens[who]}` } }), { params: Promise.resolve({ id: figureId }) });
+  const res = await GET(new Request(`http://localhost${path}`, { headers: { authorization: `Bearer ${tokens[who]}` } }), {
+    params: Promise.resolve({ id: figureId }),
+  });
   return { status: res.status, headers: res.headers, bytes: new Uint8Array(await res.arrayBuffer()) };
 }
 
 beforeAll(async () => {
   ({ tokens } = await setupTestApp());
   const echo = hahnEchoFiles()[0]!;
-  const v = (await call(upload.POST, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm(echo.fileName, echo.content) })).json;
-  const fit = (await call(analyses.POST, { method: "POST", token: tokens.author, body: { versionId: v.id, model: "hahn_echo", options: { x: "tau", y: "signal", sigma: "sigma" } } })).json;
-  figureId = (await call(figuresRoute.POST, { method: "POST", token: tokens.author, body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Coherence", widthMm: 183, columns: 2 } })).json.id;
+  const v = (
+    await call(upload.POST, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm(echo.fileName, echo.content) })
+  ).json;
+  const fit = (
+    await call(analyses.POST, {
+      method: "POST",
+      token: tokens.author,
+      body: { versionId: v.id, model: "hahn_echo", options: { x: "tau", y: "signal", sigma: "sigma" } },
+    })
+  ).json;
+  figureId = (
+    await call(figuresRoute.POST, {
+      method: "POST",
+      token: tokens.author,
+      body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Coherence", widthMm: 183, columns: 2 },
+    })
+  ).json.id;
   const add = async () => (await call(panelsRoute.POST, { method: "POST", token: tokens.author, params: { id: figureId }, body: {} })).json.id;
   const a = await add();
   const b = await add();
-  const enc = { x: { field: "tau", type: "quantitative", title: "τ (µs)", scale: { type: "log" } }, y: { field: "signal", type: "quantitative", title: "signal (norm.)" } };
-  await call(revisions.POST, { method: "POST", token: tokens.author, params: { id: a }, body: { baseRevisionId: null, bindings: { echo: { versionId: v.id }, fit: { analysisId: fit.id, output: "curve" } },
-    spec: { $schema: VL, width: 200, height: 140, layer: [{ data: { name: "echo" }, mark: "point", encoding: enc }, { data: { name: "fit" }, mark: "line", encoding: enc }] } } });
-  await call(revisions.POST, { method: "POST", token: tokens.author, params: { id: b }, body: { baseRevisionId: null, bindings: { res: { analysisId: fit.id, output: "residuals" } },
-    spec: { $schema: VL, width: 200, height: 140, data: { name: "res" }, mark: "point", encoding: { x: { field: "tau", type: "quantitative", scale: { type: "log" } }, y: { field: "signal", type: "quantitative", title: "residual" } } } } });
+  const enc = {
+    x: { field: "tau", type: "quantitative", title: "τ (µs)", scale: { type: "log" } },
+    y: { field: "signal", type: "quantitative", title: "signal (norm.)" },
+  };
+  await call(revisions.POST, {
+    method: "POST",
+    token: tokens.author,
+    params: { id: a },
+    body: {
+      baseRevisionId: null,
+      bindings: { echo: { versionId: v.id }, fit: { analysisId: fit.id, output: "curve" } },
+      spec: {
+        $schema: VL,
+        width: 200,
+        height: 140,
+        layer: [
+          { data: { name: "echo" }, mark: "point", encoding: enc },
+          { data: { name: "fit" }, mark: "line", encoding: enc },
+        ],
+      },
+    },
+  });
+  await call(revisions.POST, {
+    method: "POST",
+    token: tokens.author,
+    params: { id: b },
+    body: {
+      baseRevisionId: null,
+      bindings: { res: { analysisId: fit.id, output: "residuals" } },
+      spec: {
+        $schema: VL,
+        width: 200,
+        height: 140,
+        data: { name: "res" },
+        mark: "point",
+        encoding: { x: { field: "tau", type: "quantitative", scale: { type: "log" } }, y: { field: "signal", type: "quantitative", title: "residual" } },
+      },
+    },
+  });
 }, 120_000);
-afterAll(async () => { await stopRenderWorkers(); });
+afterAll(async () => {
+  await stopRenderWorkers();
+});
 
 describe("figure exports", () => {
   it("SVG at the physical width with the panel letters and our font", async () => {

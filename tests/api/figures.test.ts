@@ -14,19 +14,27 @@ let tokens: Record<Who, string>;
 let versionId: string;
 let otherVersionId: string;
 const spec = (extra: Record<string, unknown> = {}) => ({
-  $schema: "https://vega.github.io/schema/vega-lite/v6.json", data: { name: "echo" }, mark: "point",
-  encoding: { x: { field: "tau", type: "quantitative", title: "τ (µs)" }, y: { field: "signal", type: "quantitative" } }, ...extra,
+  $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+  data: { name: "echo" },
+  mark: "point",
+  encoding: { x: { field: "tau", type: "quantitative", title: "τ (µs)" }, y: { field: "signal", type: "quantitative" } },
+  ...extra,
 });
 
 beforeAll(async () => {
   ({ tokens } = await setupTestApp());
-  const up = (who: Who, id: string, text: string) => call(upload.POST, { method: "POST", token: tokens[who], params: { id }, rawBody: uploadForm("echo.csv", text) });
+  const up = (who: Who, id: string, text: string) =>
+    call(upload.POST, { method: "POST", token: tokens[who], params: { id }, rawBody: uploadForm("echo.csv", text) });
   versionId = (await up("author", DEMO_MANUSCRIPT_ID, "tau (µs),signal\n1,0.9\n2,0.8\n")).json.id;
   otherVersionId = (await up("outsider", OTHER_MANUSCRIPT_ID, "tau (µs),signal\n1,0.5\n")).json.id;
 });
 
 async function newPanel() {
-  const f = await call(figuresRoute.POST, { method: "POST", token: tokens.author, body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Coherence", widthMm: 89 } });
+  const f = await call(figuresRoute.POST, {
+    method: "POST",
+    token: tokens.author,
+    body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Coherence", widthMm: 89 },
+  });
   const p = await call(panelsRoute.POST, { method: "POST", token: tokens.author, params: { id: f.json.id }, body: { title: "echo" } });
   return { figureId: f.json.id as string, panelId: p.json.id as string };
 }
@@ -39,11 +47,21 @@ describe("figures, panels and revisions", () => {
     expect(f.status).toBe(201);
     expect(f.json).toMatchObject({ widthMm: 183, maxHeightMm: 170 });
     const letters = [];
-    for (const t of ["PL", "ODMR", "NMR"]) letters.push((await call(panelsRoute.POST, { method: "POST", token: tokens.author, params: { id: f.json.id }, body: { title: t } })).json.letter);
+    for (const t of ["PL", "ODMR", "NMR"])
+      letters.push((await call(panelsRoute.POST, { method: "POST", token: tokens.author, params: { id: f.json.id }, body: { title: t } })).json.letter);
     expect(letters).toEqual(["a", "b", "c"]);
     const before = (await call(figure.GET, { token: tokens.viewer, params: { id: f.json.id } })).json.panels;
-    const after = await call(order.POST, { method: "POST", token: tokens.author, params: { id: f.json.id }, body: { panelIds: before.map((p: any) => p.id).reverse() } });
-    expect(after.json.panels.map((p: any) => [p.letter, p.title])).toEqual([["a", "NMR"], ["b", "ODMR"], ["c", "PL"]]);
+    const after = await call(order.POST, {
+      method: "POST",
+      token: tokens.author,
+      params: { id: f.json.id },
+      body: { panelIds: before.map((p: any) => p.id).reverse() },
+    });
+    expect(after.json.panels.map((p: any) => [p.letter, p.title])).toEqual([
+      ["a", "NMR"],
+      ["b", "ODMR"],
+      ["c", "PL"],
+    ]);
     const bad = await call(order.POST, { method: "POST", token: tokens.author, params: { id: f.json.id }, body: { panelIds: [before[0].id] } });
     expect(bad.status).toBe(400);
   });
@@ -53,7 +71,9 @@ describe("figures, panels and revisions", () => {
     const bad = await call(figure.PATCH, { method: "PATCH", token: tokens.pi, params: { id: figureId }, body: { requiredReviewers: ["demo-viewer"] } });
     expect(bad.status).toBe(400);
     expect(bad.json.error.message).toMatch(/^requiredReviewers: "demo-viewer"/);
-    expect((await call(figure.PATCH, { method: "PATCH", token: tokens.pi, params: { id: figureId }, body: { requiredReviewers: ["demo-reviewer"] } })).status).toBe(200);
+    expect(
+      (await call(figure.PATCH, { method: "PATCH", token: tokens.pi, params: { id: figureId }, body: { requiredReviewers: ["demo-reviewer"] } })).status,
+    ).toBe(200);
   });
 
   it("a revision's content hash covers spec and bound data, not key order", async () => {

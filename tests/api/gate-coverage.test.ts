@@ -3,7 +3,14 @@ import { API_OPERATIONS } from "@/lib/http/api-catalogue";
 import { HTTP_VERBS, routeFiles, serverActionFiles } from "./route-files";
 
 // Public on purpose: the readiness probe, the API description, sign-in itself.
-const PUBLIC_ALLOW_LIST = new Set(["GET /api/health", "GET /api/openapi.json", "GET /api/ping", "POST /api/sign-in-link", "GET /api/auth/[...nextauth]", "POST /api/auth/[...nextauth]"]);
+const PUBLIC_ALLOW_LIST = new Set([
+  "GET /api/health",
+  "GET /api/openapi.json",
+  "GET /api/ping",
+  "POST /api/sign-in-link",
+  "GET /api/auth/[...nextauth]",
+  "POST /api/auth/[...nextauth]",
+]);
 const PUBLIC_ACTIONS = new Set(["signInWithPassword", "requestLinkAction", "signInWithLinkAction", "signOutAction", "acceptInvitationAction"]);
 
 describe("every route and server action goes through the gate", () => {

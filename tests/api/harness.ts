@@ -35,8 +35,13 @@ export async function setupTestApp(): Promise<{ dir: string; tokens: Record<Who,
 }
 
 export interface CallOptions {
-  method?: string; path?: string; token?: string | null; params?: Record<string, string>;
-  body?: unknown; headers?: Record<string, string>; rawBody?: BodyInit;
+  method?: string;
+  path?: string;
+  token?: string | null;
+  params?: Record<string, string>;
+  body?: unknown;
+  headers?: Record<string, string>;
+  rawBody?: BodyInit;
 }
 
 /** Calls a route handler the way Next does: a Request plus a promise of params. */
@@ -54,7 +59,11 @@ export async function call(handler: RouteHandler | undefined, o: CallOptions = {
   const res = await handler(req, { params: Promise.resolve(o.params ?? {}) });
   const text = await res.text();
   let json: any = null;
-  try { json = text ? JSON.parse(text) : null; } catch { json = text; }
+  try {
+    json = text ? JSON.parse(text) : null;
+  } catch {
+    json = text;
+  }
   return { status: res.status, json, headers: res.headers };
 }
 

@@ -10,7 +10,9 @@ import * as openapi from "@/app/api/openapi.json/route";
 import { call, setupTestApp, type Who } from "./harness";
 
 let tokens: Record<Who, string>;
-beforeAll(async () => { ({ tokens } = await setupTestApp()); });
+beforeAll(async () => {
+  ({ tokens } = await setupTestApp());
+});
 
 describe("manuscripts API", () => {
   it("health answers ok once migrations are applied", async () => {
@@ -87,10 +89,14 @@ describe("manuscripts API", () => {
     expect(r.status).toBe(409);
     expect((await call(member.DELETE, { method: "DELETE", token: tokens.pi, params })).status).toBe(409);
     // Promote the author, then the original PI may step down.
-    expect((await call(member.PATCH, { method: "PATCH", token: tokens.pi, params: { ...params, userId: "demo-author" }, body: { role: "pi" } })).status).toBe(200);
+    expect((await call(member.PATCH, { method: "PATCH", token: tokens.pi, params: { ...params, userId: "demo-author" }, body: { role: "pi" } })).status).toBe(
+      200,
+    );
     expect((await call(member.PATCH, { method: "PATCH", token: tokens.pi, params, body: { role: "author" } })).status).toBe(200);
     expect((await call(member.PATCH, { method: "PATCH", token: tokens.author, params, body: { role: "pi" } })).status).toBe(200);
-    expect((await call(member.PATCH, { method: "PATCH", token: tokens.pi, params: { ...params, userId: "demo-author" }, body: { role: "author" } })).status).toBe(200);
+    expect(
+      (await call(member.PATCH, { method: "PATCH", token: tokens.pi, params: { ...params, userId: "demo-author" }, body: { role: "author" } })).status,
+    ).toBe(200);
   });
 
   it("publishes an OpenAPI 3.1 document with the request schemas", async () => {

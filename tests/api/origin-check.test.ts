@@ -31,13 +31,7 @@ const patchWithCookie = (headers: Record<string, string>) =>
   call(figure.PATCH, { method: "PATCH", params: { id: figureId }, body: { title: "Renamed" }, headers: { cookie: "authjs.session-token=x", ...headers } });
 
 describe("cookie-authenticated writes and the Origin header", () => {
-  it.each([
-    ["null"],
-    ["not a url"],
-    ["http://[::1"],
-    ["file:///etc/passwd"],
-    ["https://evil.example"],
-  ])("Origin %s is a 403, not a 500", async (origin) => {
+  it.each([["null"], ["not a url"], ["http://[::1"], ["file:///etc/passwd"], ["https://evil.example"]])("Origin %s is a 403, not a 500", async (origin) => {
     const r = await patchWithCookie({ origin });
     expect(r.status).toBe(403);
     expect(r.json.error).toEqual({ code: "forbidden", message: "Cross-site request refused." });
@@ -51,7 +45,9 @@ describe("cookie-authenticated writes and the Origin header", () => {
 
   it("without an Origin, Sec-Fetch-Site decides", async () => {
     expect((await patchWithCookie({ "sec-fetch-site": "cross-site" })).status).toBe(403);
-    expect((await patchWithCookie({})).json.error.message).toBe("Requests signed in with a cookie must carry an Origin header; scripts should use an API token.");
+    expect((await patchWithCookie({})).json.error.message).toBe(
+      "Requests signed in with a cookie must carry an Origin header; scripts should use an API token.",
+    );
   });
 });
 

@@ -23,22 +23,41 @@ import * as manuscript from "@/app/api/manuscripts/[id]/route";
 import { call, setupTestApp, uploadForm, type Who } from "./harness";
 
 let tokens: Record<Who, string>;
-const SPEC = { $schema: "https://vega.github.io/schema/vega-lite/v6.json", data: { name: "echo" }, mark: "point", encoding: { x: { field: "tau", type: "quantitative" }, y: { field: "signal", type: "quantitative" } } };
+const SPEC = {
+  $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+  data: { name: "echo" },
+  mark: "point",
+  encoding: { x: { field: "tau", type: "quantitative" }, y: { field: "signal", type: "quantitative" } },
+};
 const post = (h: any, who: Who, params: Record<string, string>, body: unknown) => call(h, { method: "POST", token: tokens[who], params, body });
 
 let v1: any, figureId: string, panelId: string, rev1: any;
 beforeAll(async () => {
   ({ tokens } = await setupTestApp());
-  v1 = (await call(upload.POST, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm("echo.csv", "tau (µs),signal\n1,0.9\n2,0.8\n") })).json;
+  v1 = (
+    await call(upload.POST, {
+      method: "POST",
+      token: tokens.author,
+      params: { id: DEMO_MANUSCRIPT_ID },
+      rawBody: uploadForm("echo.csv", "tau (µs),signal\n1,0.9\n2,0.8\n"),
+    })
+  ).json;
   figureId = (await post(figuresRoute.POST, "author", {}, { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Coherence" })).json.id;
   await call(figure.PATCH, { method: "PATCH", token: tokens.pi, params: { id: figureId }, body: { requiredReviewers: ["demo-reviewer"] } });
   panelId = (await post(panelsRoute.POST, "author", { id: figureId }, {})).json.id;
-  rev1 = (await post(revisions.POST, "author", { id: panelId }, { spec: SPEC, bindings: { echo: { versionId: v1.id } }, baseRevisionId: null, message: "first" })).json;
+  rev1 = (
+    await post(revisions.POST, "author", { id: panelId }, { spec: SPEC, bindings: { echo: { versionId: v1.id } }, baseRevisionId: null, message: "first" })
+  ).json;
 });
 
 describe("the review journey", () => {
   it("reviewer comments on an x-range and approves; author's own approval is refused", async () => {
-    const t = await post(threads.POST, "reviewer", { id: panelId }, { body: plainDoc("The tail above 1 ms looks flat — enough points?"), revisionId: rev1.id, anchor: { type: "xrange", x0: 1, x1: 2 } });
+    const t = await post(
+      threads.POST,
+      "reviewer",
+      { id: panelId },
+      { body: plainDoc("The tail above 1 ms looks flat — enough points?"), revisionId: rev1.id, anchor: { type: "xrange", x0: 1, x1: 2 } },
+    );
     expect(t.status).toBe(201);
     expect(t.json).toMatchObject({ anchor: { type: "xrange", x0: 1, x1: 2 }, revisionNumber: 1, status: "open" });
     expect((await post(approvals.POST, "author", { id: panelId }, { revisionId: rev1.id, decision: "approved" })).status).toBe(403);
@@ -51,8 +70,22 @@ describe("the review journey", () => {
   });
 
   it("a new data version rebound shows the approval as stale, with what changed", async () => {
-    const v2 = (await call(upload.POST, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm("echo.csv", "tau (µs),signal\n1,0.91\n2,0.79\n", { datasetId: v1.datasetId }) })).json;
-    const rev2 = (await post(revisions.POST, "author", { id: panelId }, { spec: SPEC, bindings: { echo: { versionId: v2.id } }, baseRevisionId: rev1.id, message: "rebind to v2" })).json;
+    const v2 = (
+      await call(upload.POST, {
+        method: "POST",
+        token: tokens.author,
+        params: { id: DEMO_MANUSCRIPT_ID },
+        rawBody: uploadForm("echo.csv", "tau (µs),signal\n1,0.91\n2,0.79\n", { datasetId: v1.datasetId }),
+      })
+    ).json;
+    const rev2 = (
+      await post(
+        revisions.POST,
+        "author",
+        { id: panelId },
+        { spec: SPEC, bindings: { echo: { versionId: v2.id } }, baseRevisionId: rev1.id, message: "rebind to v2" },
+      )
+    ).json;
     const p = (await call(panel.GET, { token: tokens.reviewer, params: { id: panelId } })).json;
     expect(p.reviewState).toBe("in_review");
     expect(p.decisions[0]).toMatchObject({ stale: true, contentHash: rev1.contentHash });
@@ -94,22 +127,54 @@ describe("the review journey", () => {
 
 describe("comments", () => {
   it("stores hostile markup inert and refuses javascript: links", async () => {
-    const t = await post(threads.POST, "reviewer", { id: panelId }, { body: plainDoc('<img src=x onerror=alert(1)><svg onload=alert(2)>'), revisionId: rev1.id });
+    const t = await post(
+      threads.POST,
+      "reviewer",
+      { id: panelId },
+      { body: plainDoc("<img src=x onerror=alert(1)><svg onload=alert(2)>"), revisionId: rev1.id },
+    );
     expect(t.json.comments[0].html).toBe("<p>&lt;img src=x onerror=alert(1)&gt;&lt;svg onload=alert(2)&gt;</p>");
-    const js = await post(threads.POST, "reviewer", { id: panelId }, { body: { type: "doc", content: [{ type: "paragraph", content: [{ type: "text", text: "x", marks: [{ type: "link", attrs: { href: "javascript:alert(1)" } }] }] }] }, revisionId: rev1.id });
+    const js = await post(
+      threads.POST,
+      "reviewer",
+      { id: panelId },
+      {
+        body: {
+          type: "doc",
+          content: [{ type: "paragraph", content: [{ type: "text", text: "x", marks: [{ type: "link", attrs: { href: "javascript:alert(1)" } }] }] }],
+        },
+        revisionId: rev1.id,
+      },
+    );
     expect(js.status).toBe(400);
     expect(js.json.error.message).toMatch(/body.content\[0\].content\[0\].marks\[0\]: links must start with/);
   });
 
   it("mentions mail the member; strangers cannot be mentioned", async () => {
-    const body = { type: "doc", content: [{ type: "paragraph", content: [{ type: "text", text: "ping " }, { type: "mention", attrs: { id: "demo-author", label: "Tomás" } }] }] };
+    const body = {
+      type: "doc",
+      content: [
+        {
+          type: "paragraph",
+          content: [
+            { type: "text", text: "ping " },
+            { type: "mention", attrs: { id: "demo-author", label: "Tomás" } },
+          ],
+        },
+      ],
+    };
     const t = await post(threads.POST, "reviewer", { id: panelId }, { body, revisionId: rev1.id });
     expect(t.status).toBe(201);
     const mails = await getDb().select().from(mailOutbox).where(eq(mailOutbox.kind, "mention"));
     expect(mails.map((m) => m.to)).toContain("author@lab.example.org");
     const q = (await call(queue.GET, { token: tokens.author })).json.items;
     expect(q).toEqual(expect.arrayContaining([expect.objectContaining({ kind: "mention", panelId })]));
-    const stranger = await post(threads.POST, "reviewer", { id: panelId }, { body: { ...body, content: [{ type: "paragraph", content: [{ type: "mention", attrs: { id: "demo-outsider" } }] }] }, revisionId: rev1.id });
+    const stranger = await post(
+      threads.POST,
+      "reviewer",
+      { id: panelId },
+      { body: { ...body, content: [{ type: "paragraph", content: [{ type: "mention", attrs: { id: "demo-outsider" } }] }] }, revisionId: rev1.id },
+    );
     expect(stranger.status).toBe(400);
   });
 
@@ -136,7 +201,13 @@ describe("comments", () => {
   it("the activity log tells the story and its hash chain holds", async () => {
     const items = (await call(activity.GET, { token: tokens.viewer, params: { id: DEMO_MANUSCRIPT_ID } })).json.items;
     const texts = items.map((i: any) => `${i.actor} ${i.text}`);
-    expect(texts).toEqual(expect.arrayContaining([expect.stringMatching(/^Ines Varga approved a panel/), expect.stringMatching(/^Mira Halvorsen signed off a figure/), expect.stringMatching(/saved revision 2 — “rebind to v2”/)]));
+    expect(texts).toEqual(
+      expect.arrayContaining([
+        expect.stringMatching(/^Ines Varga approved a panel/),
+        expect.stringMatching(/^Mira Halvorsen signed off a figure/),
+        expect.stringMatching(/saved revision 2 — “rebind to v2”/),
+      ]),
+    );
     expect(await verifyAuditChain(getDb())).toMatchObject({ ok: true });
   });
 });

@@ -19,7 +19,9 @@ export function routeFiles(): Array<{ file: string; apiPath: string }> {
   return walk(path.join(root, "app"))
     .filter((f) => path.basename(f) === "route.ts")
     .map((file) => {
-      const rel = path.relative(path.join(root, "app"), path.dirname(file)).split(path.sep)
+      const rel = path
+        .relative(path.join(root, "app"), path.dirname(file))
+        .split(path.sep)
         .filter((seg) => !/^\(.*\)$/.test(seg))
         .map((seg) => seg.replace(/^\[(\w+)\]$/, "{$1}"));
       return { file, apiPath: `/${rel.join("/")}` };

@@ -18,7 +18,9 @@ const userOf = (who: Caller) => DEMO_ACCOUNTS.find((a) => a.email.startsWith(`${
 
 async function freshMember(): Promise<string> {
   const id = newId();
-  await getDb().insert(users).values({ id, email: `${id.toLowerCase()}@walk.example.org`, name: "Walk Member" });
+  await getDb()
+    .insert(users)
+    .values({ id, email: `${id.toLowerCase()}@walk.example.org`, name: "Walk Member" });
   await getDb().insert(manuscriptMembers).values({ manuscriptId: DEMO_MANUSCRIPT_ID, userId: id, role: "viewer" });
   return id;
 }
@@ -43,11 +45,17 @@ const FIXTURES: Record<string, Fixture> = {
   "POST /api/manuscripts": async () => ({ body: { title: "Walk", labId: "demo-lab" } }),
   "GET /api/manuscripts/{id}": async () => ({ params: { id: DEMO_MANUSCRIPT_ID } }),
   "GET /api/manuscripts/{id}/members": async () => ({ params: { id: DEMO_MANUSCRIPT_ID } }),
-  "POST /api/manuscripts/{id}/members": async () => ({ params: { id: DEMO_MANUSCRIPT_ID }, body: { email: `${newId().toLowerCase()}@walk.example.org`, role: "viewer" } }),
+  "POST /api/manuscripts/{id}/members": async () => ({
+    params: { id: DEMO_MANUSCRIPT_ID },
+    body: { email: `${newId().toLowerCase()}@walk.example.org`, role: "viewer" },
+  }),
   "PATCH /api/manuscripts/{id}/members/{userId}": async () => ({ params: { id: DEMO_MANUSCRIPT_ID, userId: await freshMember() }, body: { role: "reviewer" } }),
   "DELETE /api/manuscripts/{id}/members/{userId}": async () => ({ params: { id: DEMO_MANUSCRIPT_ID, userId: await freshMember() } }),
   "GET /api/manuscripts/{id}/datasets": async () => ({ params: { id: DEMO_MANUSCRIPT_ID } }),
-  "POST /api/manuscripts/{id}/datasets": async () => ({ params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm(`${newId()}.csv`, `t (µs),s\n1,${Math.random()}\n2,3\n`) }),
+  "POST /api/manuscripts/{id}/datasets": async () => ({
+    params: { id: DEMO_MANUSCRIPT_ID },
+    rawBody: uploadForm(`${newId()}.csv`, `t (µs),s\n1,${Math.random()}\n2,3\n`),
+  }),
   "GET /api/datasets/{id}": async () => ({ params: { id: sample.datasetId } }),
   "PATCH /api/datasets/{id}": async () => ({ params: { id: sample.datasetId }, body: { notes: "walked" } }),
   "GET /api/versions/{id}": async () => ({ params: { id: sample.versionId } }),
@@ -75,19 +83,28 @@ const FIXTURES: Record<string, Fixture> = {
   "POST /api/panels/{id}/revisions": async () => {
     const panel = (await import("@/app/api/panels/[id]/route")).GET;
     const current = (await call(panel, { token: tokens.pi, params: { id: sample.panelIds[1]! } })).json.currentRevision;
-    return { params: { id: sample.panelIds[1]! }, body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: current?.id ?? null, message: "walk" } };
+    return {
+      params: { id: sample.panelIds[1]! },
+      body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: current?.id ?? null, message: "walk" },
+    };
   },
   "GET /api/revisions/{id}": async () => ({ params: { id: sample.revisionId } }),
   "GET /api/revisions/{id}/data": async () => ({ params: { id: sample.revisionId } }),
   "GET /api/figures/{id}/trace": async () => ({ params: { id: sample.figureId } }),
   "GET /api/figures/{id}/export": async () => ({ params: { id: sample.reviewFigureId }, query: "format=source-data" }),
   "GET /api/panels/{id}/threads": async () => ({ params: { id: sample.reviewPanelId } }),
-  "POST /api/panels/{id}/threads": async () => ({ params: { id: sample.reviewPanelId }, body: { body: plainDoc("walk"), revisionId: sample.reviewRevisionId } }),
+  "POST /api/panels/{id}/threads": async () => ({
+    params: { id: sample.reviewPanelId },
+    body: { body: plainDoc("walk"), revisionId: sample.reviewRevisionId },
+  }),
   "POST /api/threads/{id}/comments": async () => ({ params: { id: sample.threadId }, body: { body: plainDoc("reply") } }),
   "POST /api/threads/{id}/resolve": async () => ({ params: { id: sample.threadId }, body: { reopen: true } }),
   "PATCH /api/comments/{id}": async (who) => ({ params: { id: await commentBy(who) }, body: { body: plainDoc("edited") } }),
   "DELETE /api/comments/{id}": async (who) => ({ params: { id: await commentBy(who) } }),
-  "POST /api/panels/{id}/approvals": async () => ({ params: { id: sample.reviewPanelId }, body: { revisionId: sample.reviewRevisionId, decision: "approved" } }),
+  "POST /api/panels/{id}/approvals": async () => ({
+    params: { id: sample.reviewPanelId },
+    body: { revisionId: sample.reviewRevisionId, decision: "approved" },
+  }),
   "POST /api/figures/{id}/signoff": async () => {
     const f = (await call((await import("@/app/api/figures/[id]/route")).GET, { token: tokens.pi, params: { id: sample.reviewFigureId } })).json;
     return { params: { id: sample.reviewFigureId }, body: { figureHash: f.figureHash, reason: "walk" } };
@@ -179,35 +196,88 @@ const EXPECTED: Record<string, Row> = {
 };
 
 let tokens: Record<Who, string>;
-const sample = { datasetId: "", versionId: "", fitVersionId: "", analysisId: "", figureId: "", panelIds: [] as string[], revisionId: "", reviewPanelId: "", reviewRevisionId: "", reviewFigureId: "", threadId: "" };
-const SPEC = { $schema: "https://vega.github.io/schema/vega-lite/v6.json", data: { name: "t1" }, mark: "point", encoding: { x: { field: "wait", type: "quantitative" }, y: { field: "p", type: "quantitative" } } };
-const T1_CSV = "wait (ms),p\n" + Array.from({ length: 30 }, (_, i) => { const t = 0.05 * 1.25 ** i; return `${t},${(0.7 + 0.3 * Math.exp(-t / 4) + 0.002 * Math.sin(7 * i)).toFixed(5)}`; }).join("\n");
+const sample = {
+  datasetId: "",
+  versionId: "",
+  fitVersionId: "",
+  analysisId: "",
+  figureId: "",
+  panelIds: [] as string[],
+  revisionId: "",
+  reviewPanelId: "",
+  reviewRevisionId: "",
+  reviewFigureId: "",
+  threadId: "",
+};
+const SPEC = {
+  $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+  data: { name: "t1" },
+  mark: "point",
+  encoding: { x: { field: "wait", type: "quantitative" }, y: { field: "p", type: "quantitative" } },
+};
+const T1_CSV =
+  "wait (ms),p\n" +
+  Array.from({ length: 30 }, (_, i) => {
+    const t = 0.05 * 1.25 ** i;
+    return `${t},${(0.7 + 0.3 * Math.exp(-t / 4) + 0.002 * Math.sin(7 * i)).toFixed(5)}`;
+  }).join("\n");
 const fitBody = () => ({ versionId: sample.fitVersionId, model: "relaxation", options: { x: "wait", y: "p" } });
 beforeAll(async () => {
   ({ tokens } = await setupTestApp());
   const upload = (await import("@/app/api/manuscripts/[id]/datasets/route")).POST;
-  const r = await call(upload, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm("echo.csv", "tau (µs),signal\n1,0.9\n2,0.8\n4,0.6\n") });
+  const r = await call(upload, {
+    method: "POST",
+    token: tokens.author,
+    params: { id: DEMO_MANUSCRIPT_ID },
+    rawBody: uploadForm("echo.csv", "tau (µs),signal\n1,0.9\n2,0.8\n4,0.6\n"),
+  });
   Object.assign(sample, { datasetId: r.json.datasetId, versionId: r.json.id });
-  const t1 = await call(upload, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm("t1.csv", T1_CSV, { metadata: JSON.stringify({ kind: "relaxation", tags: { group: "a" } }) }) });
+  const t1 = await call(upload, {
+    method: "POST",
+    token: tokens.author,
+    params: { id: DEMO_MANUSCRIPT_ID },
+    rawBody: uploadForm("t1.csv", T1_CSV, { metadata: JSON.stringify({ kind: "relaxation", tags: { group: "a" } }) }),
+  });
   sample.fitVersionId = t1.json.id;
   const run = await call((await import("@/app/api/analyses/route")).POST, { method: "POST", token: tokens.author, body: fitBody() });
   sample.analysisId = run.json.id;
-  const fig = await call((await import("@/app/api/figures/route")).POST, { method: "POST", token: tokens.author, body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Coherence" } });
+  const fig = await call((await import("@/app/api/figures/route")).POST, {
+    method: "POST",
+    token: tokens.author,
+    body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Coherence" },
+  });
   sample.figureId = fig.json.id;
   const addPanel = (await import("@/app/api/figures/[id]/panels/route")).POST;
-  for (let i = 0; i < 2; i++) sample.panelIds.push((await call(addPanel, { method: "POST", token: tokens.author, params: { id: sample.figureId }, body: {} })).json.id);
+  for (let i = 0; i < 2; i++)
+    sample.panelIds.push((await call(addPanel, { method: "POST", token: tokens.author, params: { id: sample.figureId }, body: {} })).json.id);
   const revise = (await import("@/app/api/panels/[id]/revisions/route")).POST;
-  const rev = await call(revise, { method: "POST", token: tokens.author, params: { id: sample.panelIds[0]! }, body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null } });
+  const rev = await call(revise, {
+    method: "POST",
+    token: tokens.author,
+    params: { id: sample.panelIds[0]! },
+    body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null },
+  });
   sample.revisionId = rev.json.id;
   // A panel whose revision none of the walking callers made, so every allowed role may decide on it.
   const walker = { id: "walk-author", email: "walk-author@lab.example.org", name: "Walk Author" };
   await getDb().insert(users).values(walker);
   await getDb().insert(manuscriptMembers).values({ manuscriptId: DEMO_MANUSCRIPT_ID, userId: walker.id, role: "author" });
   const walkerToken = (await createApiToken(walker, { name: "walk" })).token;
-  const fig2 = await call((await import("@/app/api/figures/route")).POST, { method: "POST", token: walkerToken, body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Review walk" } });
+  const fig2 = await call((await import("@/app/api/figures/route")).POST, {
+    method: "POST",
+    token: walkerToken,
+    body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Review walk" },
+  });
   sample.reviewFigureId = fig2.json.id;
   sample.reviewPanelId = (await call(addPanel, { method: "POST", token: walkerToken, params: { id: fig2.json.id }, body: {} })).json.id;
-  sample.reviewRevisionId = (await call(revise, { method: "POST", token: walkerToken, params: { id: sample.reviewPanelId }, body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null } })).json.id;
+  sample.reviewRevisionId = (
+    await call(revise, {
+      method: "POST",
+      token: walkerToken,
+      params: { id: sample.reviewPanelId },
+      body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null },
+    })
+  ).json.id;
   sample.threadId = (await createThread(PI, sample.reviewPanelId, { body: plainDoc("Is the baseline flat?"), revisionId: sample.reviewRevisionId })).id;
 });
 

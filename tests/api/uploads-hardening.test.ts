@@ -46,7 +46,14 @@ const END = `\r\n--${BOUNDARY}--\r\n`;
 
 /** A whole multipart body: the fields, then the file. */
 function body(fileName: string, content: string, fields: Record<string, string> = {}): Uint8Array {
-  return enc.encode(Object.entries(fields).map(([k, v]) => field(k, v)).join("") + fileHead(fileName) + content + END);
+  return enc.encode(
+    Object.entries(fields)
+      .map(([k, v]) => field(k, v))
+      .join("") +
+      fileHead(fileName) +
+      content +
+      END,
+  );
 }
 
 function split(bytes: Uint8Array, size: number): Uint8Array[] {
@@ -61,7 +68,12 @@ function csv(bytes: number): string {
   return head + "1,2\n".repeat((bytes - head.length) / 4);
 }
 
-interface Feed { stream: ReadableStream<Uint8Array>; pulls: number; cancelled: boolean; reached: Promise<void> }
+interface Feed {
+  stream: ReadableStream<Uint8Array>;
+  pulls: number;
+  cancelled: boolean;
+  reached: Promise<void>;
+}
 
 /**
  * A request body that hands out one chunk per read and counts the reads. At chunk `stopAt` it errors
@@ -71,31 +83,44 @@ function feed(chunks: Uint8Array[], o: { stopAt?: number; then?: "error" | "stal
   let i = 0;
   let held = false;
   let reached!: () => void;
-  const f: Feed = { pulls: 0, cancelled: false, reached: new Promise<void>((r) => { reached = r; }), stream: null! };
-  f.stream = new ReadableStream<Uint8Array>({
-    async pull(c) {
-      if (i === o.stopAt && !held) {
-        held = true;
-        reached();
-        o.onStop?.();
-        if (o.gate) await o.gate;
-        else if (o.then === "error") return c.error(new Error("socket hang up"));
-        else return new Promise<void>(() => undefined);
-      }
-      if (i >= chunks.length) return c.close();
-      f.pulls++;
-      c.enqueue(chunks[i++]!);
+  const f: Feed = {
+    pulls: 0,
+    cancelled: false,
+    reached: new Promise<void>((r) => {
+      reached = r;
+    }),
+    stream: null!,
+  };
+  f.stream = new ReadableStream<Uint8Array>(
+    {
+      async pull(c) {
+        if (i === o.stopAt && !held) {
+          held = true;
+          reached();
+          o.onStop?.();
+          if (o.gate) await o.gate;
+          else if (o.then === "error") return c.error(new Error("socket hang up"));
+          else return new Promise<void>(() => undefined);
+        }
+        if (i >= chunks.length) return c.close();
+        f.pulls++;
+        c.enqueue(chunks[i++]!);
+      },
+      cancel() {
+        f.cancelled = true;
+      },
     },
-    cancel() {
-      f.cancelled = true;
-    },
-  }, { highWaterMark: 0 });
+    { highWaterMark: 0 },
+  );
   return f;
 }
 
 function streamRequest(stream: ReadableStream<Uint8Array>, who: Who, signal?: AbortSignal): Request {
   return new Request("http://localhost:3000/api/manuscripts/x/datasets", {
-    method: "POST", body: stream, duplex: "half", signal,
+    method: "POST",
+    body: stream,
+    duplex: "half",
+    signal,
     headers: { "content-type": `multipart/form-data; boundary=${BOUNDARY}`, authorization: `Bearer ${tokens[who]}` },
   } as RequestInit);
 }
@@ -112,9 +137,7 @@ const tmpFiles = () => (fs.existsSync(tmpDir()) ? fs.readdirSync(tmpDir()) : [])
 /** Every file under uploads/, relative paths, sorted. */
 function walk(root = path.join(dir, "uploads")): string[] {
   if (!fs.existsSync(root)) return [];
-  return (fs.readdirSync(root, { recursive: true }) as string[])
-    .filter((p) => fs.statSync(path.join(root, p)).isFile())
-    .sort();
+  return (fs.readdirSync(root, { recursive: true }) as string[]).filter((p) => fs.statSync(path.join(root, p)).isFile()).sort();
 }
 
 async function rowCounts() {
@@ -139,7 +162,8 @@ describe("stream level (readMultipartUpload)", () => {
       const f = feed(split(body("stall.csv", csv(64 * KiB)), 4 * KiB), { stopAt: 3, then: "stall" });
       const err = await readMultipartUpload(streamRequest(f.stream, "author"), 256 * KiB).catch((e: unknown) => e);
       expect(err).toMatchObject({
-        status: 408, code: "upload_stalled",
+        status: 408,
+        code: "upload_stalled",
         message: "The upload stalled: no data arrived for 0.2 s after 12288 bytes, so it was stopped. Check the connection and try again.",
       });
       expect(f.cancelled).toBe(true);
@@ -211,7 +235,9 @@ describe("uploads through the route", () => {
       const r = await send(streamRequest(f.stream, "author"));
       expect(r.status).toBe(408);
       expect(r.json.error.code).toBe("upload_stalled");
-      expect(r.json.error.message).toBe("The upload stalled: no data arrived for 0.2 s after 12288 bytes, so it was stopped. Check the connection and try again.");
+      expect(r.json.error.message).toBe(
+        "The upload stalled: no data arrived for 0.2 s after 12288 bytes, so it was stopped. Check the connection and try again.",
+      );
       expect(f.cancelled).toBe(true);
       expect(tmpFiles()).toEqual([]);
     } finally {
@@ -237,7 +263,12 @@ describe("uploads through the route", () => {
   });
 
   it("a datasetId of another manuscript is refused before anything is stored, wherever the field comes", async () => {
-    const theirs = await call(list.POST, { method: "POST", token: tokens.outsider, params: { id: OTHER_MANUSCRIPT_ID }, rawBody: uploadForm("theirs.csv", "a,b\n1,2\n") });
+    const theirs = await call(list.POST, {
+      method: "POST",
+      token: tokens.outsider,
+      params: { id: OTHER_MANUSCRIPT_ID },
+      rawBody: uploadForm("theirs.csv", "a,b\n1,2\n"),
+    });
     expect(theirs.status).toBe(201);
     const before = walk();
     const counts = await rowCounts();
@@ -276,7 +307,9 @@ describe("uploads through the route", () => {
 
       const held = (who: Who, n: number) => {
         let open!: () => void;
-        const gate = new Promise<void>((r) => { open = r; });
+        const gate = new Promise<void>((r) => {
+          open = r;
+        });
         const f = feed(split(body(`held-${who}-${n}.csv`, `k,v\n${n},${n}\n`), 64), { stopAt: 1, gate });
         return { f, open, res: send(streamRequest(f.stream, who)) };
       };
@@ -308,7 +341,9 @@ describe("uploads through the route", () => {
   it("more than 120 uploads an hour by one user: 429 with Retry-After, and no slot is held", async () => {
     const { uploadSlotUsage } = await import("@/lib/server/storage/upload-slots");
     const at = new Date(Date.now() - 60_000);
-    await getDb().insert(rateEvents).values(Array.from({ length: 120 }, () => ({ bucket: "upload:user:demo-pi", at })));
+    await getDb()
+      .insert(rateEvents)
+      .values(Array.from({ length: 120 }, () => ({ bucket: "upload:user:demo-pi", at })));
     try {
       const r = await upload(uploadForm("r.csv", "m,n\n1,2\n"), "pi");
       expect(r.status).toBe(429);

@@ -1,7 +1,13 @@
 import { expect, test, type Page } from "@playwright/test";
 import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
 
-interface ListedDataset { id: string; name: string; kind: string; tags: Record<string, string>; latestVersion: { id: string } | null }
+interface ListedDataset {
+  id: string;
+  name: string;
+  kind: string;
+  tags: Record<string, string>;
+  latestVersion: { id: string } | null;
+}
 
 /** A demo Hahn-echo measurement (not a derived fit dataset) and its current version. */
 async function echoSources(page: Page): Promise<ListedDataset[]> {

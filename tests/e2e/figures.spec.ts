@@ -1,7 +1,13 @@
 import { expect, test, type Locator, type Page } from "@playwright/test";
 import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
 
-interface ListedDataset { id: string; name: string; kind: string; tags: Record<string, string>; latestVersion: { id: string; number: number } | null }
+interface ListedDataset {
+  id: string;
+  name: string;
+  kind: string;
+  tags: Record<string, string>;
+  latestVersion: { id: string; number: number } | null;
+}
 
 /** Replaces text in the CodeMirror spec editor through its own search-and-replace panel, as a person would. */
 async function replaceInSpec(page: Page, find: string, replace: string) {
@@ -19,7 +25,11 @@ async function expectRendered(chart: Locator) {
   await expect(chart.getByRole("alert")).toHaveCount(0);
 }
 
-test("the author builds a Hahn-echo panel with its fit, revises it twice and compares; the reviewer marks an x-range, comments and approves", async ({ page, browser, baseURL }) => {
+test("the author builds a Hahn-echo panel with its fit, revises it twice and compares; the reviewer marks an x-range, comments and approves", async ({
+  page,
+  browser,
+  baseURL,
+}) => {
   test.setTimeout(240_000);
   await signIn(page, "author@lab.example.org");
 
@@ -63,7 +73,7 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
 
   // Spec editor: valid, previewed with the chosen data; an edit, then revision 1.
   await expect(page.getByRole("tab", { name: "Spec editor" })).toHaveAttribute("aria-selected", "true");
-  await expect(page.getByTestId("spec-status")).toContainText('Valid Vega-Lite · data “echo”, “fit”, “residuals”');
+  await expect(page.getByTestId("spec-status")).toContainText("Valid Vega-Lite · data “echo”, “fit”, “residuals”");
   await expectRendered(page.getByTestId("preview"));
   await replaceInSpec(page, '"title": "coherence"', '"title": "echo amplitude"');
   await expect(page.getByTestId("preview").locator("svg.marks")).toContainText("echo amplitude");
@@ -217,8 +227,16 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await pi.goto(figureUrl);
   const panelB = await pi.request.get(`/api/figures/${figureUrl.split("/").pop()}`);
   const b = ((await panelB.json()) as { panels: Array<{ id: string; letter: string }> }).panels.find((p) => p.letter === "b")!;
-  const specA = ((await (await pi.request.get(`/api/panels/${panelUrl.split("/").pop()}`)).json()) as { currentRevision: { spec: unknown; bindings: unknown } }).currentRevision;
-  expect((await page.request.post(`/api/panels/${b.id}/revisions`, { headers: { origin: baseURL! }, data: { spec: specA.spec, bindings: specA.bindings, baseRevisionId: null, message: "draft" } })).status()).toBe(201);
+  const specA = ((await (await pi.request.get(`/api/panels/${panelUrl.split("/").pop()}`)).json()) as { currentRevision: { spec: unknown; bindings: unknown } })
+    .currentRevision;
+  expect(
+    (
+      await page.request.post(`/api/panels/${b.id}/revisions`, {
+        headers: { origin: baseURL! },
+        data: { spec: specA.spec, bindings: specA.bindings, baseRevisionId: null, message: "draft" },
+      })
+    ).status(),
+  ).toBe(201);
   await pi.reload();
 
   // Every panel has a revision now, so the vector PDF downloads from the figure page.

@@ -19,12 +19,19 @@ export async function shoot(page: Page, name: string) {
   await page.screenshot({ path: path.join("screenshots", `${name}.png`), fullPage: true });
 }
 
-interface SinkMessage { id: string; envelope: { to: string[] }; subject: string; text: string }
+interface SinkMessage {
+  id: string;
+  envelope: { to: string[] };
+  subject: string;
+  text: string;
+}
 
 function findMail(to: string, subject: RegExp): SinkMessage | undefined {
   const dir = process.env.MAIL_SINK_DIR!;
   if (!fs.existsSync(dir)) return undefined;
-  return fs.readdirSync(dir).filter((f) => f.endsWith(".json") && !f.startsWith("."))
+  return fs
+    .readdirSync(dir)
+    .filter((f) => f.endsWith(".json") && !f.startsWith("."))
     .map((f) => JSON.parse(fs.readFileSync(path.join(dir, f), "utf8")) as SinkMessage)
     .find((m) => m.envelope.to.includes(to) && subject.test(m.subject));
 }

@@ -2,13 +2,20 @@ import { expect, test, type APIResponse, type Page } from "@playwright/test";
 import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
 
 const SPEC = {
-  $schema: "https://vega.github.io/schema/vega-lite/v6.json", data: { name: "echo" }, mark: "point",
+  $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+  data: { name: "echo" },
+  mark: "point",
   encoding: { x: { field: "tau", type: "quantitative" }, y: { field: "signal", type: "quantitative" } },
 };
 const HOSTILE = '<img src=x onerror="window.__xss=1">';
 const doc = (text: string) => ({ type: "doc", content: [{ type: "paragraph", content: [{ type: "text", text }] }] });
 
-interface Scene { figureId: string; number: number; panelId: string; revisionId: string }
+interface Scene {
+  figureId: string;
+  number: number;
+  panelId: string;
+  revisionId: string;
+}
 const scene: { a?: Scene; b?: Scene; versionId?: string } = {};
 
 /** JSON calls made with the page's session cookie; writes carry our Origin as a browser would. */
@@ -29,7 +36,12 @@ async function figureWithPanel(page: Page, title: string, versionId: string): Pr
   const call = api(page);
   const figure = await call.post("/api/figures", { manuscriptId: DEMO_MANUSCRIPT, title });
   const panel = await call.post(`/api/figures/${figure.id}/panels`, { title: "Hahn echo" });
-  const revision = await call.post(`/api/panels/${panel.id}/revisions`, { spec: SPEC, bindings: { echo: { versionId } }, baseRevisionId: null, message: "first draft" });
+  const revision = await call.post(`/api/panels/${panel.id}/revisions`, {
+    spec: SPEC,
+    bindings: { echo: { versionId } },
+    baseRevisionId: null,
+    message: "first draft",
+  });
   const patched = await call.patch(`/api/figures/${figure.id}`, { requiredReviewers: ["demo-reviewer"] });
   expect(patched.requiredReviewers).toEqual(["demo-reviewer"]);
   return { figureId: figure.id, number: figure.number, panelId: panel.id, revisionId: revision.id };
@@ -41,7 +53,9 @@ const figureRow = (page: Page, s: Scene) => page.getByTestId(`figure-row-${s.num
 test.describe.serial("review: queue, board, activity and sign-off", () => {
   test("the author drafts two figures bound to a Hahn-echo version and names the reviewer", async ({ page }) => {
     await signIn(page, "author@lab.example.org");
-    const { items } = await api(page).get(`/api/manuscripts/${DEMO_MANUSCRIPT}/datasets`) as { items: Array<{ kind: string; tags: Record<string, string>; latestVersion: { id: string } | null }> };
+    const { items } = (await api(page).get(`/api/manuscripts/${DEMO_MANUSCRIPT}/datasets`)) as {
+      items: Array<{ kind: string; tags: Record<string, string>; latestVersion: { id: string } | null }>;
+    };
     const echo = items.find((d) => d.kind === "hahn_echo" && !d.tags.derivedFrom && d.latestVersion);
     expect(echo, "a demo Hahn-echo dataset").toBeTruthy();
     scene.versionId = echo!.latestVersion!.id;
@@ -132,7 +146,12 @@ test.describe.serial("review: queue, board, activity and sign-off", () => {
     const boxB = page.getByTestId(`signoff-box-${b.figureId}`);
     await expect(boxB).toContainText("signing off now asks for a reason");
     const changed = { ...SPEC, mark: "circle", title: "Hahn echo, annealed" };
-    await api(page).post(`/api/panels/${b.panelId}/revisions`, { spec: changed, bindings: { echo: { versionId } }, baseRevisionId: b.revisionId, message: "units on the axis" });
+    await api(page).post(`/api/panels/${b.panelId}/revisions`, {
+      spec: changed,
+      bindings: { echo: { versionId } },
+      baseRevisionId: b.revisionId,
+      message: "units on the axis",
+    });
     await boxB.getByRole("button", { name: "Sign off this figure" }).click();
     await expect(boxB.getByRole("alert")).toContainText("The figure changed since this page loaded");
     await boxB.getByRole("button", { name: "Reload the figure" }).click();
@@ -148,7 +167,12 @@ test.describe.serial("review: queue, board, activity and sign-off", () => {
     await expect(boxB).toContainText("Reason: “Units fixed as asked; the reviewer is travelling.”");
 
     // A change after the sign-off leaves it visible, marked stale.
-    await api(page).post(`/api/panels/${a.panelId}/revisions`, { spec: changed, bindings: { echo: { versionId } }, baseRevisionId: a.revisionId, message: "circles" });
+    await api(page).post(`/api/panels/${a.panelId}/revisions`, {
+      spec: changed,
+      bindings: { echo: { versionId } },
+      baseRevisionId: a.revisionId,
+      message: "circles",
+    });
     await page.reload();
     await expect(boxA).toContainText("◐In review");
     await expect(boxA).toContainText("Stale — signed off an earlier version of this figure");
@@ -174,8 +198,14 @@ test.describe.serial("review: queue, board, activity and sign-off", () => {
     const revisionId = panel.currentRevision.id as string;
     const t = await call.post(`/api/panels/${a.panelId}/threads`, { body: doc(HOSTILE), revisionId });
     expect(t.comments[0].html).not.toContain("<img");
-    const link = { type: "doc", content: [{ type: "paragraph", content: [{ type: "text", text: "see", marks: [{ type: "link", attrs: { href: "javascript:window.__xss=1" } }] }] }] };
-    const refused = await page.request.post(`/api/panels/${a.panelId}/threads`, { data: { body: link, revisionId }, headers: { origin: new URL(page.url()).origin } });
+    const link = {
+      type: "doc",
+      content: [{ type: "paragraph", content: [{ type: "text", text: "see", marks: [{ type: "link", attrs: { href: "javascript:window.__xss=1" } }] }] }],
+    };
+    const refused = await page.request.post(`/api/panels/${a.panelId}/threads`, {
+      data: { body: link, revisionId },
+      headers: { origin: new URL(page.url()).origin },
+    });
     expect(refused.status()).toBe(400);
     // The same markup as a decision note, which the activity log and the board print in words
     // ("… asked for a revision: “<note>”"); the panel page shows the comment itself.

@@ -4,7 +4,9 @@ import { expect, test, type Page } from "@playwright/test";
 import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
 
 const SPEC = {
-  $schema: "https://vega.github.io/schema/vega-lite/v6.json", data: { name: "echo" }, mark: "point",
+  $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+  data: { name: "echo" },
+  mark: "point",
   encoding: { x: { field: "tau", type: "quantitative" }, y: { field: "signal", type: "quantitative" } },
 };
 
@@ -46,7 +48,9 @@ test.describe.serial("security at the edge", () => {
     await signIn(page, "author@lab.example.org");
     const origin = new URL(page.url()).origin;
     const { items } = await (await page.request.get(`/api/manuscripts/${DEMO_MANUSCRIPT}/datasets`)).json();
-    const echo = items.find((d: { kind: string; tags: Record<string, string>; latestVersion: unknown }) => d.kind === "hahn_echo" && !d.tags.derivedFrom && d.latestVersion);
+    const echo = items.find(
+      (d: { kind: string; tags: Record<string, string>; latestVersion: unknown }) => d.kind === "hahn_echo" && !d.tags.derivedFrom && d.latestVersion,
+    );
     versionId = echo.latestVersion.id;
     const post = async (url: string, data: unknown) => {
       const res = await page.request.post(url, { data, headers: { origin } });
@@ -104,7 +108,8 @@ test.describe.serial("security at the edge", () => {
     const panel = await (await page.request.get(`/api/panels/${panelId}`)).json();
     const hostile = { ...SPEC, usermeta: { embedOptions: { actions: true, sourceHeader: "<script>window.__pwned4=1</script>" } } };
     const res = await page.request.post(`/api/panels/${panelId}/revisions`, {
-      data: { spec: hostile, bindings: { echo: { versionId } }, baseRevisionId: panel.currentRevision.id, message: "hostile" }, headers: { origin },
+      data: { spec: hostile, bindings: { echo: { versionId } }, baseRevisionId: panel.currentRevision.id, message: "hostile" },
+      headers: { origin },
     });
     expect(res.status()).toBe(422);
     expect(JSON.stringify(await res.json())).toContain("usermeta.embedOptions");
@@ -137,7 +142,8 @@ test.describe.serial("security at the edge", () => {
     const port = String(Number(new URL(test.info().project.use.baseURL!).port) + 7);
     const child = spawn(process.execPath, ["node_modules/next/dist/bin/next", "start", "-p", port], {
       env: { ...process.env, PORT: port, APP_URL: `http://localhost:${port}`, PROOFLIGHT_INSTANCE: "production", NEXT_TELEMETRY_DISABLED: "1" },
-      detached: true, stdio: "ignore",
+      detached: true,
+      stdio: "ignore",
     });
     try {
       await expect.poll(async () => (await request.get(`http://localhost:${port}/api/health`).catch(() => null))?.status() ?? 0, { timeout: 90_000 }).toBe(200);
@@ -179,14 +185,21 @@ test.describe.serial("security at the edge", () => {
     const script = await playwright.request.newContext({ baseURL: test.info().project.use.baseURL });
     const res = await script.post("/sign-in", {
       headers: { "next-action": sent.headers()["next-action"]!, "content-type": sent.headers()["content-type"]!, accept: "text/x-component" },
-      data: body, maxRedirects: 0,
+      data: body,
+      maxRedirects: 0,
     });
     expect(res.headers()["set-cookie"] ?? "").not.toMatch(/authjs\.session-token=/);
     expect(await res.text()).toContain("no Origin header");
     // The same replay with our Origin signs in: the refusal above is the Origin check, not a broken replay.
     const withOrigin = await script.post("/sign-in", {
-      headers: { "next-action": sent.headers()["next-action"]!, "content-type": sent.headers()["content-type"]!, accept: "text/x-component", origin: new URL(page.url()).origin },
-      data: body, maxRedirects: 0,
+      headers: {
+        "next-action": sent.headers()["next-action"]!,
+        "content-type": sent.headers()["content-type"]!,
+        accept: "text/x-component",
+        origin: new URL(page.url()).origin,
+      },
+      data: body,
+      maxRedirects: 0,
     });
     expect(withOrigin.headers()["set-cookie"] ?? "").toMatch(/authjs\.session-token=/);
     await script.dispose();

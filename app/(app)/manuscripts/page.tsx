@@ -12,7 +12,10 @@ export default async function ManuscriptsPage() {
   const [labs, manuscripts] = await Promise.all([listLabsForUser(user), listManuscriptsForUser(user)]);
   return (
     <>
-      <PageHeader title="Manuscripts" subtitle={labs.length ? `Labs: ${labs.map((l) => l.name).join(" · ")}` : "You are not in a lab; you see the manuscripts you were invited to."} />
+      <PageHeader
+        title="Manuscripts"
+        subtitle={labs.length ? `Labs: ${labs.map((l) => l.name).join(" · ")}` : "You are not in a lab; you see the manuscripts you were invited to."}
+      />
       <div className="grid gap-6 lg:grid-cols-[1fr_320px]">
         <div>
           {manuscripts.length === 0 ? (
@@ -22,8 +25,12 @@ export default async function ManuscriptsPage() {
               {manuscripts.map((m) => (
                 <li key={m.id} className="flex flex-wrap items-center gap-3 px-5 py-4">
                   <div className="min-w-0 flex-1">
-                    <Link href={`/manuscripts/${m.id}`} className="font-medium text-ink hover:underline">{m.title}</Link>
-                    <p className="text-xs text-muted">{m.labName} · created {formatDate(m.createdAt)}</p>
+                    <Link href={`/manuscripts/${m.id}`} className="font-medium text-ink hover:underline">
+                      {m.title}
+                    </Link>
+                    <p className="text-xs text-muted">
+                      {m.labName} · created {formatDate(m.createdAt)}
+                    </p>
                   </div>
                   <RoleBadge role={m.role} />
                 </li>

@@ -5,4 +5,5 @@ import { runAnalysis } from "@/lib/server/analyses/run-analysis";
 import { analysisInput } from "@/lib/server/analyses/schemas";
 
 export const POST = withPermission("analysis.run", { body: analysisInput, scope: ({ body }) => manuscriptOfVersion(body.versionId) }, async ({ user, body }) =>
-  created(await runAnalysis(user, body)));
+  created(await runAnalysis(user, body)),
+);

@@ -4,4 +4,5 @@ import { createFigure } from "@/lib/server/figures/figures";
 import { createFigureInput } from "@/lib/server/figures/schemas";
 
 export const POST = withPermission("figure.edit", { body: createFigureInput, scope: ({ body }) => body.manuscriptId }, async ({ user, body }) =>
-  created(await createFigure(user, body)));
+  created(await createFigure(user, body)),
+);

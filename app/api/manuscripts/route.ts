@@ -4,5 +4,4 @@ import { createManuscript, createManuscriptInput, listManuscriptsForUser } from 
 
 export const GET = withPermission("manuscript.list", {}, async ({ user }) => ({ items: await listManuscriptsForUser(user) }));
 
-export const POST = withPermission("manuscript.create", { body: createManuscriptInput }, async ({ user, body }) =>
-  created(await createManuscript(user, body)));
+export const POST = withPermission("manuscript.create", { body: createManuscriptInput }, async ({ user, body }) => created(await createManuscript(user, body)));

@@ -4,5 +4,4 @@ import { createApiToken, createTokenInput, listApiTokens } from "@/lib/server/ap
 
 export const GET = withPermission("self.tokens", {}, async ({ user }) => ({ items: await listApiTokens(user) }));
 
-export const POST = withPermission("self.tokens", { body: createTokenInput }, async ({ user, body }) =>
-  created(await createApiToken(user, body)));
+export const POST = withPermission("self.tokens", { body: createTokenInput }, async ({ user, body }) => created(await createApiToken(user, body)));

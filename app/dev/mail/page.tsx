@@ -18,12 +18,21 @@ export default async function MailOutboxPage() {
   const who = view.kind === "all" ? "every message, shown to this machine only" : `messages to ${view.email} only`;
   return (
     <main className="mx-auto max-w-4xl px-6 py-8">
-      <PageHeader title="Mail outbox" subtitle={`Local SMTP sink on port ${env().smtpPort} · ${messages.length} message(s) · ${who}`}
-        actions={<Link href="/manuscripts" className="text-sm underline">Back to Prooflight</Link>} />
+      <PageHeader
+        title="Mail outbox"
+        subtitle={`Local SMTP sink on port ${env().smtpPort} · ${messages.length} message(s) · ${who}`}
+        actions={
+          <Link href="/manuscripts" className="text-sm underline">
+            Back to Prooflight
+          </Link>
+        }
+      />
       <p className="mb-4 rounded-sm border border-rule bg-sheet px-4 py-2 text-sm text-muted" role="note">
         <span aria-hidden>△ </span>A demo instance: these messages hold sign-in links. Never run a demo where others can reach it.
       </p>
-      {messages.length === 0 ? <EmptyState title="No mail received yet" /> : (
+      {messages.length === 0 ? (
+        <EmptyState title="No mail received yet" />
+      ) : (
         <ul className="divide-y divide-rule rounded-sm border border-rule bg-sheet" aria-label="Received messages">
           {messages.map((m) => (
             <li key={m.id}>

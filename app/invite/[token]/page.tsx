@@ -16,13 +16,19 @@ export default async function InvitationPage({ params }: { params: Promise<{ tok
         {!inv ? (
           <>
             <h1 className="text-xl font-semibold">This invitation cannot be used</h1>
-            <p className="mt-2 text-sm text-muted">✕ It is unknown, already used or expired (invitations last 7 days). Ask the manuscript&apos;s PI for a new one.</p>
-            <Link href="/sign-in" className="mt-4 inline-block text-sm underline">Sign in</Link>
+            <p className="mt-2 text-sm text-muted">
+              ✕ It is unknown, already used or expired (invitations last 7 days). Ask the manuscript&apos;s PI for a new one.
+            </p>
+            <Link href="/sign-in" className="mt-4 inline-block text-sm underline">
+              Sign in
+            </Link>
           </>
         ) : (
           <>
             <h1 className="text-xl font-semibold">Join “{inv.manuscriptTitle}”</h1>
-            <p className="mt-2 flex items-center gap-2 text-sm text-muted">For {inv.email} as <RoleBadge role={inv.role} /></p>
+            <p className="mt-2 flex items-center gap-2 text-sm text-muted">
+              For {inv.email} as <RoleBadge role={inv.role} />
+            </p>
             <AcceptForm token={token} hasAccount={inv.hasAccount} />
           </>
         )}

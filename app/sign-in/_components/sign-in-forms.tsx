@@ -13,7 +13,9 @@ export function SignInForms({ next }: { next?: string }) {
         <Field label="Password">
           <TextInput name="password" type="password" autoComplete="current-password" required />
         </Field>
-        <Button type="submit" className="w-full justify-center">Sign in</Button>
+        <Button type="submit" className="w-full justify-center">
+          Sign in
+        </Button>
       </ActionForm>
       <div className="border-t border-rule pt-6">
         <h2 className="text-sm font-semibold">Or get a sign-in link by e-mail</h2>
@@ -21,7 +23,9 @@ export function SignInForms({ next }: { next?: string }) {
           <Field label="E-mail for the link">
             <TextInput name="email" type="email" autoComplete="email" required />
           </Field>
-          <Button type="submit" variant="quiet">E-mail me a link</Button>
+          <Button type="submit" variant="quiet">
+            E-mail me a link
+          </Button>
         </ActionForm>
       </div>
     </div>

@@ -80,11 +80,7 @@ function project(v: number, lo: number, hi: number): number {
   return v < lo ? lo : v > hi ? hi : v;
 }
 
-export function minimizeLeastSquares(
-  problem: LeastSquaresProblem,
-  start: ArrayLike<number>,
-  options: SolverOptions = DEFAULT_SOLVER_OPTIONS,
-): SolverOutcome {
+export function minimizeLeastSquares(problem: LeastSquaresProblem, start: ArrayLike<number>, options: SolverOptions = DEFAULT_SOLVER_OPTIONS): SolverOutcome {
   const { m, n, lower, upper } = problem;
   const { ftol, xtol, gtol, maxIterations, stepFactor } = options;
   const maxEvaluations = 20 * maxIterations + 100;

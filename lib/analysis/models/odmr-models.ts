@@ -142,8 +142,7 @@ function patternDipModel(id: string, title: string, nucleus: string, pattern: re
       const profile = dipProfile(x, y);
       const { span } = xScale(x);
       const dips = findDips(profile, 6);
-      const score = (centre: number, spacing: number): number =>
-        pattern.reduce((total, k) => total + contrastAt(profile, centre + k * spacing), 0);
+      const score = (centre: number, spacing: number): number => pattern.reduce((total, k) => total + contrastAt(profile, centre + k * spacing), 0);
       const match = matchLinePattern(
         dips.map((d) => d.position),
         pattern,
@@ -168,8 +167,7 @@ function patternDipModel(id: string, title: string, nucleus: string, pattern: re
   };
 }
 
-const indexedNames = (count: number): Array<[string, string, string]> =>
-  Array.from({ length: count }, (_, k) => [`f${k + 1}`, `w${k + 1}`, `c${k + 1}`]);
+const indexedNames = (count: number): Array<[string, string, string]> => Array.from({ length: count }, (_, k) => [`f${k + 1}`, `w${k + 1}`, `c${k + 1}`]);
 
 export const odmrLorentzianModels: FitModel[] = [1, 2, 3, 4].map((count) =>
   multiDipModel(`odmr_lorentzian_${count}`, `ODMR, ${count} Lorentzian dip${count > 1 ? "s" : ""}`, ["odmr"], indexedNames(count)),

@@ -41,6 +41,6 @@ export function brownForsythe(groups: readonly (readonly number[])[]): BrownFors
     if (between === 0) return { F: NaN, df1, df2, p: NaN, notes: ["No spread in the deviations: F is undefined."] };
     return { F: Infinity, df1, df2, p: 0, notes: ["Deviations are constant within each group but differ between groups."] };
   }
-  const F = (between / df1) / (within / df2);
+  const F = between / df1 / (within / df2);
   return { F, df1, df2, p: fUpperP(F, df1, df2), notes: [] };
 }

@@ -18,11 +18,7 @@ function select<T, R>(record: T, selector: Selector<T, R>): unknown {
  * group (field name, default "value", or a function). Groups keep their first-appearance order;
  * records whose key is null/undefined are skipped; non-numeric values count as non-finite.
  */
-export function groupBy<T extends object>(
-  records: readonly T[],
-  key: Selector<T, unknown>,
-  value: Selector<T, number> = "value" as keyof T,
-): GroupSummary[] {
+export function groupBy<T extends object>(records: readonly T[], key: Selector<T, unknown>, value: Selector<T, number> = "value" as keyof T): GroupSummary[] {
   const groups = new Map<string, number[]>();
   for (const record of records) {
     const k = select(record, key);

@@ -23,8 +23,8 @@ const MAX_ITERATIONS = 100_000;
  */
 const LANCZOS_G = 7;
 const LANCZOS = [
-  0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059,
-  12.507343278686905, -0.13857109526572012, 9.9843695780195716e-6, 1.5056327351493116e-7,
+  0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059, 12.507343278686905, -0.13857109526572012,
+  9.9843695780195716e-6, 1.5056327351493116e-7,
 ];
 
 /**
@@ -35,11 +35,7 @@ const LANCZOS = [
 function stirlingCorrection(x: number): number {
   const r = 1 / x;
   const r2 = r * r;
-  return (
-    r *
-    (1 / 12 +
-      r2 * (-1 / 360 + r2 * (1 / 1260 + r2 * (-1 / 1680 + r2 * (1 / 1188 + r2 * (-691 / 360360 + r2 * (1 / 156 + r2 * (-3617 / 122400))))))))
-  );
+  return r * (1 / 12 + r2 * (-1 / 360 + r2 * (1 / 1260 + r2 * (-1 / 1680 + r2 * (1 / 1188 + r2 * (-691 / 360360 + r2 * (1 / 156 + r2 * (-3617 / 122400))))))));
 }
 
 /**
@@ -103,8 +99,13 @@ export function logBeta(a: number, b: number): number {
     return logGamma(lo) - (hi - 0.5) * Math.log1p(lo / hi) - lo * Math.log(s) + lo + stirlingCorrection(hi) - stirlingCorrection(s);
   }
   return (
-    LN_SQRT_2PI - (a - 0.5) * Math.log1p(b / a) - (b - 0.5) * Math.log1p(a / b) - 0.5 * Math.log(s) +
-    stirlingCorrection(a) + stirlingCorrection(b) - stirlingCorrection(s)
+    LN_SQRT_2PI -
+    (a - 0.5) * Math.log1p(b / a) -
+    (b - 0.5) * Math.log1p(a / b) -
+    0.5 * Math.log(s) +
+    stirlingCorrection(a) +
+    stirlingCorrection(b) -
+    stirlingCorrection(s)
   );
 }
 
@@ -122,8 +123,13 @@ function betaPrefactor(a: number, b: number, x: number, y: number): number {
     const y0 = b / s;
     const e = x <= 0.5 ? x - x0 : y0 - y; // = x − x₀ = y₀ − y, from the coordinate held more precisely
     const exponent =
-      a * logRatioMinusLinear(x, x0, e / x0) + b * logRatioMinusLinear(y, y0, -e / y0) + 0.5 * Math.log(a * y0) - LN_SQRT_2PI -
-      stirlingCorrection(a) - stirlingCorrection(b) + stirlingCorrection(s);
+      a * logRatioMinusLinear(x, x0, e / x0) +
+      b * logRatioMinusLinear(y, y0, -e / y0) +
+      0.5 * Math.log(a * y0) -
+      LN_SQRT_2PI -
+      stirlingCorrection(a) -
+      stirlingCorrection(b) +
+      stirlingCorrection(s);
     return Math.exp(exponent);
   }
   const lnX = x <= 0.5 ? Math.log(x) : Math.log1p(-y);

@@ -23,8 +23,12 @@ export function checkHeader(header: string[], check: HeaderCheck): void {
     const first = seen.get(name);
     if (first !== undefined) {
       const same = header[first] === cell ? "" : ` (from ${quote(header[first])})`;
-      fail("duplicate_header", check.fileName, { ...loc, columnName: cell },
-        `the column name ${quote(name)} is already used by column ${first + 1}${same}; every column needs its own name.`);
+      fail(
+        "duplicate_header",
+        check.fileName,
+        { ...loc, columnName: cell },
+        `the column name ${quote(name)} is already used by column ${first + 1}${same}; every column needs its own name.`,
+      );
     }
     seen.set(name, j);
   });

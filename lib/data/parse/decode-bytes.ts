@@ -70,7 +70,12 @@ function guessBomlessUtf16(bytes: Uint8Array): "utf-16le" | "utf-16be" | null {
 
 function decodeUtf16(bytes: Uint8Array, bigEndian: boolean, fileName: string): string {
   if (bytes.length % 2 !== 0) {
-    fail("encoding", fileName, {}, `the file is marked as UTF-16 but has an odd number of bytes (${formatCount(bytes.length)}), so it is cut off or not UTF-16.`);
+    fail(
+      "encoding",
+      fileName,
+      {},
+      `the file is marked as UTF-16 but has an odd number of bytes (${formatCount(bytes.length)}), so it is cut off or not UTF-16.`,
+    );
   }
   let le = bytes;
   if (bigEndian) {

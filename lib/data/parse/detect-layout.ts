@@ -87,7 +87,10 @@ export function detectLayout(text: string, opts: ParseOptions): Layout {
   if (sample.lines.length === 0) {
     fail("empty", fileName, {}, headerLines.length > 0 ? "the file has only comment or header lines and no data." : "the file contains only blank lines.");
   }
-  const choice = chooseDelimiter(sample.lines.map((l) => l.text), opts);
+  const choice = chooseDelimiter(
+    sample.lines.map((l) => l.text),
+    opts,
+  );
   const { delimiter, decimal } = choice;
   const comma = decimal === ",";
   const rows = sample.lines.map((l) => splitFields(l.text, delimiter));
@@ -196,7 +199,5 @@ function inferTypes(rows: string[][], count: number, comma: boolean): ColumnType
 
 /** Every cell numeric or missing; the top-left cell may be a label such as "y\x". */
 function allNumeric(rows: string[][], comma: boolean): boolean {
-  return rows.every((r, i) =>
-    r.every((f, j) => (i === 0 && j === 0) || isNumericCell(f, comma) || isMissingCell(f)),
-  );
+  return rows.every((r, i) => r.every((f, j) => (i === 0 && j === 0) || isNumericCell(f, comma) || isMissingCell(f)));
 }

@@ -12,10 +12,7 @@ const NEG_INF = new Set(["-inf", "-infinity"]);
 const PLAIN_NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eEdD][+-]?\d+)?$/;
 
 /** Exact powers of ten: m·10^k and m/10^k are correctly rounded for m ≤ 2^53, |k| ≤ 22 (Clinger). */
-export const POW10 = [
-  1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20,
-  1e21, 1e22,
-];
+export const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
 
 /**
  * A number, NaN for a missing cell, or undefined when the cell is text.

@@ -33,16 +33,24 @@ export function parseDelimited(decoded: DecodedText, opts: ParseOptions): Parsed
   const layout = detectLayout(text, opts);
   const maxColumns = opts.maxColumns ?? DEFAULT_MAX_COLUMNS;
   if (layout.columnCount > maxColumns) {
-    fail("too_many_columns", fileName, { line: layout.headerLine ?? layout.dataLine },
-      `${formatCount(layout.columnCount)} columns is more than the limit of ${formatCount(maxColumns)}.`);
+    fail(
+      "too_many_columns",
+      fileName,
+      { line: layout.headerLine ?? layout.dataLine },
+      `${formatCount(layout.columnCount)} columns is more than the limit of ${formatCount(maxColumns)}.`,
+    );
   }
   if (layout.header) checkHeader(layout.header, { fileName, line: layout.headerLine ?? undefined, allowEmptyLast: true });
 
   let types = layout.types;
   let result = scan(text, layout, types);
   if (result.unclosedQuote) {
-    fail("unclosed_quote", fileName, { line: result.unclosedQuote.line, column: result.unclosedQuote.column },
-      "a quoted field opens here and is never closed, so the rest of the file would become one cell; close the quote (write \"\" for a quote inside a field).");
+    fail(
+      "unclosed_quote",
+      fileName,
+      { line: result.unclosedQuote.line, column: result.unclosedQuote.column },
+      'a quoted field opens here and is never closed, so the rest of the file would become one cell; close the quote (write "" for a quote inside a field).',
+    );
   }
   if (result.ragged) raggedError(fileName, layout, result.ragged);
   if (result.rowCount === 0) fail("empty", fileName, { line: layout.headerLine ?? undefined }, "the file has a header but no data rows.");
@@ -70,17 +78,28 @@ export function parseDelimited(decoded: DecodedText, opts: ParseOptions): Parsed
   if (layout.header && layout.header[last] === "") {
     const lastCol = data[last];
     if (!(lastCol instanceof Float64Array && result.stats[last].missing === result.rowCount)) {
-      fail("empty_header", fileName, { line: layout.headerLine ?? undefined, column: last + 1 },
-        "this column has no name; give every column a header (or remove the header line if there is none).");
+      fail(
+        "empty_header",
+        fileName,
+        { line: layout.headerLine ?? undefined, column: last + 1 },
+        "this column has no name; give every column a header (or remove the header line if there is none).",
+      );
     }
     columns = columns.slice(0, last);
     data = data.slice(0, last);
     warnings.push("empty last column (a delimiter at the end of every line) ignored");
   }
   if (!columns.some((c) => c.type === "number")) {
-    const names = columns.slice(0, 5).map((c) => quote(c.sourceHeader || c.name)).join(", ");
-    fail("no_numeric_column", fileName, {},
-      `none of the ${plural(columns.length, "column")} (${names}${columns.length > 5 ? ", …" : ""}) holds numbers; at least one numeric column is needed.`);
+    const names = columns
+      .slice(0, 5)
+      .map((c) => quote(c.sourceHeader || c.name))
+      .join(", ");
+    fail(
+      "no_numeric_column",
+      fileName,
+      {},
+      `none of the ${plural(columns.length, "column")} (${names}${columns.length > 5 ? ", …" : ""}) holds numbers; at least one numeric column is needed.`,
+    );
   }
 
   const blank = layout.blankLines + result.blankLines;
@@ -123,10 +142,11 @@ export function parseDelimited(decoded: DecodedText, opts: ParseOptions): Parsed
 
 function raggedError(fileName: string, layout: Layout, ragged: { line: number; found: number }): never {
   const expected = layout.columnCount;
-  const reference = layout.header ? `the header on line ${layout.headerLine} names ${plural(expected, "column")}` : `the first data row (line ${layout.dataLine}) has ${plural(expected, "value")}`;
+  const reference = layout.header
+    ? `the header on line ${layout.headerLine} names ${plural(expected, "column")}`
+    : `the first data row (line ${layout.dataLine}) has ${plural(expected, "value")}`;
   const column = ragged.found > expected ? expected + 1 : ragged.found + 1;
-  fail("ragged", fileName, { line: ragged.line, column },
-    `this row has ${plural(ragged.found, "value")}, but ${reference}.`);
+  fail("ragged", fileName, { line: ragged.line, column }, `this row has ${plural(ragged.found, "value")}, but ${reference}.`);
 }
 
 function nonNumericError(fileName: string, layout: Layout, j: number, line: number, value: string, count: number): never {

@@ -25,7 +25,12 @@ const MAX_JSON_NESTING = 64;
  * (JSON.stringify of a cell, for one) would overflow the call stack.
  */
 function findDeepNesting(root: unknown, max: number): Path | null {
-  interface Frame { value: object; depth: number; parent: Frame | null; key: string | number }
+  interface Frame {
+    value: object;
+    depth: number;
+    parent: Frame | null;
+    key: string | number;
+  }
   if (root === null || typeof root !== "object") return null;
   const stack: Frame[] = [{ value: root, depth: 1, parent: null, key: "" }];
   while (stack.length) {
@@ -101,7 +106,10 @@ export function parseJson(decoded: DecodedText, opts: ParseOptions): ParsedTable
     fail("too_many_columns", fileName, {}, `${formatCount(shape.columns.length)} columns is more than the limit of ${formatCount(maxColumns)}.`);
   }
   if (shape.columns.length === 0 || shape.rowCount === 0) fail("empty", fileName, {}, "the JSON holds no data rows.");
-  checkHeader(shape.columns.map((c) => c.header), { fileName });
+  checkHeader(
+    shape.columns.map((c) => c.header),
+    { fileName },
+  );
 
   const warnings = [...decoded.warnings];
   const columns: ParsedColumn[] = [];
@@ -164,7 +172,8 @@ function toShape(root: unknown, fileName: string, at: Locate): Shape {
   if (arrays.length === 0) shapeError(fileName, at([]), "the JSON object holds no table (expected {columns, rows}, records or column arrays).");
   const rowCount = arrays[0][1].length;
   for (const [k, v] of arrays) {
-    if (v.length !== rowCount) fail("ragged", fileName, { ...at([k]), columnName: k }, `column ${quote(k)} has ${v.length} values, but ${quote(arrays[0][0])} has ${rowCount}.`);
+    if (v.length !== rowCount)
+      fail("ragged", fileName, { ...at([k]), columnName: k }, `column ${quote(k)} has ${v.length} values, but ${quote(arrays[0][0])} has ${rowCount}.`);
   }
   return { columns: arrays.map(([k, v]) => ({ header: k, values: v, pathOf: (r) => [k, r] })), rowCount, metadata };
 }
@@ -236,8 +245,12 @@ function typeColumn(raw: RawColumn, rows: number, fileName: string, at: Locate):
   if (badCount > 0) {
     const where = at(raw.pathOf(firstBad));
     const more = badCount > 1 ? ` apart from ${formatCount(badCount - 1)} more such value${badCount === 2 ? "" : "s"}` : "";
-    fail("non_numeric", fileName, { ...where, columnName: raw.header },
-      `row ${firstBad + 1} holds ${quote(toText(raw.values[firstBad]))}, which is not a number; the rest of this column is numeric${more}.`);
+    fail(
+      "non_numeric",
+      fileName,
+      { ...where, columnName: raw.header },
+      `row ${firstBad + 1} holds ${quote(toText(raw.values[firstBad]))}, which is not a number; the rest of this column is numeric${more}.`,
+    );
   }
   return { type: "number", values: nums, missing };
 }

@@ -39,7 +39,10 @@ export function isCommentLine(line: string): boolean {
 
 /** Removes the comment marker(s) of a comment line: `## x`, `% x`, `// x` → `x`. */
 export function stripComment(line: string): string {
-  return line.trimStart().replace(/^(#+|%+|\/\/+)\s?/, "").trim();
+  return line
+    .trimStart()
+    .replace(/^(#+|%+|\/\/+)\s?/, "")
+    .trim();
 }
 
 const QUOTE = 34;
@@ -136,7 +139,11 @@ export function readQuoted(s: string, from: number): { value: string; end: numbe
 export function splitHeaderFields(line: string, delim: DelimiterOption, expected: number): string[] {
   const plain = splitFields(line, delim);
   if (delim !== "whitespace" || plain.length === expected) return plain;
-  const wide = line.trim().split(/\t+| {2,}/).map((s) => s.trim()).filter((s) => s !== "");
+  const wide = line
+    .trim()
+    .split(/\t+| {2,}/)
+    .map((s) => s.trim())
+    .filter((s) => s !== "");
   if (wide.length === expected) return wide;
   const glued: string[] = [];
   for (const tok of plain) {

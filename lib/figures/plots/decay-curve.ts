@@ -4,8 +4,19 @@
  */
 import type { TopLevelSpec } from "vega-lite";
 import {
-  axisTitle, concatFrame, innerWidthPt, mmToPt, OKABE_ITO, type ScaleKind, scaleFor, seriesFilter,
-  quantitative, singleViewPanel, type Spec, vlField, withPrint,
+  axisTitle,
+  concatFrame,
+  innerWidthPt,
+  mmToPt,
+  OKABE_ITO,
+  type ScaleKind,
+  scaleFor,
+  seriesFilter,
+  quantitative,
+  singleViewPanel,
+  type Spec,
+  vlField,
+  withPrint,
 } from "./print";
 import { axisTextOptions, dataNamesOf, dataOptions, fittedCurveOption, scaleOption, SIGMA_COLUMN_OPTION } from "./template-options";
 import type { CommonOptions, FigureTemplate, XYAxisText } from "./types";
@@ -28,8 +39,18 @@ export interface DecayCurveOptions extends CommonOptions, XYAxisText {
 }
 
 export const DECAY_CURVE_DEFAULTS: DecayCurveOptions = {
-  dataName: "echo", xField: "tau", yField: "signal", sigmaField: "", fitName: "fit", residualName: "residuals",
-  seriesField: "series", xName: "τ", xUnit: "µs", yName: "coherence", yUnit: "", xScale: "linear",
+  dataName: "echo",
+  xField: "tau",
+  yField: "signal",
+  sigmaField: "",
+  fitName: "fit",
+  residualName: "residuals",
+  seriesField: "series",
+  xName: "τ",
+  xUnit: "µs",
+  yName: "coherence",
+  yUnit: "",
+  xScale: "linear",
 };
 
 function build(input: Partial<DecayCurveOptions>): TopLevelSpec {
@@ -101,10 +122,20 @@ export const decayCurveTemplate: FigureTemplate<DecayCurveOptions> = {
   title: "Decay curve with fit and residuals",
   description: "Hahn-echo, T1 or Ramsey decay: points (± σ), fitted curve and a residual strip on a linear or log time axis.",
   options: [
-    ...dataOptions("Measured points", "echo", [["xField", "Time column", "tau"], ["yField", "Signal column", "signal"]]),
+    ...dataOptions("Measured points", "echo", [
+      ["xField", "Time column", "tau"],
+      ["yField", "Signal column", "signal"],
+    ]),
     SIGMA_COLUMN_OPTION,
     fittedCurveOption("fit"),
-    { key: "residualName", label: "Residuals", kind: "data-name", binds: "analysis-residuals", default: "residuals", help: "leave empty for no residual strip" },
+    {
+      key: "residualName",
+      label: "Residuals",
+      kind: "data-name",
+      binds: "analysis-residuals",
+      default: "residuals",
+      help: "leave empty for no residual strip",
+    },
     { key: "fitXField", label: "Time column of the fit", kind: "column", dataKey: "fitName", help: "default: as the data" },
     { key: "fitYField", label: "Value column of the fit", kind: "column", dataKey: "fitName", help: "default: as the data" },
     ...axisTextOptions("Time", ["xName", "τ"], ["xUnit", "µs"]),

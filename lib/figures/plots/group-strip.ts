@@ -20,8 +20,14 @@ export interface GroupStripOptions extends CommonOptions {
 }
 
 const GROUP_STRIP_DEFAULTS: GroupStripOptions = {
-  dataName: "population", groupField: "sample", valueField: "T2", groupName: "sample", valueName: "T₂", unit: "µs",
-  summary: "mean-sd", yScale: "linear",
+  dataName: "population",
+  groupField: "sample",
+  valueField: "T2",
+  groupName: "sample",
+  valueName: "T₂",
+  unit: "µs",
+  summary: "mean-sd",
+  yScale: "linear",
 };
 
 function build(input: Partial<GroupStripOptions>): TopLevelSpec {
@@ -44,7 +50,8 @@ function build(input: Partial<GroupStripOptions>): TopLevelSpec {
     {
       mark: { type: "point", opacity: 0.75 },
       encoding: {
-        x, y,
+        x,
+        y,
         xOffset: { field: "strip_jitter", type: "quantitative", scale: { domain: [-1, 1] } },
         color: { field: group, type: "nominal", legend: null },
       },
@@ -73,11 +80,22 @@ export const groupStripTemplate: FigureTemplate<GroupStripOptions> = {
   title: "Parameter by group (strip plot)",
   description: "One point per centre, grouped by sample, with mean ± sd or median and IQR, and n shown per group.",
   options: [
-    ...dataOptions("Population table", "population", [["groupField", "Group column", "sample"], ["valueField", "Value column", "T2"]]),
+    ...dataOptions("Population table", "population", [
+      ["groupField", "Group column", "sample"],
+      ["valueField", "Value column", "T2"],
+    ]),
     ...axisTextOptions("Group", ["groupName", "sample"]),
     ...axisTextOptions("Value", ["valueName", "T₂"], ["unit", "µs"]),
-    { key: "summary", label: "Summary", kind: "select", default: "mean-sd", choices: [
-      { value: "mean-sd", label: "mean ± sd" }, { value: "median-iqr", label: "median and IQR" }] },
+    {
+      key: "summary",
+      label: "Summary",
+      kind: "select",
+      default: "mean-sd",
+      choices: [
+        { value: "mean-sd", label: "mean ± sd" },
+        { value: "median-iqr", label: "median and IQR" },
+      ],
+    },
     scaleOption("yScale", "Value axis"),
   ],
   dataNames: dataNamesOf(GROUP_STRIP_DEFAULTS, ["dataName"]),

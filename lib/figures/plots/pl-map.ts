@@ -22,8 +22,15 @@ export interface PlMapOptions extends CommonOptions {
 }
 
 const PL_MAP_DEFAULTS: PlMapOptions = {
-  dataName: "plmap", xField: "x", yField: "y", valueField: "counts", pixelUm: 0.2, scaleBarUm: 5,
-  colorScheme: "viridis", colorTitle: "count rate (kcounts/s)", unit: "µm",
+  dataName: "plmap",
+  xField: "x",
+  yField: "y",
+  valueField: "counts",
+  pixelUm: 0.2,
+  scaleBarUm: 5,
+  colorScheme: "viridis",
+  colorTitle: "count rate (kcounts/s)",
+  unit: "µm",
 };
 
 const num = (v: number): string => String(Number(v.toPrecision(12)));
@@ -48,13 +55,22 @@ function build(input: Partial<PlMapOptions>): TopLevelSpec {
       // Each pixel reaches 0.6 pt under its right and upper neighbours (drawn later): no anti-aliasing seams.
       mark: { type: "rect", strokeWidth: 0, x2Offset: 0.6, y2Offset: -0.6 },
       encoding: {
-        x: pos("map_x0", xTitle), x2: { field: "map_x1" },
-        y: pos("map_y0", yTitle), y2: { field: "map_y1" },
+        x: pos("map_x0", xTitle),
+        x2: { field: "map_x1" },
+        y: pos("map_y0", yTitle),
+        y2: { field: "map_y1" },
         color: {
-          field: vlField(o.valueField), type: "quantitative", scale: { scheme: o.colorScheme },
+          field: vlField(o.valueField),
+          type: "quantitative",
+          scale: { scheme: o.colorScheme },
           legend: {
-            title: o.colorTitle, orient: "right", direction: "vertical", gradientLength: Math.round(heightPt * 0.6),
-            titleOrient: "right", titleAnchor: "middle", tickCount: 4,
+            title: o.colorTitle,
+            orient: "right",
+            direction: "vertical",
+            gradientLength: Math.round(heightPt * 0.6),
+            titleOrient: "right",
+            titleAnchor: "middle",
+            tickCount: 4,
           },
         },
       },
@@ -64,17 +80,24 @@ function build(input: Partial<PlMapOptions>): TopLevelSpec {
     const L = num(o.scaleBarUm);
     layers.push({
       transform: [
-        { aggregate: [
-          { op: "min", field: vlField(o.xField), as: "bar_xmin" }, { op: "max", field: vlField(o.xField), as: "bar_xmax" },
-          { op: "min", field: vlField(o.yField), as: "bar_ymin" }, { op: "max", field: vlField(o.yField), as: "bar_ymax" },
-        ] },
+        {
+          aggregate: [
+            { op: "min", field: vlField(o.xField), as: "bar_xmin" },
+            { op: "max", field: vlField(o.xField), as: "bar_xmax" },
+            { op: "min", field: vlField(o.yField), as: "bar_ymin" },
+            { op: "max", field: vlField(o.yField), as: "bar_ymax" },
+          ],
+        },
         { calculate: `datum.bar_xmax + ${half} - 0.06 * (datum.bar_xmax - datum.bar_xmin) - ${L}`, as: "bar_x0" },
         { calculate: `datum.bar_x0 + ${L}`, as: "bar_x1" },
         { calculate: `datum.bar_x0 + ${L} / 2`, as: "bar_xc" },
         { calculate: `datum.bar_ymin - ${half} + 0.08 * (datum.bar_ymax - datum.bar_ymin)`, as: "bar_y" },
       ],
       layer: [
-        { mark: { type: "rule", color: "white", strokeWidth: 2, strokeCap: "butt" }, encoding: { x: pos("bar_x0", xTitle), x2: { field: "bar_x1" }, y: pos("bar_y", yTitle) } },
+        {
+          mark: { type: "rule", color: "white", strokeWidth: 2, strokeCap: "butt" },
+          encoding: { x: pos("bar_x0", xTitle), x2: { field: "bar_x1" }, y: pos("bar_y", yTitle) },
+        },
         {
           mark: { type: "text", color: "white", baseline: "bottom", align: "center", dy: -3 },
           encoding: { x: pos("bar_xc", xTitle), y: pos("bar_y", yTitle), text: { value: `${L} ${o.unit}` } },
@@ -90,11 +113,25 @@ export const plMapTemplate: FigureTemplate<PlMapOptions> = {
   title: "PL map (heatmap) with colour and scale bars",
   description: "2-D confocal scan as a heatmap in counts/s with a colour bar and a scale bar in µm.",
   options: [
-    ...dataOptions("Scan", "plmap", [["xField", "x column", "x"], ["yField", "y column", "y"], ["valueField", "Count-rate column", "counts"]]),
+    ...dataOptions("Scan", "plmap", [
+      ["xField", "x column", "x"],
+      ["yField", "y column", "y"],
+      ["valueField", "Count-rate column", "counts"],
+    ]),
     { key: "pixelUm", label: "Scan step", kind: "number", default: 0.2, min: 0, unit: "µm" },
     { key: "scaleBarUm", label: "Scale bar", kind: "number", default: 5, min: 0, unit: "µm", help: "0 for none" },
-    { key: "colorScheme", label: "Colour map", kind: "select", default: "viridis", choices: [
-      { value: "viridis", label: "viridis" }, { value: "cividis", label: "cividis" }, { value: "magma", label: "magma" }, { value: "greys", label: "greys" }] },
+    {
+      key: "colorScheme",
+      label: "Colour map",
+      kind: "select",
+      default: "viridis",
+      choices: [
+        { value: "viridis", label: "viridis" },
+        { value: "cividis", label: "cividis" },
+        { value: "magma", label: "magma" },
+        { value: "greys", label: "greys" },
+      ],
+    },
     { key: "colorTitle", label: "Colour bar title", kind: "text", default: "count rate (kcounts/s)" },
     { key: "unit", label: "Position unit", kind: "text", default: "µm" },
   ],

@@ -23,8 +23,14 @@ export const OKABE_ITO = {
 
 /** Category order: strong hues first, yellow (weak on white paper) last. */
 const OKABE_ITO_CATEGORY = [
-  OKABE_ITO.blue, OKABE_ITO.vermillion, OKABE_ITO.bluishGreen, OKABE_ITO.orange, OKABE_ITO.reddishPurple,
-  OKABE_ITO.skyBlue, OKABE_ITO.black, OKABE_ITO.yellow,
+  OKABE_ITO.blue,
+  OKABE_ITO.vermillion,
+  OKABE_ITO.bluishGreen,
+  OKABE_ITO.orange,
+  OKABE_ITO.reddishPurple,
+  OKABE_ITO.skyBlue,
+  OKABE_ITO.black,
+  OKABE_ITO.yellow,
 ];
 
 const PT_PER_MM = 72 / 25.4;
@@ -88,13 +94,29 @@ function printConfig(p: PrintSettings): Spec {
     padding: 2,
     view: { stroke: null },
     axis: {
-      ...axisLine, labelFont: "Inter", titleFont: "Inter", labelFontSize: p.labelPt, titleFontSize: p.titlePt,
-      titleFontWeight: "normal", labelColor: "#000000", titleColor: "#000000", tickSize: 3, labelPadding: 2,
-      titlePadding: 3, grid: false,
+      ...axisLine,
+      labelFont: "Inter",
+      titleFont: "Inter",
+      labelFontSize: p.labelPt,
+      titleFontSize: p.titlePt,
+      titleFontWeight: "normal",
+      labelColor: "#000000",
+      titleColor: "#000000",
+      tickSize: 3,
+      labelPadding: 2,
+      titlePadding: 3,
+      grid: false,
     },
     legend: {
-      labelFont: "Inter", titleFont: "Inter", labelFontSize: p.labelPt, titleFontSize: p.titlePt, titleFontWeight: "normal",
-      symbolSize: 24, gradientThickness: 6, padding: 0, rowPadding: 2,
+      labelFont: "Inter",
+      titleFont: "Inter",
+      labelFontSize: p.labelPt,
+      titleFontSize: p.titlePt,
+      titleFontWeight: "normal",
+      symbolSize: 24,
+      gradientThickness: 6,
+      padding: 0,
+      rowPadding: 2,
     },
     header: { labelFont: "Inter", titleFont: "Inter", labelFontSize: p.labelPt, titleFontSize: p.titlePt },
     title: { font: "Inter", fontSize: p.titlePt, fontWeight: "bold", anchor: "start" },

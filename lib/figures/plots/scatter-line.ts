@@ -17,17 +17,25 @@ export interface ScatterLineOptions extends CommonOptions, XYAxisText {
 }
 
 const SCATTER_LINE_DEFAULTS: ScatterLineOptions = {
-  dataName: "data", xField: "x", yField: "y", sigmaField: "", colorField: "", marks: "points",
-  xName: "x", xUnit: "", yName: "y", yUnit: "", xScale: "linear", yScale: "linear",
+  dataName: "data",
+  xField: "x",
+  yField: "y",
+  sigmaField: "",
+  colorField: "",
+  marks: "points",
+  xName: "x",
+  xUnit: "",
+  yName: "y",
+  yUnit: "",
+  xScale: "linear",
+  yScale: "linear",
 };
 
 function build(input: Partial<ScatterLineOptions>): TopLevelSpec {
   const o = { ...SCATTER_LINE_DEFAULTS, ...input };
   const x = quantitative(o.xField, axisTitle(o.xName, o.xUnit), scaleFor(o.xScale));
   const y = quantitative(o.yField, axisTitle(o.yName, o.yUnit), scaleFor(o.yScale));
-  const color: Spec = o.colorField
-    ? { color: { field: vlField(o.colorField), type: "nominal", legend: { title: null, orient: "top-right" } } }
-    : {};
+  const color: Spec = o.colorField ? { color: { field: vlField(o.colorField), type: "nominal", legend: { title: null, orient: "top-right" } } } : {};
   const fixed = o.colorField ? {} : { color: OKABE_ITO.blue };
   const layers: Spec[] = [];
   if (o.sigmaField) {
@@ -43,11 +51,23 @@ export const scatterLineTemplate: FigureTemplate<ScatterLineOptions> = {
   title: "Scatter or line plot",
   description: "Any two columns as points and/or a line, with optional ± σ error bars and series colours.",
   options: [
-    ...dataOptions("Data", "data", [["xField", "x column", "x"], ["yField", "y column", "y"]]),
+    ...dataOptions("Data", "data", [
+      ["xField", "x column", "x"],
+      ["yField", "y column", "y"],
+    ]),
     SIGMA_COLUMN_OPTION,
     { key: "colorField", label: "Series column", kind: "column", dataKey: "dataName" },
-    { key: "marks", label: "Draw", kind: "select", default: "points", choices: [
-      { value: "points", label: "points" }, { value: "line", label: "line" }, { value: "line+points", label: "line and points" }] },
+    {
+      key: "marks",
+      label: "Draw",
+      kind: "select",
+      default: "points",
+      choices: [
+        { value: "points", label: "points" },
+        { value: "line", label: "line" },
+        { value: "line+points", label: "line and points" },
+      ],
+    },
     ...axisTextOptions("x", ["xName", "x"], ["xUnit", ""]),
     ...axisTextOptions("y", ["yName", "y"], ["yUnit", ""]),
     scaleOption("xScale", "x axis"),

@@ -27,8 +27,17 @@ const ZPL_MARKERS: Marker[] = [
 ];
 
 const SPECTRUM_DEFAULTS: SpectrumOptions = {
-  dataName: "spectrum", xField: "wavelength", yField: "intensity", fitName: "", seriesField: "series",
-  xName: "wavelength", xUnit: "nm", yName: "PL intensity", yUnit: "kcounts/s", yScale: "linear", markers: ZPL_MARKERS,
+  dataName: "spectrum",
+  xField: "wavelength",
+  yField: "intensity",
+  fitName: "",
+  seriesField: "series",
+  xName: "wavelength",
+  xUnit: "nm",
+  yName: "PL intensity",
+  yUnit: "kcounts/s",
+  yScale: "linear",
+  markers: ZPL_MARKERS,
 };
 
 /** The line-plus-markers layers shared by the spectrum and NV-NMR templates. */
@@ -37,9 +46,7 @@ function spectrumLayers(o: SpectrumOptions, markerColor: string): Spec[] {
   const xTitle = axisTitle(o.xName, o.xUnit);
   const x = (field: string): Spec => quantitative(field, xTitle, { zero: false, nice: false });
   const y = quantitative(o.yField, axisTitle(o.yName, o.yUnit), scaleFor(o.yScale));
-  const layers: Spec[] = [
-    { data: { name: o.dataName }, mark: { type: "line", color: OKABE_ITO.black, strokeWidth: 0.8 }, encoding: { x: x(o.xField), y } },
-  ];
+  const layers: Spec[] = [{ data: { name: o.dataName }, mark: { type: "line", color: OKABE_ITO.black, strokeWidth: 0.8 }, encoding: { x: x(o.xField), y } }];
   if (o.fitName) {
     layers.push({
       data: { name: o.fitName },
@@ -69,7 +76,10 @@ export const spectrumTemplate: FigureTemplate<SpectrumOptions> = {
   title: "Spectrum with marker lines",
   description: "PL or ODMR spectrum with labelled vertical lines (zero-phonon lines, resonances) and an optional fitted curve.",
   options: [
-    ...dataOptions("Spectrum", "spectrum", [["xField", "x column", "wavelength"], ["yField", "y column", "intensity"]]),
+    ...dataOptions("Spectrum", "spectrum", [
+      ["xField", "x column", "wavelength"],
+      ["yField", "y column", "intensity"],
+    ]),
     fittedCurveOption(),
     ...axisTextOptions("x", ["xName", "wavelength"], ["xUnit", "nm"]),
     ...axisTextOptions("y", ["yName", "PL intensity"], ["yUnit", "kcounts/s"]),
@@ -92,8 +102,17 @@ export interface NvNmrOptions extends Omit<SpectrumOptions, "markers" | "xName" 
 }
 
 const NV_NMR_DEFAULTS: NvNmrOptions = {
-  dataName: "nmr", xField: "frequency", yField: "contrast", fitName: "", seriesField: "series", yName: "contrast",
-  yUnit: "", yScale: "linear", nucleus: "1H", fieldMt: 50, xQuantity: "frequency",
+  dataName: "nmr",
+  xField: "frequency",
+  yField: "contrast",
+  fitName: "",
+  seriesField: "series",
+  yName: "contrast",
+  yUnit: "",
+  yScale: "linear",
+  nucleus: "1H",
+  fieldMt: 50,
+  xQuantity: "frequency",
 };
 
 /** Where the expected line goes: MHz on a frequency axis, µs on a pulse-spacing axis. */
@@ -109,12 +128,28 @@ export const nvNmrTemplate: FigureTemplate<NvNmrOptions> = {
   title: "NV-NMR spectrum with expected nucleus",
   description: "Dynamical-decoupling or spin-lock NMR spectrum with a line at the expected Larmor frequency of the chosen nucleus at the current field.",
   options: [
-    ...dataOptions("Spectrum", "nmr", [["xField", "Frequency or τ column", "frequency"], ["yField", "Signal column", "contrast"]]),
+    ...dataOptions("Spectrum", "nmr", [
+      ["xField", "Frequency or τ column", "frequency"],
+      ["yField", "Signal column", "contrast"],
+    ]),
     fittedCurveOption(),
-    { key: "xQuantity", label: "x axis", kind: "select", default: "frequency", choices: [
-      { value: "frequency", label: "frequency (MHz)" }, { value: "spacing", label: "pulse spacing τ (µs)" }] },
-    { key: "nucleus", label: "Nucleus", kind: "select", default: "1H",
-      choices: (["1H", "13C", "19F", "14N", "15N"] as Nucleus[]).map((n) => ({ value: n, label: NUCLEI[n].label })) },
+    {
+      key: "xQuantity",
+      label: "x axis",
+      kind: "select",
+      default: "frequency",
+      choices: [
+        { value: "frequency", label: "frequency (MHz)" },
+        { value: "spacing", label: "pulse spacing τ (µs)" },
+      ],
+    },
+    {
+      key: "nucleus",
+      label: "Nucleus",
+      kind: "select",
+      default: "1H",
+      choices: (["1H", "13C", "19F", "14N", "15N"] as Nucleus[]).map((n) => ({ value: n, label: NUCLEI[n].label })),
+    },
     { key: "fieldMt", label: "Bias field", kind: "number", default: 50, min: 0, unit: "mT" },
     ...axisTextOptions("Signal", ["yName", "contrast"], ["yUnit", ""]),
   ],

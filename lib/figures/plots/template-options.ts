@@ -10,7 +10,14 @@ import type { TemplateOptionField } from "./types";
 export function dataOptions(label: string, dataDefault: string, columns: Array<[key: string, label: string, defaultColumn: string]>): TemplateOptionField[] {
   return [
     { key: "dataName", label, kind: "data-name", binds: "dataset", required: true, default: dataDefault },
-    ...columns.map(([key, columnLabel, def]): TemplateOptionField => ({ key, label: columnLabel, kind: "column", dataKey: "dataName", required: true, default: def })),
+    ...columns.map(([key, columnLabel, def]): TemplateOptionField => ({
+      key,
+      label: columnLabel,
+      kind: "column",
+      dataKey: "dataName",
+      required: true,
+      default: def,
+    })),
   ];
 }
 
@@ -19,7 +26,14 @@ export const SIGMA_COLUMN_OPTION: TemplateOptionField = { key: "sigmaField", lab
 
 /** An analysis output (curve rows) drawn as the fitted line; option `fitName`. */
 export function fittedCurveOption(dataDefault?: string): TemplateOptionField {
-  return { key: "fitName", label: "Fitted curve", kind: "data-name", binds: "analysis-curve", ...(dataDefault === undefined ? {} : { default: dataDefault }), help: "leave empty for no fit" };
+  return {
+    key: "fitName",
+    label: "Fitted curve",
+    kind: "data-name",
+    binds: "analysis-curve",
+    ...(dataDefault === undefined ? {} : { default: dataDefault }),
+    help: "leave empty for no fit",
+  };
 }
 
 /** "<Axis> axis name" and, when given, "<Axis> unit" text options: [option key, default]. */

@@ -54,7 +54,16 @@ export interface FigureTemplate<O extends CommonOptions = CommonOptions> {
 
 /** The print-settings part of every template's form. */
 export const PRINT_OPTION_FIELDS: TemplateOptionField[] = [
-  { key: "print.widthMm", label: "Width", kind: "number", default: 89, min: 20, max: 300, unit: "mm", help: "single column 89 mm, 1.5 column 120 mm, double 183 mm" },
+  {
+    key: "print.widthMm",
+    label: "Width",
+    kind: "number",
+    default: 89,
+    min: 20,
+    max: 300,
+    unit: "mm",
+    help: "single column 89 mm, 1.5 column 120 mm, double 183 mm",
+  },
   { key: "print.heightMm", label: "Height", kind: "number", default: 62, min: 15, max: 250, unit: "mm" },
   { key: "print.labelPt", label: "Label size", kind: "number", default: 7, min: 5, max: 12, unit: "pt" },
   { key: "print.titlePt", label: "Title size", kind: "number", default: 8, min: 5, max: 14, unit: "pt" },

@@ -7,12 +7,23 @@ import { badRequest, notFound } from "@/lib/errors";
 export function analysisCatalogue() {
   return {
     items: listModels().map((m) => ({
-      id: m.id, type: "model" as const, title: m.title, formula: m.formula, version: m.version, kinds: m.kinds,
+      id: m.id,
+      type: "model" as const,
+      title: m.title,
+      formula: m.formula,
+      version: m.version,
+      kinds: m.kinds,
       parameters: m.params.map((p) => ({ name: p.name, unit: p.unit, description: p.description })),
     })),
     calculators: listCalculators().map((c) => ({
-      id: c.id, type: "calculator" as const, title: c.title, formula: c.formula, assumptions: c.assumptions, source: c.source,
-      inputs: c.inputs, outputs: c.outputs,
+      id: c.id,
+      type: "calculator" as const,
+      title: c.title,
+      formula: c.formula,
+      assumptions: c.assumptions,
+      source: c.source,
+      inputs: c.inputs,
+      outputs: c.outputs,
     })),
     unitRoles: "A parameter's unit is given relative to the fitted columns: x, y, 1/x, 1 (dimensionless), x*y, y/x …",
     caution: ESTIMATE_CAUTION,

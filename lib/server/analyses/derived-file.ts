@@ -3,10 +3,20 @@ import type { SampledCurve } from "@/lib/analysis";
 import { axisTitle } from "@/lib/data/format";
 
 export interface DerivedFileInput {
-  sourceVersionId: string; sourceSha256: string; modelId: string; modelVersion: string;
-  xName: string; xUnit: string | null; yName: string; yUnit: string | null;
+  sourceVersionId: string;
+  sourceSha256: string;
+  modelId: string;
+  modelVersion: string;
+  xName: string;
+  xUnit: string | null;
+  yName: string;
+  yUnit: string | null;
   parameters: Array<{ name: string; value: number; stderr: number; unit: string }>;
-  chi2red: number; curve: SampledCurve; dataX: ArrayLike<number>; dataY: ArrayLike<number>; residuals: ArrayLike<number>;
+  chi2red: number;
+  curve: SampledCurve;
+  dataX: ArrayLike<number>;
+  dataY: ArrayLike<number>;
+  residuals: ArrayLike<number>;
 }
 
 const fmt = (v: number) => (Number.isFinite(v) ? String(v) : "");

@@ -8,15 +8,23 @@ import { columnsFor } from "../datasets/columns-cache";
 import type { FitOptions } from "./schemas";
 
 export interface FitData {
-  version: typeof versions.$inferSelect; dataset: typeof datasets.$inferSelect;
-  x: Float64Array; y: Float64Array; sigma?: Float64Array;
-  xUnit: string | null; yUnit: string | null; dropped: number;
+  version: typeof versions.$inferSelect;
+  dataset: typeof datasets.$inferSelect;
+  x: Float64Array;
+  y: Float64Array;
+  sigma?: Float64Array;
+  xUnit: string | null;
+  yUnit: string | null;
+  dropped: number;
 }
 
 /** The x, y (and σ) columns of a version, rows with a missing value or outside xRange left out. */
 export async function loadFitData(versionId: string, options: FitOptions): Promise<FitData> {
-  const [row] = await getDb().select({ v: versions, d: datasets }).from(versions)
-    .innerJoin(datasets, eq(datasets.id, versions.datasetId)).where(eq(versions.id, versionId));
+  const [row] = await getDb()
+    .select({ v: versions, d: datasets })
+    .from(versions)
+    .innerJoin(datasets, eq(datasets.id, versions.datasetId))
+    .where(eq(versions.id, versionId));
   if (!row) throw notFound();
   const table = decodeColumnar(await columnsFor(row.v.sha256, row.v.fileName));
   const numeric = table.columns.filter((c) => c.type === "number").map((c) => c.name);
@@ -37,7 +45,13 @@ export async function loadFitData(versionId: string, options: FitOptions): Promi
   }
   const pick = (a: Float64Array) => Float64Array.from(keep, (i) => a[i]);
   return {
-    version: row.v, dataset: row.d, x: pick(xs.data), y: pick(ys.data), sigma: ss ? pick(ss.data) : undefined,
-    xUnit: xs.unit, yUnit: ys.unit, dropped: xs.data.length - keep.length,
+    version: row.v,
+    dataset: row.d,
+    x: pick(xs.data),
+    y: pick(ys.data),
+    sigma: ss ? pick(ss.data) : undefined,
+    xUnit: xs.unit,
+    yUnit: ys.unit,
+    dropped: xs.data.length - keep.length,
   };
 }

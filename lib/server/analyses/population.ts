@@ -20,9 +20,13 @@ export async function populationStatistics(user: SessionUser, manuscriptId: stri
   if (!known.params.some((p) => p.name === parameter)) {
     throw badRequest(`parameter: model ${model} has no parameter "${parameter}" (it has ${known.params.map((p) => p.name).join(", ")}).`);
   }
-  const rows = await getDb().select({ a: analyses, v: versions, d: datasets }).from(analyses)
-    .innerJoin(versions, eq(versions.id, analyses.versionId)).innerJoin(datasets, eq(datasets.id, versions.datasetId))
-    .where(and(eq(analyses.manuscriptId, manuscriptId), eq(analyses.model, model))).orderBy(desc(analyses.createdAt));
+  const rows = await getDb()
+    .select({ a: analyses, v: versions, d: datasets })
+    .from(analyses)
+    .innerJoin(versions, eq(versions.id, analyses.versionId))
+    .innerJoin(datasets, eq(datasets.id, versions.datasetId))
+    .where(and(eq(analyses.manuscriptId, manuscriptId), eq(analyses.model, model)))
+    .orderBy(desc(analyses.createdAt));
   const currentIds = await currentVersionIds([...new Set(rows.map((r) => r.d.id))]);
   const seen = new Set<string>();
   const members: Array<{ group: string; value: number; stderr: number | null; analysisId: string; dataset: string; versionNumber: number }> = [];
@@ -48,8 +52,10 @@ export async function populationStatistics(user: SessionUser, manuscriptId: stri
 /** The id of the newest version of each dataset: only runs on current data count. */
 async function currentVersionIds(datasetIds: string[]): Promise<Set<string>> {
   if (!datasetIds.length) return new Set();
-  const all = await getDb().select({ id: versions.id, datasetId: versions.datasetId, number: versions.number })
-    .from(versions).where(inArray(versions.datasetId, datasetIds));
+  const all = await getDb()
+    .select({ id: versions.id, datasetId: versions.datasetId, number: versions.number })
+    .from(versions)
+    .where(inArray(versions.datasetId, datasetIds));
   const newest = new Map<string, { id: string; number: number }>();
   for (const v of all) if ((newest.get(v.datasetId)?.number ?? 0) < v.number) newest.set(v.datasetId, v);
   return new Set([...newest.values()].map((v) => v.id));

@@ -21,8 +21,13 @@ function fitOrExplain(input: AnalysisInput, data: FitData): ModelFitResult {
   if (!getModel(input.model)) throw badRequest(`model: unknown model "${input.model}"; GET /api/analysis-models lists them.`);
   try {
     return fitModel(input.model, {
-      x: data.x, y: data.y, sigma: data.sigma, start: input.options.start, fixed: input.options.fixed,
-      bounds: input.options.bounds, maxIterations: input.options.maxIterations,
+      x: data.x,
+      y: data.y,
+      sigma: data.sigma,
+      start: input.options.start,
+      fixed: input.options.fixed,
+      bounds: input.options.bounds,
+      maxIterations: input.options.maxIterations,
     });
   } catch (err) {
     if (err instanceof FitInputError) throw badRequest(`options.${err.field}: ${err.message}.`);
@@ -31,8 +36,12 @@ function fitOrExplain(input: AnalysisInput, data: FitData): ModelFitResult {
 }
 
 function curveFor(modelId: string, fit: ModelFitResult, x: Float64Array) {
-  let lo = Infinity, hi = -Infinity;
-  for (const v of x) { if (v < lo) lo = v; if (v > hi) hi = v; }
+  let lo = Infinity,
+    hi = -Infinity;
+  for (const v of x) {
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
   const log = lo > 0 && hi / lo > 100;
   return sampleCurve(modelId, fit.values, lo, hi, CURVE_POINTS, log);
 }
@@ -48,27 +57,53 @@ export async function previewAnalysis(user: SessionUser, raw: AnalysisInput) {
 
 function describeRun(input: AnalysisInput, data: FitData, fit: ModelFitResult, curve: { x: number[]; y: number[] }) {
   const parameters = fit.params.map((p) => ({
-    name: p.name, value: nullIfNaN(p.value), stderr: nullIfNaN(p.stderr), unit: resolveUnit(p.unit, data.xUnit, data.yUnit),
-    fixed: p.fixed, atBound: p.atBound, start: nullIfNaN(p.start), bounds: p.bounds.map(nullIfNaN),
+    name: p.name,
+    value: nullIfNaN(p.value),
+    stderr: nullIfNaN(p.stderr),
+    unit: resolveUnit(p.unit, data.xUnit, data.yUnit),
+    fixed: p.fixed,
+    atBound: p.atBound,
+    start: nullIfNaN(p.start),
+    bounds: p.bounds.map(nullIfNaN),
   }));
   return {
-    model: input.model, modelVersion: fit.modelVersion, versionId: input.versionId, inputSha256: data.version.sha256,
-    options: input.options, parameters, chi2: nullIfNaN(fit.chi2), chi2red: nullIfNaN(fit.chi2red), dof: fit.dof,
-    r2: nullIfNaN(fit.r2), aic: nullIfNaN(fit.aic), bic: nullIfNaN(fit.bic), converged: fit.converged, reason: fit.reason,
-    iterations: fit.iterations, warnings: [...fit.warnings, ...(data.dropped ? [`${data.dropped} rows left out (missing values or outside the x range)`] : [])],
-    covariance: fit.covariance.map((r) => r.map(nullIfNaN)), correlation: fit.correlation.map((r) => r.map(nullIfNaN)),
-    points: data.x.length, units: { x: data.xUnit, y: data.yUnit },
-    data: { x: Array.from(data.x), y: Array.from(data.y), residuals: fit.residuals.map(nullIfNaN) }, curve,
+    model: input.model,
+    modelVersion: fit.modelVersion,
+    versionId: input.versionId,
+    inputSha256: data.version.sha256,
+    options: input.options,
+    parameters,
+    chi2: nullIfNaN(fit.chi2),
+    chi2red: nullIfNaN(fit.chi2red),
+    dof: fit.dof,
+    r2: nullIfNaN(fit.r2),
+    aic: nullIfNaN(fit.aic),
+    bic: nullIfNaN(fit.bic),
+    converged: fit.converged,
+    reason: fit.reason,
+    iterations: fit.iterations,
+    warnings: [...fit.warnings, ...(data.dropped ? [`${data.dropped} rows left out (missing values or outside the x range)`] : [])],
+    covariance: fit.covariance.map((r) => r.map(nullIfNaN)),
+    correlation: fit.correlation.map((r) => r.map(nullIfNaN)),
+    points: data.x.length,
+    units: { x: data.xUnit, y: data.yUnit },
+    data: { x: Array.from(data.x), y: Array.from(data.y), residuals: fit.residuals.map(nullIfNaN) },
+    curve,
   };
 }
 
 /** Finds (or creates) the dataset that holds the derived versions of one source dataset and model. */
 async function derivedDatasetId(manuscriptId: string, source: FitData["dataset"], modelId: string): Promise<string | undefined> {
-  const [d] = await getDb().select({ id: datasets.id }).from(datasets).where(and(
-    eq(datasets.manuscriptId, manuscriptId),
-    sql`json_extract(${datasets.tags}, '$.derivedFrom') = ${source.id}`,
-    sql`json_extract(${datasets.tags}, '$.model') = ${modelId}`,
-  ));
+  const [d] = await getDb()
+    .select({ id: datasets.id })
+    .from(datasets)
+    .where(
+      and(
+        eq(datasets.manuscriptId, manuscriptId),
+        sql`json_extract(${datasets.tags}, '$.derivedFrom') = ${source.id}`,
+        sql`json_extract(${datasets.tags}, '$.model') = ${modelId}`,
+      ),
+    );
   return d?.id;
 }
 
@@ -85,27 +120,63 @@ export async function runAnalysis(user: SessionUser, raw: AnalysisInput) {
   const run = describeRun(input, data, fit, curveFor(input.model, fit, data.x));
   const id = newId();
   const csv = derivedCsv({
-    sourceVersionId: input.versionId, sourceSha256: data.version.sha256, modelId: input.model, modelVersion: fit.modelVersion,
-    xName: input.options.x, xUnit: data.xUnit, yName: input.options.y, yUnit: data.yUnit,
+    sourceVersionId: input.versionId,
+    sourceSha256: data.version.sha256,
+    modelId: input.model,
+    modelVersion: fit.modelVersion,
+    xName: input.options.x,
+    xUnit: data.xUnit,
+    yName: input.options.y,
+    yUnit: data.yUnit,
     parameters: run.parameters.map((p) => ({ name: p.name, value: p.value ?? NaN, stderr: p.stderr ?? NaN, unit: p.unit })),
-    chi2red: fit.chi2red, curve: run.curve, dataX: data.x, dataY: data.y, residuals: fit.residuals,
+    chi2red: fit.chi2red,
+    curve: run.curve,
+    dataX: data.x,
+    dataY: data.y,
+    residuals: fit.residuals,
   });
   const existing = await derivedDatasetId(manuscriptId, data.dataset, input.model);
-  const derived = await importDatasetFromBytes(user, manuscriptId, `fit-${input.model}-${data.version.fileName.replace(/\.[^.]+$/, "")}.csv`, new TextEncoder().encode(csv), {
-    ...(existing ? { datasetId: existing } : {
-      name: `${data.dataset.name} — fit: ${getModel(input.model)!.title}`,
-      metadata: JSON.stringify({ kind: data.dataset.kind, sample: data.dataset.sample, tags: { ...data.dataset.tags, derivedFrom: data.dataset.id, model: input.model } }),
-    }),
-  });
+  const derived = await importDatasetFromBytes(
+    user,
+    manuscriptId,
+    `fit-${input.model}-${data.version.fileName.replace(/\.[^.]+$/, "")}.csv`,
+    new TextEncoder().encode(csv),
+    {
+      ...(existing
+        ? { datasetId: existing }
+        : {
+            name: `${data.dataset.name} — fit: ${getModel(input.model)!.title}`,
+            metadata: JSON.stringify({
+              kind: data.dataset.kind,
+              sample: data.dataset.sample,
+              tags: { ...data.dataset.tags, derivedFrom: data.dataset.id, model: input.model },
+            }),
+          }),
+    },
+  );
   const { data: _points, curve: _curve, ...stored } = run;
   await getDb().transaction(async (tx) => {
     await tx.insert(analyses).values({
-      id, manuscriptId, versionId: input.versionId, inputSha256: data.version.sha256, model: input.model, modelVersion: fit.modelVersion,
-      options: input.options, result: { ...stored, residuals: run.data.residuals }, derivedVersionId: derived.id, createdBy: user.id,
+      id,
+      manuscriptId,
+      versionId: input.versionId,
+      inputSha256: data.version.sha256,
+      model: input.model,
+      modelVersion: fit.modelVersion,
+      options: input.options,
+      result: { ...stored, residuals: run.data.residuals },
+      derivedVersionId: derived.id,
+      createdBy: user.id,
     });
-    await tx.update(versions).set({ derivedFromAnalysisId: id }).where(and(eq(versions.id, derived.id), isNull(versions.derivedFromAnalysisId)));
+    await tx
+      .update(versions)
+      .set({ derivedFromAnalysisId: id })
+      .where(and(eq(versions.id, derived.id), isNull(versions.derivedFromAnalysisId)));
     await appendAudit(tx, {
-      actorId: user.id, manuscriptId, action: "analysis.run", target: `analysis:${id}`,
+      actorId: user.id,
+      manuscriptId,
+      action: "analysis.run",
+      target: `analysis:${id}`,
       data: { versionId: input.versionId, model: input.model, modelVersion: fit.modelVersion, derivedVersionId: derived.id },
     });
   });

@@ -7,17 +7,19 @@ const NAME_MAX = 100;
 
 const finite = z.number().refine(Number.isFinite, "must be a finite number");
 
-const fitOptions = z.object({
-  x: z.string({ message: "name the x column" }).min(1, "name the x column").max(COLUMN_MAX, `a column name has at most ${COLUMN_MAX} characters`),
-  y: z.string({ message: "name the y column" }).min(1, "name the y column").max(COLUMN_MAX, `a column name has at most ${COLUMN_MAX} characters`),
-  sigma: z.string().min(1).max(COLUMN_MAX).optional(),
-  start: z.record(z.string().max(NAME_MAX), finite).optional(),
-  fixed: z.record(z.string().max(NAME_MAX), finite).optional(),
-  bounds: z.record(z.string().max(NAME_MAX), z.tuple([z.number(), z.number()])).optional(),
-  /** Fit only points with x in [lo, hi] (x column units). */
-  xRange: z.tuple([finite, finite]).optional(),
-  maxIterations: z.number().int().min(1).max(5000).optional(),
-}).strict();
+const fitOptions = z
+  .object({
+    x: z.string({ message: "name the x column" }).min(1, "name the x column").max(COLUMN_MAX, `a column name has at most ${COLUMN_MAX} characters`),
+    y: z.string({ message: "name the y column" }).min(1, "name the y column").max(COLUMN_MAX, `a column name has at most ${COLUMN_MAX} characters`),
+    sigma: z.string().min(1).max(COLUMN_MAX).optional(),
+    start: z.record(z.string().max(NAME_MAX), finite).optional(),
+    fixed: z.record(z.string().max(NAME_MAX), finite).optional(),
+    bounds: z.record(z.string().max(NAME_MAX), z.tuple([z.number(), z.number()])).optional(),
+    /** Fit only points with x in [lo, hi] (x column units). */
+    xRange: z.tuple([finite, finite]).optional(),
+    maxIterations: z.number().int().min(1).max(5000).optional(),
+  })
+  .strict();
 export type FitOptions = z.infer<typeof fitOptions>;
 
 export const analysisInput = z.object({

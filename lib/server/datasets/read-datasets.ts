@@ -34,8 +34,12 @@ export async function getDataset(user: SessionUser, datasetId: string) {
   const manuscriptId = await manuscriptOfDataset(datasetId);
   const role = await authorize(user, "manuscript.read", manuscriptId);
   const [d] = await getDb().select().from(datasets).where(eq(datasets.id, datasetId));
-  const vs = await getDb().select({ v: versions, by: users.name }).from(versions)
-    .innerJoin(users, eq(users.id, versions.createdBy)).where(eq(versions.datasetId, datasetId)).orderBy(desc(versions.number));
+  const vs = await getDb()
+    .select({ v: versions, by: users.name })
+    .from(versions)
+    .innerJoin(users, eq(users.id, versions.createdBy))
+    .where(eq(versions.datasetId, datasetId))
+    .orderBy(desc(versions.number));
   return { ...d, role, versions: vs.map(({ v, by }) => ({ ...toVersionDto(v), createdByName: by })) };
 }
 
@@ -88,12 +92,22 @@ export async function getVersionRows(user: SessionUser, versionId: string, offse
   const names = page.columns.map((c) => c.name);
   const rows: Array<Array<number | string | null>> = [];
   for (let r = 0; r < page.length; r++) {
-    rows.push(page.data.map((col) => {
-      const value = col[r];
-      return typeof value === "number" && !Number.isFinite(value) ? null : value;
-    }));
+    rows.push(
+      page.data.map((col) => {
+        const value = col[r];
+        return typeof value === "number" && !Number.isFinite(value) ? null : value;
+      }),
+    );
   }
-  return { versionId, offset: page.offset, limit, rowCount: page.rowCount, columns: page.columns.map(({ name, unit, type }) => ({ name, unit, type })), names, rows };
+  return {
+    versionId,
+    offset: page.offset,
+    limit,
+    rowCount: page.rowCount,
+    columns: page.columns.map(({ name, unit, type }) => ({ name, unit, type })),
+    names,
+    rows,
+  };
 }
 
 /** Two columns for a quick look, reduced to min/max per pixel column so dips and spikes survive. */
@@ -108,8 +122,12 @@ export async function getVersionPlot(user: SessionUser, versionId: string, x: st
   };
   const xs = col(x, "x");
   const ys = col(y, "y");
-  const series = table.rowCount <= points ? { x: Array.from(xs.data), y: Array.from(ys.data) }
-    : isAscending(xs.data) ? minMaxPerBucket(xs.data, ys.data, Math.floor(points / 2)) : stride(xs.data, ys.data, points);
+  const series =
+    table.rowCount <= points
+      ? { x: Array.from(xs.data), y: Array.from(ys.data) }
+      : isAscending(xs.data)
+        ? minMaxPerBucket(xs.data, ys.data, Math.floor(points / 2))
+        : stride(xs.data, ys.data, points);
   return { x: { name: x, unit: xs.unit }, y: { name: y, unit: ys.unit }, rowCount: table.rowCount, downsampled: table.rowCount > points, points: series };
 }
 
@@ -122,6 +140,9 @@ function isAscending(a: Float64Array): boolean {
 function stride(x: Float64Array, y: Float64Array, points: number) {
   const k = Math.ceil(x.length / points);
   const out = { x: [] as number[], y: [] as number[] };
-  for (let i = 0; i < x.length; i += k) { out.x.push(x[i]); out.y.push(y[i]); }
+  for (let i = 0; i < x.length; i += k) {
+    out.x.push(x[i]);
+    out.y.push(y[i]);
+  }
   return out;
 }

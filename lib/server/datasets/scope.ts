@@ -12,8 +12,11 @@ export async function manuscriptOfDataset(datasetId: string): Promise<string> {
 }
 
 export async function manuscriptOfVersion(versionId: string): Promise<string> {
-  const [v] = await getDb().select({ m: datasets.manuscriptId }).from(versions)
-    .innerJoin(datasets, eq(datasets.id, versions.datasetId)).where(eq(versions.id, versionId));
+  const [v] = await getDb()
+    .select({ m: datasets.manuscriptId })
+    .from(versions)
+    .innerJoin(datasets, eq(datasets.id, versions.datasetId))
+    .where(eq(versions.id, versionId));
   if (!v) throw notFound();
   return v.m;
 }

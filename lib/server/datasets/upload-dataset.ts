@@ -42,7 +42,9 @@ function summarise(t: ParsedTable): StoredSummary[] {
 /** Uploads a user may start per hour (attempts count, refused ones too). */
 const UPLOADS_PER_HOUR = 120;
 const uploadRate = (userId: string): RateRule => ({
-  bucket: `upload:user:${userId}`, max: UPLOADS_PER_HOUR, windowMs: 3600_000,
+  bucket: `upload:user:${userId}`,
+  max: UPLOADS_PER_HOUR,
+  windowMs: 3600_000,
   message: `You have started ${UPLOADS_PER_HOUR} uploads in the last hour.`,
 });
 
@@ -54,7 +56,10 @@ async function checkFields(manuscriptId: string, fields: Record<string, string>)
   const f = uploadFields.parse(fields);
   const metadata = parseMetadata(f.metadata);
   if (f.datasetId) {
-    const [ds] = await getDb().select({ id: datasets.id }).from(datasets).where(and(eq(datasets.id, f.datasetId), eq(datasets.manuscriptId, manuscriptId)));
+    const [ds] = await getDb()
+      .select({ id: datasets.id })
+      .from(datasets)
+      .where(and(eq(datasets.id, f.datasetId), eq(datasets.manuscriptId, manuscriptId)));
     if (!ds) throw notFound("datasetId: no such dataset in this manuscript.");
   }
   return { f, metadata };
@@ -71,7 +76,9 @@ export async function uploadDataset(user: SessionUser, manuscriptId: string, req
   try {
     await consumeRate([uploadRate(user.id)]);
     const { fields, file } = await readMultipartUpload(req, env().uploadMaxBytes, {
-      beforeFile: async (early) => { await checkFields(manuscriptId, early); },
+      beforeFile: async (early) => {
+        await checkFields(manuscriptId, early);
+      },
     });
     if (!file) throw badRequest("file: the multipart body has no `file` part.");
     return await ingestFile(user, manuscriptId, file, fields);
@@ -102,35 +109,73 @@ async function ingestFile(user: SessionUser, manuscriptId: string, file: Uploade
   }
 }
 
-async function recordVersion(user: SessionUser, manuscriptId: string, file: UploadedFile, table: ParsedTable,
-  datasetId: string | undefined, name: string | undefined, metadata: MetadataInput) {
+async function recordVersion(
+  user: SessionUser,
+  manuscriptId: string,
+  file: UploadedFile,
+  table: ParsedTable,
+  datasetId: string | undefined,
+  name: string | undefined,
+  metadata: MetadataInput,
+) {
   const parseInfo: ParseInfo = {
-    format: table.format, encoding: table.encoding, delimiter: table.delimiter, decimal: table.decimal,
-    warnings: table.warnings, headerMetadata: table.metadata,
+    format: table.format,
+    encoding: table.encoding,
+    delimiter: table.delimiter,
+    decimal: table.decimal,
+    warnings: table.warnings,
+    headerMetadata: table.metadata,
   };
   return getDb().transaction(async (tx) => {
     let dsId = datasetId;
     if (dsId) {
-      const [ds] = await tx.select({ id: datasets.id }).from(datasets).where(and(eq(datasets.id, dsId), eq(datasets.manuscriptId, manuscriptId)));
+      const [ds] = await tx
+        .select({ id: datasets.id })
+        .from(datasets)
+        .where(and(eq(datasets.id, dsId), eq(datasets.manuscriptId, manuscriptId)));
       if (!ds) throw notFound("datasetId: no such dataset in this manuscript.");
       const [latest] = await tx.select().from(versions).where(eq(versions.datasetId, dsId)).orderBy(desc(versions.number)).limit(1);
       if (latest?.sha256 === file.sha256) return { ...toVersionDto(latest), deduplicated: true };
     } else {
       dsId = newId();
       await tx.insert(datasets).values({
-        id: dsId, manuscriptId, name: name ?? file.fileName, createdBy: user.id,
-        kind: metadata.kind ?? "other", sample: metadata.sample ?? null, instrument: metadata.instrument ?? null,
-        measuredAt: metadata.measuredAt ?? null, notes: metadata.notes ?? null, tags: metadata.tags ?? {},
+        id: dsId,
+        manuscriptId,
+        name: name ?? file.fileName,
+        createdBy: user.id,
+        kind: metadata.kind ?? "other",
+        sample: metadata.sample ?? null,
+        instrument: metadata.instrument ?? null,
+        measuredAt: metadata.measuredAt ?? null,
+        notes: metadata.notes ?? null,
+        tags: metadata.tags ?? {},
       });
     }
-    const [{ n } = { n: 0 }] = await tx.select({ n: max(versions.number) }).from(versions).where(eq(versions.datasetId, dsId));
-    const [row] = await tx.insert(versions).values({
-      id: newId(), datasetId: dsId, number: (n ?? 0) + 1, sha256: file.sha256, byteSize: file.byteSize, fileName: file.fileName,
-      rowCount: table.rowCount, columns: table.columns.map((c) => ({ name: c.name, unit: c.unit, type: c.type, header: c.sourceHeader })),
-      parseInfo, summary: summarise(table), createdBy: user.id,
-    }).returning();
+    const [{ n } = { n: 0 }] = await tx
+      .select({ n: max(versions.number) })
+      .from(versions)
+      .where(eq(versions.datasetId, dsId));
+    const [row] = await tx
+      .insert(versions)
+      .values({
+        id: newId(),
+        datasetId: dsId,
+        number: (n ?? 0) + 1,
+        sha256: file.sha256,
+        byteSize: file.byteSize,
+        fileName: file.fileName,
+        rowCount: table.rowCount,
+        columns: table.columns.map((c) => ({ name: c.name, unit: c.unit, type: c.type, header: c.sourceHeader })),
+        parseInfo,
+        summary: summarise(table),
+        createdBy: user.id,
+      })
+      .returning();
     await appendAudit(tx, {
-      actorId: user.id, manuscriptId, action: "dataset.upload", target: `version:${row.id}`,
+      actorId: user.id,
+      manuscriptId,
+      action: "dataset.upload",
+      target: `version:${row.id}`,
       data: { datasetId: dsId, number: row.number, sha256: file.sha256, fileName: file.fileName, byteSize: file.byteSize },
     });
     return { ...toVersionDto(row), deduplicated: false };

@@ -3,9 +3,7 @@ import { count, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasets, labMembers, labs, manuscriptMembers, manuscripts, users } from "@/db/schema";
 import { demoFiles } from "@/lib/demo-data";
-import {
-  DEMO_ACCOUNTS, DEMO_LAB_ID, DEMO_MANUSCRIPT_ID, DEMO_PASSWORD, OTHER_LAB_ID, OTHER_MANUSCRIPT_ID,
-} from "@/lib/demo-data/accounts";
+import { DEMO_ACCOUNTS, DEMO_LAB_ID, DEMO_MANUSCRIPT_ID, DEMO_PASSWORD, OTHER_LAB_ID, OTHER_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import { importDatasetFromBytes } from "../datasets/upload-dataset";
 import { hashPassword } from "../users";
 
@@ -14,20 +12,30 @@ export async function seedDemo(): Promise<void> {
   const db = getDb();
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   await db.transaction(async (tx) => {
-    await tx.insert(labs).values([
-      { id: DEMO_LAB_ID, name: "Kestrel Spin Sensing Group" },
-      { id: OTHER_LAB_ID, name: "Alder Surface Physics Lab" },
-    ]).onConflictDoNothing();
+    await tx
+      .insert(labs)
+      .values([
+        { id: DEMO_LAB_ID, name: "Kestrel Spin Sensing Group" },
+        { id: OTHER_LAB_ID, name: "Alder Surface Physics Lab" },
+      ])
+      .onConflictDoNothing();
     for (const a of DEMO_ACCOUNTS) {
       const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, a.email));
       const userId = existing?.id ?? a.id;
       if (!existing) await tx.insert(users).values({ id: userId, email: a.email, name: a.name, passwordHash });
-      if (a.lab) await tx.insert(labMembers).values({ labId: a.lab, userId, role: a.role === "pi" ? "head" : "member" }).onConflictDoNothing();
+      if (a.lab)
+        await tx
+          .insert(labMembers)
+          .values({ labId: a.lab, userId, role: a.role === "pi" ? "head" : "member" })
+          .onConflictDoNothing();
     }
-    await tx.insert(manuscripts).values([
-      { id: DEMO_MANUSCRIPT_ID, labId: DEMO_LAB_ID, title: "Coherence and proton NMR of shallow NV centres in Kestrel-grown diamond", createdBy: "demo-pi" },
-      { id: OTHER_MANUSCRIPT_ID, labId: OTHER_LAB_ID, title: "Charge-state stability under oxygen termination", createdBy: "demo-outsider" },
-    ]).onConflictDoNothing();
+    await tx
+      .insert(manuscripts)
+      .values([
+        { id: DEMO_MANUSCRIPT_ID, labId: DEMO_LAB_ID, title: "Coherence and proton NMR of shallow NV centres in Kestrel-grown diamond", createdBy: "demo-pi" },
+        { id: OTHER_MANUSCRIPT_ID, labId: OTHER_LAB_ID, title: "Charge-state stability under oxygen termination", createdBy: "demo-outsider" },
+      ])
+      .onConflictDoNothing();
     for (const a of DEMO_ACCOUNTS) {
       if (a.role) await tx.insert(manuscriptMembers).values({ manuscriptId: DEMO_MANUSCRIPT_ID, userId: a.id, role: a.role }).onConflictDoNothing();
     }

@@ -14,7 +14,10 @@ import { sourceDataFiles, zip } from "./source-data";
 
 export const exportQuery = z.object({
   format: z.enum(["svg", "pdf", "png", "source-data", "bundle"], { message: "format must be svg, pdf, png, source-data or bundle" }),
-  dpi: z.coerce.number().refine((d) => d === 300 || d === 600, "dpi must be 300 or 600").default(300),
+  dpi: z.coerce
+    .number()
+    .refine((d) => d === 300 || d === 600, "dpi must be 300 or 600")
+    .default(300),
 });
 
 const TYPES = { svg: "image/svg+xml", pdf: "application/pdf", png: "image/png", "source-data": "application/zip", bundle: "application/zip" } as const;
@@ -42,14 +45,23 @@ export async function exportFigure(user: SessionUser, figureId: string, raw: z.i
     }
   }
   await getDb().transaction(async (tx) => {
-    await appendAudit(tx, { actorId: user.id, manuscriptId, action: "figure.export", target: `figure:${figureId}`, data: { format, dpi, figureHash: review.figureHash, bytes: body.byteLength } });
+    await appendAudit(tx, {
+      actorId: user.id,
+      manuscriptId,
+      action: "figure.export",
+      target: `figure:${figureId}`,
+      data: { format, dpi, figureHash: review.figureHash, bytes: body.byteLength },
+    });
   });
   const ext = { svg: "svg", pdf: "pdf", png: `${dpi}dpi.png`, "source-data": "source-data.zip", bundle: "bundle.zip" }[format];
   return {
-    body, notes,
+    body,
+    notes,
     headers: {
-      "content-type": TYPES[format], "content-length": String(body.byteLength),
-      "content-disposition": `attachment; filename="${base}.${ext}"`, "x-figure-hash": review.figureHash,
+      "content-type": TYPES[format],
+      "content-length": String(body.byteLength),
+      "content-disposition": `attachment; filename="${base}.${ext}"`,
+      "x-figure-hash": review.figureHash,
       ...(notes.length ? { "x-export-notes": encodeURIComponent(notes.join(" | ")) } : {}),
     },
   };

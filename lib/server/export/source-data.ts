@@ -35,7 +35,10 @@ export async function sourceDataFiles(review: FigureReview): Promise<Record<stri
   const revs = revIds.length ? await getDb().select().from(revisions).where(inArray(revisions.id, revIds)) : [];
   for (const p of review.panels) {
     const rev = revs.find((r) => r.id === p.revision?.id);
-    if (!rev) { readme.push(`Panel ${p.letter}: no revision yet.`); continue; }
+    if (!rev) {
+      readme.push(`Panel ${p.letter}: no revision yet.`);
+      continue;
+    }
     const data = await loadBoundData(rev.bound);
     readme.push(`Panel ${p.letter} — revision ${rev.number}, content hash ${rev.contentHash}`);
     for (const [name, rows] of Object.entries(data)) {
@@ -52,4 +55,3 @@ export async function sourceDataFiles(review: FigureReview): Promise<Record<stri
 export function zip(files: Record<string, Uint8Array>): Uint8Array {
   return zipSync(Object.fromEntries(Object.entries(files).map(([k, v]) => [k, [v, { level: 6, mtime: new Date("2000-01-01T00:00:00Z") }]])));
 }
-

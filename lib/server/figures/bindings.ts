@@ -13,12 +13,18 @@ export async function resolveBindings(manuscriptId: string, bindings: Record<str
   const out: Record<string, BoundInput> = {};
   for (const [name, b] of Object.entries(bindings)) {
     if ("versionId" in b) {
-      const [v] = await getDb().select({ id: versions.id, sha: versions.sha256, m: datasets.manuscriptId }).from(versions)
-        .innerJoin(datasets, eq(datasets.id, versions.datasetId)).where(eq(versions.id, b.versionId));
+      const [v] = await getDb()
+        .select({ id: versions.id, sha: versions.sha256, m: datasets.manuscriptId })
+        .from(versions)
+        .innerJoin(datasets, eq(datasets.id, versions.datasetId))
+        .where(eq(versions.id, b.versionId));
       if (!v || v.m !== manuscriptId) throw badRequest(`bindings.${name}.versionId: no such version in this manuscript.`);
       out[name] = { kind: "version", id: v.id, versionId: v.id, sha256: v.sha };
     } else {
-      const [a] = await getDb().select({ id: analyses.id, m: analyses.manuscriptId, derived: analyses.derivedVersionId }).from(analyses).where(eq(analyses.id, b.analysisId));
+      const [a] = await getDb()
+        .select({ id: analyses.id, m: analyses.manuscriptId, derived: analyses.derivedVersionId })
+        .from(analyses)
+        .where(eq(analyses.id, b.analysisId));
       if (!a || a.m !== manuscriptId || !a.derived) throw badRequest(`bindings.${name}.analysisId: no such analysis in this manuscript.`);
       const [v] = await getDb().select({ sha: versions.sha256 }).from(versions).where(eq(versions.id, a.derived));
       out[name] = { kind: "analysis", id: a.id, versionId: a.derived, sha256: v.sha, output: b.output };
@@ -49,7 +55,10 @@ export async function loadBoundData(bound: Record<string, BoundInput>): Promise<
     for (let r = 0; r < t.rowCount; r++) {
       if (seriesCol >= 0 && t.data[seriesCol][r] !== wanted) continue;
       const row: Record<string, number | string | null> = {};
-      names.forEach((n, i) => { const val = t.data[i][r]; row[n] = typeof val === "number" && !Number.isFinite(val) ? null : val; });
+      names.forEach((n, i) => {
+        const val = t.data[i][r];
+        row[n] = typeof val === "number" && !Number.isFinite(val) ? null : val;
+      });
       rows.push(row);
     }
     out[name] = rows;

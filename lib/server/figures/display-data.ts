@@ -28,7 +28,8 @@ export function reduceRowsForDisplay(rows: Row[], buckets = DISPLAY_ROWS / 2): {
     let end = start;
     while (end < rows.length && (b === buckets - 1 || (rows[end][xKey] as number) <= hi)) end++;
     for (const k of numeric.slice(1)) {
-      let lo = -1, hiI = -1;
+      let lo = -1,
+        hiI = -1;
       for (let i = start; i < end; i++) {
         const v = rows[i][k];
         if (typeof v !== "number") continue;

@@ -17,12 +17,27 @@ export async function createFigure(user: SessionUser, raw: z.infer<typeof create
   await authorize(user, "figure.edit", input.manuscriptId);
   const id = newId();
   await getDb().transaction(async (tx) => {
-    const [{ n } = { n: 0 }] = await tx.select({ n: max(figures.number) }).from(figures).where(eq(figures.manuscriptId, input.manuscriptId));
+    const [{ n } = { n: 0 }] = await tx
+      .select({ n: max(figures.number) })
+      .from(figures)
+      .where(eq(figures.manuscriptId, input.manuscriptId));
     await tx.insert(figures).values({
-      id, manuscriptId: input.manuscriptId, number: (n ?? 0) + 1, title: input.title, widthMm: input.widthMm ?? 183,
-      maxHeightMm: input.maxHeightMm ?? 170, columns: input.columns ?? 2, createdBy: user.id,
+      id,
+      manuscriptId: input.manuscriptId,
+      number: (n ?? 0) + 1,
+      title: input.title,
+      widthMm: input.widthMm ?? 183,
+      maxHeightMm: input.maxHeightMm ?? 170,
+      columns: input.columns ?? 2,
+      createdBy: user.id,
     });
-    await appendAudit(tx, { actorId: user.id, manuscriptId: input.manuscriptId, action: "figure.create", target: `figure:${id}`, data: { title: input.title } });
+    await appendAudit(tx, {
+      actorId: user.id,
+      manuscriptId: input.manuscriptId,
+      action: "figure.create",
+      target: `figure:${id}`,
+      data: { title: input.title },
+    });
   });
   return getFigure(user, id);
 }
@@ -32,7 +47,10 @@ export async function updateFigure(user: SessionUser, figureId: string, raw: z.i
   await authorize(user, "figure.edit", manuscriptId);
   const patch = updateFigureInput.parse(raw);
   if (patch.requiredReviewers?.length) {
-    const members = await getDb().select({ id: manuscriptMembers.userId, role: manuscriptMembers.role }).from(manuscriptMembers).where(eq(manuscriptMembers.manuscriptId, manuscriptId));
+    const members = await getDb()
+      .select({ id: manuscriptMembers.userId, role: manuscriptMembers.role })
+      .from(manuscriptMembers)
+      .where(eq(manuscriptMembers.manuscriptId, manuscriptId));
     const bad = patch.requiredReviewers.find((u) => !members.some((m) => m.id === u && m.role !== "viewer"));
     if (bad) throw badRequest(`requiredReviewers: "${bad}" is not a member who may review (PI, author or reviewer).`);
   }
@@ -61,12 +79,33 @@ async function dataWarningCounts(reviews: FigureReview[]): Promise<Map<string, n
 
 function presentFigure(review: FigureReview, role: Role | null, warningCounts: Map<string, number>) {
   return {
-    ...review.figure, role, figureHash: review.figureHash, reviewState: review.state, signoffs: review.signoffs,
+    ...review.figure,
+    role,
+    figureHash: review.figureHash,
+    reviewState: review.state,
+    signoffs: review.signoffs,
     panels: review.panels.map((p) => ({
-      id: p.panel.id, letter: p.letter, title: p.panel.title, colSpan: p.panel.colSpan, position: p.panel.position,
-      currentRevision: p.revision ? { id: p.revision.id, number: p.revision.number, contentHash: p.revision.contentHash, message: p.revision.message, createdAt: p.revision.createdAt, createdBy: p.revision.createdBy } : null,
-      reviewState: p.state, approvedBy: p.approvedBy, needsRevisionBy: p.needsRevisionBy, waitingOn: p.waitingOn, openThreads: p.openThreads,
-      dataWarnings: p.revision ? warningCounts.get(p.revision.id) ?? 0 : 0,
+      id: p.panel.id,
+      letter: p.letter,
+      title: p.panel.title,
+      colSpan: p.panel.colSpan,
+      position: p.panel.position,
+      currentRevision: p.revision
+        ? {
+            id: p.revision.id,
+            number: p.revision.number,
+            contentHash: p.revision.contentHash,
+            message: p.revision.message,
+            createdAt: p.revision.createdAt,
+            createdBy: p.revision.createdBy,
+          }
+        : null,
+      reviewState: p.state,
+      approvedBy: p.approvedBy,
+      needsRevisionBy: p.needsRevisionBy,
+      waitingOn: p.waitingOn,
+      openThreads: p.openThreads,
+      dataWarnings: p.revision ? (warningCounts.get(p.revision.id) ?? 0) : 0,
     })),
   };
 }
@@ -88,7 +127,11 @@ export async function reorderPanels(user: SessionUser, figureId: string, raw: z.
     const ids = new Set(existing.map((p) => p.id));
     if (panelIds.length !== ids.size || new Set(panelIds).size !== panelIds.length || !panelIds.every((p) => ids.has(p)))
       throw badRequest("panelIds: list every panel of the figure exactly once.");
-    for (const [i, pid] of panelIds.entries()) await tx.update(panels).set({ position: i }).where(and(eq(panels.id, pid), eq(panels.figureId, figureId)));
+    for (const [i, pid] of panelIds.entries())
+      await tx
+        .update(panels)
+        .set({ position: i })
+        .where(and(eq(panels.id, pid), eq(panels.figureId, figureId)));
     await appendAudit(tx, { actorId: user.id, manuscriptId, action: "figure.reorder", target: `figure:${figureId}`, data: { panelIds } });
   });
   return getFigure(user, figureId);

@@ -76,7 +76,8 @@ async function rowWarnings(spec: unknown, bound: Record<string, BoundInput>, mis
       out.push({ kind: "no_rows", dataName: name, message: `Nothing to draw: ${describeData(name, b)} has no rows.`, rows: 0, of: 0 });
       continue;
     }
-    const fields = uses.filter((u) => u.dataName === name && u.continuous && !missing.has(`${name}\u0000${u.field}`))
+    const fields = uses
+      .filter((u) => u.dataName === name && u.continuous && !missing.has(`${name}\u0000${u.field}`))
       .filter((u, i, all) => all.findIndex((w) => w.field === u.field) === i);
     const bad = new Set<number>();
     const badFields: string[] = [];
@@ -90,7 +91,10 @@ async function rowWarnings(spec: unknown, bound: Record<string, BoundInput>, mis
       for (const r of rowsOf) {
         const val = col[r];
         const ok = typeof val === "number" ? Number.isFinite(val) : val.trim() !== "" && Number.isFinite(Number(val));
-        if (!ok) { bad.add(r); any = true; }
+        if (!ok) {
+          bad.add(r);
+          any = true;
+        }
       }
       if (any) badFields.push(u.field);
     }
@@ -98,7 +102,11 @@ async function rowWarnings(spec: unknown, bound: Record<string, BoundInput>, mis
       const all = bad.size === rowsOf.length;
       const where = badFields.map(tick).join(", ");
       out.push({
-        kind: "invalid_rows", dataName: name, field: badFields[0], rows: bad.size, of: rowsOf.length,
+        kind: "invalid_rows",
+        dataName: name,
+        field: badFields[0],
+        rows: bad.size,
+        of: rowsOf.length,
         message: all
           ? `Nothing to draw: none of the ${count(rowsOf.length)} rows of ${describeData(name, b)} has a number in ${where}.`
           : `${count(bad.size)} of ${count(rowsOf.length)} rows of ${describeData(name, b)} are not drawn: they have no number in ${where} (empty, NaN or text).`,
@@ -122,10 +130,14 @@ export async function revisionWarnings(rev: { spec: unknown; bound: Record<strin
   const spec = typeof rev.spec === "string" ? (JSON.parse(rev.spec) as unknown) : rev.spec;
   const problems = await fieldProblems(spec, rev.bound);
   const warnings: DataWarning[] = problems.map((p) => ({
-    kind: "missing_field", dataName: p.dataName, field: p.field, columns: p.columns, suggestion: p.suggestion?.column ?? null,
+    kind: "missing_field",
+    dataName: p.dataName,
+    field: p.field,
+    columns: p.columns,
+    suggestion: p.suggestion?.column ?? null,
     message: blanksPlot(p.channel) ? `Nothing to draw: ${p.message}` : capital(p.message),
   }));
-  warnings.push(...await rowWarnings(spec, rev.bound, new Set(problems.map((p) => `${p.dataName}\u0000${p.field}`))));
+  warnings.push(...(await rowWarnings(spec, rev.bound, new Set(problems.map((p) => `${p.dataName}\u0000${p.field}`)))));
   if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value as string);
   cache.set(rev.contentHash, warnings);
   return warnings;
@@ -136,7 +148,9 @@ export async function revisionWarnings(rev: { spec: unknown; bound: Record<strin
  * cannot be read is left out here rather than failing the whole overview; its panel page, which
  * reads the same data, reports the error.
  */
-export async function warningsByRevision(revs: Array<{ id: string; spec: unknown; bound: Record<string, BoundInput>; contentHash: string }>): Promise<Map<string, DataWarning[]>> {
+export async function warningsByRevision(
+  revs: Array<{ id: string; spec: unknown; bound: Record<string, BoundInput>; contentHash: string }>,
+): Promise<Map<string, DataWarning[]>> {
   const out = new Map<string, DataWarning[]>();
   for (const r of revs) {
     try {

@@ -15,9 +15,13 @@ export const createFigureInput = z.object({
 const FIGURE_FIELDS = ["title", "widthMm", "maxHeightMm", "columns", "requiredReviewers"] as const;
 
 /** A PATCH must change something: an empty update would reach the database as `SET` with nothing to set. */
-export const updateFigureInput = createFigureInput.omit({ manuscriptId: true }).partial().extend({
-  requiredReviewers: z.array(z.string().min(1).max(ID_MAX)).max(50).optional(),
-}).refine((p) => FIGURE_FIELDS.some((k) => p[k] !== undefined), `name at least one of ${FIGURE_FIELDS.join(", ")} to change.`);
+export const updateFigureInput = createFigureInput
+  .omit({ manuscriptId: true })
+  .partial()
+  .extend({
+    requiredReviewers: z.array(z.string().min(1).max(ID_MAX)).max(50).optional(),
+  })
+  .refine((p) => FIGURE_FIELDS.some((k) => p[k] !== undefined), `name at least one of ${FIGURE_FIELDS.join(", ")} to change.`);
 
 export const addPanelInput = z.object({
   title: z.string().trim().max(200).optional(),
@@ -28,12 +32,20 @@ export const reorderInput = z.object({ panelIds: z.array(z.string().min(1).max(I
 
 const binding = z.union([
   z.object({ versionId: z.string().min(1).max(ID_MAX) }).strict(),
-  z.object({ analysisId: z.string().min(1).max(ID_MAX), output: z.enum(["curve", "residuals", "data"], { message: "output must be curve, residuals or data" }) }).strict(),
+  z
+    .object({
+      analysisId: z.string().min(1).max(ID_MAX),
+      output: z.enum(["curve", "residuals", "data"], { message: "output must be curve, residuals or data" }),
+    })
+    .strict(),
 ]);
 
 export const revisionInput = z.object({
   spec: z.record(z.string(), z.unknown(), { message: "spec must be a Vega-Lite JSON object" }),
-  bindings: z.record(z.string().min(1).max(200), binding).refine((b) => Object.keys(b).length <= 100, "at most 100 bindings").default({}),
+  bindings: z
+    .record(z.string().min(1).max(200), binding)
+    .refine((b) => Object.keys(b).length <= 100, "at most 100 bindings")
+    .default({}),
   baseRevisionId: z.string().min(1).max(ID_MAX).nullable(),
   message: z.string().trim().max(2000).default(""),
 });

@@ -17,8 +17,12 @@ export async function manuscriptOfPanel(panelId: string): Promise<string> {
 }
 
 export async function manuscriptOfRevision(revisionId: string): Promise<string> {
-  const [r] = await getDb().select({ m: figures.manuscriptId }).from(revisions)
-    .innerJoin(panels, eq(panels.id, revisions.panelId)).innerJoin(figures, eq(figures.id, panels.figureId)).where(eq(revisions.id, revisionId));
+  const [r] = await getDb()
+    .select({ m: figures.manuscriptId })
+    .from(revisions)
+    .innerJoin(panels, eq(panels.id, revisions.panelId))
+    .innerJoin(figures, eq(figures.id, panels.figureId))
+    .where(eq(revisions.id, revisionId));
   if (!r) throw notFound();
   return r.m;
 }
@@ -27,6 +31,9 @@ export async function manuscriptOfRevision(revisionId: string): Promise<string> 
 export function letterFor(index: number): string {
   let n = index;
   let s = "";
-  do { s = String.fromCharCode(97 + (n % 26)) + s; n = Math.floor(n / 26) - 1; } while (n >= 0);
+  do {
+    s = String.fromCharCode(97 + (n % 26)) + s;
+    n = Math.floor(n / 26) - 1;
+  } while (n >= 0);
   return s;
 }

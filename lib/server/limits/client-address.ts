@@ -9,7 +9,11 @@ import { env } from "@/lib/env";
 export const PEER_HEADER = "x-prooflight-peer";
 
 const V4_MAPPED = /^::ffff:(\d+\.\d+\.\d+\.\d+)$/i;
-const normalise = (a: string) => a.trim().replace(V4_MAPPED, "$1").replace(/^\[|\]$/g, "");
+const normalise = (a: string) =>
+  a
+    .trim()
+    .replace(V4_MAPPED, "$1")
+    .replace(/^\[|\]$/g, "");
 
 export function isLoopback(address: string | null | undefined): boolean {
   if (!address) return false;

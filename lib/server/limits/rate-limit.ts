@@ -14,12 +14,17 @@ export interface RateRule {
   message: string;
 }
 
-interface RateCheck { allowed: boolean; retryAfterSeconds: number }
+interface RateCheck {
+  allowed: boolean;
+  retryAfterSeconds: number;
+}
 
 /** How the bucket stands now, without recording anything. Shared through the database, so every instance counts. */
 async function peekRate(rule: RateRule, now = Date.now()): Promise<RateCheck> {
   const since = new Date(now - rule.windowMs);
-  const [row] = await getDb().select({ n: count(), oldest: min(rateEvents.at) }).from(rateEvents)
+  const [row] = await getDb()
+    .select({ n: count(), oldest: min(rateEvents.at) })
+    .from(rateEvents)
     .where(and(eq(rateEvents.bucket, rule.bucket), gt(rateEvents.at, since)));
   const n = row?.n ?? 0;
   if (n < rule.max) return { allowed: true, retryAfterSeconds: 0 };

@@ -7,7 +7,13 @@ import { mailOutbox } from "@/db/schema";
 import { env } from "@/lib/env";
 import { newId } from "../crypto";
 
-export interface MailMessage { kind: string; to: string; subject: string; text: string; html?: string }
+export interface MailMessage {
+  kind: string;
+  to: string;
+  subject: string;
+  text: string;
+  html?: string;
+}
 
 const MAX_ATTEMPTS = 8;
 const LEASE_MS = 60_000;
@@ -16,7 +22,13 @@ const LEASE_MS = 60_000;
 export async function enqueueMail(tx: Executor, m: MailMessage): Promise<string> {
   const id = newId();
   await tx.insert(mailOutbox).values({
-    id, kind: m.kind, to: m.to, subject: m.subject, text: m.text, html: m.html ?? null, nextAttemptAt: new Date(),
+    id,
+    kind: m.kind,
+    to: m.to,
+    subject: m.subject,
+    text: m.text,
+    html: m.html ?? null,
+    nextAttemptAt: new Date(),
   });
   return id;
 }
@@ -30,14 +42,20 @@ function transport(): Transporter {
 /** Takes one due message by an atomic status change, so two workers never send the same mail. */
 async function claimNext(now: number) {
   const db = getDb();
-  const due = await db.select({ id: mailOutbox.id }).from(mailOutbox)
-    .where(or(
-      and(eq(mailOutbox.status, "pending"), lte(mailOutbox.nextAttemptAt, new Date(now))),
-      and(eq(mailOutbox.status, "sending"), or(isNull(mailOutbox.leaseUntil), lt(mailOutbox.leaseUntil, new Date(now)))),
-    ))
-    .orderBy(asc(mailOutbox.nextAttemptAt)).limit(1);
+  const due = await db
+    .select({ id: mailOutbox.id })
+    .from(mailOutbox)
+    .where(
+      or(
+        and(eq(mailOutbox.status, "pending"), lte(mailOutbox.nextAttemptAt, new Date(now))),
+        and(eq(mailOutbox.status, "sending"), or(isNull(mailOutbox.leaseUntil), lt(mailOutbox.leaseUntil, new Date(now)))),
+      ),
+    )
+    .orderBy(asc(mailOutbox.nextAttemptAt))
+    .limit(1);
   if (!due[0]) return null;
-  const claimed = await db.update(mailOutbox)
+  const claimed = await db
+    .update(mailOutbox)
     .set({ status: "sending", leaseUntil: new Date(now + LEASE_MS) })
     .where(and(eq(mailOutbox.id, due[0].id), or(eq(mailOutbox.status, "pending"), lt(mailOutbox.leaseUntil, new Date(now)))))
     .returning();
@@ -48,7 +66,9 @@ let running: Promise<number> | null = null;
 
 /** Delivers every due message; concurrent calls in one process share one run. */
 export function deliverOutbox(): Promise<number> {
-  running ??= deliverAll().finally(() => { running = null; });
+  running ??= deliverAll().finally(() => {
+    running = null;
+  });
   return running;
 }
 
@@ -59,22 +79,31 @@ async function deliverAll(): Promise<number> {
     if (!msg) return sent;
     try {
       await transport().sendMail({
-        from: env().mailFrom, to: msg.to, subject: msg.subject, text: msg.text, html: msg.html ?? undefined,
+        from: env().mailFrom,
+        to: msg.to,
+        subject: msg.subject,
+        text: msg.text,
+        html: msg.html ?? undefined,
         messageId: `<${msg.id}@prooflight.localhost>`,
       });
-      await getDb().update(mailOutbox).set({ status: "sent", sentAt: new Date(), leaseUntil: null, attempts: msg.attempts + 1 })
+      await getDb()
+        .update(mailOutbox)
+        .set({ status: "sent", sentAt: new Date(), leaseUntil: null, attempts: msg.attempts + 1 })
         .where(eq(mailOutbox.id, msg.id));
       sent++;
     } catch (err) {
       const tries = msg.attempts + 1;
       const failed = tries >= MAX_ATTEMPTS;
-      await getDb().update(mailOutbox).set({
-        status: failed ? "failed" : "pending",
-        attempts: tries,
-        lastError: String(err instanceof Error ? err.message : err).slice(0, 500),
-        nextAttemptAt: new Date(Date.now() + Math.min(2 ** tries * 1000, 10 * 60_000)),
-        leaseUntil: null,
-      }).where(eq(mailOutbox.id, msg.id));
+      await getDb()
+        .update(mailOutbox)
+        .set({
+          status: failed ? "failed" : "pending",
+          attempts: tries,
+          lastError: String(err instanceof Error ? err.message : err).slice(0, 500),
+          nextAttemptAt: new Date(Date.now() + Math.min(2 ** tries * 1000, 10 * 60_000)),
+          leaseUntil: null,
+        })
+        .where(eq(mailOutbox.id, msg.id));
       return sent; // the relay is probably down; the next tick retries
     }
   }
@@ -84,6 +113,8 @@ let timer: NodeJS.Timeout | undefined;
 /** Started once per server process (instrumentation); retries happen on the next tick. */
 export function startOutboxWorker(intervalMs = 5_000): void {
   if (timer) return;
-  timer = setInterval(() => { void deliverOutbox().catch(() => undefined); }, intervalMs);
+  timer = setInterval(() => {
+    void deliverOutbox().catch(() => undefined);
+  }, intervalMs);
   timer.unref();
 }

@@ -6,11 +6,17 @@ import { simpleParser } from "mailparser";
 import { SMTPServer } from "smtp-server";
 import { newId } from "../crypto";
 
-export interface SinkHandle { port: number; close(): Promise<void> }
+export interface SinkHandle {
+  port: number;
+  close(): Promise<void>;
+}
 
 function portInUse(port: number): Promise<boolean> {
   return new Promise((resolve) => {
-    const s = net.connect({ port, host: "127.0.0.1" }, () => { s.destroy(); resolve(true); });
+    const s = net.connect({ port, host: "127.0.0.1" }, () => {
+      s.destroy();
+      resolve(true);
+    });
     s.on("error", () => resolve(false));
   });
 }
@@ -30,34 +36,38 @@ export async function startMailSink(opts: { port: number; dir: string; quiet?: b
     onData(stream, session, callback) {
       const chunks: Buffer[] = [];
       stream.on("data", (c: Buffer) => chunks.push(c));
-      stream.on("end", () => void (async () => {
-        try {
-          const raw = Buffer.concat(chunks);
-          const parsed = await simpleParser(raw);
-          const id = `${Date.now()}-${newId()}`;
-          fs.writeFileSync(path.join(opts.dir, `${id}.eml`), raw);
-          const record = {
-            id,
-            receivedAt: new Date().toISOString(),
-            envelope: {
-              from: session.envelope.mailFrom ? session.envelope.mailFrom.address : null,
-              to: session.envelope.rcptTo.map((r) => r.address),
-            },
-            messageId: parsed.messageId ?? null,
-            subject: parsed.subject ?? "",
-            text: parsed.text ?? "",
-            html: typeof parsed.html === "string" ? parsed.html : null,
-          };
-          // Written last and atomically: a reader never sees a half message.
-          const tmp = path.join(opts.dir, `.${id}.json.tmp`);
-          fs.writeFileSync(tmp, JSON.stringify(record, null, 2));
-          fs.renameSync(tmp, path.join(opts.dir, `${id}.json`));
-          if (!opts.quiet) console.log(`[mail-sink] ${record.envelope.to.join(", ")} — ${record.subject}`);
-          callback();
-        } catch (err) {
-          callback(err as Error);
-        }
-      })());
+      stream.on(
+        "end",
+        () =>
+          void (async () => {
+            try {
+              const raw = Buffer.concat(chunks);
+              const parsed = await simpleParser(raw);
+              const id = `${Date.now()}-${newId()}`;
+              fs.writeFileSync(path.join(opts.dir, `${id}.eml`), raw);
+              const record = {
+                id,
+                receivedAt: new Date().toISOString(),
+                envelope: {
+                  from: session.envelope.mailFrom ? session.envelope.mailFrom.address : null,
+                  to: session.envelope.rcptTo.map((r) => r.address),
+                },
+                messageId: parsed.messageId ?? null,
+                subject: parsed.subject ?? "",
+                text: parsed.text ?? "",
+                html: typeof parsed.html === "string" ? parsed.html : null,
+              };
+              // Written last and atomically: a reader never sees a half message.
+              const tmp = path.join(opts.dir, `.${id}.json.tmp`);
+              fs.writeFileSync(tmp, JSON.stringify(record, null, 2));
+              fs.renameSync(tmp, path.join(opts.dir, `${id}.json`));
+              if (!opts.quiet) console.log(`[mail-sink] ${record.envelope.to.join(", ")} — ${record.subject}`);
+              callback();
+            } catch (err) {
+              callback(err as Error);
+            }
+          })(),
+      );
     },
   });
   await new Promise<void>((resolve, reject) => {

@@ -4,8 +4,7 @@ import { ROLE_LABELS } from "@/lib/authz/policy";
 import type { Role } from "@/db/schema";
 import type { MailMessage } from "./outbox";
 
-const escapeHtml = (s: string) =>
-  s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
+const escapeHtml = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 
 export function layout(title: string, paragraphs: string[], link: { href: string; label: string }): string {
   const body = paragraphs.map((p) => `<p style="margin:0 0 12px">${escapeHtml(p)}</p>`).join("");
@@ -24,7 +23,9 @@ export function signInLinkMail(to: string, token: string): MailMessage {
     "The link works once and expires in 15 minutes. If you did not ask for it, ignore this message.",
   ];
   return {
-    kind: "sign_in_link", to, subject: "Your Prooflight sign-in link",
+    kind: "sign_in_link",
+    to,
+    subject: "Your Prooflight sign-in link",
     text: `${lines.join("\n\n")}\n\nSign in: ${href}\n`,
     html: layout("Sign in to Prooflight", lines, { href, label: "Sign in" }),
   };
@@ -32,12 +33,11 @@ export function signInLinkMail(to: string, token: string): MailMessage {
 
 export function invitationMail(to: string, token: string, inviter: string, manuscript: string, role: Role): MailMessage {
   const href = `${env().appUrl}/invite/${encodeURIComponent(token)}`;
-  const lines = [
-    `${inviter} invited you to the manuscript "${manuscript}" as ${ROLE_LABELS[role]}.`,
-    "The invitation works once and expires in 7 days.",
-  ];
+  const lines = [`${inviter} invited you to the manuscript "${manuscript}" as ${ROLE_LABELS[role]}.`, "The invitation works once and expires in 7 days."];
   return {
-    kind: "invitation", to, subject: `Invitation: ${manuscript}`,
+    kind: "invitation",
+    to,
+    subject: `Invitation: ${manuscript}`,
     text: `${lines.join("\n\n")}\n\nAccept: ${href}\n`,
     html: layout("You are invited to review figures", lines, { href, label: "Accept the invitation" }),
   };

@@ -77,7 +77,13 @@ let nextId = 1;
 
 function setRef(child: ChildProcess, on: boolean): void {
   const channel = child.channel as { ref?: () => void; unref?: () => void } | null | undefined;
-  if (on) { child.ref(); channel?.ref?.(); } else { child.unref(); channel?.unref?.(); }
+  if (on) {
+    child.ref();
+    channel?.ref?.();
+  } else {
+    child.unref();
+    channel?.unref?.();
+  }
 }
 
 function spawn(heapMb: number): PooledWorker {
@@ -88,7 +94,9 @@ function spawn(heapMb: number): PooledWorker {
     stdio: ["ignore", "ignore", "pipe", "ipc"],
   });
   const pooled: PooledWorker = { child, heapMb, jobs: 0, ready: Promise.resolve(), stderr: "" };
-  child.stderr?.on("data", (d: Buffer) => { pooled.stderr = (pooled.stderr + d.toString("utf8")).slice(-4000); });
+  child.stderr?.on("data", (d: Buffer) => {
+    pooled.stderr = (pooled.stderr + d.toString("utf8")).slice(-4000);
+  });
   pooled.ready = new Promise<void>((resolve, reject) => {
     const timer = setTimeout(() => reject(new RenderError("worker-failed", "the render worker did not start")), STARTUP_TIMEOUT_MS);
     const onMessage = (m: Reply) => {
@@ -98,8 +106,14 @@ function spawn(heapMb: number): PooledWorker {
       resolve();
     };
     child.on("message", onMessage);
-    child.once("error", (err) => { clearTimeout(timer); reject(new RenderError("worker-failed", `the render worker failed: ${err.message}`)); });
-    child.once("exit", (code, signal) => { clearTimeout(timer); reject(exitError(pooled, code, signal)); });
+    child.once("error", (err) => {
+      clearTimeout(timer);
+      reject(new RenderError("worker-failed", `the render worker failed: ${err.message}`));
+    });
+    child.once("exit", (code, signal) => {
+      clearTimeout(timer);
+      reject(exitError(pooled, code, signal));
+    });
   });
   pooled.ready.catch(() => undefined); // observed by the job that awaits it
   child.once("exit", () => {
@@ -189,12 +203,7 @@ export function renderSpecInWorker(spec: unknown, data: BoundData, size: Physica
 }
 
 /** Renders every panel at its cell width and composes the lettered figure, in one budgeted job. */
-export function renderFigureInWorker(
-  panels: FigurePanelJob[],
-  layout: FigureLayout,
-  widthMm: number,
-  budget?: RenderBudget,
-): Promise<RenderedFigure> {
+export function renderFigureInWorker(panels: FigurePanelJob[], layout: FigureLayout, widthMm: number, budget?: RenderBudget): Promise<RenderedFigure> {
   return runJob<RenderedFigure>({ kind: "figure", panels, layout, widthMm }, budget);
 }
 
@@ -202,11 +211,16 @@ export function renderFigureInWorker(
 export async function stopRenderWorkers(): Promise<void> {
   const all = idle.splice(0);
   for (const w of all) clearTimeout(w.idleTimer);
-  await Promise.all(all.map((w) => new Promise<void>((resolve) => {
-    if (w.child.exitCode !== null || w.child.signalCode !== null) return resolve();
-    w.child.once("exit", () => resolve());
-    // Idle workers are unref'd; without a ref the process may leave before the exit event arrives.
-    w.child.ref();
-    w.child.kill("SIGKILL");
-  })));
+  await Promise.all(
+    all.map(
+      (w) =>
+        new Promise<void>((resolve) => {
+          if (w.child.exitCode !== null || w.child.signalCode !== null) return resolve();
+          w.child.once("exit", () => resolve());
+          // Idle workers are unref'd; without a ref the process may leave before the exit event arrives.
+          w.child.ref();
+          w.child.kill("SIGKILL");
+        }),
+    ),
+  );
 }

@@ -27,8 +27,7 @@ function normaliseWeights(svg: string): string {
 
 /** Root sized in pt (no unit) so that, with assumePt, one user unit is one point on the page. */
 function rootInPoints(svg: string, wPt: number, hPt: number): string {
-  return svg.replace(/<svg\b[^>]*>/, (root) =>
-    root.replace(/\swidth="[^"]*"/, ` width="${wPt}"`).replace(/\sheight="[^"]*"/, ` height="${hPt}"`));
+  return svg.replace(/<svg\b[^>]*>/, (root) => root.replace(/\swidth="[^"]*"/, ` width="${wPt}"`).replace(/\sheight="[^"]*"/, ` height="${hPt}"`));
 }
 
 export async function svgToPdf(svg: string, options: PdfOptions = {}): Promise<Buffer> {

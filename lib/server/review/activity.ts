@@ -35,9 +35,19 @@ export async function manuscriptActivity(user: SessionUser, manuscriptId: string
   await authorize(user, "manuscript.read", manuscriptId);
   const rows = await listAuditForManuscript(getDb(), manuscriptId, limit);
   const ids = [...new Set(rows.map((r) => r.actorId).filter((x): x is string => Boolean(x)))];
-  const names = new Map((ids.length ? await getDb().select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids)) : []).map((u) => [u.id, u.name]));
+  const names = new Map(
+    (ids.length ? await getDb().select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, ids)) : []).map((u) => [u.id, u.name]),
+  );
   return rows.map((r) => {
     const data = JSON.parse(r.data) as Record<string, unknown>;
-    return { seq: r.seq, at: r.at, actor: names.get(r.actorId ?? "") ?? "someone", action: r.action, target: r.target, text: (WORDS[r.action] ?? (() => r.action))(data), hash: r.hash };
+    return {
+      seq: r.seq,
+      at: r.at,
+      actor: names.get(r.actorId ?? "") ?? "someone",
+      action: r.action,
+      target: r.target,
+      text: (WORDS[r.action] ?? (() => r.action))(data),
+      hash: r.hash,
+    };
   });
 }

@@ -26,10 +26,19 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
     const [p] = await tx.select().from(panels).where(eq(panels.id, panelId));
     const [rev] = await tx.select().from(revisions).where(eq(revisions.id, input.revisionId));
     if (!rev || rev.panelId !== panelId) throw badRequest("revisionId: not a revision of this panel.");
-    if (p.currentRevisionId !== rev.id) throw conflict(`Revision ${rev.number} is no longer current; review the current revision instead.`, { currentRevisionId: p.currentRevisionId });
+    if (p.currentRevisionId !== rev.id)
+      throw conflict(`Revision ${rev.number} is no longer current; review the current revision instead.`, { currentRevisionId: p.currentRevisionId });
     if (rev.createdBy === user.id) throw forbidden("You made this revision; someone else must review it.");
-    await tx.insert(decisions).values({ id, panelId, revisionId: rev.id, contentHash: rev.contentHash, decision: input.decision, note: input.note ?? "", userId: user.id });
-    await appendAudit(tx, { actorId: user.id, manuscriptId, action: `review.${input.decision}`, target: `panel:${panelId}`, data: { revisionId: rev.id, contentHash: rev.contentHash, note: input.note ?? "", ...(input.acknowledgedWarnings ? { acknowledgedWarnings: true } : {}) } });
+    await tx
+      .insert(decisions)
+      .values({ id, panelId, revisionId: rev.id, contentHash: rev.contentHash, decision: input.decision, note: input.note ?? "", userId: user.id });
+    await appendAudit(tx, {
+      actorId: user.id,
+      manuscriptId,
+      action: `review.${input.decision}`,
+      target: `panel:${panelId}`,
+      data: { revisionId: rev.id, contentHash: rev.contentHash, note: input.note ?? "", ...(input.acknowledgedWarnings ? { acknowledgedWarnings: true } : {}) },
+    });
     if (input.decision === "needs_revision") await enqueueMail(tx, await reviewMail.needsRevision(rev.createdBy, user, panelId, input.note ?? ""));
   });
   return { id, panelId, revisionId: input.revisionId, decision: input.decision };
@@ -50,8 +59,13 @@ export async function signOffFigure(user: SessionUser, figureId: string, raw: z.
   const id = newId();
   await getDb().transaction(async (tx) => {
     await tx.insert(signoffs).values({ id, figureId, figureHash: input.figureHash, reason: input.reason ?? "", userId: user.id });
-    await appendAudit(tx, { actorId: user.id, manuscriptId, action: "figure.signoff", target: `figure:${figureId}`, data: { figureHash: input.figureHash, reason: input.reason ?? "", open } });
+    await appendAudit(tx, {
+      actorId: user.id,
+      manuscriptId,
+      action: "figure.signoff",
+      target: `figure:${figureId}`,
+      data: { figureHash: input.figureHash, reason: input.reason ?? "", open },
+    });
   });
   return { id, figureId, figureHash: input.figureHash, openIssues: open };
 }
-

@@ -1,15 +1,20 @@
 import "server-only";
 import { z } from "zod";
 
-const anchor = z.union([
-  z.object({ type: z.literal("point"), x: z.number().refine(Number.isFinite), y: z.number().refine(Number.isFinite) }).strict(),
-  z.object({ type: z.literal("xrange"), x0: z.number().refine(Number.isFinite), x1: z.number().refine(Number.isFinite) }).strict(),
-], { message: 'anchor must be { type: "point", x, y } or { type: "xrange", x0, x1 }' });
+const anchor = z.union(
+  [
+    z.object({ type: z.literal("point"), x: z.number().refine(Number.isFinite), y: z.number().refine(Number.isFinite) }).strict(),
+    z.object({ type: z.literal("xrange"), x0: z.number().refine(Number.isFinite), x1: z.number().refine(Number.isFinite) }).strict(),
+  ],
+  { message: 'anchor must be { type: "point", x, y } or { type: "xrange", x0, x1 }' },
+);
 
 const body = z.record(z.string(), z.unknown(), { message: "body must be a Tiptap JSON document" });
 
 export const newThreadInput = z.object({
-  body, revisionId: z.string().min(1, "revisionId is required").max(128), anchor: anchor.nullable().optional(),
+  body,
+  revisionId: z.string().min(1, "revisionId is required").max(128),
+  anchor: anchor.nullable().optional(),
   clientKey: z.string().max(80).optional(),
 });
 export const replyInput = z.object({ body, clientKey: z.string().max(80).optional() });

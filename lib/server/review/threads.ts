@@ -30,14 +30,30 @@ async function threadContext(threadId: string) {
 }
 export const manuscriptOfThread = async (threadId: string) => (await threadContext(threadId)).manuscriptId;
 
-async function insertComment(tx: Transaction, user: SessionUser, threadId: string, panelId: string, manuscriptId: string, prepared: { html: string; mentions: string[] }, body: Record<string, unknown>, clientKey?: string) {
+async function insertComment(
+  tx: Transaction,
+  user: SessionUser,
+  threadId: string,
+  panelId: string,
+  manuscriptId: string,
+  prepared: { html: string; mentions: string[] },
+  body: Record<string, unknown>,
+  clientKey?: string,
+) {
   const id = newId();
   // Two retries racing on a networked database meet at the unique (author, clientKey) index: the loser stores nothing.
-  const inserted = await tx.insert(comments).values({ id, threadId, body, html: prepared.html, mentions: prepared.mentions, clientKey: clientKey ?? null, createdBy: user.id })
-    .onConflictDoNothing().returning({ id: comments.id });
+  const inserted = await tx
+    .insert(comments)
+    .values({ id, threadId, body, html: prepared.html, mentions: prepared.mentions, clientKey: clientKey ?? null, createdBy: user.id })
+    .onConflictDoNothing()
+    .returning({ id: comments.id });
   if (!inserted[0]) return null;
   await appendAudit(tx, { actorId: user.id, manuscriptId, action: "comment.create", target: `comment:${id}`, data: { threadId, mentions: prepared.mentions } });
-  const excerpt = prepared.html.replace(/<[^>]+>/g, " ").replace(/\s+/g, " ").trim().slice(0, 300);
+  const excerpt = prepared.html
+    .replace(/<[^>]+>/g, " ")
+    .replace(/\s+/g, " ")
+    .trim()
+    .slice(0, 300);
   for (const m of prepared.mentions.filter((m) => m !== user.id)) await enqueueMail(tx, await reviewMail.mention(m, user, panelId, excerpt));
   return id;
 }
@@ -45,13 +61,19 @@ async function insertComment(tx: Transaction, user: SessionUser, threadId: strin
 /** A retried post with the same clientKey answers the comment already stored instead of a duplicate. */
 async function existingByClientKey(user: SessionUser, clientKey?: string) {
   if (!clientKey) return null;
-  const [c] = await getDb().select().from(comments).where(and(eq(comments.createdBy, user.id), eq(comments.clientKey, clientKey)));
+  const [c] = await getDb()
+    .select()
+    .from(comments)
+    .where(and(eq(comments.createdBy, user.id), eq(comments.clientKey, clientKey)));
   return c ?? null;
 }
 
 /** A retry with the same clientKey is answered above, before this counts. */
 const commentRateRule = (userId: string): RateRule => ({
-  bucket: `comment:user:${userId}`, max: env().commentsPerMinute, windowMs: 60_000, message: "You have posted many comments in the last minute.",
+  bucket: `comment:user:${userId}`,
+  max: env().commentsPerMinute,
+  windowMs: 60_000,
+  message: "You have posted many comments in the last minute.",
 });
 
 export async function createThread(user: SessionUser, panelId: string, raw: z.infer<typeof newThreadInput>) {
@@ -67,13 +89,17 @@ export async function createThread(user: SessionUser, panelId: string, raw: z.in
   const prepared = prepareCommentBody(input.body, await memberIds(manuscriptId));
   const id = newId();
   let raced = false;
-  await getDb().transaction(async (tx) => {
-    await tx.insert(threads).values({ id, panelId, revisionId: input.revisionId, anchor: input.anchor ?? null, createdBy: user.id });
-    if (!(await insertComment(tx, user, id, panelId, manuscriptId, prepared, input.body, input.clientKey))) {
-      raced = true;
-      tx.rollback(); // a concurrent retry stored this comment first: keep its thread, not an empty one
-    }
-  }).catch((err) => { if (!raced) throw err; });
+  await getDb()
+    .transaction(async (tx) => {
+      await tx.insert(threads).values({ id, panelId, revisionId: input.revisionId, anchor: input.anchor ?? null, createdBy: user.id });
+      if (!(await insertComment(tx, user, id, panelId, manuscriptId, prepared, input.body, input.clientKey))) {
+        raced = true;
+        tx.rollback(); // a concurrent retry stored this comment first: keep its thread, not an empty one
+      }
+    })
+    .catch((err) => {
+      if (!raced) throw err;
+    });
   if (raced) return getThread(user, (await existingByClientKey(user, input.clientKey))!.threadId);
   void deliverOutbox().catch(() => undefined);
   return getThread(user, id);
@@ -98,7 +124,10 @@ export async function setThreadResolved(user: SessionUser, threadId: string, res
   const { manuscriptId } = await threadContext(threadId);
   await authorize(user, "comment.write", manuscriptId);
   await getDb().transaction(async (tx) => {
-    await tx.update(threads).set(resolved ? { resolvedAt: new Date(), resolvedBy: user.id } : { resolvedAt: null, resolvedBy: null }).where(eq(threads.id, threadId));
+    await tx
+      .update(threads)
+      .set(resolved ? { resolvedAt: new Date(), resolvedBy: user.id } : { resolvedAt: null, resolvedBy: null })
+      .where(eq(threads.id, threadId));
     await appendAudit(tx, { actorId: user.id, manuscriptId, action: resolved ? "thread.resolve" : "thread.reopen", target: `thread:${threadId}` });
   });
   return getThread(user, threadId);
@@ -118,11 +147,15 @@ export async function editComment(user: SessionUser, commentId: string, raw: z.i
   const { c, manuscriptId } = await ownComment(user, commentId);
   const input = editCommentInput.parse(raw);
   if (Date.now() - c.createdAt.getTime() > EDIT_WINDOW_MS) throw forbidden("Comments can be edited for 15 minutes after posting; reply instead.");
-  if (input.baseEditedAt !== undefined && (c.editedAt?.getTime() ?? null) !== input.baseEditedAt) throw conflict("This comment was edited since you opened it. Reload to see the current text.");
+  if (input.baseEditedAt !== undefined && (c.editedAt?.getTime() ?? null) !== input.baseEditedAt)
+    throw conflict("This comment was edited since you opened it. Reload to see the current text.");
   const prepared = prepareCommentBody(input.body, await memberIds(manuscriptId));
   await getDb().transaction(async (tx) => {
     await tx.insert(commentEdits).values({ id: newId(), commentId, body: c.body, html: c.html, replacedAt: new Date() });
-    await tx.update(comments).set({ body: input.body, html: prepared.html, mentions: prepared.mentions, editedAt: new Date() }).where(eq(comments.id, commentId));
+    await tx
+      .update(comments)
+      .set({ body: input.body, html: prepared.html, mentions: prepared.mentions, editedAt: new Date() })
+      .where(eq(comments.id, commentId));
     await appendAudit(tx, { actorId: user.id, manuscriptId, action: "comment.edit", target: `comment:${commentId}` });
   });
   return getThread(user, c.threadId);
@@ -151,15 +184,41 @@ export async function listThreads(user: SessionUser, panelId: string) {
 
 async function listThreadsWhere(user: SessionUser, panelId: string, only?: string[]) {
   await authorize(user, "manuscript.read", await manuscriptOfPanel(panelId));
-  const ts = await getDb().select({ t: threads, rev: revisions.number }).from(threads).innerJoin(revisions, eq(revisions.id, threads.revisionId))
-    .where(only ? inArray(threads.id, only) : eq(threads.panelId, panelId)).orderBy(asc(threads.createdAt));
-  const cs = ts.length ? await getDb().select({ c: comments, name: users.name }).from(comments).innerJoin(users, eq(users.id, comments.createdBy))
-    .where(inArray(comments.threadId, ts.map((t) => t.t.id))).orderBy(asc(comments.createdAt)) : [];
+  const ts = await getDb()
+    .select({ t: threads, rev: revisions.number })
+    .from(threads)
+    .innerJoin(revisions, eq(revisions.id, threads.revisionId))
+    .where(only ? inArray(threads.id, only) : eq(threads.panelId, panelId))
+    .orderBy(asc(threads.createdAt));
+  const cs = ts.length
+    ? await getDb()
+        .select({ c: comments, name: users.name })
+        .from(comments)
+        .innerJoin(users, eq(users.id, comments.createdBy))
+        .where(
+          inArray(
+            comments.threadId,
+            ts.map((t) => t.t.id),
+          ),
+        )
+        .orderBy(asc(comments.createdAt))
+    : [];
   return ts.map(({ t, rev }) => ({
-    ...t, revisionNumber: rev, status: t.resolvedAt ? "resolved" : "open",
-    comments: cs.filter(({ c }) => c.threadId === t.id && !c.deletedAt).map(({ c, name }) => ({
-      id: c.id, body: c.body, html: c.html, mentions: c.mentions, createdBy: c.createdBy, authorName: name, createdAt: c.createdAt, editedAt: c.editedAt,
-    })),
+    ...t,
+    revisionNumber: rev,
+    status: t.resolvedAt ? "resolved" : "open",
+    comments: cs
+      .filter(({ c }) => c.threadId === t.id && !c.deletedAt)
+      .map(({ c, name }) => ({
+        id: c.id,
+        body: c.body,
+        html: c.html,
+        mentions: c.mentions,
+        createdBy: c.createdBy,
+        authorName: name,
+        createdAt: c.createdAt,
+        editedAt: c.editedAt,
+      })),
   }));
 }
 

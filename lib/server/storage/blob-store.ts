@@ -26,7 +26,9 @@ function tempPath(): string {
 }
 
 export class TooLargeError extends Error {
-  constructor(readonly limit: number) { super(`larger than ${limit} bytes`); }
+  constructor(readonly limit: number) {
+    super(`larger than ${limit} bytes`);
+  }
 }
 
 /**
@@ -34,7 +36,10 @@ export class TooLargeError extends Error {
  * without reading further (leaving the loop destroys the source: the multipart reader then stops the
  * whole request). On any error the part file is removed before the promise settles.
  */
-export async function writeStreamToTemp(source: AsyncIterable<Uint8Array> | Iterable<Uint8Array>, maxBytes: number): Promise<{ tmp: string; sha256: string; byteSize: number }> {
+export async function writeStreamToTemp(
+  source: AsyncIterable<Uint8Array> | Iterable<Uint8Array>,
+  maxBytes: number,
+): Promise<{ tmp: string; sha256: string; byteSize: number }> {
   const tmp = tempPath();
   const hash = createHash("sha256");
   const out = fs.createWriteStream(tmp, { flags: "wx" });
@@ -121,7 +126,8 @@ export async function sweepUploadTemp(olderThanMs = 2 * env().uploadIdleTimeoutM
     removed.push(name);
     bytes += stat.size;
   }
-  if (removed.length) console.info(`[prooflight] removed ${removed.length} abandoned upload part file${removed.length === 1 ? "" : "s"} (${bytes} bytes) from uploads/tmp`);
+  if (removed.length)
+    console.info(`[prooflight] removed ${removed.length} abandoned upload part file${removed.length === 1 ? "" : "s"} (${bytes} bytes) from uploads/tmp`);
   return { removed, bytes };
 }
 

@@ -18,7 +18,10 @@ export function acquireUploadSlot(userId: string): () => void {
   const { uploadsPerUser, uploadsInTotal } = env();
   const mine = byUser.get(userId) ?? 0;
   if (mine >= uploadsPerUser) {
-    throw tooManyRequests(`You already have ${mine} upload${mine === 1 ? "" : "s"} in progress. Wait for one to finish, then try again.`, UPLOAD_SLOT_RETRY_SECONDS);
+    throw tooManyRequests(
+      `You already have ${mine} upload${mine === 1 ? "" : "s"} in progress. Wait for one to finish, then try again.`,
+      UPLOAD_SLOT_RETRY_SECONDS,
+    );
   }
   if (total >= uploadsInTotal) throw tooManyRequests(`The server is handling ${total} uploads already. Try again in a moment.`, UPLOAD_SLOT_RETRY_SECONDS);
   byUser.set(userId, mine + 1);

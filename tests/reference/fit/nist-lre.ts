@@ -49,11 +49,7 @@ export function fitNist(dataset: NistDataset, start: number[]): CurveFitResult {
   const [x1, x2 = []] = dataset.predictors;
   const y = NIST_LOG_RESPONSE.has(dataset.name) ? dataset.y.map(Math.log) : dataset.y;
   const rows = y.map((_, i) => i);
-  return fitCurve(
-    { evaluate: (i, b) => model(b, x1[i], x2[i]) },
-    { x: rows, y },
-    { start, solver: { ftol: 1e-15, xtol: 1e-15, maxIterations: 1000 } },
-  );
+  return fitCurve({ evaluate: (i, b) => model(b, x1[i], x2[i]) }, { x: rows, y }, { start, solver: { ftol: 1e-15, xtol: 1e-15, maxIterations: 1000 } });
 }
 
 export interface NistAgreement {

@@ -8,13 +8,9 @@ export type NistModel = (b: ArrayLike<number>, x: number, x2: number) => number;
 const exponentialRise: NistModel = (b, x) => b[0] * (1 - Math.exp(-b[1] * x));
 const chwirut: NistModel = (b, x) => Math.exp(-b[0] * x) / (b[1] + b[2] * x);
 const gauss: NistModel = (b, x) =>
-  b[0] * Math.exp(-b[1] * x) +
-  b[2] * Math.exp(-((x - b[3]) ** 2) / b[4] ** 2) +
-  b[5] * Math.exp(-((x - b[6]) ** 2) / b[7] ** 2);
-const lanczos: NistModel = (b, x) =>
-  b[0] * Math.exp(-b[1] * x) + b[2] * Math.exp(-b[3] * x) + b[4] * Math.exp(-b[5] * x);
-const cubicOverCubic: NistModel = (b, x) =>
-  (b[0] + b[1] * x + b[2] * x ** 2 + b[3] * x ** 3) / (1 + b[4] * x + b[5] * x ** 2 + b[6] * x ** 3);
+  b[0] * Math.exp(-b[1] * x) + b[2] * Math.exp(-((x - b[3]) ** 2) / b[4] ** 2) + b[5] * Math.exp(-((x - b[6]) ** 2) / b[7] ** 2);
+const lanczos: NistModel = (b, x) => b[0] * Math.exp(-b[1] * x) + b[2] * Math.exp(-b[3] * x) + b[4] * Math.exp(-b[5] * x);
+const cubicOverCubic: NistModel = (b, x) => (b[0] + b[1] * x + b[2] * x ** 2 + b[3] * x ** 3) / (1 + b[4] * x + b[5] * x ** 2 + b[6] * x ** 3);
 
 export const NIST_MODELS: Record<string, NistModel> = {
   Misra1a: exponentialRise,

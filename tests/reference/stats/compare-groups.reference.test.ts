@@ -8,19 +8,9 @@
 // against SciPy to ~1e-12 in distributions.reference.test.ts.
 import { describe, expect, it } from "vitest";
 import { compareGroups, describe as describeSample, mannWhitneyU } from "@/lib/analysis/stats";
-import {
-  avg,
-  median,
-  normalTwoSidedByIntegration,
-  subsets,
-  sum,
-  tTwoSidedByIntegration,
-  uByPairs,
-  variance,
-} from "./first-principles";
+import { avg, median, normalTwoSidedByIntegration, subsets, sum, tTwoSidedByIntegration, uByPairs, variance } from "./first-principles";
 
-const relClose = (actual: number, expected: number, tol: number) =>
-  expect(Math.abs(actual - expected) / Math.abs(expected)).toBeLessThan(tol);
+const relClose = (actual: number, expected: number, tol: number) => expect(Math.abs(actual - expected) / Math.abs(expected)).toBeLessThan(tol);
 
 // Small invented data set without ties (e.g. T2 in µs of NV centres in two samples).
 const A = [4.2, 5.1, 3.9, 6.3, 5.5];
@@ -47,7 +37,10 @@ describe("first principles, no ties (A: 5 values, B: 6 values)", () => {
     let total = 0;
     for (const idx of subsets(pooled.length, A.length)) {
       const inA = new Set(idx);
-      const uPerm = uByPairs(idx.map((i) => pooled[i]), pooled.filter((_, i) => !inA.has(i)));
+      const uPerm = uByPairs(
+        idx.map((i) => pooled[i]),
+        pooled.filter((_, i) => !inA.has(i)),
+      );
       total++;
       if (uPerm <= u) atMost++;
       if (uPerm >= u) atLeast++;

@@ -92,7 +92,7 @@ describe("fitModel options", () => {
 
   it("warns about strongly correlated parameters", () => {
     const far = linspace(1000, 1010, 30);
-    const line = far.map((t, i) => 2 + 0.5 * t + 0.01 * ((i * 7919) % 13 - 6));
+    const line = far.map((t, i) => 2 + 0.5 * t + 0.01 * (((i * 7919) % 13) - 6));
     const result = fitModel("line", { x: far, y: line });
     expect(result.warnings).toContain("correlation > 0.95 between c0 and c1");
   });

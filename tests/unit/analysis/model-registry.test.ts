@@ -24,10 +24,25 @@ describe("model registry", () => {
 
   it("includes every model the product needs", () => {
     for (const id of [
-      "hahn_echo", "relaxation", "relaxation_stretched", "ramsey", "ramsey_14n",
-      "odmr_lorentzian_1", "odmr_lorentzian_2", "odmr_lorentzian_3", "odmr_14n_triplet", "odmr_15n_doublet",
-      "odmr_two_resonances", "exponential", "gaussian", "lorentzian", "pseudo_voigt", "voigt",
-      "line", "polynomial_2", "polynomial_3",
+      "hahn_echo",
+      "relaxation",
+      "relaxation_stretched",
+      "ramsey",
+      "ramsey_14n",
+      "odmr_lorentzian_1",
+      "odmr_lorentzian_2",
+      "odmr_lorentzian_3",
+      "odmr_14n_triplet",
+      "odmr_15n_doublet",
+      "odmr_two_resonances",
+      "exponential",
+      "gaussian",
+      "lorentzian",
+      "pseudo_voigt",
+      "voigt",
+      "line",
+      "polynomial_2",
+      "polynomial_3",
     ]) {
       expect(getModel(id), id).toBeDefined();
     }

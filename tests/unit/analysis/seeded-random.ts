@@ -32,12 +32,6 @@ export function linspace(from: number, to: number, count: number): number[] {
 }
 
 /** y = model(x) + N(0, noise²) for each x. */
-export function synthesize(
-  evaluate: (x: number, p: number[]) => number,
-  params: number[],
-  x: number[],
-  noise: number,
-  random: SeededRandom,
-): number[] {
+export function synthesize(evaluate: (x: number, p: number[]) => number, params: number[], x: number[], noise: number, random: SeededRandom): number[] {
   return x.map((xi) => evaluate(xi, params) + noise * random.normal());
 }

@@ -11,8 +11,7 @@ export interface SyntheticCase {
   noise: number;
 }
 
-const logspace = (from: number, to: number, count: number): number[] =>
-  linspace(Math.log10(from), Math.log10(to), count).map((v) => 10 ** v);
+const logspace = (from: number, to: number, count: number): number[] => linspace(Math.log10(from), Math.log10(to), count).map((v) => 10 ** v);
 
 export const SYNTHETIC_CASES: SyntheticCase[] = [
   { modelId: "hahn_echo", truth: { S0: 0.5, A: 0.3, T2: 80, n: 2 }, x: linspace(0, 300, 500), noise: 0.01 },

@@ -26,12 +26,19 @@ describe("columnar cache", () => {
     const x = new Float64Array(n).map((_, i) => i * 0.5);
     const tags = Array.from({ length: n }, (_, i) => `r${i}`);
     const t: ParsedTable = {
-      format: "csv", encoding: "utf-8", delimiter: ",", decimal: ".",
+      format: "csv",
+      encoding: "utf-8",
+      delimiter: ",",
+      decimal: ".",
       columns: [
         { name: "x", unit: "µs", type: "number", sourceHeader: "x (us)" },
         { name: "tag", unit: null, type: "string", sourceHeader: "tag" },
       ],
-      data: [x, tags], rowCount: n, headerLines: ["# big"], metadata: { k: "v" }, warnings: [],
+      data: [x, tags],
+      rowCount: n,
+      headerLines: ["# big"],
+      metadata: { k: "v" },
+      warnings: [],
     };
     const blob = encodeColumnar(t);
     expect(blob.byteLength).toBeLessThan(8 * n + 4 * (n + 1) + 8 * n + 1024);

@@ -60,7 +60,9 @@ describe("validation errors carry code, status and location", () => {
 
   it("duplicate and empty headers → 422 at the header cell", () => {
     const d = expectParseError(() => parse("# x\ntime (s),counts,time (ms)\n1,2,3\n"), { code: "duplicate_header", httpStatus: 422, line: 2, column: 3 });
-    expect(d.message).toBe('data.csv, line 2, column 3 ("time (ms)"): the column name "time" is already used by column 1 (from "time (s)"); every column needs its own name.');
+    expect(d.message).toBe(
+      'data.csv, line 2, column 3 ("time (ms)"): the column name "time" is already used by column 1 (from "time (s)"); every column needs its own name.',
+    );
     expectParseError(() => parse("a,a\n1,2\n"), { code: "duplicate_header", column: 2 });
     const e = expectParseError(() => parse("a,,c\n1,2,3\n"), { code: "empty_header", line: 1, column: 2 });
     expect(e.message).toBe("data.csv, line 1, column 2: this column has no name; give every column a header (or remove the header line if there is none).");
@@ -77,7 +79,12 @@ describe("validation errors carry code, status and location", () => {
   });
 
   it("bad JSON → 400 with line and column of the problem", () => {
-    const e = expectParseError(() => parse('[\n  {"t": 1, "y": 2},\n  {"t": 2 "y": 3}\n]', "r.json"), { code: "bad_json", httpStatus: 400, line: 3, column: 11 });
+    const e = expectParseError(() => parse('[\n  {"t": 1, "y": 2},\n  {"t": 2 "y": 3}\n]', "r.json"), {
+      code: "bad_json",
+      httpStatus: 400,
+      line: 3,
+      column: 11,
+    });
     expect(e.message).toBe('r.json, line 3, column 11: the JSON is malformed: unexpected "\\"" (expected "," or "}").');
     expectParseError(() => parse('{"a": [1, 2', "r.json"), { code: "bad_json", line: 1, column: 12 });
     expectParseError(() => parse('{"a": "x\ny"}', "r.json"), { code: "bad_json", line: 1, column: 9 });
@@ -85,7 +92,12 @@ describe("validation errors carry code, status and location", () => {
   });
 
   it("JSON cells that are not numbers point at the value in the file", () => {
-    const e = expectParseError(() => parse('{"columns": ["t", "y"],\n "rows": [[1, 2],\n  [2, "n/a?"],\n  [3, 4], [4, 5]]}', "r.json"), { code: "non_numeric", line: 3, column: 7, columnName: "y" });
+    const e = expectParseError(() => parse('{"columns": ["t", "y"],\n "rows": [[1, 2],\n  [2, "n/a?"],\n  [3, 4], [4, 5]]}', "r.json"), {
+      code: "non_numeric",
+      line: 3,
+      column: 7,
+      columnName: "y",
+    });
     expect(e.message).toBe('r.json, line 3, column 7 ("y"): row 2 holds "n/a?", which is not a number; the rest of this column is numeric.');
     expectParseError(() => parse('{"columns": ["t", "y"], "rows": [[1, 2], [3]]}', "r.json"), { code: "ragged", line: 1, column: 42 });
   });

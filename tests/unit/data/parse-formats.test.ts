@@ -21,7 +21,11 @@ describe("CSV", () => {
   it("handles CRLF, lone CR, no final newline, quotes and string columns", () => {
     const t = parse('label,"B (mT)",note\r\nA,1.5,"a, b"\r\nB,"2.5","say ""hi"""\rC,3e-1,\r\n"D",-4,"two\nlines"');
     expect(t.rowCount).toBe(4);
-    expect(t.columns.map((c) => [c.name, c.type])).toEqual([["label", "string"], ["B", "number"], ["note", "string"]]);
+    expect(t.columns.map((c) => [c.name, c.type])).toEqual([
+      ["label", "string"],
+      ["B", "number"],
+      ["note", "string"],
+    ]);
     expect(col(t, "label")).toEqual(["A", "B", "C", "D"]);
     expect(col(t, "B")).toEqual([1.5, 2.5, 0.3, -4]);
     expect(col(t, "note")).toEqual(["a, b", 'say "hi"', "", "two\nlines"]);
@@ -126,7 +130,11 @@ describe("whitespace text with a header block", () => {
     expect(t.format).toBe("text");
     expect(t.headerLines).toEqual(["# Hahn echo, sample: D-17", "# sample: D-17", "% laser = 532 nm", "Temperature: 295 K"]);
     expect(t.metadata).toMatchObject({ sample: "D-17", laser: "532 nm", Temperature: "295 K" });
-    expect(t.columns.map((c) => [c.name, c.unit])).toEqual([["tau", "µs"], ["signal", "a.u."], ["ref", null]]);
+    expect(t.columns.map((c) => [c.name, c.unit])).toEqual([
+      ["tau", "µs"],
+      ["signal", "a.u."],
+      ["ref", null],
+    ]);
     expect(col(t, "signal")).toEqual([0.98, 0.95]);
   });
 
@@ -148,14 +156,21 @@ describe("JSON", () => {
     const t = parse('[{"t (ns)": 0, "y": 1.5, "tag": "a"}, {"t (ns)": 10, "y": null, "tag": "b"}]', "r.json");
     expect(t.format).toBe("json");
     expect(t.delimiter).toBeNull();
-    expect(t.columns.map((c) => [c.name, c.unit, c.type])).toEqual([["t", "ns", "number"], ["y", null, "number"], ["tag", null, "string"]]);
+    expect(t.columns.map((c) => [c.name, c.unit, c.type])).toEqual([
+      ["t", "ns", "number"],
+      ["y", null, "number"],
+      ["tag", null, "string"],
+    ]);
     expect(col(t, "t")).toEqual([0, 10]);
     expect(Number.isNaN(col(t, "y")[1])).toBe(true);
   });
 
   it("reads {columns, rows} with named units and top-level metadata", () => {
     const t = parse('{"sample": "D-17", "metadata": {"T": 4}, "columns": [{"name": "B", "unit": "mT"}, "counts"], "rows": [[1, 10], [2, 20]]}', "r.json");
-    expect(t.columns.map((c) => [c.name, c.unit])).toEqual([["B", "mT"], ["counts", null]]);
+    expect(t.columns.map((c) => [c.name, c.unit])).toEqual([
+      ["B", "mT"],
+      ["counts", null],
+    ]);
     expect(col(t, "counts")).toEqual([10, 20]);
     expect(t.metadata).toEqual({ sample: "D-17", T: "4" });
   });

@@ -13,7 +13,10 @@ describe("files as instruments write them", () => {
       "2.8510000000000000e+09\t1.2298e+05",
     ].join("\n");
     const t = parse(file, "odmr.dat");
-    expect(t.columns.map((c) => [c.name, c.unit])).toEqual([["frequency", "Hz"], ["count data", "cps"]]);
+    expect(t.columns.map((c) => [c.name, c.unit])).toEqual([
+      ["frequency", "Hz"],
+      ["count data", "cps"],
+    ]);
     expect(col(t, "frequency")).toEqual([2.85e9, 2.851e9]);
     expect(t.metadata).toMatchObject({ Timestamp: "2024-03-12 10:12:01", "Microwave power (dBm)": "-20.0" });
     expect(t.headerLines).toHaveLength(5);

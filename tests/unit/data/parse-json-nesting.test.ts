@@ -30,6 +30,10 @@ describe("JSON uploads nested too deeply", () => {
 
   it("a cell holding a shallow object still reads as text", () => {
     const t = parse('[{"t": 1, "y": 2, "note": {"a": [1]}}, {"t": 2, "y": 3, "note": "x"}]');
-    expect(t.columns.map((c) => [c.name, c.type])).toEqual([["t", "number"], ["y", "number"], ["note", "string"]]);
+    expect(t.columns.map((c) => [c.name, c.type])).toEqual([
+      ["t", "number"],
+      ["y", "number"],
+      ["note", "string"],
+    ]);
   });
 });

@@ -56,11 +56,17 @@ describe("property: parseTable returns a table or throws ParseError", () => {
       fc.uint8Array({ maxLength: 200 }).map((b) => new Uint8Array([0xef, 0xbb, 0xbf, ...b])),
       fc.uint8Array({ maxLength: 200, min: 0x20, max: 0x7e }),
     );
-    fc.assert(fc.property(bytes, options, (b, o) => tableOrParseError(b, o)), { numRuns: 4000 });
+    fc.assert(
+      fc.property(bytes, options, (b, o) => tableOrParseError(b, o)),
+      { numRuns: 4000 },
+    );
   });
 
   it("random CSV-like text (4,000 inputs)", () => {
-    fc.assert(fc.property(csvLike, options, (s, o) => tableOrParseError(utf8(s), o)), { numRuns: 4000 });
+    fc.assert(
+      fc.property(csvLike, options, (s, o) => tableOrParseError(utf8(s), o)),
+      { numRuns: 4000 },
+    );
   });
 
   it("random and damaged JSON (3,000 inputs)", () => {
@@ -68,9 +74,14 @@ describe("property: parseTable returns a table or throws ParseError", () => {
       const at = j.length === 0 ? 0 : k % j.length;
       return j.slice(0, at) + c + j.slice(at + (c === "" ? 1 : 0));
     });
-    const tables = fc.array(fc.dictionary(fc.constantFrom("t", "y", "z (us)", "__proto__", ""), fc.jsonValue({ maxDepth: 1 }), { maxKeys: 4 }), { maxLength: 8 }).map((a) => JSON.stringify(a));
+    const tables = fc
+      .array(fc.dictionary(fc.constantFrom("t", "y", "z (us)", "__proto__", ""), fc.jsonValue({ maxDepth: 1 }), { maxKeys: 4 }), { maxLength: 8 })
+      .map((a) => JSON.stringify(a));
     const text = fc.oneof(fc.json(), damaged, tables);
-    fc.assert(fc.property(text, fileNames, (s, f) => tableOrParseError(utf8(s), { fileName: f.replace(/\.\w+$/, ".json") })), { numRuns: 3000 });
+    fc.assert(
+      fc.property(text, fileNames, (s, f) => tableOrParseError(utf8(s), { fileName: f.replace(/\.\w+$/, ".json") })),
+      { numRuns: 3000 },
+    );
   });
 });
 
@@ -81,9 +92,9 @@ const cellValue = fc.oneof(
   { weight: 3, arbitrary: fc.double({ min: -1e6, max: 1e6, noNaN: true }).map((v) => Number(v.toFixed(4))) },
   { weight: 1, arbitrary: fc.constant(NaN) },
 );
-const numericTable = fc.integer({ min: 1, max: 6 }).chain((cols) =>
-  fc.array(fc.array(cellValue, { minLength: cols, maxLength: cols }), { minLength: 1, maxLength: 40 }).map((rows) => ({ cols, rows })),
-);
+const numericTable = fc
+  .integer({ min: 1, max: 6 })
+  .chain((cols) => fc.array(fc.array(cellValue, { minLength: cols, maxLength: cols }), { minLength: 1, maxLength: 40 }).map((rows) => ({ cols, rows })));
 
 type Style = { delimiter: string; comma: boolean; missing: string; fileName: string };
 const STYLES: Style[] = [

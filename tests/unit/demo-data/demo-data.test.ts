@@ -115,7 +115,9 @@ describe("demo files: true parameters in the notes", () => {
       expect(noted(f.notes, "true T2")).toBeGreaterThan(0);
     }
     const mean = (g: string) => {
-      const t2 = byKind("hahn_echo").filter((f) => f.tags.group === g).map((f) => noted(f.notes, "true T2"));
+      const t2 = byKind("hahn_echo")
+        .filter((f) => f.tags.group === g)
+        .map((f) => noted(f.notes, "true T2"));
       return t2.reduce((a, b) => a + b, 0) / t2.length;
     };
     // Nominal 60 ± 15, 150 ± 30, 220 ± 40 µs; four centres per group.
@@ -166,7 +168,10 @@ describe("demo files: the fitter recovers the true parameters", () => {
       const t = parse(f);
       const fit = fitModel("hahn_echo", { x: column(t, "tau"), y: column(t, "signal"), sigma: column(t, "sigma") });
       const p = Object.fromEntries(fit.params.map((q) => [q.name, q]));
-      for (const [name, label] of [["T2", "true T2"], ["n", "n"]] as const) {
+      for (const [name, label] of [
+        ["T2", "true T2"],
+        ["n", "n"],
+      ] as const) {
         const truth = noted(f.notes, label);
         expect(Number.isFinite(p[name].stderr), `${f.fileName} ${name} stderr`).toBe(true);
         expect(Math.abs(p[name].value - truth), `${f.fileName} ${name}`).toBeLessThan(3 * p[name].stderr);

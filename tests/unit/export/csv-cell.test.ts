@@ -4,7 +4,14 @@ import { csvCell, rowsToCsv } from "@/lib/server/export/source-data";
 describe("source-data CSV cells", () => {
   it("writes formula-looking text inert and numbers as they are", () => {
     expect(["=cmd|' /C calc'!A0", "+1", "-x", "@SUM(A1)", "\tTab", "plain", "a,b", 'say "hi"'].map(csvCell)).toEqual([
-      "'=cmd|' /C calc'!A0", "'+1", "'-x", "'@SUM(A1)", "'\tTab", "plain", '"a,b"', '"say ""hi"""',
+      "'=cmd|' /C calc'!A0",
+      "'+1",
+      "'-x",
+      "'@SUM(A1)",
+      "'\tTab",
+      "plain",
+      '"a,b"',
+      '"say ""hi"""',
     ]);
     expect([-0.5, 1e-9, 0, null, undefined].map(csvCell)).toEqual(["-0.5", "1e-9", "0", "", ""]);
     expect(rowsToCsv([{ t: -1, note: "=1+1" }])).toBe("t,note\n-1,'=1+1\n");

@@ -6,8 +6,16 @@ import { sha256Hex } from "@/lib/figures/sha256";
 
 /** An independent canonical form: keys sorted at every level, then the platform's JSON.stringify. */
 function sortedStringify(v: unknown): string {
-  const sort = (x: unknown): unknown => Array.isArray(x) ? x.map(sort)
-    : x && typeof x === "object" ? Object.fromEntries(Object.keys(x).sort().map((k) => [k, sort((x as Record<string, unknown>)[k])])) : x;
+  const sort = (x: unknown): unknown =>
+    Array.isArray(x)
+      ? x.map(sort)
+      : x && typeof x === "object"
+        ? Object.fromEntries(
+            Object.keys(x)
+              .sort()
+              .map((k) => [k, sort((x as Record<string, unknown>)[k])]),
+          )
+        : x;
   return JSON.stringify(sort(v));
 }
 import { sha256Hex as serverSha256 } from "@/lib/server/crypto";
@@ -18,14 +26,15 @@ describe("sha256 (pure)", () => {
   it("matches the FIPS 180-4 examples", () => {
     expect(sha256Hex("")).toBe("e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855");
     expect(sha256Hex("abc")).toBe("ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
-    expect(sha256Hex("abcdbcdecdefdefgefghfghighijhijkijkljklmklmnlmnomnopnopq")).toBe(
-      "248d6a61d20638b8e5c026930c3e6039a33ce45964ff2167f6ecedd419db06c1",
-    );
+    expect(sha256Hex("abcdbcdecdefdefgefghfghighijhijkijkljklmklmnlmnomnopnopq")).toBe("248d6a61d20638b8e5c026930c3e6039a33ce45964ff2167f6ecedd419db06c1");
   });
 
   it("agrees with node:crypto across block boundaries and non-ASCII text", () => {
     for (const n of [1, 55, 56, 57, 63, 64, 65, 119, 120, 1000]) expect(sha256Hex("x".repeat(n))).toBe(nodeSha("x".repeat(n)));
-    fc.assert(fc.property(fc.string({ unit: "binary", maxLength: 200 }), (s) => sha256Hex(s) === nodeSha(s)), { numRuns: 150 });
+    fc.assert(
+      fc.property(fc.string({ unit: "binary", maxLength: 200 }), (s) => sha256Hex(s) === nodeSha(s)),
+      { numRuns: 150 },
+    );
     expect(sha256Hex("τ (µs) — NV⁻ 🧪")).toBe(nodeSha("τ (µs) — NV⁻ 🧪"));
   });
 });
@@ -38,7 +47,10 @@ describe("canonical JSON and content hash", () => {
   });
 
   it("equals sorted-key JSON.stringify for every JSON value (one form for browser and server hashes)", () => {
-    fc.assert(fc.property(fc.jsonValue(), (v) => canonicalJson(v) === sortedStringify(v)), { numRuns: 300 });
+    fc.assert(
+      fc.property(fc.jsonValue(), (v) => canonicalJson(v) === sortedStringify(v)),
+      { numRuns: 300 },
+    );
   });
 
   it("does not depend on key order", () => {

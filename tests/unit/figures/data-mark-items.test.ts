@@ -7,10 +7,19 @@ const viewOf = (root: unknown) => ({ scenegraph: () => ({ root }) }) as unknown 
 const group = (role: string, children: unknown[]) => ({ marktype: "group", role, items: [{ items: children }] });
 
 describe("dataMarkItems: did the render draw anything", () => {
-  const axis = group("axis", [{ marktype: "rule", role: "axis-tick", items: [{}, {}, {}] }, { marktype: "text", role: "axis-label", items: [{}, {}] }]);
+  const axis = group("axis", [
+    { marktype: "rule", role: "axis-tick", items: [{}, {}, {}] },
+    { marktype: "text", role: "axis-label", items: [{}, {}] },
+  ]);
 
   it("counts the items of data marks only, through nested groups (layers, concat cells)", () => {
-    const root = group("frame", [axis, group("scope", [{ marktype: "symbol", role: "mark", items: [{}, {}] }, { marktype: "line", role: "mark", items: [{}] }])]);
+    const root = group("frame", [
+      axis,
+      group("scope", [
+        { marktype: "symbol", role: "mark", items: [{}, {}] },
+        { marktype: "line", role: "mark", items: [{}] },
+      ]),
+    ]);
     expect(dataMarkItems(viewOf(root))).toBe(3);
   });
 

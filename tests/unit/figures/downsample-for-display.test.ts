@@ -63,6 +63,9 @@ describe("prepareSeriesForDisplay", () => {
   });
 
   it("gives rows for Vega", () => {
-    expect(toRows({ x: [1, 2], y: [3, 4] }, "f", "s")).toEqual([{ f: 1, s: 3 }, { f: 2, s: 4 }]);
+    expect(toRows({ x: [1, 2], y: [3, 4] }, "f", "s")).toEqual([
+      { f: 1, s: 3 },
+      { f: 2, s: 4 },
+    ]);
   });
 });

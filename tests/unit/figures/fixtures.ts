@@ -6,10 +6,7 @@ const model = (t: number) => 0.5 + 0.4 * Math.exp(-((t / 80) ** 1.5));
 const wiggle = (t: number) => 0.01 * Math.sin(t * 7);
 
 export const echo = tau.map((t) => ({ tau: t, signal: model(t) + wiggle(t), sigma: 0.01 }));
-export const fit = [
-  ...tau.map((t) => ({ series: "curve", tau: t, signal: model(t) })),
-  ...tau.map((t) => ({ series: "residual", tau: t, signal: wiggle(t) })),
-];
+export const fit = [...tau.map((t) => ({ series: "curve", tau: t, signal: model(t) })), ...tau.map((t) => ({ series: "residual", tau: t, signal: wiggle(t) }))];
 export const spectrum = Array.from({ length: 400 }, (_, i) => {
   const w = 550 + i * 0.5; // nm
   const g = (c: number, s: number, a: number) => a * Math.exp(-(((w - c) / s) ** 2));
@@ -19,7 +16,9 @@ export const plmap: object[] = [];
 for (let i = 0; i < 30; i++) {
   for (let j = 0; j < 30; j++) plmap.push({ x: i * 0.2, y: j * 0.2, counts: 20 + 200 * Math.exp(-(((i - 12) ** 2 + (j - 18) ** 2) / 4)) });
 }
-export const population = ["A", "B", "C"].flatMap((g, k) => Array.from({ length: 8 + k * 3 }, (_, i) => ({ sample: g, T2: 50 + k * 30 + ((i * 37) % 17) * 3 })));
+export const population = ["A", "B", "C"].flatMap((g, k) =>
+  Array.from({ length: 8 + k * 3 }, (_, i) => ({ sample: g, T2: 50 + k * 30 + ((i * 37) % 17) * 3 })),
+);
 export const nmr = Array.from({ length: 400 }, (_, i) => {
   const f = 1.5 + i * 0.002; // MHz
   return { frequency: f, contrast: 1 - 0.05 * Math.exp(-(((f - 2.129) / 0.02) ** 2)) };
@@ -27,7 +26,13 @@ export const nmr = Array.from({ length: 400 }, (_, i) => {
 
 /** Rows for every data name the templates use with their defaults (fit and residuals share a table). */
 export const TEMPLATE_DATA: Record<string, object[]> = {
-  echo, fit, residuals: fit, spectrum, plmap, population, nmr,
+  echo,
+  fit,
+  residuals: fit,
+  spectrum,
+  plmap,
+  population,
+  nmr,
   data: echo.map((r) => ({ x: r.tau, y: r.signal, sigma: r.sigma })),
 };
 

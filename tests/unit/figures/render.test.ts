@@ -70,7 +70,10 @@ describe("renderSpecToSvg", () => {
 
   it("refuses every load: data URLs to loopback and file URLs fail the render and nothing is fetched", async () => {
     let requests = 0;
-    const server = http.createServer((_, res) => { requests++; res.end("[]"); });
+    const server = http.createServer((_, res) => {
+      requests++;
+      res.end("[]");
+    });
     await new Promise<void>((r) => server.listen(0, "127.0.0.1", r));
     const port = (server.address() as AddressInfo).port;
     try {
@@ -80,7 +83,12 @@ describe("renderSpecToSvg", () => {
         expect(err.code).toBe("load-refused");
         expect(err.message).toContain(url);
       }
-      const layered = { layer: [{ ...scatterSpec(), data: { name: "trace" } }, { ...scatterSpec(), data: { url: `http://127.0.0.1:${port}/x.json` } }] };
+      const layered = {
+        layer: [
+          { ...scatterSpec(), data: { name: "trace" } },
+          { ...scatterSpec(), data: { url: `http://127.0.0.1:${port}/x.json` } },
+        ],
+      };
       expect((await renderError(renderSpecToSvg(layered, { trace: scatterRows(5) }, { widthMm: 89 }))).code).toBe("load-refused");
       expect(requests).toBe(0);
     } finally {
@@ -208,20 +216,32 @@ describe("PDF export", () => {
   });
 
   it("refuses an SVG with an image, instead of reading the path from disk", async () => {
-    const bad = '<svg xmlns="http://www.w3.org/2000/svg" width="10mm" height="10mm" viewBox="0 0 28 28"><image href="/etc/passwd" width="10" height="10"/></svg>';
+    const bad =
+      '<svg xmlns="http://www.w3.org/2000/svg" width="10mm" height="10mm" viewBox="0 0 28 28"><image href="/etc/passwd" width="10" height="10"/></svg>';
     await expect(svgToPdf(bad)).rejects.toThrow(/not exported/);
   });
 });
 
 describe("figure composition", () => {
-  const clipped = () => ({ ...scatterSpec(), mark: { type: "line", clip: true }, encoding: { ...scatterSpec().encoding, x: { field: "t", type: "quantitative", scale: { domain: [0, 0.5] } } } });
+  const clipped = () => ({
+    ...scatterSpec(),
+    mark: { type: "line", clip: true },
+    encoding: { ...scatterSpec().encoding, x: { field: "t", type: "quantitative", scale: { domain: [0, 0.5] } } },
+  });
 
   it("places panels a and b side by side with bold 8 pt letters, unique ids and a root in mm", async () => {
     const data = { trace: scatterRows(100) };
     const a = await renderSpecToSvg(clipped(), data, { widthMm: 89 });
     const b = await renderSpecToSvg(clipped(), data, { widthMm: 89 });
     expect(a.svg).toMatch(/clip-path="url\(#/);
-    const fig = composeFigure([{ letter: "a", ...a }, { letter: "b", ...b }], { columns: 2, gapMm: 5 }, 183);
+    const fig = composeFigure(
+      [
+        { letter: "a", ...a },
+        { letter: "b", ...b },
+      ],
+      { columns: 2, gapMm: 5 },
+      183,
+    );
     const root = rootOf(fig.svg);
     expect(root).toContain('width="183mm"');
     expect(root).toMatch(/height="[\d.]+mm"/);

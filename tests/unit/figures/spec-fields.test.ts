@@ -7,13 +7,17 @@ import { HEADER_UNIT_RULE, parseHeaderUnit } from "@/lib/data/units";
 describe("the fields a spec reads, per data name", () => {
   it("a single view: encodings with nested defs, tooltip arrays, sort and conditions", () => {
     const spec = {
-      data: { name: "echo" }, mark: "point",
+      data: { name: "echo" },
+      mark: "point",
       encoding: {
         x: { field: "tau", type: "quantitative" },
         y: { field: "signal", type: "quantitative", sort: { field: "order", op: "min" } },
         color: { field: "run", type: "nominal", condition: { test: "datum.flag > 0", value: "red" } },
         size: { condition: { param: "sel", field: "weight", type: "quantitative" }, value: 2 },
-        tooltip: [{ field: "note", type: "nominal" }, { field: "sigma", type: "quantitative" }],
+        tooltip: [
+          { field: "note", type: "nominal" },
+          { field: "sigma", type: "quantitative" },
+        ],
         text: { field: "label", type: "nominal" },
         detail: [{ field: "group", type: "nominal" }],
         order: { field: "seq", type: "quantitative" },
@@ -30,7 +34,12 @@ describe("the fields a spec reads, per data name", () => {
       encoding: { x: { field: "tau", type: "quantitative" } },
       layer: [
         { mark: "point", encoding: { y: { field: "double", type: "quantitative" } } },
-        { data: { name: "fit" }, transform: [{ filter: "datum.series === 'curve'" }], mark: "line", encoding: { y: { field: "double", type: "quantitative" } } },
+        {
+          data: { name: "fit" },
+          transform: [{ filter: "datum.series === 'curve'" }],
+          mark: "line",
+          encoding: { y: { field: "double", type: "quantitative" } },
+        },
         { data: { values: [{ a: 1 }] }, mark: "rule", encoding: { y: { field: "a", type: "quantitative" } } },
       ],
     };
@@ -43,18 +52,34 @@ describe("the fields a spec reads, per data name", () => {
       data: { name: "d" },
       transform: [
         { filter: { and: [{ field: "temp", gt: 4 }, { not: "datum['run id'] == 3" }, { or: [{ field: "ok", equal: true }, "datum.alt > 1"] }] } },
-        { calculate: "datum[\"a b\"] + datum.c", as: "sum" },
-        { aggregate: [{ op: "mean", field: "sum", as: "mean_sum" }, { op: "count", as: "n" }], groupby: ["grp"] },
-        { window: [{ op: "rank", as: "rank" }, { op: "sum", field: "w", as: "cum" }], sort: [{ field: "t" }], groupby: ["grp"] },
+        { calculate: 'datum["a b"] + datum.c', as: "sum" },
+        {
+          aggregate: [
+            { op: "mean", field: "sum", as: "mean_sum" },
+            { op: "count", as: "n" },
+          ],
+          groupby: ["grp"],
+        },
+        {
+          window: [
+            { op: "rank", as: "rank" },
+            { op: "sum", field: "w", as: "cum" },
+          ],
+          sort: [{ field: "t" }],
+          groupby: ["grp"],
+        },
         { bin: true, field: "x", as: "x_bin" },
         { timeUnit: "month", field: "date", as: "month" },
         { lookup: "key", from: { data: { name: "meta" }, key: "id", fields: ["label", "colour"] } },
       ],
       mark: "bar",
       encoding: {
-        x: { field: "x_bin", type: "quantitative" }, x2: { field: "x_bin_end" },
-        y: { field: "mean_sum", type: "quantitative" }, color: { field: "label", type: "nominal" },
-        opacity: { field: "cum", type: "quantitative" }, column: { field: "month", type: "ordinal" },
+        x: { field: "x_bin", type: "quantitative" },
+        x2: { field: "x_bin_end" },
+        y: { field: "mean_sum", type: "quantitative" },
+        color: { field: "label", type: "nominal" },
+        opacity: { field: "cum", type: "quantitative" },
+        column: { field: "month", type: "ordinal" },
         tooltip: [{ field: "n" }, { field: "rank" }, { field: "colour" }],
       },
     };
@@ -75,7 +100,11 @@ describe("the fields a spec reads, per data name", () => {
         { transform: [{ loess: "y2", on: "x2", groupby: ["g2"] }], mark: "line", encoding: { x: { field: "x2" }, y: { field: "y2" } } },
         { transform: [{ quantile: "q" }], mark: "point", encoding: { x: { field: "prob" }, y: { field: "value" } } },
         { transform: [{ flatten: ["list"], as: ["item"] }], mark: "point", encoding: { x: { field: "item" } } },
-        { transform: [{ stack: "s", groupby: ["sg"], as: "st", sort: [{ field: "so" }] }], mark: "bar", encoding: { y: { field: "st" }, y2: { field: "st_end" } } },
+        {
+          transform: [{ stack: "s", groupby: ["sg"], as: "st", sort: [{ field: "so" }] }],
+          mark: "bar",
+          encoding: { y: { field: "st" }, y2: { field: "st_end" } },
+        },
       ],
     };
     // the second view reads `key`, which its fold (named k, v) does not create.
@@ -89,9 +118,17 @@ describe("the fields a spec reads, per data name", () => {
       spec: { mark: "line", encoding: { x: { field: { repeat: "column" }, type: "quantitative" }, y: { field: { repeat: "row" }, type: "quantitative" } } },
     };
     expect(specFields(spec)).toEqual({ odmr: ["contrast", "frequency", "pl"] });
-    const arrayRepeat = { data: { name: "d" }, repeat: ["a", "b"], spec: { mark: "point", encoding: { x: { field: { repeat: "repeat" } }, y: { field: "c" } } } };
+    const arrayRepeat = {
+      data: { name: "d" },
+      repeat: ["a", "b"],
+      spec: { mark: "point", encoding: { x: { field: { repeat: "repeat" } }, y: { field: "c" } } },
+    };
     expect(specFields(arrayRepeat)).toEqual({ d: ["a", "b", "c"] });
-    const facet = { data: { name: "d" }, facet: { row: { field: "sample" }, column: { field: "run", sort: { field: "when" } } }, spec: { mark: "point", encoding: { x: { field: "t" } } } };
+    const facet = {
+      data: { name: "d" },
+      facet: { row: { field: "sample" }, column: { field: "run", sort: { field: "when" } } },
+      spec: { mark: "point", encoding: { x: { field: "t" } } },
+    };
     expect(specFields(facet)).toEqual({ d: ["run", "sample", "t", "when"] });
   });
 
@@ -99,7 +136,12 @@ describe("the fields a spec reads, per data name", () => {
     const spec = {
       datasets: { inline: [{ z: 1 }] },
       hconcat: [
-        { data: { name: "d" }, transform: [{ pivot: "channel", value: "v", groupby: ["t"] }], mark: "line", encoding: { x: { field: "t" }, y: { field: "ch1" } } },
+        {
+          data: { name: "d" },
+          transform: [{ pivot: "channel", value: "v", groupby: ["t"] }],
+          mark: "line",
+          encoding: { x: { field: "t" }, y: { field: "ch1" } },
+        },
         { data: { name: "inline" }, mark: "point", encoding: { x: { field: "z" } } },
         { mark: "point", encoding: { x: { field: "nowhere" } } },
       ],
@@ -114,36 +156,64 @@ describe("the fields a spec reads, per data name", () => {
 
   it("marks raw quantitative position fields as continuous (their null rows are dropped)", () => {
     const spec = {
-      data: { name: "d" }, mark: "point",
+      data: { name: "d" },
+      mark: "point",
       encoding: {
-        x: { field: "t", type: "quantitative" }, y: { field: "s", type: "quantitative", aggregate: "mean" },
-        color: { field: "c", type: "quantitative" }, y2: { field: "s2", type: "temporal" },
+        x: { field: "t", type: "quantitative" },
+        y: { field: "s", type: "quantitative", aggregate: "mean" },
+        color: { field: "c", type: "quantitative" },
+        y2: { field: "s2", type: "temporal" },
       },
     };
     expect(specFieldUses(spec).map((u) => [u.field, u.channel, u.continuous, u.path.join("/")])).toEqual([
-      ["t", "x", true, "encoding/x/field"], ["s", "y", false, "encoding/y/field"], ["c", "color", false, "encoding/color/field"], ["s2", "y2", true, "encoding/y2/field"],
+      ["t", "x", true, "encoding/x/field"],
+      ["s", "y", false, "encoding/y/field"],
+      ["c", "color", false, "encoding/color/field"],
+      ["s2", "y2", true, "encoding/y2/field"],
     ]);
   });
 });
 
 describe("fields the bound data lacks", () => {
-  const echo = [{ name: "t", unit: "µs", header: "t_us" }, { name: "signal", unit: null, header: "signal" }, { name: "sigma", unit: null, header: "sigma" }];
+  const echo = [
+    { name: "t", unit: "µs", header: "t_us" },
+    { name: "signal", unit: null, header: "signal" },
+    { name: "sigma", unit: null, header: "sigma" },
+  ];
 
   it("names the field, the data, the columns and the column the header became", () => {
-    const spec = { data: { name: "echo" }, mark: "point", encoding: { x: { field: "t_us", type: "quantitative" }, y: { field: "signal", type: "quantitative" } } };
-    expect(checkSpecFields(spec, { echo })).toEqual([{
-      dataName: "echo", field: "t_us", written: "t_us", channel: "x", path: "encoding.x.field", pointer: "/encoding/x/field",
-      columns: ["t", "signal", "sigma"],
-      suggestion: { column: "t", reason: "header", write: "t", text: "Did you mean `t` (the column made from the header `t_us`)?" },
-      message: "the field `t_us` is not a column of the data `echo` (columns: t, signal, sigma). Did you mean `t` (the column made from the header `t_us`)?",
-    }]);
+    const spec = {
+      data: { name: "echo" },
+      mark: "point",
+      encoding: { x: { field: "t_us", type: "quantitative" }, y: { field: "signal", type: "quantitative" } },
+    };
+    expect(checkSpecFields(spec, { echo })).toEqual([
+      {
+        dataName: "echo",
+        field: "t_us",
+        written: "t_us",
+        channel: "x",
+        path: "encoding.x.field",
+        pointer: "/encoding/x/field",
+        columns: ["t", "signal", "sigma"],
+        suggestion: { column: "t", reason: "header", write: "t", text: "Did you mean `t` (the column made from the header `t_us`)?" },
+        message: "the field `t_us` is not a column of the data `echo` (columns: t, signal, sigma). Did you mean `t` (the column made from the header `t_us`)?",
+      },
+    ]);
   });
 
   it("suggests by the unit rule when the header is not recorded, by case, by escaping and by nearest name", () => {
-    const old = [{ name: "t", unit: "µs" }, { name: "Signal", unit: null }, { name: "a.b", unit: null }, { name: "sigma", unit: null }];
+    const old = [
+      { name: "t", unit: "µs" },
+      { name: "Signal", unit: null },
+      { name: "a.b", unit: null },
+      { name: "sigma", unit: null },
+    ];
     expect(suggestColumn("t (us)", "t (us)", old)?.text).toBe("Did you mean `t` (units are split off headers: `t (us)` becomes the column `t` with unit µs)?");
     expect(suggestColumn("signal", "signal", old)?.text).toBe("Did you mean `Signal` (field names are case-sensitive)?");
-    expect(suggestColumn("a.b", "a", old)?.text).toBe("Did you mean `a\\.b` (a `.` or `[` in a field reads a nested property unless escaped with a backslash)?");
+    expect(suggestColumn("a.b", "a", old)?.text).toBe(
+      "Did you mean `a\\.b` (a `.` or `[` in a field reads a nested property unless escaped with a backslash)?",
+    );
     expect(suggestColumn("sigam", "sigam", old)).toMatchObject({ column: "sigma", reason: "near", text: "Did you mean `sigma`?" });
     expect(suggestColumn("phase", "phase", old)).toBeNull();
   });
@@ -155,14 +225,18 @@ describe("fields the bound data lacks", () => {
         { data: { name: "fit" }, mark: "line", encoding: { x: { field: "anything" } } },
       ],
     };
-    expect(checkSpecFields(spec, { echo }).map((p) => [p.dataName, p.field, p.path, p.suggestion])).toEqual([["echo", "tau", "layer[0].encoding.x.field", null]]);
+    expect(checkSpecFields(spec, { echo }).map((p) => [p.dataName, p.field, p.path, p.suggestion])).toEqual([
+      ["echo", "tau", "layer[0].encoding.x.field", null],
+    ]);
   });
 });
 
 describe("the templates and the header rule", () => {
   it("the decay-curve template reads the echo columns, and the fit's and residuals' series", () => {
     expect(specFields(decayCurveTemplate.build({ sigmaField: "sigma" }))).toEqual({
-      echo: ["sigma", "signal", "tau"], fit: ["series", "signal", "tau"], residuals: ["series", "signal", "tau"],
+      echo: ["sigma", "signal", "tau"],
+      fit: ["series", "signal", "tau"],
+      residuals: ["series", "signal", "tau"],
     });
   });
 
@@ -171,7 +245,9 @@ describe("the templates and the header rule", () => {
     expect(parseHeaderUnit("time (µs)")).toEqual({ name: "time", unit: "µs" });
     expect(HEADER_UNIT_RULE).toContain("“t_us” → t, µs; “run_id” and “counts/s” stay whole");
     expect([parseHeaderUnit("t_us"), parseHeaderUnit("run_id"), parseHeaderUnit("counts/s")]).toEqual([
-      { name: "t", unit: "µs" }, { name: "run_id", unit: null }, { name: "counts/s", unit: null },
+      { name: "t", unit: "µs" },
+      { name: "run_id", unit: null },
+      { name: "counts/s", unit: null },
     ]);
     expect(parseHeaderUnit("B [mT]")).toEqual({ name: "B", unit: "mT" });
     expect(parseHeaderUnit("f / whatever")).toEqual({ name: "f", unit: "whatever" });

@@ -1,7 +1,5 @@
 import { describe, expect, it } from "vitest";
-import {
-  DECAY_CURVE_DEFAULTS, expectedNucleusMarker, FIGURE_TEMPLATES, getTemplate, PRINT_OPTION_FIELDS, axisTitle,
-} from "@/lib/figures/templates";
+import { DECAY_CURVE_DEFAULTS, expectedNucleusMarker, FIGURE_TEMPLATES, getTemplate, PRINT_OPTION_FIELDS, axisTitle } from "@/lib/figures/templates";
 
 type Json = Record<string, any>;
 const build = (id: string, options: Record<string, unknown> = {}): Json => getTemplate(id)!.build(options) as unknown as Json;
@@ -84,7 +82,10 @@ describe("builder templates", () => {
   it("spectrum: labelled dashed rules at the zero-phonon lines by default", () => {
     const spec = build("spectrum");
     const markers = spec.layer[spec.layer.length - 1];
-    expect(markers.data.values).toEqual([{ position: 575.1, label: "NV⁰ ZPL" }, { position: 637.4, label: "NV⁻ ZPL" }]);
+    expect(markers.data.values).toEqual([
+      { position: 575.1, label: "NV⁰ ZPL" },
+      { position: 637.4, label: "NV⁻ ZPL" },
+    ]);
     expect(markers.layer.map((l: Json) => l.mark.type)).toEqual(["rule", "text"]);
   });
 

@@ -19,7 +19,10 @@ function errorsOf(spec: unknown): SpecError[] {
 
 function expectError(spec: unknown, path: string, message: RegExp): void {
   const errors = errorsOf(spec);
-  expect(errors.some((e) => e.path === path && message.test(e.message)), JSON.stringify(errors, null, 1)).toBe(true);
+  expect(
+    errors.some((e) => e.path === path && message.test(e.message)),
+    JSON.stringify(errors, null, 1),
+  ).toBe(true);
 }
 
 describe("validateSpec: good specs", () => {
@@ -91,7 +94,8 @@ describe("validateSpec: data loading is refused everywhere", () => {
     expectError({ repeat: ["a"], spec: hostile }, "spec.data.url", URL_MESSAGE);
     expectError(
       unit({ transform: [{ lookup: "k", from: { data: { url: "http://[::1]/secrets.json" }, key: "k" } }] }),
-      "transform[0].from.data.url", URL_MESSAGE,
+      "transform[0].from.data.url",
+      URL_MESSAGE,
     );
   });
 
@@ -105,7 +109,11 @@ describe("validateSpec: data loading is refused everywhere", () => {
 
 describe("validateSpec: links and images", () => {
   it("href encodings with javascript: URLs", () => {
-    expectError(unit({ encoding: { x: { field: "tau", type: "quantitative" }, href: { value: "javascript:alert(document.cookie)" } } }), "encoding.href", /links \(href\)/);
+    expectError(
+      unit({ encoding: { x: { field: "tau", type: "quantitative" }, href: { value: "javascript:alert(document.cookie)" } } }),
+      "encoding.href",
+      /links \(href\)/,
+    );
     expectError({ layer: [unit(), unit({ encoding: { href: { field: "link" } } })] }, "layer[1].encoding.href", /links \(href\)/);
   });
 
@@ -161,17 +169,45 @@ describe("validateSpec: schema errors carry their path", () => {
 
 describe("validateSpec never throws", () => {
   it("on arbitrary JSON", () => {
-    fc.assert(fc.property(fc.jsonValue({ maxDepth: 6 }), (v) => {
-      const r = validateSpec(v);
-      return typeof r.ok === "boolean";
-    }), { numRuns: 400 });
+    fc.assert(
+      fc.property(fc.jsonValue({ maxDepth: 6 }), (v) => {
+        const r = validateSpec(v);
+        return typeof r.ok === "boolean";
+      }),
+      { numRuns: 400 },
+    );
   });
 
   it("on arbitrary objects shaped like specs", () => {
-    const key = fc.constantFrom("data", "mark", "layer", "encoding", "transform", "filter", "calculate", "url", "href", "expr", "params", "name", "values", "vconcat", "x", "field");
+    const key = fc.constantFrom(
+      "data",
+      "mark",
+      "layer",
+      "encoding",
+      "transform",
+      "filter",
+      "calculate",
+      "url",
+      "href",
+      "expr",
+      "params",
+      "name",
+      "values",
+      "vconcat",
+      "x",
+      "field",
+    );
     const tree = fc.letrec((tie) => ({
-      node: fc.oneof({ depthSize: "small" }, fc.jsonValue({ maxDepth: 1 }), fc.dictionary(key, tie("node"), { maxKeys: 4 }), fc.array(tie("node"), { maxLength: 3 })),
+      node: fc.oneof(
+        { depthSize: "small" },
+        fc.jsonValue({ maxDepth: 1 }),
+        fc.dictionary(key, tie("node"), { maxKeys: 4 }),
+        fc.array(tie("node"), { maxLength: 3 }),
+      ),
     }));
-    fc.assert(fc.property(fc.dictionary(key, tree.node, { maxKeys: 5 }), (v) => typeof validateSpec(v).ok === "boolean"), { numRuns: 400 });
+    fc.assert(
+      fc.property(fc.dictionary(key, tree.node, { maxKeys: 5 }), (v) => typeof validateSpec(v).ok === "boolean"),
+      { numRuns: 400 },
+    );
   });
 });

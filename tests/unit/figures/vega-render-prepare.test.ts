@@ -41,6 +41,8 @@ describe("refusalOf: the client-side budget before drawing", () => {
   });
 
   it("lets an ordinary spec through", () => {
-    expect(refusalOf({ data: { name: "echo" }, mark: "point", usermeta: { description: "T2 decay" }, encoding: { x: { field: "tau", type: "quantitative" } } })).toBeNull();
+    expect(
+      refusalOf({ data: { name: "echo" }, mark: "point", usermeta: { description: "T2 decay" }, encoding: { x: { field: "tau", type: "quantitative" } } }),
+    ).toBeNull();
   });
 });

@@ -19,16 +19,27 @@ async function refusal(run: () => unknown): Promise<{ status: number; message: s
 describe("readBodyBytes", () => {
   it("reads a body at the cap exactly and refuses one byte more", async () => {
     expect((await readBodyBytes(post(new Uint8Array(100)), 100)).byteLength).toBe(100);
-    expect(await refusal(() => readBodyBytes(post(new Uint8Array(101)), 100))).toEqual({ status: 413, message: "The request body is larger than the limit of 100 bytes." });
+    expect(await refusal(() => readBodyBytes(post(new Uint8Array(101)), 100))).toEqual({
+      status: 413,
+      message: "The request body is larger than the limit of 100 bytes.",
+    });
   });
 
   it("stops pulling a stream once past the cap", async () => {
     let pulled = 0;
     let cancelled = false;
-    const stream = new ReadableStream<Uint8Array>({
-      pull(c) { pulled++; c.enqueue(new Uint8Array(10)); },
-      cancel() { cancelled = true; },
-    }, { highWaterMark: 0 });
+    const stream = new ReadableStream<Uint8Array>(
+      {
+        pull(c) {
+          pulled++;
+          c.enqueue(new Uint8Array(10));
+        },
+        cancel() {
+          cancelled = true;
+        },
+      },
+      { highWaterMark: 0 },
+    );
     expect((await refusal(() => readBodyBytes(post(stream), 35))).status).toBe(413);
     expect(pulled).toBe(4);
     expect(cancelled).toBe(true);
@@ -36,7 +47,15 @@ describe("readBodyBytes", () => {
 
   it("trusts a Content-Length over the cap without reading", async () => {
     let pulled = 0;
-    const stream = new ReadableStream<Uint8Array>({ pull(c) { pulled++; c.enqueue(new Uint8Array(1)); } }, { highWaterMark: 0 });
+    const stream = new ReadableStream<Uint8Array>(
+      {
+        pull(c) {
+          pulled++;
+          c.enqueue(new Uint8Array(1));
+        },
+      },
+      { highWaterMark: 0 },
+    );
     expect((await refusal(() => readBodyBytes(post(stream, { "content-length": "36" }), 35))).status).toBe(413);
     expect(pulled).toBe(0);
   });
@@ -49,14 +68,17 @@ describe("readJsonBody", () => {
   });
 
   it("refuses a body that says it is not JSON with 415, and accepts +json types", async () => {
-    expect(await refusal(() => readJsonBody(post("{}", { "content-type": "text/plain;charset=UTF-8" }))))
-      .toEqual({ status: 415, message: 'This route takes JSON: send Content-Type: application/json (the request said "text/plain").' });
+    expect(await refusal(() => readJsonBody(post("{}", { "content-type": "text/plain;charset=UTF-8" })))).toEqual({
+      status: 415,
+      message: 'This route takes JSON: send Content-Type: application/json (the request said "text/plain").',
+    });
     expect(await readJsonBody(post('{"a":1}', { "content-type": "application/merge-patch+json" }))).toEqual({ a: 1 });
   });
 
   it("names line and column of a syntax error", async () => {
-    expect((await refusal(() => readJsonBody(post('{"a": 1,\n "b": tru}'), { maxBytes: 100 }))).message)
-      .toBe('The request body is not valid JSON: line 2, column 7: unexpected "t" (expected a value).');
+    expect((await refusal(() => readJsonBody(post('{"a": 1,\n "b": tru}'), { maxBytes: 100 }))).message).toBe(
+      'The request body is not valid JSON: line 2, column 7: unexpected "t" (expected a value).',
+    );
   });
 });
 
@@ -64,7 +86,13 @@ describe("checkJsonShape", () => {
   it("allows 64 levels and refuses 65, naming the path", () => {
     const nest = (n: number) => JSON.parse(`${"[".repeat(n)}${"]".repeat(n)}`);
     expect(() => checkJsonShape(nest(64))).not.toThrow();
-    const r = (() => { try { checkJsonShape(nest(65)); } catch (e) { return e as AppError; } })();
+    const r = (() => {
+      try {
+        checkJsonShape(nest(65));
+      } catch (e) {
+        return e as AppError;
+      }
+    })();
     expect(r?.status).toBe(400);
     expect(r?.message).toBe(`The request body nests objects and arrays more than 64 levels deep (at ${"[0]".repeat(64)}).`);
   });
@@ -75,8 +103,12 @@ describe("checkJsonShape", () => {
   });
 
   it("refuses __proto__ anywhere, however it is spelled in the text", () => {
-    expect(() => checkJsonShape(JSON.parse('{"doc":{"content":[{"__proto__":{"x":1}}]}}'))).toThrow('doc.content[0].__proto__: "__proto__" is not allowed as a key in the request body.');
-    expect(() => checkJsonShape(JSON.parse('{"a b":[{"\\u005f_proto__":null}]}'))).toThrow('["a b"][0].__proto__: "__proto__" is not allowed as a key in the request body.');
+    expect(() => checkJsonShape(JSON.parse('{"doc":{"content":[{"__proto__":{"x":1}}]}}'))).toThrow(
+      'doc.content[0].__proto__: "__proto__" is not allowed as a key in the request body.',
+    );
+    expect(() => checkJsonShape(JSON.parse('{"a b":[{"\\u005f_proto__":null}]}'))).toThrow(
+      '["a b"][0].__proto__: "__proto__" is not allowed as a key in the request body.',
+    );
     expect(() => checkJsonShape(JSON.parse('{"constructor":{"prototype":{}}}'))).not.toThrow();
   });
 });

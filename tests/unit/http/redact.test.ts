@@ -3,10 +3,13 @@ import { describeForLog, redactSecrets } from "@/lib/http/redact";
 
 describe("secrets never reach a log line", () => {
   it("redacts API tokens, sign-in and invitation secrets, bearer headers and session cookies", () => {
-    const line = "token plt_AbCdEfGhIjKlMnOpQrStUvWxYz0123456789-_ and link /sign-in/link?token=pls_0123456789abcdefghijKLMNOP "
-      + "invite /invite/pli_zyxwvutsrqponmlkjihgfedcba Authorization: Bearer abc.def.ghi cookie authjs.session-token=eyJhbGciOi.xyz; path=/";
-    expect(redactSecrets(line)).toBe("token [redacted] and link /sign-in/link?token=[redacted] "
-      + "invite /invite/[redacted] Authorization: Bearer [redacted] cookie authjs.session-token=[redacted]; path=/");
+    const line =
+      "token plt_AbCdEfGhIjKlMnOpQrStUvWxYz0123456789-_ and link /sign-in/link?token=pls_0123456789abcdefghijKLMNOP " +
+      "invite /invite/pli_zyxwvutsrqponmlkjihgfedcba Authorization: Bearer abc.def.ghi cookie authjs.session-token=eyJhbGciOi.xyz; path=/";
+    expect(redactSecrets(line)).toBe(
+      "token [redacted] and link /sign-in/link?token=[redacted] " +
+        "invite /invite/[redacted] Authorization: Bearer [redacted] cookie authjs.session-token=[redacted]; path=/",
+    );
   });
 
   it("leaves ordinary text alone and redacts inside error stacks and causes", () => {

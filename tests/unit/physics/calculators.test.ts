@@ -1,11 +1,5 @@
 import { describe, expect, it } from "vitest";
-import {
-  CalculatorInputError,
-  ESTIMATE_CAUTION,
-  UnknownCalculatorError,
-  listCalculators,
-  runCalculator,
-} from "@/lib/physics/calculators";
+import { CalculatorInputError, ESTIMATE_CAUTION, UnknownCalculatorError, listCalculators, runCalculator } from "@/lib/physics/calculators";
 import { hyperfineLines } from "@/lib/physics/odmr";
 import { matchNucleus } from "@/lib/physics/larmor";
 

@@ -82,7 +82,16 @@ describe("countSpots", () => {
   });
 
   it("never counts NaN pixels as bright", () => {
-    const r = countSpots({ values: [[NaN, 1], [1, 1]], pixelSizeX: 1 }, { threshold: 0 });
+    const r = countSpots(
+      {
+        values: [
+          [NaN, 1],
+          [1, 1],
+        ],
+        pixelSizeX: 1,
+      },
+      { threshold: 0 },
+    );
     expect(r.count).toBe(1);
     expect(r.spots[0].pixels).toBe(3);
   });

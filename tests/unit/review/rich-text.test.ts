@@ -8,9 +8,16 @@ const text = (t: string, marks?: unknown[]) => ({ type: "text", text: t, ...(mar
 
 describe("rich text", () => {
   it("renders the allowed nodes and marks", () => {
-    const r = renderRichText(doc(p(text("T2 "), text("fit", [{ type: "bold" }]), text(" see "), text("here", [{ type: "link", attrs: { href: "https://example.org/a?b=1&c=2" } }])),
-      { type: "bulletList", content: [{ type: "listItem", content: [p(text("n ≈ 1.8"))] }] }, { type: "codeBlock", content: [text("S(t) = S0 + A e^{-(t/T2)^n}")] }));
-    expect(r.html).toBe('<p>T2 <strong>fit</strong> see <a href="https://example.org/a?b=1&amp;c=2" rel="noopener noreferrer nofollow" target="_blank">here</a></p><ul><li><p>n ≈ 1.8</p></li></ul><pre><code>S(t) = S0 + A e^{-(t/T2)^n}</code></pre>');
+    const r = renderRichText(
+      doc(
+        p(text("T2 "), text("fit", [{ type: "bold" }]), text(" see "), text("here", [{ type: "link", attrs: { href: "https://example.org/a?b=1&c=2" } }])),
+        { type: "bulletList", content: [{ type: "listItem", content: [p(text("n ≈ 1.8"))] }] },
+        { type: "codeBlock", content: [text("S(t) = S0 + A e^{-(t/T2)^n}")] },
+      ),
+    );
+    expect(r.html).toBe(
+      '<p>T2 <strong>fit</strong> see <a href="https://example.org/a?b=1&amp;c=2" rel="noopener noreferrer nofollow" target="_blank">here</a></p><ul><li><p>n ≈ 1.8</p></li></ul><pre><code>S(t) = S0 + A e^{-(t/T2)^n}</code></pre>',
+    );
   });
 
   it("escapes text so markup in a comment stays text", () => {
@@ -20,7 +27,12 @@ describe("rich text", () => {
   });
 
   it.each([
-    ["javascript:alert(1)"], ["JaVaScRiPt:alert(1)"], ["java\tscript:alert(1)"], ["data:text/html,<script>alert(1)</script>"], ["vbscript:x"], ["//evil.example"],
+    ["javascript:alert(1)"],
+    ["JaVaScRiPt:alert(1)"],
+    ["java\tscript:alert(1)"],
+    ["data:text/html,<script>alert(1)</script>"],
+    ["vbscript:x"],
+    ["//evil.example"],
   ])("refuses the link %s", (href) => {
     expect(() => renderRichText(doc(p(text("x", [{ type: "link", attrs: { href } }]))))).toThrow(RichTextError);
   });
@@ -38,13 +50,17 @@ describe("rich text", () => {
   });
 
   it("never throws anything but RichTextError, never emits a tag outside the allow-list", () => {
-    fc.assert(fc.property(fc.jsonValue({ maxDepth: 6 }), (value) => {
-      try {
-        const { html } = renderRichText({ type: "doc", content: Array.isArray(value) ? value : [value] });
-        for (const tag of html.match(/<\/?([a-z]+)/g) ?? []) expect(["p", "ul", "ol", "li", "pre", "code", "blockquote", "strong", "em", "s", "a", "br", "span"]).toContain(tag.replace(/[</]/g, ""));
-      } catch (err) {
-        expect(err).toBeInstanceOf(RichTextError);
-      }
-    }), { numRuns: 3000 });
+    fc.assert(
+      fc.property(fc.jsonValue({ maxDepth: 6 }), (value) => {
+        try {
+          const { html } = renderRichText({ type: "doc", content: Array.isArray(value) ? value : [value] });
+          for (const tag of html.match(/<\/?([a-z]+)/g) ?? [])
+            expect(["p", "ul", "ol", "li", "pre", "code", "blockquote", "strong", "em", "s", "a", "br", "span"]).toContain(tag.replace(/[</]/g, ""));
+        } catch (err) {
+          expect(err).toBeInstanceOf(RichTextError);
+        }
+      }),
+      { numRuns: 3000 },
+    );
   });
 });

@@ -38,7 +38,12 @@ describe("compareGroups() edge cases", () => {
     expect(mannWhitneyU([1, 2, 3], [4, 5, 6]).method).toBe("exact");
     expect(mannWhitneyU([1, 2, 3], [3, 5, 6]).method).toBe("normal-approximation"); // tie
     const big = Array.from({ length: 50 }, (_, i) => i);
-    expect(mannWhitneyU(big, big.map((v) => v + 0.5)).method).toBe("normal-approximation"); // n ≥ 50
+    expect(
+      mannWhitneyU(
+        big,
+        big.map((v) => v + 0.5),
+      ).method,
+    ).toBe("normal-approximation"); // n ≥ 50
   });
 
   it("perfect separation with 3 + 3 values gives exact p = 2/20", () => {
@@ -50,7 +55,12 @@ describe("compareGroups() edge cases", () => {
 
 describe("exact Mann–Whitney distribution", () => {
   it("sums to 1, is symmetric, and has the right mean", () => {
-    for (const [m, n] of [[1, 1], [3, 4], [7, 2], [12, 15]]) {
+    for (const [m, n] of [
+      [1, 1],
+      [3, 4],
+      [7, 2],
+      [12, 15],
+    ]) {
       const d = mannWhitneyExactDistribution(m, n);
       expect(d.length).toBe(m * n + 1);
       expect(d.reduce((s, v) => s + v, 0)).toBeCloseTo(1, 12);
@@ -68,8 +78,10 @@ describe("compareGroups() properties", () => {
         const ba = compareGroups(b, a);
         const same = (x: number, y: number) => (Number.isNaN(x) && Number.isNaN(y)) || Math.abs(x - y) <= 1e-9 * (1 + Math.abs(x));
         return (
-          same(ab.welch.t, -ba.welch.t) && same(ab.welch.p, ba.welch.p) &&
-          ab.mannWhitney.U + ba.mannWhitney.U === a.length * b.length && same(ab.mannWhitney.p, ba.mannWhitney.p) &&
+          same(ab.welch.t, -ba.welch.t) &&
+          same(ab.welch.p, ba.welch.p) &&
+          ab.mannWhitney.U + ba.mannWhitney.U === a.length * b.length &&
+          same(ab.mannWhitney.p, ba.mannWhitney.p) &&
           same(ab.brownForsythe.F, ba.brownForsythe.F)
         );
       }),
@@ -91,7 +103,10 @@ describe("compareGroups() properties", () => {
         const f0 = brownForsythe([a, b]).F;
         const f1 = brownForsythe([a, b.map((v) => v + shift)]).F;
         const t0 = compareGroups(a, b).welch.t;
-        const t1 = compareGroups(a.map((v) => v * scale), b.map((v) => v * scale)).welch.t;
+        const t1 = compareGroups(
+          a.map((v) => v * scale),
+          b.map((v) => v * scale),
+        ).welch.t;
         const same = (x: number, y: number) => (Number.isNaN(x) && Number.isNaN(y)) || x === y || Math.abs(x - y) <= 1e-9 * Math.abs(x);
         return same(f0, f1) && same(t0, t1);
       }),

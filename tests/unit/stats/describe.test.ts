@@ -62,20 +62,20 @@ suite("describe()", () => {
     fc.assert(
       fc.property(sample, (xs) => {
         const d = describe(xs);
-        return (
-          d.min <= d.q1 && d.q1 <= d.median && d.median <= d.q3 && d.q3 <= d.max &&
-          d.min <= d.mean && d.mean <= d.max && d.iqr >= 0 && d.n === xs.length
-        );
+        return d.min <= d.q1 && d.q1 <= d.median && d.median <= d.q3 && d.q3 <= d.max && d.min <= d.mean && d.mean <= d.max && d.iqr >= 0 && d.n === xs.length;
       }),
     );
   });
 
   it("property: sd ≥ 0 and the CI contains the mean for n ≥ 2", () => {
     fc.assert(
-      fc.property(sample.filter((xs) => xs.length >= 2), (xs) => {
-        const d = describe(xs);
-        return d.sd >= 0 && d.ci95.low <= d.mean && d.mean <= d.ci95.high;
-      }),
+      fc.property(
+        sample.filter((xs) => xs.length >= 2),
+        (xs) => {
+          const d = describe(xs);
+          return d.sd >= 0 && d.ci95.low <= d.mean && d.mean <= d.ci95.high;
+        },
+      ),
     );
   });
 
@@ -108,7 +108,14 @@ suite("groupBy()", () => {
   });
 
   it("accepts functions and defaults the value field to 'value'", () => {
-    const g = groupBy([{ k: 1, value: 2 }, { k: 2, value: 4 }, { k: 1, value: 6 }], (r) => (r.k % 2 ? "odd" : "even"));
+    const g = groupBy(
+      [
+        { k: 1, value: 2 },
+        { k: 2, value: 4 },
+        { k: 1, value: 6 },
+      ],
+      (r) => (r.k % 2 ? "odd" : "even"),
+    );
     expect(g).toEqual([
       expect.objectContaining({ group: "odd", summary: expect.objectContaining({ n: 2, mean: 4 }) }),
       expect.objectContaining({ group: "even", summary: expect.objectContaining({ n: 1, mean: 4 }) }),

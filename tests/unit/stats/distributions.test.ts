@@ -1,14 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import {
-  fUpperP,
-  normalCdf,
-  normalQuantile,
-  normalTwoSidedP,
-  studentTCdf,
-  studentTQuantile,
-  studentTTwoSidedP,
-} from "@/lib/analysis/stats/distributions";
+import { fUpperP, normalCdf, normalQuantile, normalTwoSidedP, studentTCdf, studentTQuantile, studentTTwoSidedP } from "@/lib/analysis/stats/distributions";
 import { regularizedIncompleteBetaPair } from "@/lib/analysis/stats/special-functions";
 
 const relErr = (actual: number, expected: number) => Math.abs(actual - expected) / Math.abs(expected);

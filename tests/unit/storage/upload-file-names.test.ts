@@ -40,11 +40,15 @@ describe("contentDisposition", () => {
   });
 
   it("escapes quotes, apostrophes, brackets and stars", () => {
-    expect(contentDisposition(`say "hi" it's (1)*.csv`)).toBe(`attachment; filename="say _hi_ it's (1)*.csv"; filename*=UTF-8''say%20%22hi%22%20it%27s%20%281%29%2A.csv`);
+    expect(contentDisposition(`say "hi" it's (1)*.csv`)).toBe(
+      `attachment; filename="say _hi_ it's (1)*.csv"; filename*=UTF-8''say%20%22hi%22%20it%27s%20%281%29%2A.csv`,
+    );
   });
 
   it("cleans the name first, so a stored name with bidi or control characters cannot reach the header", () => {
-    expect(contentDisposition("report\u2067\u202Eslx.exe\u2069 (final).csv")).toBe(`attachment; filename="reportslx.exe (final).csv"; filename*=UTF-8''reportslx.exe%20%28final%29.csv`);
+    expect(contentDisposition("report\u2067\u202Eslx.exe\u2069 (final).csv")).toBe(
+      `attachment; filename="reportslx.exe (final).csv"; filename*=UTF-8''reportslx.exe%20%28final%29.csv`,
+    );
     expect(contentDisposition("a\r\nSet-Cookie: x=1.csv")).toBe(`attachment; filename="aSet-Cookie: x=1.csv"; filename*=UTF-8''aSet-Cookie%3A%20x%3D1.csv`);
     expect(contentDisposition("bad\uD800.csv")).toBe(`attachment; filename="bad.csv"; filename*=UTF-8''bad.csv`);
   });

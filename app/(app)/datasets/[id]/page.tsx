@@ -15,9 +15,7 @@ import { getManuscriptTitle } from "@/lib/server/manuscripts";
 
 export const metadata = { title: "Dataset" };
 
-export default async function DatasetPage({ params, searchParams }: {
-  params: Promise<{ id: string }>; searchParams: Promise<{ v?: string | string[] }>;
-}) {
+export default async function DatasetPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ v?: string | string[] }> }) {
   const user = await requireUser();
   const { id } = await params;
   const { v } = await searchParams;
@@ -31,25 +29,47 @@ export default async function DatasetPage({ params, searchParams }: {
     <>
       <nav aria-label="Breadcrumb" className="mb-2 text-sm text-muted">
         <ol className="flex flex-wrap gap-1">
-          <li><Link href={`/manuscripts/${d.manuscriptId}`} className="underline">{manuscriptTitle}</Link><span aria-hidden> /</span></li>
-          <li><Link href={dataHref} className="underline">Data</Link><span aria-hidden> /</span></li>
-          <li aria-current="page" className="text-ink">{d.name}</li>
+          <li>
+            <Link href={`/manuscripts/${d.manuscriptId}`} className="underline">
+              {manuscriptTitle}
+            </Link>
+            <span aria-hidden> /</span>
+          </li>
+          <li>
+            <Link href={dataHref} className="underline">
+              Data
+            </Link>
+            <span aria-hidden> /</span>
+          </li>
+          <li aria-current="page" className="text-ink">
+            {d.name}
+          </li>
         </ol>
       </nav>
       <PageHeader
         title={d.name}
-        subtitle={<>{kindLabel(d.kind)} · {d.versions.length} version{d.versions.length === 1 ? "" : "s"} · your role <RoleBadge role={d.role!} /></>}
+        subtitle={
+          <>
+            {kindLabel(d.kind)} · {d.versions.length} version{d.versions.length === 1 ? "" : "s"} · your role <RoleBadge role={d.role!} />
+          </>
+        }
       />
       <div className="grid grid-cols-1 gap-6 lg:grid-cols-[minmax(0,1fr)_300px]">
         <div className="min-w-0 space-y-6">
           <section aria-labelledby="versions-heading">
-            <h2 id="versions-heading" className="mb-2 text-lg font-semibold">Versions</h2>
+            <h2 id="versions-heading" className="mb-2 text-lg font-semibold">
+              Versions
+            </h2>
             <VersionsTable datasetId={d.id} versions={d.versions} selectedId={selected?.id} />
           </section>
           {selected ? (
             <section aria-labelledby="version-heading" className="space-y-6" key={selected.id}>
               <VersionHeader version={selected} latest={selected.id === d.versions[0]?.id} />
-              <p className="text-sm"><Link href={`/versions/${selected.id}/fit`} className="underline">Fit this version →</Link></p>
+              <p className="text-sm">
+                <Link href={`/versions/${selected.id}/fit`} className="underline">
+                  Fit this version →
+                </Link>
+              </p>
               <Sheet>
                 <h3 className="mb-3 text-sm font-semibold">Quick plot</h3>
                 <QuickPlotPanel version={selected} />
@@ -63,12 +83,18 @@ export default async function DatasetPage({ params, searchParams }: {
                 <RowsPreview version={selected} />
               </div>
             </section>
-          ) : <EmptyState title="No versions">This dataset has no stored file.</EmptyState>}
+          ) : (
+            <EmptyState title="No versions">This dataset has no stored file.</EmptyState>
+          )}
         </div>
         <aside className="order-first space-y-6 lg:order-none">
           <Sheet>
             <h2 className="mb-3 text-sm font-semibold">Details</h2>
-            <MetadataPanel datasetId={d.id} initial={{ kind: d.kind, sample: d.sample, instrument: d.instrument, measuredAt: d.measuredAt, notes: d.notes, tags: d.tags }} editable={editable} />
+            <MetadataPanel
+              datasetId={d.id}
+              initial={{ kind: d.kind, sample: d.sample, instrument: d.instrument, measuredAt: d.measuredAt, notes: d.notes, tags: d.tags }}
+              editable={editable}
+            />
           </Sheet>
           {editable ? (
             <Sheet>
@@ -77,7 +103,11 @@ export default async function DatasetPage({ params, searchParams }: {
               <UploadDropZone manuscriptId={d.manuscriptId} datasetId={d.id} />
             </Sheet>
           ) : null}
-          <p className="text-xs text-muted"><Link href={dataHref} className="underline">← All datasets of this manuscript</Link></p>
+          <p className="text-xs text-muted">
+            <Link href={dataHref} className="underline">
+              ← All datasets of this manuscript
+            </Link>
+          </p>
         </aside>
       </div>
     </>

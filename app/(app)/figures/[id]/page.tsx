@@ -17,12 +17,26 @@ export default async function FigurePage({ params }: { params: Promise<{ id: str
     <>
       <nav aria-label="Breadcrumb" className="mb-2 text-sm text-muted">
         <ol className="flex flex-wrap gap-1">
-          <li><Link href={`/manuscripts/${figure.manuscriptId}`} className="underline">{title}</Link><span aria-hidden> /</span></li>
-          <li aria-current="page" className="text-ink">Figure {figure.number}</li>
-          {figure.role ? <li className="ml-2"><RoleBadge role={figure.role} /></li> : null}
+          <li>
+            <Link href={`/manuscripts/${figure.manuscriptId}`} className="underline">
+              {title}
+            </Link>
+            <span aria-hidden> /</span>
+          </li>
+          <li aria-current="page" className="text-ink">
+            Figure {figure.number}
+          </li>
+          {figure.role ? (
+            <li className="ml-2">
+              <RoleBadge role={figure.role} />
+            </li>
+          ) : null}
         </ol>
       </nav>
-      <FigureWorkspace initial={JSON.parse(JSON.stringify(figure)) as FigureView} members={members.map(({ userId, name, email, role }) => ({ userId, name, email, role }))} />
+      <FigureWorkspace
+        initial={JSON.parse(JSON.stringify(figure)) as FigureView}
+        members={members.map(({ userId, name, email, role }) => ({ userId, name, email, role }))}
+      />
     </>
   );
 }

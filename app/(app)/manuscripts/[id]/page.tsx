@@ -11,29 +11,54 @@ export default async function ManuscriptPage({ params }: { params: Promise<{ id:
     <>
       <PageHeader
         title={m.title}
-        subtitle={<>{m.labName} · your role <RoleBadge role={m.role!} /></>}
-        actions={<>
-          <Link href={`/manuscripts/${m.id}/board`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Board</Link>
-          <Link href={`/manuscripts/${m.id}/activity`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Activity</Link>
-          <Link href={`/manuscripts/${m.id}/analyses`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Analyses</Link>
-          <Link href={`/manuscripts/${m.id}/members`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Members ({m.members.length})</Link>
-        </>}
+        subtitle={
+          <>
+            {m.labName} · your role <RoleBadge role={m.role!} />
+          </>
+        }
+        actions={
+          <>
+            <Link href={`/manuscripts/${m.id}/board`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+              Board
+            </Link>
+            <Link href={`/manuscripts/${m.id}/activity`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+              Activity
+            </Link>
+            <Link href={`/manuscripts/${m.id}/analyses`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+              Analyses
+            </Link>
+            <Link href={`/manuscripts/${m.id}/members`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+              Members ({m.members.length})
+            </Link>
+          </>
+        }
       />
       <div className="grid gap-6 lg:grid-cols-[1fr_280px]">
         <section aria-labelledby="figures-heading">
-          <h2 id="figures-heading" className="mb-3 text-lg font-semibold">Figures</h2>
-          {m.figures.length ? <FigureList figures={m.figures} /> : (
+          <h2 id="figures-heading" className="mb-3 text-lg font-semibold">
+            Figures
+          </h2>
+          {m.figures.length ? (
+            <FigureList figures={m.figures} />
+          ) : (
             <EmptyState title="No figures yet">Figures and their panels appear here, each with its review state.</EmptyState>
           )}
           {m.role && roleAllows(m.role, "figure.edit") ? <NewFigureForm manuscriptId={m.id} /> : null}
         </section>
         <Sheet>
           <h2 className="text-sm font-semibold">Data</h2>
-          <p className="mt-1 text-sm"><Link href={`/manuscripts/${m.id}/data`} className="text-accent underline">{m.datasetCount} dataset{m.datasetCount === 1 ? "" : "s"} — open the Data page →</Link></p>
+          <p className="mt-1 text-sm">
+            <Link href={`/manuscripts/${m.id}/data`} className="text-accent underline">
+              {m.datasetCount} dataset{m.datasetCount === 1 ? "" : "s"} — open the Data page →
+            </Link>
+          </p>
           <h2 className="mt-5 text-sm font-semibold">People</h2>
           <ul className="mt-2 space-y-1.5 text-sm">
             {m.members.map((p) => (
-              <li key={p.userId} className="flex items-center justify-between gap-2"><span>{p.name}</span><RoleBadge role={p.role} /></li>
+              <li key={p.userId} className="flex items-center justify-between gap-2">
+                <span>{p.name}</span>
+                <RoleBadge role={p.role} />
+              </li>
             ))}
           </ul>
         </Sheet>

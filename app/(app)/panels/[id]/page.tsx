@@ -17,16 +17,35 @@ export default async function PanelPage({ params }: { params: Promise<{ id: stri
   const { id } = await params;
   const panel = await loadOrNotFound(() => getPanel(user, id));
   const [figure, members, datasets, title] = await Promise.all([
-    getFigure(user, panel.figureId), listMembers(panel.manuscriptId), listDatasets(user, panel.manuscriptId), getManuscriptTitle(panel.manuscriptId),
+    getFigure(user, panel.figureId),
+    listMembers(panel.manuscriptId),
+    listDatasets(user, panel.manuscriptId),
+    getManuscriptTitle(panel.manuscriptId),
   ]);
   return (
     <>
       <nav aria-label="Breadcrumb" className="mb-2 text-sm text-muted">
         <ol className="flex flex-wrap gap-1">
-          <li><Link href={`/manuscripts/${panel.manuscriptId}`} className="underline">{title}</Link><span aria-hidden> /</span></li>
-          <li><Link href={`/figures/${figure.id}`} className="underline">Figure {figure.number}</Link><span aria-hidden> /</span></li>
-          <li aria-current="page" className="text-ink">Panel {panel.letter}</li>
-          {panel.role ? <li className="ml-2"><RoleBadge role={panel.role} /></li> : null}
+          <li>
+            <Link href={`/manuscripts/${panel.manuscriptId}`} className="underline">
+              {title}
+            </Link>
+            <span aria-hidden> /</span>
+          </li>
+          <li>
+            <Link href={`/figures/${figure.id}`} className="underline">
+              Figure {figure.number}
+            </Link>
+            <span aria-hidden> /</span>
+          </li>
+          <li aria-current="page" className="text-ink">
+            Panel {panel.letter}
+          </li>
+          {panel.role ? (
+            <li className="ml-2">
+              <RoleBadge role={panel.role} />
+            </li>
+          ) : null}
         </ol>
       </nav>
       <PanelWorkspace

@@ -17,10 +17,22 @@ export default async function TokensPage() {
         <table className="w-full self-start border border-rule bg-sheet text-sm">
           <caption className="sr-only">Your API tokens</caption>
           <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
-            <tr><th className="px-4 py-2">Name</th><th className="px-4 py-2">Starts with</th><th className="px-4 py-2">Created</th><th className="px-4 py-2">Last used</th><th className="px-4 py-2">State</th></tr>
+            <tr>
+              <th className="px-4 py-2">Name</th>
+              <th className="px-4 py-2">Starts with</th>
+              <th className="px-4 py-2">Created</th>
+              <th className="px-4 py-2">Last used</th>
+              <th className="px-4 py-2">State</th>
+            </tr>
           </thead>
           <tbody className="divide-y divide-rule">
-            {tokens.length === 0 ? <tr><td colSpan={5} className="px-4 py-6 text-center text-muted">No tokens yet.</td></tr> : null}
+            {tokens.length === 0 ? (
+              <tr>
+                <td colSpan={5} className="px-4 py-6 text-center text-muted">
+                  No tokens yet.
+                </td>
+              </tr>
+            ) : null}
             {tokens.map((t) => (
               <tr key={t.id}>
                 <td className="px-4 py-2.5 font-medium">{t.name}</td>
@@ -35,7 +47,9 @@ export default async function TokensPage() {
         <Sheet>
           <h2 className="mb-3 text-sm font-semibold">New token</h2>
           <NewTokenForm />
-          <p className="mt-4 text-xs text-muted">From a shell: <code className="break-all">curl -H &quot;Authorization: Bearer $TOKEN&quot; {env().appUrl}/api/me</code></p>
+          <p className="mt-4 text-xs text-muted">
+            From a shell: <code className="break-all">curl -H &quot;Authorization: Bearer $TOKEN&quot; {env().appUrl}/api/me</code>
+          </p>
         </Sheet>
       </div>
     </>

@@ -5,4 +5,5 @@ import { previewAnalysis } from "@/lib/server/analyses/run-analysis";
 import { analysisInput } from "@/lib/server/analyses/schemas";
 
 export const POST = withPermission("analysis.run", { body: analysisInput, scope: ({ body }) => manuscriptOfVersion(body.versionId) }, async ({ user, body }) =>
-  previewAnalysis(user, body));
+  previewAnalysis(user, body),
+);

@@ -15,7 +15,10 @@ export const POST = publicRoute(async (incoming) => {
   // A NextRequest again: with AUTH_URL set, Auth.js reads `req.nextUrl`.
   const req = new NextRequest(await withBufferedBody(incoming, AUTH_BODY_MAX_BYTES));
   if (new URL(req.url).pathname.endsWith("/callback/password")) {
-    const form = await req.clone().formData().catch(() => null);
+    const form = await req
+      .clone()
+      .formData()
+      .catch(() => null);
     const email = form?.get("email");
     const block = await signInBlockFor(typeof email === "string" ? email : "", req.headers);
     if (block) return errorResponse(429, "too_many_requests", block.message, undefined, block.retryAfterSeconds);

@@ -5,7 +5,11 @@ import { updateFigureInput } from "@/lib/server/figures/schemas";
 import { manuscriptOfFigure } from "@/lib/server/figures/scope";
 
 export const GET = withPermission("manuscript.read", { scope: ({ params }) => manuscriptOfFigure(params.id) }, async ({ user, params }) =>
-  getFigure(user, params.id));
+  getFigure(user, params.id),
+);
 
-export const PATCH = withPermission("figure.edit", { scope: ({ params }) => manuscriptOfFigure(params.id), body: updateFigureInput }, async ({ user, params, body }) =>
-  updateFigure(user, params.id, body));
+export const PATCH = withPermission(
+  "figure.edit",
+  { scope: ({ params }) => manuscriptOfFigure(params.id), body: updateFigureInput },
+  async ({ user, params, body }) => updateFigure(user, params.id, body),
+);

@@ -3,4 +3,5 @@ import { withPermission } from "@/lib/http/route";
 import { getManuscript } from "@/lib/server/manuscripts";
 
 export const GET = withPermission("manuscript.read", { scope: ({ params }) => params.id }, async ({ user, params, role }) =>
-  getManuscript(user, params.id, role));
+  getManuscript(user, params.id, role),
+);

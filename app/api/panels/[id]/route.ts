@@ -4,4 +4,5 @@ import { getPanel } from "@/lib/server/figures/panels";
 import { manuscriptOfPanel } from "@/lib/server/figures/scope";
 
 export const GET = withPermission("manuscript.read", { scope: ({ params }) => manuscriptOfPanel(params.id) }, async ({ user, params }) =>
-  getPanel(user, params.id));
+  getPanel(user, params.id),
+);

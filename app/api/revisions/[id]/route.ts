@@ -4,4 +4,5 @@ import { getRevision } from "@/lib/server/figures/revisions";
 import { manuscriptOfRevision } from "@/lib/server/figures/scope";
 
 export const GET = withPermission("manuscript.read", { scope: ({ params }) => manuscriptOfRevision(params.id) }, async ({ user, params }) =>
-  getRevision(user, params.id));
+  getRevision(user, params.id),
+);

@@ -4,4 +4,5 @@ import { getVersion } from "@/lib/server/datasets/read-datasets";
 import { manuscriptOfVersion } from "@/lib/server/datasets/scope";
 
 export const GET = withPermission("manuscript.read", { scope: ({ params }) => manuscriptOfVersion(params.id) }, async ({ user, params }) =>
-  getVersion(user, params.id));
+  getVersion(user, params.id),
+);

@@ -16,17 +16,28 @@ export default async function MailMessagePage({ params }: { params: Promise<{ id
   const links = [...m.text.matchAll(/https?:\/\/\S+/g)].map((x) => x[0]);
   return (
     <main className="mx-auto max-w-4xl px-6 py-8">
-      <PageHeader title={m.subject} subtitle={`To ${m.envelope.to.join(", ")} · from ${m.envelope.from ?? "?"} · ${m.receivedAt}`}
-        actions={<Link href="/dev/mail" className="text-sm underline">All messages</Link>} />
+      <PageHeader
+        title={m.subject}
+        subtitle={`To ${m.envelope.to.join(", ")} · from ${m.envelope.from ?? "?"} · ${m.receivedAt}`}
+        actions={
+          <Link href="/dev/mail" className="text-sm underline">
+            All messages
+          </Link>
+        }
+      />
       {links.length ? (
         <ul className="mb-4 space-y-1 text-sm" aria-label="Links in this message">
-          {links.map((href) => <li key={href}><a className="break-all text-accent underline" href={href}>{href}</a></li>)}
+          {links.map((href) => (
+            <li key={href}>
+              <a className="break-all text-accent underline" href={href}>
+                {href}
+              </a>
+            </li>
+          ))}
         </ul>
       ) : null}
       <pre className="whitespace-pre-wrap rounded-sm border border-rule bg-sheet p-4 text-sm">{m.text}</pre>
-      {m.html ? (
-        <iframe title="HTML version" sandbox="" srcDoc={m.html} className="mt-4 h-96 w-full rounded-sm border border-rule bg-white" />
-      ) : null}
+      {m.html ? <iframe title="HTML version" sandbox="" srcDoc={m.html} className="mt-4 h-96 w-full rounded-sm border border-rule bg-white" /> : null}
     </main>
   );
 }

@@ -10,19 +10,29 @@ export function AcceptForm({ token, hasAccount }: { token: string; hasAccount: b
       action={acceptInvitationAction}
       hidden={{ token }}
       className="mt-5 space-y-3"
-      render={(state) => state?.message ? (
-        <>
-          <Notice ok={state.ok}>{state.message}</Notice>
-          {state.ok ? <Link className="text-sm underline" href="/sign-in">Go to sign-in</Link> : null}
-        </>
-      ) : null}
+      render={(state) =>
+        state?.message ? (
+          <>
+            <Notice ok={state.ok}>{state.message}</Notice>
+            {state.ok ? (
+              <Link className="text-sm underline" href="/sign-in">
+                Go to sign-in
+              </Link>
+            ) : null}
+          </>
+        ) : null
+      }
     >
       {hasAccount ? (
         <p className="text-sm">You already have an account: accept, then sign in as usual.</p>
       ) : (
         <>
-          <Field label="Your name"><TextInput name="name" required maxLength={120} autoComplete="name" /></Field>
-          <Field label="Choose a password" hint="At least 10 characters."><TextInput name="password" type="password" required minLength={10} autoComplete="new-password" /></Field>
+          <Field label="Your name">
+            <TextInput name="name" required maxLength={120} autoComplete="name" />
+          </Field>
+          <Field label="Choose a password" hint="At least 10 characters.">
+            <TextInput name="password" type="password" required minLength={10} autoComplete="new-password" />
+          </Field>
         </>
       )}
       <Button type="submit">Accept invitation</Button>

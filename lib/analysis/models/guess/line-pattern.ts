@@ -24,9 +24,7 @@ export function rankLinePatterns(
   const scored: Array<PatternMatch & { value: number }> = [];
   const consider = (centre: number, spacing: number): void => {
     if (!(spacing >= minSpacing)) return;
-    const duplicate = scored.some(
-      (h) => Math.abs(h.centre - centre) < minSpacing / 2 && Math.abs(h.spacing - spacing) < minSpacing / 2,
-    );
+    const duplicate = scored.some((h) => Math.abs(h.centre - centre) < minSpacing / 2 && Math.abs(h.spacing - spacing) < minSpacing / 2);
     if (!duplicate) scored.push({ centre, spacing, value: score(centre, spacing) });
   };
   for (const a of lines) {

@@ -111,7 +111,15 @@ function projectLinear(
   quadrature: Float64Array,
 ): { cost: number; offset: number; amplitude: number; phase: number } {
   const m = y.length;
-  let s12 = 0, s13 = 0, s22 = 0, s23 = 0, s33 = 0, b1 = 0, b2 = 0, b3 = 0, yy = 0;
+  let s12 = 0,
+    s13 = 0,
+    s22 = 0,
+    s23 = 0,
+    s33 = 0,
+    b1 = 0,
+    b2 = 0,
+    b3 = 0,
+    yy = 0;
   for (let i = 0; i < m; i++) {
     const u = envelope[i] * carrier[i];
     const v = -envelope[i] * quadrature[i];
@@ -134,8 +142,7 @@ function projectLinear(
 }
 
 function solve3(a: number[], b: number[]): [number, number, number] | undefined {
-  const det = (q: number[]): number =>
-    q[0] * (q[4] * q[8] - q[5] * q[7]) - q[1] * (q[3] * q[8] - q[5] * q[6]) + q[2] * (q[3] * q[7] - q[4] * q[6]);
+  const det = (q: number[]): number => q[0] * (q[4] * q[8] - q[5] * q[7]) - q[1] * (q[3] * q[8] - q[5] * q[6]) + q[2] * (q[3] * q[7] - q[4] * q[6]);
   const d = det(a);
   if (!Number.isFinite(d) || Math.abs(d) < 1e-300) return undefined;
   const column = (k: number): number[] => a.map((v, idx) => (idx % 3 === k ? b[Math.floor(idx / 3)] : v));

@@ -13,15 +13,38 @@
 import { ascending, DisallowedObjectProperties, isString } from "vega";
 
 const Constants = {
-  NaN: NaN, E: Math.E, LN2: Math.LN2, LN10: Math.LN10, LOG2E: Math.LOG2E, LOG10E: Math.LOG10E, PI: Math.PI,
-  SQRT1_2: Math.SQRT1_2, SQRT2: Math.SQRT2, MIN_VALUE: Number.MIN_VALUE, MAX_VALUE: Number.MAX_VALUE,
+  NaN: NaN,
+  E: Math.E,
+  LN2: Math.LN2,
+  LN10: Math.LN10,
+  LOG2E: Math.LOG2E,
+  LOG10E: Math.LOG10E,
+  PI: Math.PI,
+  SQRT1_2: Math.SQRT1_2,
+  SQRT2: Math.SQRT2,
+  MIN_VALUE: Number.MIN_VALUE,
+  MAX_VALUE: Number.MAX_VALUE,
 };
 
 const Ops = {
-  "*": (a, b) => a * b, "+": (a, b) => a + b, "-": (a, b) => a - b, "/": (a, b) => a / b, "%": (a, b) => a % b,
-  ">": (a, b) => a > b, "<": (a, b) => a < b, "<=": (a, b) => a <= b, ">=": (a, b) => a >= b,
-  "==": (a, b) => a == b, "!=": (a, b) => a != b, "===": (a, b) => a === b, "!==": (a, b) => a !== b,
-  "&": (a, b) => a & b, "|": (a, b) => a | b, "^": (a, b) => a ^ b, "<<": (a, b) => a << b, ">>": (a, b) => a >> b,
+  "*": (a, b) => a * b,
+  "+": (a, b) => a + b,
+  "-": (a, b) => a - b,
+  "/": (a, b) => a / b,
+  "%": (a, b) => a % b,
+  ">": (a, b) => a > b,
+  "<": (a, b) => a < b,
+  "<=": (a, b) => a <= b,
+  ">=": (a, b) => a >= b,
+  "==": (a, b) => a == b,
+  "!=": (a, b) => a != b,
+  "===": (a, b) => a === b,
+  "!==": (a, b) => a !== b,
+  "&": (a, b) => a & b,
+  "|": (a, b) => a | b,
+  "^": (a, b) => a ^ b,
+  "<<": (a, b) => a << b,
+  ">>": (a, b) => a >> b,
   ">>>": (a, b) => a >>> b,
 };
 
@@ -35,26 +58,69 @@ const datetime = (y, m = 0, d = 1, H = 0, M = 0, S = 0, ms = 0) => (isString(y) 
 
 /** The built-in functions vega-interpreter provides beside the view's function context. */
 const Functions = {
-  isNaN: Number.isNaN, isFinite: Number.isFinite, abs: Math.abs, acos: Math.acos, asin: Math.asin, atan: Math.atan,
-  atan2: Math.atan2, ceil: Math.ceil, cos: Math.cos, exp: Math.exp, floor: Math.floor, hypot: Math.hypot, log: Math.log,
-  max: Math.max, min: Math.min, pow: Math.pow, random: Math.random, round: Math.round, sin: Math.sin, sqrt: Math.sqrt,
-  tan: Math.tan, clamp: (a, b, c) => Math.max(b, Math.min(c, a)),
-  now: Date.now, utc: Date.UTC, datetime,
-  date: (d) => new Date(d).getDate(), day: (d) => new Date(d).getDay(), year: (d) => new Date(d).getFullYear(),
-  month: (d) => new Date(d).getMonth(), hours: (d) => new Date(d).getHours(), minutes: (d) => new Date(d).getMinutes(),
-  seconds: (d) => new Date(d).getSeconds(), milliseconds: (d) => new Date(d).getMilliseconds(), time: (d) => new Date(d).getTime(),
-  timezoneoffset: (d) => new Date(d).getTimezoneOffset(), utcdate: (d) => new Date(d).getUTCDate(), utcday: (d) => new Date(d).getUTCDay(),
-  utcyear: (d) => new Date(d).getUTCFullYear(), utcmonth: (d) => new Date(d).getUTCMonth(), utchours: (d) => new Date(d).getUTCHours(),
-  utcminutes: (d) => new Date(d).getUTCMinutes(), utcseconds: (d) => new Date(d).getUTCSeconds(),
+  isNaN: Number.isNaN,
+  isFinite: Number.isFinite,
+  abs: Math.abs,
+  acos: Math.acos,
+  asin: Math.asin,
+  atan: Math.atan,
+  atan2: Math.atan2,
+  ceil: Math.ceil,
+  cos: Math.cos,
+  exp: Math.exp,
+  floor: Math.floor,
+  hypot: Math.hypot,
+  log: Math.log,
+  max: Math.max,
+  min: Math.min,
+  pow: Math.pow,
+  random: Math.random,
+  round: Math.round,
+  sin: Math.sin,
+  sqrt: Math.sqrt,
+  tan: Math.tan,
+  clamp: (a, b, c) => Math.max(b, Math.min(c, a)),
+  now: Date.now,
+  utc: Date.UTC,
+  datetime,
+  date: (d) => new Date(d).getDate(),
+  day: (d) => new Date(d).getDay(),
+  year: (d) => new Date(d).getFullYear(),
+  month: (d) => new Date(d).getMonth(),
+  hours: (d) => new Date(d).getHours(),
+  minutes: (d) => new Date(d).getMinutes(),
+  seconds: (d) => new Date(d).getSeconds(),
+  milliseconds: (d) => new Date(d).getMilliseconds(),
+  time: (d) => new Date(d).getTime(),
+  timezoneoffset: (d) => new Date(d).getTimezoneOffset(),
+  utcdate: (d) => new Date(d).getUTCDate(),
+  utcday: (d) => new Date(d).getUTCDay(),
+  utcyear: (d) => new Date(d).getUTCFullYear(),
+  utcmonth: (d) => new Date(d).getUTCMonth(),
+  utchours: (d) => new Date(d).getUTCHours(),
+  utcminutes: (d) => new Date(d).getUTCMinutes(),
+  utcseconds: (d) => new Date(d).getUTCSeconds(),
   utcmilliseconds: (d) => new Date(d).getUTCMilliseconds(),
   length: (x) => x.length,
-  join: (...a) => apply("join", a), indexof: (...a) => apply("indexOf", a), lastindexof: (...a) => apply("lastIndexOf", a),
-  slice: (...a) => apply("slice", a), reverse: (x) => x.slice().reverse(), sort: (x) => x.slice().sort(ascending),
-  parseFloat, parseInt, upper: (x) => String(x).toUpperCase(), lower: (x) => String(x).toLowerCase(),
-  substring: (...a) => apply("substring", a, String), split: (...a) => apply("split", a, String),
-  replace: (...a) => apply("replace", a, String), trim: (x) => String(x).trim(),
-  btoa: (x) => btoa(x), atob: (x) => atob(x), encodeURIComponent: (x) => encodeURIComponent(x),
-  regexp: RegExp, test: (r, t) => RegExp(r).test(t),
+  join: (...a) => apply("join", a),
+  indexof: (...a) => apply("indexOf", a),
+  lastindexof: (...a) => apply("lastIndexOf", a),
+  slice: (...a) => apply("slice", a),
+  reverse: (x) => x.slice().reverse(),
+  sort: (x) => x.slice().sort(ascending),
+  parseFloat,
+  parseInt,
+  upper: (x) => String(x).toUpperCase(),
+  lower: (x) => String(x).toLowerCase(),
+  substring: (...a) => apply("substring", a, String),
+  split: (...a) => apply("split", a, String),
+  replace: (...a) => apply("replace", a, String),
+  trim: (x) => String(x).trim(),
+  btoa: (x) => btoa(x),
+  atob: (x) => atob(x),
+  encodeURIComponent: (x) => encodeURIComponent(x),
+  regexp: RegExp,
+  test: (r, t) => RegExp(r).test(t),
 };
 
 const EventFunctions = ["view", "item", "group", "xy", "x", "y"];
@@ -109,7 +175,11 @@ function node(n, env) {
       if (args.length === 1) return (d, p, i, e) => fn().call(env.fn, a0(d, p, i, e));
       if (args.length === 2) return (d, p, i, e) => fn().call(env.fn, a0(d, p, i, e), a1(d, p, i, e));
       if (args.length === 3) return (d, p, i, e) => fn().call(env.fn, a0(d, p, i, e), a1(d, p, i, e), a2(d, p, i, e));
-      return (d, p, i, e) => fn().apply(env.fn, args.map((a) => a(d, p, i, e)));
+      return (d, p, i, e) =>
+        fn().apply(
+          env.fn,
+          args.map((a) => a(d, p, i, e)),
+        );
     }
     case "ArrayExpression": {
       const items = n.elements.map((x) => node(x, env));
@@ -179,7 +249,11 @@ function adjustSpatial(item, encode, swap) {
   let t;
   if (encode.x2) {
     if (encode.x) {
-      if (swap && item.x > item.x2) { t = item.x; item.x = item.x2; item.x2 = t; }
+      if (swap && item.x > item.x2) {
+        t = item.x;
+        item.x = item.x2;
+        item.x2 = t;
+      }
       item.width = item.x2 - item.x;
     } else {
       item.x = item.x2 - (item.width || 0);
@@ -188,7 +262,11 @@ function adjustSpatial(item, encode, swap) {
   if (encode.xc) item.x = item.xc - (item.width || 0) / 2;
   if (encode.y2) {
     if (encode.y) {
-      if (swap && item.y > item.y2) { t = item.y; item.y = item.y2; item.y2 = t; }
+      if (swap && item.y > item.y2) {
+        t = item.y;
+        item.y = item.y2;
+        item.y2 = t;
+      }
       item.height = item.y2 - item.y;
     } else {
       item.y = item.y2 - (item.height || 0);

@@ -39,16 +39,25 @@ function collectingLogger(messages) {
       level = l;
       return logger;
     },
-    error(...args) { messages.push(args.map(String).join(" ")); return logger; },
-    warn(...args) { messages.push(args.map(String).join(" ")); return logger; },
-    info() { return logger; },
-    debug() { return logger; },
+    error(...args) {
+      messages.push(args.map(String).join(" "));
+      return logger;
+    },
+    warn(...args) {
+      messages.push(args.map(String).join(" "));
+      return logger;
+    },
+    info() {
+      return logger;
+    },
+    debug() {
+      return logger;
+    },
   };
   return logger;
 }
 
-const isSpecNode = (o) => o && typeof o === "object" && !Array.isArray(o) &&
-  ["mark", "layer", "spec", ...COMPOSITE_KEYS].some((k) => k in o);
+const isSpecNode = (o) => o && typeof o === "object" && !Array.isArray(o) && ["mark", "layer", "spec", ...COMPOSITE_KEYS].some((k) => k in o);
 
 /** Vega-Lite's size of a continuous view that sets none (config.view), pt. */
 const DEFAULT_CONTINUOUS = 300;
@@ -125,7 +134,10 @@ export async function renderOnce(vlSpec, data, { warnings = [], refusals = [] } 
   try {
     const runtime = vega.parse(vgSpec, undefined, { ast: true });
     view = new vega.View(runtime, {
-      renderer: "none", loader: refusingLoader(refusals), expr: compiledExpressions, logger: collectingLogger(warnings),
+      renderer: "none",
+      loader: refusingLoader(refusals),
+      expr: compiledExpressions,
+      logger: collectingLogger(warnings),
     });
     for (const n of names) view.data(n, data[n]);
     await view.runAsync();
@@ -175,7 +187,10 @@ export function normaliseIds(svg) {
 /** Sets the root element's physical size (mm) and a viewBox of the natural size in pt. */
 export function setPhysicalSize(svg, width, height, widthMm, heightMm) {
   return svg.replace(/^\s*<svg\b[^>]*>/, (root) => {
-    const rest = root.replace(/\s(?:width|height|viewBox)="[^"]*"/g, "").replace(/^<svg/, "").replace(/>$/, "");
+    const rest = root
+      .replace(/\s(?:width|height|viewBox)="[^"]*"/g, "")
+      .replace(/^<svg/, "")
+      .replace(/>$/, "");
     return `<svg${rest} width="${fmt(widthMm)}mm" height="${fmt(heightMm)}mm" viewBox="0 0 ${fmt(width)} ${fmt(height)}">`;
   });
 }
@@ -226,7 +241,10 @@ async function fitComposite(base, data, targetW, targetH, warnings) {
   const close = (x) => Math.abs(x.width - targetW) < 0.5 && (targetH === undefined || Math.abs(x.height - targetH) < 0.5);
   let prev = null;
   for (let i = 0; i < 2 && !close(r); i++) {
-    const next = [secant(prev?.k[0], prev?.r.width, k[0], r.width, targetW), targetH === undefined ? 1 : secant(prev?.k[1], prev?.r.height, k[1], r.height, targetH)];
+    const next = [
+      secant(prev?.k[0], prev?.r.width, k[0], r.width, targetW),
+      targetH === undefined ? 1 : secant(prev?.k[1], prev?.r.height, k[1], r.height, targetH),
+    ];
     prev = { k, r };
     k = next;
     r = await render(k[0], k[1]);

@@ -3,15 +3,7 @@
 export declare const PT_PER_MM: number;
 
 export type RenderErrorCode =
-  | "invalid-spec"
-  | "missing-data"
-  | "load-refused"
-  | "render-failed"
-  | "bad-size"
-  | "unsafe-svg"
-  | "timeout"
-  | "out-of-memory"
-  | "worker-failed";
+  "invalid-spec" | "missing-data" | "load-refused" | "render-failed" | "bad-size" | "unsafe-svg" | "timeout" | "out-of-memory" | "worker-failed";
 
 export declare class RenderError extends Error {
   constructor(code: RenderErrorCode, message: string);

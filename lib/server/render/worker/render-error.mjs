@@ -17,7 +17,11 @@ export class RenderError extends Error {
 /** width/height of the root <svg> element, in user units (from its viewBox when present). */
 export function rootSize(svg) {
   const root = /^\s*<svg\b[^>]*>/.exec(svg)?.[0] ?? "";
-  const vb = /viewBox="([^"]+)"/.exec(root)?.[1]?.trim().split(/[\s,]+/).map(Number);
+  const vb = /viewBox="([^"]+)"/
+    .exec(root)?.[1]
+    ?.trim()
+    .split(/[\s,]+/)
+    .map(Number);
   if (vb?.length === 4 && vb.every(Number.isFinite)) return { width: vb[2], height: vb[3] };
   const width = Number(/\swidth="([\d.]+)(?:px|pt)?"/.exec(root)?.[1]);
   const height = Number(/\sheight="([\d.]+)(?:px|pt)?"/.exec(root)?.[1]);

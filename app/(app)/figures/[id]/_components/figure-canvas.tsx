@@ -33,13 +33,47 @@ export function FigureCanvas({ figure }: { figure: FigureView }) {
   return (
     <section aria-label={`Figure ${figure.number} at print size`}>
       <div className="mb-2 flex flex-wrap items-center gap-3 text-sm">
-        <span className="text-muted tabular">{figure.widthMm} mm × up to {figure.maxHeightMm} mm · {figure.columns} column{figure.columns === 1 ? "" : "s"}</span>
+        <span className="text-muted tabular">
+          {figure.widthMm} mm × up to {figure.maxHeightMm} mm · {figure.columns} column{figure.columns === 1 ? "" : "s"}
+        </span>
         <div className="ml-auto flex items-center gap-2" role="group" aria-label="Zoom">
-          <button type="button" className="h-7 w-7 rounded-sm border border-rule bg-sheet" aria-label="Zoom out" onClick={() => setZoomPct((z) => clampZoom(z - 25))}>−</button>
-          <input type="range" aria-label="Zoom (%)" min={ZOOMS.min} max={ZOOMS.max} step={ZOOMS.step} value={zoomPct} onChange={(e) => setZoomPct(Number(e.target.value))} className="w-28 accent-accent" />
-          <button type="button" className="h-7 w-7 rounded-sm border border-rule bg-sheet" aria-label="Zoom in" onClick={() => setZoomPct((z) => clampZoom(z + 25))}>+</button>
-          <output className="w-12 text-right tabular" data-testid="zoom-level">{zoomPct} %</output>
-          <button type="button" className="rounded-sm border border-rule bg-sheet px-2 py-0.5 text-xs" onClick={() => setZoomPct(100)} disabled={zoomPct === 100}>print size</button>
+          <button
+            type="button"
+            className="h-7 w-7 rounded-sm border border-rule bg-sheet"
+            aria-label="Zoom out"
+            onClick={() => setZoomPct((z) => clampZoom(z - 25))}
+          >
+            −
+          </button>
+          <input
+            type="range"
+            aria-label="Zoom (%)"
+            min={ZOOMS.min}
+            max={ZOOMS.max}
+            step={ZOOMS.step}
+            value={zoomPct}
+            onChange={(e) => setZoomPct(Number(e.target.value))}
+            className="w-28 accent-accent"
+          />
+          <button
+            type="button"
+            className="h-7 w-7 rounded-sm border border-rule bg-sheet"
+            aria-label="Zoom in"
+            onClick={() => setZoomPct((z) => clampZoom(z + 25))}
+          >
+            +
+          </button>
+          <output className="w-12 text-right tabular" data-testid="zoom-level">
+            {zoomPct} %
+          </output>
+          <button
+            type="button"
+            className="rounded-sm border border-rule bg-sheet px-2 py-0.5 text-xs"
+            onClick={() => setZoomPct(100)}
+            disabled={zoomPct === 100}
+          >
+            print size
+          </button>
         </div>
       </div>
       <div className="overflow-auto rounded-sm border border-rule bg-[#e9e5dc] p-4">
@@ -47,17 +81,35 @@ export function FigureCanvas({ figure }: { figure: FigureView }) {
           <div className="bg-sheet" />
           <MmRuler lengthMm={figure.widthMm} zoom={zoom} orientation="horizontal" />
           <MmRuler lengthMm={sheetMm} zoom={zoom} orientation="vertical" />
-          <div className="relative bg-white shadow-[0_1px_3px_rgba(0,0,0,0.15)]" style={{ width: figure.widthMm * perMm, minHeight: sheetMm * perMm }} data-testid="figure-sheet">
-            <div ref={content} className="grid items-start" style={{ gridTemplateColumns: `repeat(${figure.columns}, minmax(0, 1fr))`, columnGap: GUTTER_MM * perMm, rowGap: GUTTER_MM * perMm }}>
-              {figure.panels.map((p) => <PanelTile key={p.id} panel={p} figure={figure} zoom={zoom} />)}
+          <div
+            className="relative bg-white shadow-[0_1px_3px_rgba(0,0,0,0.15)]"
+            style={{ width: figure.widthMm * perMm, minHeight: sheetMm * perMm }}
+            data-testid="figure-sheet"
+          >
+            <div
+              ref={content}
+              className="grid items-start"
+              style={{ gridTemplateColumns: `repeat(${figure.columns}, minmax(0, 1fr))`, columnGap: GUTTER_MM * perMm, rowGap: GUTTER_MM * perMm }}
+            >
+              {figure.panels.map((p) => (
+                <PanelTile key={p.id} panel={p} figure={figure} zoom={zoom} />
+              ))}
             </div>
-            <div aria-hidden className="pointer-events-none absolute inset-x-0 border-t border-dashed border-bad/60" style={{ top: figure.maxHeightMm * perMm }}>
+            <div
+              aria-hidden
+              className="pointer-events-none absolute inset-x-0 border-t border-dashed border-bad/60"
+              style={{ top: figure.maxHeightMm * perMm }}
+            >
               <span className="absolute right-1 top-0.5 bg-white/80 px-1 text-[10px] text-bad">max height {figure.maxHeightMm} mm</span>
             </div>
           </div>
         </div>
       </div>
-      {tooTall ? <p role="status" className="mt-2 text-sm text-warn"><span aria-hidden>△ </span>The panels are {Math.round(contentMm)} mm tall, more than the maximum height of {figure.maxHeightMm} mm.</p> : null}
+      {tooTall ? (
+        <p role="status" className="mt-2 text-sm text-warn">
+          <span aria-hidden>△ </span>The panels are {Math.round(contentMm)} mm tall, more than the maximum height of {figure.maxHeightMm} mm.
+        </p>
+      ) : null}
       {figure.panels.length === 0 ? <p className="mt-2 text-sm text-muted">No panels yet — add one beside the figure.</p> : null}
     </section>
   );
@@ -72,12 +124,19 @@ function PanelTile({ panel, figure, zoom }: { panel: FigurePanel; figure: Figure
     staleTime: Infinity,
   });
   const widthMm = panelWidthMm(figure, panel.colSpan);
-  const letterPx = (8 * 96) / 72 * zoom;
+  const letterPx = ((8 * 96) / 72) * zoom;
   return (
-    <Link href={`/panels/${panel.id}`} className="group relative block outline-offset-2 hover:bg-accent-soft/30" style={{ gridColumn: `span ${Math.min(figure.columns, panel.colSpan)}` }}
-      aria-label={`Panel ${panel.letter}${panel.title ? `: ${panel.title}` : ""}`} data-testid={`panel-tile-${panel.letter}`}>
+    <Link
+      href={`/panels/${panel.id}`}
+      className="group relative block outline-offset-2 hover:bg-accent-soft/30"
+      style={{ gridColumn: `span ${Math.min(figure.columns, panel.colSpan)}` }}
+      aria-label={`Panel ${panel.letter}${panel.title ? `: ${panel.title}` : ""}`}
+      data-testid={`panel-tile-${panel.letter}`}
+    >
       <div className="flex items-center justify-between gap-2">
-        <b className="leading-none" style={{ fontSize: letterPx }} data-testid="panel-letter">{panel.letter}</b>
+        <b className="leading-none" style={{ fontSize: letterPx }} data-testid="panel-letter">
+          {panel.letter}
+        </b>
         <span className="flex items-center gap-1.5 opacity-90 group-hover:opacity-100">
           <ReviewStateBadge state={panel.reviewState} />
           {panel.openThreads ? <OpenThreads count={panel.openThreads} /> : null}

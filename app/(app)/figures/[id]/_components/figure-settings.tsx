@@ -26,10 +26,14 @@ export function FigureSettings({ figure, members, editable }: { figure: FigureVi
   if (!editable) {
     return (
       <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-sm">
-        <dt className="text-muted">Width</dt><dd className="tabular">{figure.widthMm} mm</dd>
-        <dt className="text-muted">Max height</dt><dd className="tabular">{figure.maxHeightMm} mm</dd>
-        <dt className="text-muted">Columns</dt><dd>{figure.columns}</dd>
-        <dt className="text-muted">Reviewers</dt><dd>{figure.requiredReviewers.length ? figure.requiredReviewers.map(name).join(", ") : "any one approval"}</dd>
+        <dt className="text-muted">Width</dt>
+        <dd className="tabular">{figure.widthMm} mm</dd>
+        <dt className="text-muted">Max height</dt>
+        <dd className="tabular">{figure.maxHeightMm} mm</dd>
+        <dt className="text-muted">Columns</dt>
+        <dd>{figure.columns}</dd>
+        <dt className="text-muted">Reviewers</dt>
+        <dd>{figure.requiredReviewers.length ? figure.requiredReviewers.map(name).join(", ") : "any one approval"}</dd>
       </dl>
     );
   }
@@ -42,27 +46,52 @@ export function FigureSettings({ figure, members, editable }: { figure: FigureVi
 
   return (
     <form onSubmit={submit} aria-label="Figure settings" className="space-y-3">
-      <Field label="Title"><TextInput required value={title} onChange={(e) => setTitle(e.target.value)} /></Field>
+      <Field label="Title">
+        <TextInput required value={title} onChange={(e) => setTitle(e.target.value)} />
+      </Field>
       <WidthPresetField value={preset} onChange={setPreset} />
       {preset === "custom" ? <CustomWidthField value={customMm} onChange={setCustomMm} /> : null}
       <div className="grid grid-cols-2 gap-3">
-        <Field label="Max height (mm)"><TextInput type="number" min={30} max={300} value={maxHeight} onChange={(e) => setMaxHeight(e.target.value)} /></Field>
-        <Field label="Columns"><Select value={columns} onChange={(e) => setColumns(e.target.value)}>{[1, 2, 3, 4, 5, 6].map((n) => <option key={n}>{n}</option>)}</Select></Field>
+        <Field label="Max height (mm)">
+          <TextInput type="number" min={30} max={300} value={maxHeight} onChange={(e) => setMaxHeight(e.target.value)} />
+        </Field>
+        <Field label="Columns">
+          <Select value={columns} onChange={(e) => setColumns(e.target.value)}>
+            {[1, 2, 3, 4, 5, 6].map((n) => (
+              <option key={n}>{n}</option>
+            ))}
+          </Select>
+        </Field>
       </div>
       <fieldset className="text-sm">
         <legend className="mb-1 font-medium">Required reviewers</legend>
         <p className="mb-1 text-xs text-muted">With none chosen, one approval by anyone completes a panel.</p>
         {candidates.map((m) => (
           <label key={m.userId} className="flex items-center gap-2 py-0.5">
-            <input type="checkbox" className="h-4 w-4 accent-accent" checked={reviewers.includes(m.userId)}
-              onChange={(e) => setReviewers((r) => (e.target.checked ? [...r, m.userId] : r.filter((x) => x !== m.userId)))} />
+            <input
+              type="checkbox"
+              className="h-4 w-4 accent-accent"
+              checked={reviewers.includes(m.userId)}
+              onChange={(e) => setReviewers((r) => (e.target.checked ? [...r, m.userId] : r.filter((x) => x !== m.userId)))}
+            />
             {m.name} <span className="text-xs text-muted">({m.role === "pi" ? "PI" : m.role})</span>
           </label>
         ))}
       </fieldset>
-      <Button type="submit" disabled={save.isPending}>{save.isPending ? "Saving…" : "Save settings"}</Button>
-      {save.isError ? <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>{save.error.message}</p> : null}
-      {save.isSuccess && !save.isPending ? <p role="status" className="text-sm text-good"><span aria-hidden>✓ </span>Saved.</p> : null}
+      <Button type="submit" disabled={save.isPending}>
+        {save.isPending ? "Saving…" : "Save settings"}
+      </Button>
+      {save.isError ? (
+        <p role="alert" className="text-sm text-bad">
+          <span aria-hidden>✕ </span>
+          {save.error.message}
+        </p>
+      ) : null}
+      {save.isSuccess && !save.isPending ? (
+        <p role="status" className="text-sm text-good">
+          <span aria-hidden>✓ </span>Saved.
+        </p>
+      ) : null}
     </form>
   );
 }

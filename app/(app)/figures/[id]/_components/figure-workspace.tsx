@@ -47,10 +47,14 @@ export function FigureWorkspace({ initial, members }: { initial: FigureView; mem
     <>
       <header className="mb-5 flex flex-wrap items-end justify-between gap-3 border-b border-rule pb-3">
         <div>
-          <h1 className="text-2xl font-semibold tracking-tight">Figure {figure.number} · {figure.title}</h1>
+          <h1 className="text-2xl font-semibold tracking-tight">
+            Figure {figure.number} · {figure.title}
+          </h1>
           <p className="mt-1 flex flex-wrap items-center gap-2 text-sm text-muted">
             <ReviewStateBadge state={figure.reviewState} />
-            <span>{figure.panels.length} panel{figure.panels.length === 1 ? "" : "s"}</span>
+            <span>
+              {figure.panels.length} panel{figure.panels.length === 1 ? "" : "s"}
+            </span>
             <OpenThreads count={open} />
           </p>
         </div>
@@ -61,23 +65,43 @@ export function FigureWorkspace({ initial, members }: { initial: FigureView; mem
           <TraceTable figureId={figure.id} open={traceOpen} onToggle={setTraceOpen} />
         </div>
         <aside className="space-y-4">
-          <Side title="Panels"><PanelManager figure={figure} editable={editable} /></Side>
+          <Side title="Panels">
+            <PanelManager figure={figure} editable={editable} />
+          </Side>
           <Side title="Sign-off">
-            <SignoffBox figureId={figure.id} figureHash={figure.figureHash} reviewState={figure.reviewState} canSignOff={roleAllows(figure.role, "figure.signoff")} signoffs={figure.signoffs} />
+            <SignoffBox
+              figureId={figure.id}
+              figureHash={figure.figureHash}
+              reviewState={figure.reviewState}
+              canSignOff={roleAllows(figure.role, "figure.signoff")}
+              signoffs={figure.signoffs}
+            />
           </Side>
           <Side title="Export">
             <ul className="space-y-1 text-sm">
-              {EXPORTS.map((x) => <li key={x.format}><a href={`/api/figures/${figure.id}/export?format=${x.format}`} className="underline" download>{x.label}</a></li>)}
+              {EXPORTS.map((x) => (
+                <li key={x.format}>
+                  <a href={`/api/figures/${figure.id}/export?format=${x.format}`} className="underline" download>
+                    {x.label}
+                  </a>
+                </li>
+              ))}
             </ul>
           </Side>
           <Side title="Trace">
             <p className="text-sm">Raw file → analysis → revision, with every hash.</p>
             <p className="mt-1 flex gap-3 text-sm">
-              <button type="button" className="underline" onClick={showTrace}>Show the trace</button>
-              <a href={`/api/figures/${figure.id}/trace`} className="underline">as JSON</a>
+              <button type="button" className="underline" onClick={showTrace}>
+                Show the trace
+              </button>
+              <a href={`/api/figures/${figure.id}/trace`} className="underline">
+                as JSON
+              </a>
             </p>
           </Side>
-          <Side title="Figure settings"><FigureSettings key={`${figure.id}-${figure.widthMm}-${figure.columns}`} figure={figure} members={members} editable={editable} /></Side>
+          <Side title="Figure settings">
+            <FigureSettings key={`${figure.id}-${figure.widthMm}-${figure.columns}`} figure={figure} members={members} editable={editable} />
+          </Side>
         </aside>
       </div>
     </>

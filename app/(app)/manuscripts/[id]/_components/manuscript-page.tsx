@@ -16,8 +16,15 @@ export async function loadManuscriptPage(params: Promise<{ id: string }>) {
 export function BackToManuscript({ manuscript: m, showRole = true }: { manuscript: { id: string; title: string; role: Role | null }; showRole?: boolean }) {
   return (
     <>
-      <Link href={`/manuscripts/${m.id}`} className="underline">← {m.title}</Link>
-      {showRole && m.role ? <> · your role <RoleBadge role={m.role} /></> : null}
+      <Link href={`/manuscripts/${m.id}`} className="underline">
+        ← {m.title}
+      </Link>
+      {showRole && m.role ? (
+        <>
+          {" "}
+          · your role <RoleBadge role={m.role} />
+        </>
+      ) : null}
     </>
   );
 }

@@ -15,19 +15,25 @@ const DERIVED_TAGS = new Set(["derivedFrom", "model"]);
 export default async function AnalysesPage({ params }: { params: Promise<{ id: string }> }) {
   const { user, id, manuscript: m } = await loadManuscriptPage(params);
   const all = await listDatasets(user, id);
-  const sources: BatchDataset[] = all.filter((d) => !d.tags.derivedFrom && d.latestVersion).map((d) => ({
-    id: d.id, name: d.name, kind: d.kind, sample: d.sample, instrument: d.instrument, tags: d.tags,
-    versionId: d.latestVersion!.id, versionNumber: d.latestVersion!.number, columns: d.latestVersion!.columns,
-  }));
+  const sources: BatchDataset[] = all
+    .filter((d) => !d.tags.derivedFrom && d.latestVersion)
+    .map((d) => ({
+      id: d.id,
+      name: d.name,
+      kind: d.kind,
+      sample: d.sample,
+      instrument: d.instrument,
+      tags: d.tags,
+      versionId: d.latestVersion!.id,
+      versionNumber: d.latestVersion!.number,
+      columns: d.latestVersion!.columns,
+    }));
   const tagKeys = [...new Set(sources.flatMap((d) => Object.keys(d.tags)))].filter((k) => !DERIVED_TAGS.has(k)).sort();
   const groupings = [...tagKeys, ...["kind", "sample", "instrument"].filter((k) => !tagKeys.includes(k))];
   const mayRun = m.role ? roleAllows(m.role, "analysis.run") : false;
   return (
     <>
-      <PageHeader
-        title="Analyses"
-        subtitle={<BackToManuscript manuscript={m} />}
-      />
+      <PageHeader title="Analyses" subtitle={<BackToManuscript manuscript={m} />} />
       <EstimateCaution />
       <AnalysesWorkspace manuscriptId={m.id} datasets={sources} models={analysisCatalogue().items} groupings={groupings} mayRun={mayRun} />
     </>

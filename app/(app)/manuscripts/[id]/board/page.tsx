@@ -14,10 +14,16 @@ export default async function ManuscriptBoardPage({ params }: { params: Promise<
       <PageHeader
         title="Review board"
         subtitle={<BackToManuscript manuscript={m} />}
-        actions={<>
-          <Link href="/review" className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Waiting on me</Link>
-          <Link href={`/manuscripts/${m.id}/activity`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Activity</Link>
-        </>}
+        actions={
+          <>
+            <Link href="/review" className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+              Waiting on me
+            </Link>
+            <Link href={`/manuscripts/${m.id}/activity`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+              Activity
+            </Link>
+          </>
+        }
       />
       <ManuscriptBoard initial={m} initialActivity={activity} />
     </>

@@ -19,15 +19,26 @@ export default async function MembersPage({ params }: { params: Promise<{ id: st
           <table className="w-full border border-rule bg-sheet text-sm">
             <caption className="sr-only">Members of {m.title}</caption>
             <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
-              <tr><th className="px-4 py-2">Name</th><th className="px-4 py-2">E-mail</th><th className="px-4 py-2">Role</th>{mayManage ? <th className="px-4 py-2">Manage</th> : null}</tr>
+              <tr>
+                <th className="px-4 py-2">Name</th>
+                <th className="px-4 py-2">E-mail</th>
+                <th className="px-4 py-2">Role</th>
+                {mayManage ? <th className="px-4 py-2">Manage</th> : null}
+              </tr>
             </thead>
             <tbody className="divide-y divide-rule">
               {m.members.map((p) => (
                 <tr key={p.userId}>
                   <td className="px-4 py-2.5 font-medium">{p.name}</td>
                   <td className="px-4 py-2.5 text-muted">{p.email}</td>
-                  <td className="px-4 py-2.5"><RoleBadge role={p.role} /></td>
-                  {mayManage ? <td className="px-4 py-2.5"><MemberControls manuscriptId={id} userId={p.userId} role={p.role} name={p.name} /></td> : null}
+                  <td className="px-4 py-2.5">
+                    <RoleBadge role={p.role} />
+                  </td>
+                  {mayManage ? (
+                    <td className="px-4 py-2.5">
+                      <MemberControls manuscriptId={id} userId={p.userId} role={p.role} name={p.name} />
+                    </td>
+                  ) : null}
                 </tr>
               ))}
             </tbody>
@@ -37,7 +48,11 @@ export default async function MembersPage({ params }: { params: Promise<{ id: st
               <h2 className="text-sm font-semibold">Pending invitations</h2>
               <ul className="mt-2 space-y-1 text-sm">
                 {invitations.map((i) => (
-                  <li key={i.id} className="flex flex-wrap items-center gap-2"><span aria-hidden>✉</span>{i.email} <RoleBadge role={i.role} /><span className="text-xs text-muted">expires {formatDate(i.expiresAt)}</span></li>
+                  <li key={i.id} className="flex flex-wrap items-center gap-2">
+                    <span aria-hidden>✉</span>
+                    {i.email} <RoleBadge role={i.role} />
+                    <span className="text-xs text-muted">expires {formatDate(i.expiresAt)}</span>
+                  </li>
                 ))}
               </ul>
             </Sheet>
@@ -49,7 +64,9 @@ export default async function MembersPage({ params }: { params: Promise<{ id: st
             <InviteForm manuscriptId={id} />
           </Sheet>
         ) : (
-          <Sheet><p className="text-sm text-muted">Only the PI manages members.</p></Sheet>
+          <Sheet>
+            <p className="text-sm text-muted">Only the PI manages members.</p>
+          </Sheet>
         )}
       </div>
     </>

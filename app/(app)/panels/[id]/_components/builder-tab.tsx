@@ -14,8 +14,15 @@ const DEFAULT_OUTPUT: Record<DataField["binds"], Output> = { dataset: "data", "a
 const SIGMA = /^(sigma|σ|err|error|stderr|uncertainty)$/i;
 
 /** Templates for the field's plots: pick data and options, and "Generate spec" fills the editor with ordinary Vega-Lite. */
-export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate }: {
-  manuscriptId: string; datasets: DatasetItem[]; defaultWidthMm: number;
+export function BuilderTab({
+  manuscriptId,
+  datasets,
+  defaultWidthMm,
+  onGenerate,
+}: {
+  manuscriptId: string;
+  datasets: DatasetItem[];
+  defaultWidthMm: number;
   onGenerate: (specText: string, choices: Record<string, BindingChoice>) => void;
 }) {
   const [templateId, setTemplateId] = useState(FIGURE_TEMPLATES[0].id);
@@ -26,7 +33,10 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
   const template = FIGURE_TEMPLATES.find((t) => t.id === templateId)!;
   const dataFields = template.options.filter((f): f is DataField => f.kind === "data-name");
 
-  const versionIdsPicked = dataFields.map((f) => picks[f.key]).filter((p): p is string => Boolean(p?.startsWith("v:"))).map((p) => p.slice(2));
+  const versionIdsPicked = dataFields
+    .map((f) => picks[f.key])
+    .filter((p): p is string => Boolean(p?.startsWith("v:")))
+    .map((p) => p.slice(2));
   const src = useBuilderSources(manuscriptId, datasets, versionIdsPicked);
   const all: Source[] = [...src.versionSources, ...src.analysisSources];
 
@@ -39,7 +49,12 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
     return f ? all.find((s) => sourceKey(s) === pickOf(f)) : undefined;
   };
 
-  const columnsOf = useSourceColumns(dataFields.map((f) => chosen(f.key)).filter((s): s is Extract<Source, { kind: "analysis" }> => s?.kind === "analysis").map((s) => s.derivedVersionId));
+  const columnsOf = useSourceColumns(
+    dataFields
+      .map((f) => chosen(f.key))
+      .filter((s): s is Extract<Source, { kind: "analysis" }> => s?.kind === "analysis")
+      .map((s) => s.derivedVersionId),
+  );
 
   const fieldByKey = new Map(template.options.map((f) => [f.key, f]));
   const columnsFor = (f: TemplateOptionField): ColumnInfo[] => (f.kind === "column" ? columnsOf(chosen(f.dataKey)) : []);
@@ -70,13 +85,19 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
         const name = dataNameOf(f) || f.default || FALLBACK_NAME[f.binds];
         if (choices[name]) return setProblem(`Two data sources are named “${name}”; give one another name.`);
         opts[f.key] = name;
-        choices[name] = s.kind === "version"
-          ? { versionId: s.versionId, rowsVersionId: s.versionId }
-          : { analysisId: s.analysisId, output: outputs[f.key] ?? DEFAULT_OUTPUT[f.binds], rowsVersionId: s.derivedVersionId };
+        choices[name] =
+          s.kind === "version"
+            ? { versionId: s.versionId, rowsVersionId: s.versionId }
+            : { analysisId: s.analysisId, output: outputs[f.key] ?? DEFAULT_OUTPUT[f.binds], rowsVersionId: s.derivedVersionId };
       } else if (f.kind === "column") opts[f.key] = columnValue(f);
       else opts[f.key] = values[f.key] ?? f.default;
     }
-    opts.print = Object.fromEntries(PRINT_OPTION_FIELDS.map((p) => [p.key.slice("print.".length), values[p.key] ?? (p.key === "print.widthMm" ? defaultWidthMm : (p as { default?: unknown }).default)]));
+    opts.print = Object.fromEntries(
+      PRINT_OPTION_FIELDS.map((p) => [
+        p.key.slice("print.".length),
+        values[p.key] ?? (p.key === "print.widthMm" ? defaultWidthMm : (p as { default?: unknown }).default),
+      ]),
+    );
     try {
       onGenerate(JSON.stringify(template.build(opts), null, 2), choices);
     } catch (e) {
@@ -90,8 +111,21 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
     <div className="space-y-5" data-testid="builder">
       <div className="grid gap-3 sm:grid-cols-[21rem_minmax(0,1fr)] sm:items-end">
         <Field label="Template">
-          <Select value={templateId} onChange={(e) => { setTemplateId(e.target.value); setValues({}); setPicks({}); setOutputs({}); setProblem(null); }}>
-            {FIGURE_TEMPLATES.map((t) => <option key={t.id} value={t.id}>{t.title}</option>)}
+          <Select
+            value={templateId}
+            onChange={(e) => {
+              setTemplateId(e.target.value);
+              setValues({});
+              setPicks({});
+              setOutputs({});
+              setProblem(null);
+            }}
+          >
+            {FIGURE_TEMPLATES.map((t) => (
+              <option key={t.id} value={t.id}>
+                {t.title}
+              </option>
+            ))}
           </Select>
         </Field>
         <p className="pb-1.5 text-sm text-muted">{template.description}</p>
@@ -107,18 +141,36 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
               <Field label={f.label} hint={f.help}>
                 <Select value={pickOf(f) ?? ""} onChange={(e) => setPicks((p) => ({ ...p, [f.key]: e.target.value || null }))}>
                   <option value="">{f.required ? "choose…" : "(none)"}</option>
-                  {options.map((o) => <option key={sourceKey(o)} value={sourceKey(o)}>{o.label}</option>)}
-                  {f.binds !== "dataset" && options.length === 0 ? <option disabled>{versionIdsPicked.length ? (src.loadingAnalyses ? "loading analyses…" : "no stored fit of the chosen data") : "choose the measured data first"}</option> : null}
+                  {options.map((o) => (
+                    <option key={sourceKey(o)} value={sourceKey(o)}>
+                      {o.label}
+                    </option>
+                  ))}
+                  {f.binds !== "dataset" && options.length === 0 ? (
+                    <option disabled>
+                      {versionIdsPicked.length
+                        ? src.loadingAnalyses
+                          ? "loading analyses…"
+                          : "no stored fit of the chosen data"
+                        : "choose the measured data first"}
+                    </option>
+                  ) : null}
                 </Select>
               </Field>
               {s?.kind === "analysis" ? (
                 <Field label="Output">
                   <Select value={outputs[f.key] ?? DEFAULT_OUTPUT[f.binds]} onChange={(e) => setOutputs((o) => ({ ...o, [f.key]: e.target.value as Output }))}>
-                    <option value="curve">fitted curve</option><option value="residuals">residuals</option><option value="data">fitted data</option>
+                    <option value="curve">fitted curve</option>
+                    <option value="residuals">residuals</option>
+                    <option value="data">fitted data</option>
                   </Select>
                 </Field>
-              ) : <span />}
-              <Field label="Data name"><TextInput value={dataNameOf(f) ?? f.default ?? FALLBACK_NAME[f.binds]} onChange={(e) => set(f.key, e.target.value)} /></Field>
+              ) : (
+                <span />
+              )}
+              <Field label="Data name">
+                <TextInput value={dataNameOf(f) ?? f.default ?? FALLBACK_NAME[f.binds]} onChange={(e) => set(f.key, e.target.value)} />
+              </Field>
             </div>
           );
         })}
@@ -128,7 +180,9 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
         <fieldset>
           <legend className="mb-2 text-sm font-semibold">Columns</legend>
           <div className="grid gap-3 sm:grid-cols-2">
-            {columnFields.map((f) => <OptionInput key={f.key} field={f} value={columnValue(f)} onChange={(v) => set(f.key, v)} columns={columnsFor(f)} />)}
+            {columnFields.map((f) => (
+              <OptionInput key={f.key} field={f} value={columnValue(f)} onChange={(v) => set(f.key, v)} columns={columnsFor(f)} />
+            ))}
           </div>
         </fieldset>
       ) : null}
@@ -136,20 +190,36 @@ export function BuilderTab({ manuscriptId, datasets, defaultWidthMm, onGenerate 
       <fieldset>
         <legend className="mb-2 text-sm font-semibold">Axes and marks</legend>
         <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
-          {otherFields.map((f) => <OptionInput key={`${templateId}-${f.key}`} field={fieldByKey.get(f.key)!} value={values[f.key]} onChange={(v) => set(f.key, v)} />)}
+          {otherFields.map((f) => (
+            <OptionInput key={`${templateId}-${f.key}`} field={fieldByKey.get(f.key)!} value={values[f.key]} onChange={(v) => set(f.key, v)} />
+          ))}
         </div>
       </fieldset>
 
       <fieldset>
         <legend className="mb-2 text-sm font-semibold">Print size</legend>
         <div className="grid grid-cols-2 gap-3 lg:grid-cols-4">
-          {PRINT_OPTION_FIELDS.map((f) => <OptionInput key={f.key} field={f} value={values[f.key] ?? (f.key === "print.widthMm" ? Math.round(defaultWidthMm * 10) / 10 : (f as { default?: unknown }).default)} onChange={(v) => set(f.key, v)} />)}
+          {PRINT_OPTION_FIELDS.map((f) => (
+            <OptionInput
+              key={f.key}
+              field={f}
+              value={values[f.key] ?? (f.key === "print.widthMm" ? Math.round(defaultWidthMm * 10) / 10 : (f as { default?: unknown }).default)}
+              onChange={(v) => set(f.key, v)}
+            />
+          ))}
         </div>
       </fieldset>
 
-      {problem ? <p role="alert" className="text-sm text-bad"><span aria-hidden>✕ </span>{problem}</p> : null}
+      {problem ? (
+        <p role="alert" className="text-sm text-bad">
+          <span aria-hidden>✕ </span>
+          {problem}
+        </p>
+      ) : null}
       <div className="flex items-center gap-3">
-        <Button type="button" onClick={generate}>Generate spec</Button>
+        <Button type="button" onClick={generate}>
+          Generate spec
+        </Button>
         <span className="text-xs text-muted">Fills the spec editor (you can undo there) and binds the data; nothing is saved until you save a revision.</span>
       </div>
     </div>

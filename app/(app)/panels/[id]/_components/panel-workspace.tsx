@@ -18,16 +18,32 @@ import { SpecEditorTab } from "./spec-editor-tab";
 
 type Tab = "builder" | "editor" | "bindings" | "revisions";
 const TABS: Array<{ id: Tab; label: string }> = [
-  { id: "builder", label: "Builder" }, { id: "editor", label: "Spec editor" }, { id: "bindings", label: "Bindings" }, { id: "revisions", label: "Revisions" },
+  { id: "builder", label: "Builder" },
+  { id: "editor", label: "Spec editor" },
+  { id: "bindings", label: "Bindings" },
+  { id: "revisions", label: "Revisions" },
 ];
 
 /** The panel workspace: the current revision in the centre, builder / editor / bindings / revisions below, the review beside. */
-export function PanelWorkspace({ initial, widthMm, members, datasets, me }: {
-  initial: PanelView; widthMm: number; members: MemberView[]; datasets: DatasetItem[]; me: { id: string; name: string };
+export function PanelWorkspace({
+  initial,
+  widthMm,
+  members,
+  datasets,
+  me,
+}: {
+  initial: PanelView;
+  widthMm: number;
+  members: MemberView[];
+  datasets: DatasetItem[];
+  me: { id: string; name: string };
 }) {
   const qc = useQueryClient();
   const { data: panel = initial } = useQuery({
-    queryKey: queryKeys.panel(initial.id), queryFn: () => fetchJson<PanelView>(`/api/panels/${initial.id}`), initialData: initial, refetchInterval: 30_000,
+    queryKey: queryKeys.panel(initial.id),
+    queryFn: () => fetchJson<PanelView>(`/api/panels/${initial.id}`),
+    initialData: initial,
+    refetchInterval: 30_000,
   });
   const rev = panel.currentRevision;
   const editable = roleAllows(panel.role, "figure.edit");
@@ -40,10 +56,18 @@ export function PanelWorkspace({ initial, widthMm, members, datasets, me }: {
   const [draftAnchor, setDraftAnchor] = useState<ThreadAnchor | null>(null);
   const threads = useThreads(panel.id).data ?? [];
 
-  const anchors: ChartAnchor[] = threads.flatMap((t, i) => (t.anchor && t.status === "open" ? [{
-    id: t.id, anchor: t.anchor, stale: rev ? t.revisionNumber !== rev.number : false,
-    label: `#${i + 1}${rev && t.revisionNumber !== rev.number ? ` · written on revision ${t.revisionNumber}` : ""}`,
-  }] : []));
+  const anchors: ChartAnchor[] = threads.flatMap((t, i) =>
+    t.anchor && t.status === "open"
+      ? [
+          {
+            id: t.id,
+            anchor: t.anchor,
+            stale: rev ? t.revisionNumber !== rev.number : false,
+            label: `#${i + 1}${rev && t.revisionNumber !== rev.number ? ` · written on revision ${t.revisionNumber}` : ""}`,
+          },
+        ]
+      : [],
+  );
   if (draftAnchor) anchors.push({ id: "draft", anchor: draftAnchor, label: "new comment", draft: true });
 
   function onSaved(r: RevisionView) {
@@ -51,24 +75,32 @@ export function PanelWorkspace({ initial, widthMm, members, datasets, me }: {
     setChoices(choicesFromRevision(r));
     setText(JSON.stringify(r.spec, null, 2));
     qc.setQueryData(queryKeys.revision(r.id), r);
-    for (const key of [queryKeys.panel(panel.id), queryKeys.revisions(panel.id), queryKeys.figure(panel.figureId), queryKeys.trace(panel.figureId)]) void qc.invalidateQueries({ queryKey: key });
+    for (const key of [queryKeys.panel(panel.id), queryKeys.revisions(panel.id), queryKeys.figure(panel.figureId), queryKeys.trace(panel.figureId)])
+      void qc.invalidateQueries({ queryKey: key });
   }
 
   return (
     <>
       <header className="mb-5 flex flex-wrap items-end justify-between gap-3 border-b border-rule pb-3">
         <div>
-          <h1 className="text-2xl font-semibold tracking-tight"><span className="font-bold">{panel.letter}</span> · {panel.title || "Untitled panel"}</h1>
+          <h1 className="text-2xl font-semibold tracking-tight">
+            <span className="font-bold">{panel.letter}</span> · {panel.title || "Untitled panel"}
+          </h1>
           <p className="mt-1 flex flex-wrap items-center gap-2 text-sm text-muted">
             <ReviewStateBadge state={panel.reviewState} />
-            <span>Figure {panel.figure.number} · {panel.figure.title}</span>
+            <span>
+              Figure {panel.figure.number} · {panel.figure.title}
+            </span>
             <span className="tabular">· {Math.round(widthMm * 10) / 10} mm wide</span>
           </p>
         </div>
       </header>
       {rev && base !== rev.id ? (
         <p role="alert" className="mb-4 rounded-sm border border-warn bg-[#fbf4e6] p-3 text-sm text-warn">
-          <span aria-hidden>△ </span>Revision {rev.number} was saved since you opened this panel; the editor still holds your version. <button type="button" className="underline" onClick={() => window.location.reload()}>Reload</button>
+          <span aria-hidden>△ </span>Revision {rev.number} was saved since you opened this panel; the editor still holds your version.{" "}
+          <button type="button" className="underline" onClick={() => window.location.reload()}>
+            Reload
+          </button>
         </p>
       ) : null}
       <div className="grid grid-cols-1 gap-6 lg:grid-cols-[minmax(0,1fr)_340px]">
@@ -77,38 +109,95 @@ export function PanelWorkspace({ initial, widthMm, members, datasets, me }: {
             {rev ? (
               <>
                 <div className="mb-2 flex flex-wrap items-center gap-2 text-xs text-muted">
-                  <p><b className="text-ink">Revision {rev.number}</b>{rev.message ? ` · “${rev.message}”` : ""} · {relativeTime(rev.createdAt)} · <code title={rev.contentHash}>{shortHash(rev.contentHash)}</code></p>
-                  <label className="ml-auto flex items-center gap-1">shown at
-                    <select className="rounded-sm border border-rule bg-white px-1 py-0.5" value={zoomPct} onChange={(e) => setZoomPct(Number(e.target.value))} aria-label="Zoom of the panel">
-                      {[100, 125, 150, 200].map((z) => <option key={z} value={z}>{z === 100 ? "100 % (print size)" : `${z} %`}</option>)}
+                  <p>
+                    <b className="text-ink">Revision {rev.number}</b>
+                    {rev.message ? ` · “${rev.message}”` : ""} · {relativeTime(rev.createdAt)} ·{" "}
+                    <code title={rev.contentHash}>{shortHash(rev.contentHash)}</code>
+                  </p>
+                  <label className="ml-auto flex items-center gap-1">
+                    shown at
+                    <select
+                      className="rounded-sm border border-rule bg-white px-1 py-0.5"
+                      value={zoomPct}
+                      onChange={(e) => setZoomPct(Number(e.target.value))}
+                      aria-label="Zoom of the panel"
+                    >
+                      {[100, 125, 150, 200].map((z) => (
+                        <option key={z} value={z}>
+                          {z === 100 ? "100 % (print size)" : `${z} %`}
+                        </option>
+                      ))}
                     </select>
                   </label>
                 </div>
                 <div className="overflow-x-auto">
-                  <PanelChartLazy spec={rev.spec} revisionId={rev.id} widthMm={widthMm} zoom={zoomPct / 100} anchors={anchors} pickMode={pickMode}
-                    onPick={(a) => { setDraftAnchor(a); setPickMode("none"); }} label={`Panel ${panel.letter}, revision ${rev.number}`} />
+                  <PanelChartLazy
+                    spec={rev.spec}
+                    revisionId={rev.id}
+                    widthMm={widthMm}
+                    zoom={zoomPct / 100}
+                    anchors={anchors}
+                    pickMode={pickMode}
+                    onPick={(a) => {
+                      setDraftAnchor(a);
+                      setPickMode("none");
+                    }}
+                    label={`Panel ${panel.letter}, revision ${rev.number}`}
+                  />
                 </div>
               </>
-            ) : <p className="text-sm text-muted">No revision yet. {editable ? "Build one below: choose a template, bind the data, generate the spec and save it." : "The authors have not saved one."}</p>}
+            ) : (
+              <p className="text-sm text-muted">
+                No revision yet.{" "}
+                {editable ? "Build one below: choose a template, bind the data, generate the spec and save it." : "The authors have not saved one."}
+              </p>
+            )}
           </section>
 
           <section>
             <div role="tablist" aria-label="Panel workspace" className="flex gap-1 border-b border-rule">
               {TABS.filter((t) => editable || t.id !== "builder").map((t) => (
-                <button key={t.id} role="tab" type="button" id={`tab-${t.id}`} aria-controls={`tabpanel-${t.id}`} aria-selected={tab === t.id} onClick={() => setTab(t.id)}
-                  className={`-mb-px rounded-t-sm border px-3 py-1.5 text-sm ${tab === t.id ? "border-rule border-b-paper bg-paper font-semibold" : "border-transparent text-muted hover:text-ink"}`}>{t.label}</button>
+                <button
+                  key={t.id}
+                  role="tab"
+                  type="button"
+                  id={`tab-${t.id}`}
+                  aria-controls={`tabpanel-${t.id}`}
+                  aria-selected={tab === t.id}
+                  onClick={() => setTab(t.id)}
+                  className={`-mb-px rounded-t-sm border px-3 py-1.5 text-sm ${tab === t.id ? "border-rule border-b-paper bg-paper font-semibold" : "border-transparent text-muted hover:text-ink"}`}
+                >
+                  {t.label}
+                </button>
               ))}
             </div>
             <div className="pt-4">
               {editable ? (
                 <div role="tabpanel" id="tabpanel-builder" aria-labelledby="tab-builder" hidden={tab !== "builder"}>
-                  <BuilderTab manuscriptId={panel.manuscriptId} datasets={datasets} defaultWidthMm={widthMm}
-                    onGenerate={(t, c) => { setText(t); setChoices(c); setTab("editor"); }} />
+                  <BuilderTab
+                    manuscriptId={panel.manuscriptId}
+                    datasets={datasets}
+                    defaultWidthMm={widthMm}
+                    onGenerate={(t, c) => {
+                      setText(t);
+                      setChoices(c);
+                      setTab("editor");
+                    }}
+                  />
                 </div>
               ) : null}
               <div role="tabpanel" id="tabpanel-editor" aria-labelledby="tab-editor" hidden={tab !== "editor"}>
-                <SpecEditorTab panelId={panel.id} text={text} onText={setText} choices={choices} editable={editable} widthMm={widthMm} onSaved={onSaved}
-                  revision={rev ? { id: rev.id, number: rev.number, bindings: rev.bindings } : null} baseRevisionId={base} />
+                <SpecEditorTab
+                  panelId={panel.id}
+                  text={text}
+                  onText={setText}
+                  choices={choices}
+                  editable={editable}
+                  widthMm={widthMm}
+                  onSaved={onSaved}
+                  revision={rev ? { id: rev.id, number: rev.number, bindings: rev.bindings } : null}
+                  baseRevisionId={base}
+                />
               </div>
               {tab === "bindings" ? (
                 <div role="tabpanel" id="tabpanel-bindings" aria-labelledby="tab-bindings">
@@ -116,13 +205,23 @@ export function PanelWorkspace({ initial, widthMm, members, datasets, me }: {
                 </div>
               ) : null}
               {tab === "revisions" ? (
-                <div role="tabpanel" id="tabpanel-revisions" aria-labelledby="tab-revisions"><RevisionsTab panelId={panel.id} widthMm={widthMm} /></div>
+                <div role="tabpanel" id="tabpanel-revisions" aria-labelledby="tab-revisions">
+                  <RevisionsTab panelId={panel.id} widthMm={widthMm} />
+                </div>
               ) : null}
             </div>
           </section>
         </div>
         <aside aria-label="Review">
-          <ReviewColumn panel={panel} members={members} me={me} pickMode={pickMode} onPickMode={setPickMode} draftAnchor={draftAnchor} onDraftAnchor={setDraftAnchor} />
+          <ReviewColumn
+            panel={panel}
+            members={members}
+            me={me}
+            pickMode={pickMode}
+            onPickMode={setPickMode}
+            draftAnchor={draftAnchor}
+            onDraftAnchor={setDraftAnchor}
+          />
         </aside>
       </div>
     </>

@@ -38,28 +38,58 @@ export function RevisionCompare({ a, b, widthMm }: { a: RevisionView; b: Revisio
     <div className="space-y-4">
       <div>
         <p className="mb-1 text-sm" data-testid="diff-summary">
-          Spec, revision {a.number} → {b.number}: {stats.added || stats.removed ? <><span className="text-good">+{stats.added} line{stats.added === 1 ? "" : "s"}</span>, <span className="text-bad">−{stats.removed}</span></> : "no change"}
-          {" · "}data: {dataChanges.length ? dataChanges.map((n) => `“${n}” ${shortHash(a.bound[n]?.sha256, 8)} → ${shortHash(b.bound[n]?.sha256, 8)}`).join("; ") : "no change"}
-        </p>
-        <div className="max-h-96 overflow-auto rounded-sm border border-rule bg-white font-mono text-xs leading-5" role="table" aria-label={`Spec diff, revision ${a.number} to ${b.number}`} data-testid="spec-diff">
-          {hunks(lines).map((h, i) => "fold" in h ? (
-            <div key={i} role="row" className="bg-paper px-2 text-muted">⋯ {h.fold} unchanged line{h.fold === 1 ? "" : "s"}</div>
+          Spec, revision {a.number} → {b.number}:{" "}
+          {stats.added || stats.removed ? (
+            <>
+              <span className="text-good">
+                +{stats.added} line{stats.added === 1 ? "" : "s"}
+              </span>
+              , <span className="text-bad">−{stats.removed}</span>
+            </>
           ) : (
-            <Fragment key={i}>
-              <div role="row" className={`flex whitespace-pre ${LOOK[h.kind]}`} data-kind={h.kind}>
-                <span className="w-9 shrink-0 select-none pr-1 text-right text-muted">{h.oldNo ?? ""}</span>
-                <span className="w-9 shrink-0 select-none pr-1 text-right text-muted">{h.newNo ?? ""}</span>
-                <span className="w-4 shrink-0 select-none text-center font-bold" aria-label={h.kind === "same" ? undefined : h.kind}>{SIGN[h.kind]}</span>
-                <span>{h.text}</span>
+            "no change"
+          )}
+          {" · "}data:{" "}
+          {dataChanges.length
+            ? dataChanges.map((n) => `“${n}” ${shortHash(a.bound[n]?.sha256, 8)} → ${shortHash(b.bound[n]?.sha256, 8)}`).join("; ")
+            : "no change"}
+        </p>
+        <div
+          className="max-h-96 overflow-auto rounded-sm border border-rule bg-white font-mono text-xs leading-5"
+          role="table"
+          aria-label={`Spec diff, revision ${a.number} to ${b.number}`}
+          data-testid="spec-diff"
+        >
+          {hunks(lines).map((h, i) =>
+            "fold" in h ? (
+              <div key={i} role="row" className="bg-paper px-2 text-muted">
+                ⋯ {h.fold} unchanged line{h.fold === 1 ? "" : "s"}
               </div>
-            </Fragment>
-          ))}
+            ) : (
+              <Fragment key={i}>
+                <div role="row" className={`flex whitespace-pre ${LOOK[h.kind]}`} data-kind={h.kind}>
+                  <span className="w-9 shrink-0 select-none pr-1 text-right text-muted">{h.oldNo ?? ""}</span>
+                  <span className="w-9 shrink-0 select-none pr-1 text-right text-muted">{h.newNo ?? ""}</span>
+                  <span className="w-4 shrink-0 select-none text-center font-bold" aria-label={h.kind === "same" ? undefined : h.kind}>
+                    {SIGN[h.kind]}
+                  </span>
+                  <span>{h.text}</span>
+                </div>
+              </Fragment>
+            ),
+          )}
         </div>
       </div>
       <div className="flex flex-wrap gap-4" data-testid="compare-renders">
         {[a, b].map((r) => (
           <div key={r.id} className="min-w-0">
-            <p className="mb-1 text-xs font-semibold">Revision {r.number} <span className="font-normal text-muted">· {shortHash(r.contentHash, 8)}{zoom < 1 ? ` · shown at ${Math.round(zoom * 100)} %` : ""}</span></p>
+            <p className="mb-1 text-xs font-semibold">
+              Revision {r.number}{" "}
+              <span className="font-normal text-muted">
+                · {shortHash(r.contentHash, 8)}
+                {zoom < 1 ? ` · shown at ${Math.round(zoom * 100)} %` : ""}
+              </span>
+            </p>
             <div className="rounded-sm border border-rule bg-white p-1">
               <PanelChartLazy spec={r.spec} revisionId={r.id} widthMm={widthMm} zoom={zoom} label={`Render of revision ${r.number}`} />
             </div>

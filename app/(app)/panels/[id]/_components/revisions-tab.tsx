@@ -26,25 +26,61 @@ export function RevisionsTab({ panelId, widthMm }: { panelId: string; widthMm: n
   return (
     <div className="space-y-5">
       <table className="w-full text-left text-sm" aria-label="Revisions">
-        <thead className="text-xs text-muted"><tr><th className="py-1">#</th><th>Message</th><th>Author</th><th>When</th><th>Content hash</th></tr></thead>
+        <thead className="text-xs text-muted">
+          <tr>
+            <th className="py-1">#</th>
+            <th>Message</th>
+            <th>Author</th>
+            <th>When</th>
+            <th>Content hash</th>
+          </tr>
+        </thead>
         <tbody>
           {items.map((r) => (
             <tr key={r.id} className="border-t border-rule align-top">
               <td className="py-1.5 pr-2 font-semibold tabular">{r.number}</td>
               <td className="pr-2">{r.message || <span className="text-muted">(no message)</span>}</td>
               <td className="pr-2">{r.createdByName}</td>
-              <td className="pr-2 whitespace-nowrap" title={String(r.createdAt)}>{relativeTime(r.createdAt)}</td>
-              <td><code title={r.contentHash}>{shortHash(r.contentHash)}</code></td>
+              <td className="pr-2 whitespace-nowrap" title={String(r.createdAt)}>
+                {relativeTime(r.createdAt)}
+              </td>
+              <td>
+                <code title={r.contentHash}>{shortHash(r.contentHash)}</code>
+              </td>
             </tr>
           ))}
         </tbody>
       </table>
-      {items.length < 2 ? <p className="text-sm text-muted">Save a second revision to compare two.</p> : (
+      {items.length < 2 ? (
+        <p className="text-sm text-muted">Save a second revision to compare two.</p>
+      ) : (
         <section aria-label="Compare revisions">
           <div className="mb-3 flex flex-wrap items-end gap-3">
             <h3 className="text-sm font-semibold">Compare</h3>
-            <label className="text-sm">from <span className="inline-block w-36"><Select aria-label="Compare from" value={older} onChange={(e) => setA(e.target.value)}>{items.map((r) => <option key={r.id} value={r.id}>revision {r.number}</option>)}</Select></span></label>
-            <label className="text-sm">to <span className="inline-block w-36"><Select aria-label="Compare to" value={newer} onChange={(e) => setB(e.target.value)}>{items.map((r) => <option key={r.id} value={r.id}>revision {r.number}</option>)}</Select></span></label>
+            <label className="text-sm">
+              from{" "}
+              <span className="inline-block w-36">
+                <Select aria-label="Compare from" value={older} onChange={(e) => setA(e.target.value)}>
+                  {items.map((r) => (
+                    <option key={r.id} value={r.id}>
+                      revision {r.number}
+                    </option>
+                  ))}
+                </Select>
+              </span>
+            </label>
+            <label className="text-sm">
+              to{" "}
+              <span className="inline-block w-36">
+                <Select aria-label="Compare to" value={newer} onChange={(e) => setB(e.target.value)}>
+                  {items.map((r) => (
+                    <option key={r.id} value={r.id}>
+                      revision {r.number}
+                    </option>
+                  ))}
+                </Select>
+              </span>
+            </label>
           </div>
           {left.data && right.data ? <RevisionCompare a={left.data} b={right.data} widthMm={widthMm} /> : <p className="text-sm text-muted">loading…</p>}
         </section>
@@ -54,5 +90,10 @@ export function RevisionsTab({ panelId, widthMm }: { panelId: string; widthMm: n
 }
 
 function useRevision(id: string) {
-  return useQuery({ queryKey: queryKeys.revision(id), queryFn: () => fetchJson<RevisionView>(`/api/revisions/${id}`), enabled: Boolean(id), staleTime: Infinity });
+  return useQuery({
+    queryKey: queryKeys.revision(id),
+    queryFn: () => fetchJson<RevisionView>(`/api/revisions/${id}`),
+    enabled: Boolean(id),
+    staleTime: Infinity,
+  });
 }

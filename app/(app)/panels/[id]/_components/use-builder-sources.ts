@@ -22,7 +22,12 @@ export function useBuilderSources(manuscriptId: string, initialDatasets: Dataset
   }).data;
   const versionSources: Source[] = datasets
     .filter((d) => d.latestVersion && !d.tags?.derivedFrom)
-    .map((d) => ({ kind: "version", versionId: d.latestVersion!.id, label: `${d.name} · version ${d.latestVersion!.number}`, columns: d.latestVersion!.columns }));
+    .map((d) => ({
+      kind: "version",
+      versionId: d.latestVersion!.id,
+      label: `${d.name} · version ${d.latestVersion!.number}`,
+      columns: d.latestVersion!.columns,
+    }));
   const nameOfVersion = new Map(versionSources.map((s) => [(s as { versionId: string }).versionId, s.label]));
 
   const ids = [...new Set(analysedVersionIds)].sort();
@@ -32,10 +37,18 @@ export function useBuilderSources(manuscriptId: string, initialDatasets: Dataset
       queryFn: async () => (await fetchJson<{ items: AnalysisItem[] }>(`/api/versions/${id}/analyses`)).items,
     })),
   });
-  const analysisSources: Source[] = analyses.flatMap((q, i) => (q.data ?? []).filter((a) => a.derivedVersionId).map((a) => ({
-    kind: "analysis" as const, analysisId: a.id, derivedVersionId: a.derivedVersionId!, versionId: ids[i], createdAt: String(a.createdAt),
-    label: `${a.model} fit of ${(nameOfVersion.get(ids[i]) ?? "").replace(/^.* · /, "") || "the data"}, run ${formatDate(a.createdAt)}`,
-  })));
+  const analysisSources: Source[] = analyses.flatMap((q, i) =>
+    (q.data ?? [])
+      .filter((a) => a.derivedVersionId)
+      .map((a) => ({
+        kind: "analysis" as const,
+        analysisId: a.id,
+        derivedVersionId: a.derivedVersionId!,
+        versionId: ids[i],
+        createdAt: String(a.createdAt),
+        label: `${a.model} fit of ${(nameOfVersion.get(ids[i]) ?? "").replace(/^.* · /, "") || "the data"}, run ${formatDate(a.createdAt)}`,
+      })),
+  );
 
   return { versionSources, analysisSources, loadingAnalyses: analyses.some((q) => q.isLoading) };
 }

@@ -19,7 +19,9 @@ export function NewTokenForm() {
         </>
       )}
     >
-      <Field label="Name" hint="Say where it is used, e.g. “confocal PC, room 2.14”."><TextInput name="name" required maxLength={80} /></Field>
+      <Field label="Name" hint="Say where it is used, e.g. “confocal PC, room 2.14”.">
+        <TextInput name="name" required maxLength={80} />
+      </Field>
       <Button type="submit">Create token</Button>
     </ActionForm>
   );
@@ -28,7 +30,9 @@ export function NewTokenForm() {
 export function RevokeTokenButton({ tokenId, name }: { tokenId: string; name: string }) {
   return (
     <ActionForm action={revokeTokenAction} hidden={{ tokenId }}>
-      <Button type="submit" variant="danger" aria-label={`Revoke ${name}`}>Revoke</Button>
+      <Button type="submit" variant="danger" aria-label={`Revoke ${name}`}>
+        Revoke
+      </Button>
     </ActionForm>
   );
 }

@@ -24,17 +24,32 @@ export default async function FitPage({ params }: { params: Promise<{ id: string
         title={`Fit · ${dataset.name}`}
         subtitle={
           <>
-            <Link href={`/datasets/${dataset.id}`} className="underline">← {dataset.name}</Link> · version {version.number}
-            {version.number < latest ? <> (not the newest: version {latest} exists)</> : null}
-            {" "}· {version.rowCount} rows {dataset.role ? <>· your role <RoleBadge role={dataset.role} /></> : null}
+            <Link href={`/datasets/${dataset.id}`} className="underline">
+              ← {dataset.name}
+            </Link>{" "}
+            · version {version.number}
+            {version.number < latest ? <> (not the newest: version {latest} exists)</> : null} · {version.rowCount} rows{" "}
+            {dataset.role ? (
+              <>
+                · your role <RoleBadge role={dataset.role} />
+              </>
+            ) : null}
           </>
         }
-        actions={<Link href={`/manuscripts/${dataset.manuscriptId}/analyses`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">Batch fits and statistics</Link>}
+        actions={
+          <Link href={`/manuscripts/${dataset.manuscriptId}/analyses`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+            Batch fits and statistics
+          </Link>
+        }
       />
       <EstimateCaution />
       <FitWorkbench
-        versionId={version.id} kind={dataset.kind} columns={version.columns} models={analysisCatalogue().items}
-        mayRun={mayRun} initialRuns={runs}
+        versionId={version.id}
+        kind={dataset.kind}
+        columns={version.columns}
+        models={analysisCatalogue().items}
+        mayRun={mayRun}
+        initialRuns={runs}
       />
     </>
   );

@@ -3,7 +3,11 @@ import { withPermission } from "@/lib/http/route";
 import { exportFigure, exportQuery } from "@/lib/server/export/export-figure";
 import { manuscriptOfFigure } from "@/lib/server/figures/scope";
 
-export const GET = withPermission("manuscript.export", { scope: ({ params }) => manuscriptOfFigure(params.id), query: exportQuery }, async ({ user, params, query }) => {
-  const { body, headers } = await exportFigure(user, params.id, query);
-  return new Response(body as BodyInit, { headers });
-});
+export const GET = withPermission(
+  "manuscript.export",
+  { scope: ({ params }) => manuscriptOfFigure(params.id), query: exportQuery },
+  async ({ user, params, query }) => {
+    const { body, headers } = await exportFigure(user, params.id, query);
+    return new Response(body as BodyInit, { headers });
+  },
+);

@@ -4,5 +4,8 @@ import { addPanel } from "@/lib/server/figures/panels";
 import { addPanelInput } from "@/lib/server/figures/schemas";
 import { manuscriptOfFigure } from "@/lib/server/figures/scope";
 
-export const POST = withPermission("figure.edit", { scope: ({ params }) => manuscriptOfFigure(params.id), body: addPanelInput }, async ({ user, params, body }) =>
-  created(await addPanel(user, params.id, body)));
+export const POST = withPermission(
+  "figure.edit",
+  { scope: ({ params }) => manuscriptOfFigure(params.id), body: addPanelInput },
+  async ({ user, params, body }) => created(await addPanel(user, params.id, body)),
+);

@@ -4,4 +4,5 @@ import { manuscriptOfFigure } from "@/lib/server/figures/scope";
 import { traceFigure } from "@/lib/server/figures/trace";
 
 export const GET = withPermission("manuscript.read", { scope: ({ params }) => manuscriptOfFigure(params.id) }, async ({ user, params }) =>
-  traceFigure(user, params.id));
+  traceFigure(user, params.id),
+);

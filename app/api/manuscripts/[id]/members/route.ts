@@ -9,4 +9,5 @@ export const GET = withPermission("manuscript.read", { scope: ({ params }) => pa
 }));
 
 export const POST = withPermission("member.manage", { scope: ({ params }) => params.id, body: inviteInput }, async ({ user, params, body }) =>
-  created(await inviteMember(user, params.id, body)));
+  created(await inviteMember(user, params.id, body)),
+);

@@ -4,4 +4,5 @@ import { populationStatistics } from "@/lib/server/analyses/population";
 import { statisticsQuery } from "@/lib/server/analyses/schemas";
 
 export const GET = withPermission("manuscript.read", { scope: ({ params }) => params.id, query: statisticsQuery }, async ({ user, params, query }) =>
-  populationStatistics(user, params.id, query.model, query.parameter, query.groupBy));
+  populationStatistics(user, params.id, query.model, query.parameter, query.groupBy),
+);

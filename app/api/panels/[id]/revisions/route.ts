@@ -9,5 +9,8 @@ export const GET = withPermission("manuscript.read", { scope: ({ params }) => ma
   items: await listRevisions(user, params.id),
 }));
 
-export const POST = withPermission("figure.edit", { scope: ({ params }) => manuscriptOfPanel(params.id), body: revisionInput, maxBodyBytes: SPEC_BODY_MAX_BYTES }, async ({ user, params, body }) =>
-  created(await createRevision(user, params.id, body)));
+export const POST = withPermission(
+  "figure.edit",
+  { scope: ({ params }) => manuscriptOfPanel(params.id), body: revisionInput, maxBodyBytes: SPEC_BODY_MAX_BYTES },
+  async ({ user, params, body }) => created(await createRevision(user, params.id, body)),
+);

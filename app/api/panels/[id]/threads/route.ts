@@ -8,5 +8,8 @@ export const GET = withPermission("manuscript.read", { scope: ({ params }) => ma
   items: await listThreads(user, params.id),
 }));
 
-export const POST = withPermission("comment.write", { scope: ({ params }) => manuscriptOfPanel(params.id), body: newThreadInput }, async ({ user, params, body }) =>
-  created(await createThread(user, params.id, body)));
+export const POST = withPermission(
+  "comment.write",
+  { scope: ({ params }) => manuscriptOfPanel(params.id), body: newThreadInput },
+  async ({ user, params, body }) => created(await createThread(user, params.id, body)),
+);
