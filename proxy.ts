@@ -16,5 +16,5 @@ export function proxy(request: NextRequest) {
 
 export const config = {
   // API routes (uploads stream through them) and static files stay out of the proxy; next.config.ts gives them their headers.
-  matcher: [{ source: "/((?!api/|_next/static|_next/image|favicon.ico|icon.svg).*)" }],
+  matcher: [{ source: "/((?!api/|_next/static|_next/image|favicon.ico|icon.svg|apple-icon.png).*)" }],
 };
