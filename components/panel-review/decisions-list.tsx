@@ -1,5 +1,6 @@
 import type { PanelView } from "@/components/figures/api";
-import { relativeTime, shortHash } from "@/lib/data/format";
+import { shortHash } from "@/lib/data/format";
+import { RelativeTime } from "@/components/review/relative-time";
 
 /** Every decision, newest first; those on an older content hash are marked stale with what changed since. */
 export function DecisionsList({ decisions }: { decisions: PanelView["decisions"] }) {
@@ -17,7 +18,7 @@ export function DecisionsList({ decisions }: { decisions: PanelView["decisions"]
             <b className={d.decision === "approved" ? "text-good" : "text-bad"}>{d.decision === "approved" ? "✓ Approved" : "✕ Needs revision"}</b>
             <span>{d.userName}</span>
             <span className="text-xs text-muted">
-              {relativeTime(d.createdAt)} · hash <code>{shortHash(d.contentHash, 8)}</code>
+              <RelativeTime at={d.createdAt} /> · hash <code>{shortHash(d.contentHash, 8)}</code>
             </span>
             {d.stale ? <span className="ml-auto rounded-full border border-warn px-1.5 text-xs font-medium text-warn">◌ Stale</span> : null}
           </p>

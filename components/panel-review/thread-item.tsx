@@ -2,11 +2,11 @@
 import { useEffect, useState } from "react";
 import { ApiError } from "@/components/api-client";
 import { describeAnchor } from "@/components/figures/format";
-import { relativeTime } from "@/lib/data/format";
 import { CommentBox } from "./comment-box";
 import type { MentionItem } from "./mention-list";
 import { RICH_TEXT } from "./rich-text-look";
 import type { ShownComment, ShownThread, useThreadActions } from "./use-threads";
+import { RelativeTime } from "@/components/review/relative-time";
 
 const EDIT_WINDOW_MS = 15 * 60 * 1000;
 
@@ -110,7 +110,7 @@ function CommentItem({ c, me, members, actions }: { c: ShownComment; me: string;
   return (
     <li className="text-sm" data-testid="comment">
       <p className="text-xs text-muted">
-        <span className="font-medium text-ink">{c.authorName}</span> · <span title={String(c.createdAt)}>{relativeTime(c.createdAt)}</span>
+        <span className="font-medium text-ink">{c.authorName}</span> · <RelativeTime at={c.createdAt} />
         {c.editedAt ? " · edited" : ""}
         {mayEdit && !editing ? (
           <>

@@ -9,12 +9,13 @@ import { ReviewStateBadge } from "@/components/figures/review-state";
 import { choicesFromRevision, type BindingChoice } from "@/components/figures/use-preview-data";
 import { ReviewColumn } from "@/components/panel-review/review-column";
 import { roleAllows } from "@/lib/authz/policy";
-import { relativeTime, shortHash } from "@/lib/data/format";
+import { shortHash } from "@/lib/data/format";
 import { useThreads } from "@/components/panel-review/use-threads";
 import { BindingsTab } from "./bindings-tab";
 import { BuilderTab } from "./builder-tab";
 import { RevisionsTab } from "./revisions-tab";
 import { SpecEditorTab } from "./spec-editor-tab";
+import { RelativeTime } from "@/components/review/relative-time";
 
 type Tab = "builder" | "editor" | "bindings" | "revisions";
 const TABS: Array<{ id: Tab; label: string }> = [
@@ -111,7 +112,7 @@ export function PanelWorkspace({
                 <div className="mb-2 flex flex-wrap items-center gap-2 text-xs text-muted">
                   <p>
                     <b className="text-ink">Revision {rev.number}</b>
-                    {rev.message ? ` · “${rev.message}”` : ""} · {relativeTime(rev.createdAt)} ·{" "}
+                    {rev.message ? ` · “${rev.message}”` : ""} · <RelativeTime at={rev.createdAt} /> ·{" "}
                     <code title={rev.contentHash}>{shortHash(rev.contentHash)}</code>
                   </p>
                   <label className="ml-auto flex items-center gap-1">

@@ -4,8 +4,9 @@ import { useState } from "react";
 import { fetchJson } from "@/components/api-client";
 import { queryKeys, type RevisionListItem, type RevisionView } from "@/components/figures/api";
 import { Select } from "@/components/ui";
-import { relativeTime, shortHash } from "@/lib/data/format";
+import { shortHash } from "@/lib/data/format";
 import { RevisionCompare } from "./revision-compare";
+import { RelativeTime } from "@/components/review/relative-time";
 
 /** The chain of revisions, newest first; any two compared as a spec diff and two renders. */
 export function RevisionsTab({ panelId, widthMm }: { panelId: string; widthMm: number }) {
@@ -42,7 +43,7 @@ export function RevisionsTab({ panelId, widthMm }: { panelId: string; widthMm: n
               <td className="pr-2">{r.message || <span className="text-muted">(no message)</span>}</td>
               <td className="pr-2">{r.createdByName}</td>
               <td className="pr-2 whitespace-nowrap" title={String(r.createdAt)}>
-                {relativeTime(r.createdAt)}
+                <RelativeTime at={r.createdAt} />
               </td>
               <td>
                 <code title={r.contentHash}>{shortHash(r.contentHash)}</code>
