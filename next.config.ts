@@ -18,6 +18,10 @@ const nextConfig: NextConfig = {
     "vega-interpreter",
   ],
   typedRoutes: false,
+  async redirects() {
+    // The manuscript's figure status page used to live at …/board; old links and bookmarks still land on it.
+    return [{ source: "/manuscripts/:id/board", destination: "/manuscripts/:id/status", permanent: true }];
+  },
   async headers() {
     return [
       {

@@ -9,21 +9,25 @@ const { startMailSink } = await import("@/lib/server/mail/sink-server");
 const { buildIsStale, runNextSync, spawnNext, waitForHttp } = await import("./lib/processes");
 const { closeDb } = await import("@/db/client");
 
-await applyMigrations();
-await seedDemoWithData();
-closeDb();
-console.log("Database migrated and demo data seeded.");
-
-if (process.argv.includes("--rebuild") || buildIsStale()) {
-  console.log("Building the application (next build)…");
-  await runNextSync(["build"]);
-}
-
+// The sink first: the mails the demo story sends while it is seeded land in it straight away.
 try {
   await startMailSink({ port: env().smtpPort, dir: env().mailSinkDir });
   console.log(`Mail sink: smtp://127.0.0.1:${env().smtpPort} → ${env().mailSinkDir}`);
 } catch (err) {
   console.warn(`Mail sink NOT started: ${(err as Error).message}`);
+}
+
+await applyMigrations();
+const seedStart = performance.now();
+const seeded = await seedDemoWithData();
+closeDb();
+console.log(
+  `Database migrated and demo data seeded (${seeded.filesAdded} files added${seeded.storyTold ? ", the review story told" : ""}) in ${((performance.now() - seedStart) / 1000).toFixed(1)} s.`,
+);
+
+if (process.argv.includes("--rebuild") || buildIsStale()) {
+  console.log("Building the application (next build)…");
+  await runNextSync(["build"]);
 }
 
 // A demo instance: the mail outbox page is served, to requests from this machine only.

@@ -4,5 +4,5 @@ ensureLocalEnv();
 const { applyMigrations } = await import("@/db/migrate");
 const { seedDemoWithData } = await import("@/lib/server/demo/seed-demo");
 await applyMigrations();
-const { filesAdded } = await seedDemoWithData();
-console.log(`Demo data seeded (${filesAdded} measurement files added).`);
+const { filesAdded, storyTold } = await seedDemoWithData();
+console.log(`Demo data seeded (${filesAdded} measurement files added${storyTold ? ", the review story told" : ""}).`);

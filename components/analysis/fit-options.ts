@@ -1,14 +1,17 @@
 /** Turning the fit form (strings the user typed) into the API's options, and the form's defaults. */
 import type { FitOptions, FitParameter, ModelInfo } from "./api";
 
+/**
+ * One parameter as typed: `value` is the start value, or with `fixed` on the value the parameter is
+ * held at; `lower`/`upper` are the two ends of its allowed range (blank = the model's default).
+ */
 export interface ParamDraft {
-  start: string;
+  value: string;
   fixed: boolean;
-  fixedValue: string;
   lower: string;
   upper: string;
 }
-export const EMPTY_DRAFT: ParamDraft = { start: "", fixed: false, fixedValue: "", lower: "", upper: "" };
+export const EMPTY_DRAFT: ParamDraft = { value: "", fixed: false, lower: "", upper: "" };
 
 /** The model's default bounds per parameter, as the last fit reported them (null = unlimited). */
 export type DefaultBounds = Record<string, Array<number | null>>;
@@ -47,8 +50,9 @@ function parseNumber(text: string, what: string): number | undefined {
 export type BuildResult = { options: FitOptions } | { error: string } | { needDefaults: true };
 
 /**
- * Options for POST /api/analyses[/preview]. A blank start means automatic; a blank bound means the
- * model's default, which needs the defaults of a previous fit when only one side is typed.
+ * Options for POST /api/analyses[/preview]: `start`, `fixed` and `bounds`. A blank start means
+ * automatic; a blank end of the range means the model's default, which needs the defaults of a
+ * previous fit when only one end is typed.
  */
 export function buildOptions(
   params: ModelInfo["parameters"],
@@ -65,28 +69,28 @@ export function buildOptions(
     for (const p of params) {
       const d = drafts[p.name] ?? EMPTY_DRAFT;
       if (d.fixed) {
-        const v = parseNumber(d.fixedValue, `${p.name} fixed value`);
+        const v = parseNumber(d.value, `${p.name} held value`);
         if (v === undefined) throw new Error(`${p.name}: give the value to hold it at.`);
         fixed[p.name] = v;
         continue;
       }
-      const s = parseNumber(d.start, `${p.name} start value`);
+      const s = parseNumber(d.value, `${p.name} start value`);
       if (s !== undefined) start[p.name] = s;
-      const lo = parseNumber(d.lower, `${p.name} lower bound`);
-      const hi = parseNumber(d.upper, `${p.name} upper bound`);
+      const lo = parseNumber(d.lower, `${p.name} range from`);
+      const hi = parseNumber(d.upper, `${p.name} range to`);
       if (lo === undefined && hi === undefined) continue;
       if (lo === undefined || hi === undefined) {
         const known = defaults?.[p.name];
         if (!known) return { needDefaults: true };
         const other = lo === undefined ? known[0] : known[1];
         if (other === null || other === undefined) {
-          throw new Error(`${p.name}: its default ${lo === undefined ? "lower" : "upper"} bound is unlimited; give both bounds.`);
+          throw new Error(`${p.name}: by default its range is open ${lo === undefined ? "below" : "above"}; give both ends of the range.`);
         }
         bounds[p.name] = lo === undefined ? [other, hi!] : [lo, other];
       } else {
         bounds[p.name] = [lo, hi];
       }
-      if (!(bounds[p.name][0] < bounds[p.name][1])) throw new Error(`${p.name}: the lower bound must be below the upper bound.`);
+      if (!(bounds[p.name][0] < bounds[p.name][1])) throw new Error(`${p.name}: the range must run from a smaller to a larger number.`);
     }
   } catch (err) {
     return { error: (err as Error).message };

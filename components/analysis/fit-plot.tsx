@@ -18,24 +18,41 @@ const DATA = "#0072B2",
   CURVE = "#D55E00";
 
 export interface FitPlotProps {
-  data: { x: number[]; y: number[]; residuals: Array<number | null> };
+  /** `sigma`: one standard uncertainty per point, y units (the fit's σ column); drawn as ± σ error bars. */
+  data: { x: number[]; y: number[]; sigma?: Array<number | null> | null; residuals: Array<number | null> };
   curve: { x: number[]; y: number[] };
   xTitle: string;
   yTitle: string;
   residualTitle: string;
   modelTitle: string;
+  /** The σ column's name, for the legend. */
+  sigmaName?: string;
+}
+
+/** ± σ as a vertical bar with caps, centred on (cx, cy) in pixels; `lo`/`hi` are the pixel ends. */
+function ErrorBar({ cx, lo, hi }: { cx: number; lo: number; hi: number }) {
+  return (
+    <path d={`M${cx.toFixed(1)},${lo.toFixed(1)}V${hi.toFixed(1)}M${(cx - 2.5).toFixed(1)},${lo.toFixed(1)}h5M${(cx - 2.5).toFixed(1)},${hi.toFixed(1)}h5`} />
+  );
 }
 
 /** Data points with the fitted curve, and the residuals (data − fit) in a strip beneath on the same x axis. */
-export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle }: FitPlotProps) {
+export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle, sigmaName }: FitPlotProps) {
   const clip = `fit-clip-${useId().replace(/[^a-zA-Z0-9_-]/g, "")}`;
   const positive = data.x.length > 0 && data.x.every((v) => v > 0);
   const xPositive = extent([data.x], true);
   const [logX, setLogX] = useState(positive && xPositive !== null && xPositive[1] / xPositive[0] > 100);
   const useLog = logX && positive;
   const xs: Scale = useLog ? logScale(padRange(xPositive, 0.03, true), [LEFT, W - RIGHT]) : linearScale(padRange(extent([data.x]), 0.03), [LEFT, W - RIGHT], 7);
-  const ys = linearScale(padRange(extent([data.y, curve.y]), 0.06), [MAIN_BOTTOM, TOP], 5);
-  const rMax = Math.max(1e-300, ...data.residuals.map((r) => (r === null ? 0 : Math.abs(r)))) * 1.15;
+  const sigma = data.sigma?.some((v) => v !== null && v > 0) ? data.sigma : null;
+  const sigmaAt = (i: number) => {
+    const v = sigma?.[i];
+    return v !== null && v !== undefined && Number.isFinite(v) && v > 0 ? v : null;
+  };
+  const yLo = sigma ? data.y.map((y, i) => y - (sigmaAt(i) ?? 0)) : [];
+  const yHi = sigma ? data.y.map((y, i) => y + (sigmaAt(i) ?? 0)) : [];
+  const ys = linearScale(padRange(extent([data.y, curve.y, yLo, yHi]), 0.06), [MAIN_BOTTOM, TOP], 5);
+  const rMax = Math.max(1e-300, ...data.residuals.map((r, i) => (r === null ? 0 : Math.abs(r) + (sigmaAt(i) ?? 0)))) * 1.15;
   const rs = linearScale([-rMax, rMax], [RES_BOTTOM, RES_TOP], 4);
   const outer = Math.max(...rs.ticks.map((t) => Math.abs(t.value)));
   rs.ticks = rs.ticks.filter((t) => t.value === 0 || Math.abs(t.value) === outer);
@@ -57,6 +74,14 @@ export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle
             </svg>
             fit: {modelTitle}
           </span>
+          {sigma ? (
+            <span className="inline-flex items-center gap-1.5" data-testid="fit-plot-error-bars">
+              <svg width="10" height="12">
+                <path d="M5,1V11M2.5,1h5M2.5,11h5" stroke={DATA} strokeWidth="1.2" fill="none" />
+              </svg>
+              ± σ{sigmaName ? ` (${sigmaName})` : ""}
+            </span>
+          ) : null}
           <span>lower strip: residual = data − fit</span>
         </p>
         <label className="inline-flex items-center gap-1.5 text-ink">
@@ -68,7 +93,7 @@ export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle
         viewBox={`0 0 ${W} ${H}`}
         className="h-auto w-full rounded-sm border border-rule bg-white"
         role="img"
-        aria-label={`${yTitle} against ${xTitle}: ${data.x.length} data points with the fitted curve; residuals beneath`}
+        aria-label={`${yTitle} against ${xTitle}: ${data.x.length} data points${sigma ? ` with ± σ error bars${sigmaName ? ` from ${sigmaName}` : ""}` : ""} and the fitted curve; residuals beneath`}
         data-testid="fit-plot"
       >
         <defs>
@@ -101,11 +126,28 @@ export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle
           {residualTitle}
         </text>
         <g clipPath={`url(#${clip}-main)`}>
+          {sigma ? (
+            <g stroke={DATA} strokeOpacity={0.55} strokeWidth={1} fill="none" aria-hidden>
+              {data.x.map((x, i) => {
+                const e = sigmaAt(i);
+                return e === null ? null : <ErrorBar key={i} cx={xs(x)} lo={ys(data.y[i] - e)} hi={ys(data.y[i] + e)} />;
+              })}
+            </g>
+          ) : null}
           {data.x.map((x, i) => (
             <circle key={i} cx={xs(x)} cy={ys(data.y[i])} r={2.6} fill={DATA} fillOpacity={0.85} />
           ))}
           <path d={path} fill="none" stroke={CURVE} strokeWidth={2} />
         </g>
+        {sigma ? (
+          <g stroke={DATA} strokeOpacity={0.55} strokeWidth={1} fill="none" aria-hidden>
+            {data.x.map((x, i) => {
+              const r = data.residuals[i];
+              const e = sigmaAt(i);
+              return r === null || r === undefined || e === null ? null : <ErrorBar key={i} cx={xs(x)} lo={rs(r - e)} hi={rs(r + e)} />;
+            })}
+          </g>
+        ) : null}
         {data.x.map((x, i) => {
           const r = data.residuals[i];
           return r === null || r === undefined ? null : <circle key={i} cx={xs(x)} cy={rs(r)} r={2.2} fill={DATA} fillOpacity={0.85} />;

@@ -50,6 +50,7 @@ export function FitResultView({ result, modelTitle, xName, yName }: { result: Fi
         xTitle={axisTitle(xName, result.units.x)}
         yTitle={yTitle}
         residualTitle={axisTitle("residual", result.units.y)}
+        sigmaName={result.options.sigma}
       />
       <div className="space-y-4">
         <table className="w-full text-sm" aria-label="Fitted parameters">

@@ -136,7 +136,8 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
           </div>
           <h3 className="mb-1 mt-5 text-sm font-semibold">Parameters</h3>
           <p className="mb-2 text-xs text-muted">
-            Blank start = automatic guess from the data; blank bound = the model&apos;s default (shown once you have fitted).
+            A blank start value lets the fit guess from the data; switch on “fixed” to hold a parameter at the value typed. A blank end of the allowed range is
+            the model&apos;s default (shown once you have fitted).
           </p>
           <ParameterInputs
             rows={rows}

@@ -1,21 +1,32 @@
 "use client";
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
-import { useState } from "react";
+import { useId, useState } from "react";
 import { axisTitle, formatCount } from "@/lib/data/format";
 import { fetchJson } from "@/components/api-client";
 import { Field, Select } from "@/components/ui";
 import type { PlotData, VersionView } from "./api";
+import { kindLabel } from "./measurement-kinds";
 import { extent, isAscending } from "./plot-scales";
 import { QuickPlot } from "./quick-plot";
 
 const POINTS = 1200;
 
-/** Two column pickers, a log-x switch and the plot; the server downsamples, keeping extremes. */
-export function QuickPlotPanel({ version }: { version: VersionView }) {
+/**
+ * Kinds whose x is a delay spanning decades (echo τ, relaxation wait): read on a log time axis, as
+ * they are published. Ramsey fringes and spectra stay linear.
+ */
+const LOG_TIME_KINDS: ReadonlySet<string> = new Set(["hahn_echo", "relaxation"]);
+
+type XScale = "linear" | "log";
+
+/** Two column pickers, a linear/log x switch and the plot; the server downsamples, keeping extremes. */
+export function QuickPlotPanel({ version, kind }: { version: VersionView; kind?: string }) {
   const numeric = version.columns.filter((c) => c.type === "number");
   const [x, setX] = useState(numeric[0]?.name ?? "");
   const [y, setY] = useState(numeric[1]?.name ?? numeric[0]?.name ?? "");
-  const [logX, setLogX] = useState(false);
+  const logByDefault = kind !== undefined && LOG_TIME_KINDS.has(kind);
+  const [xScale, setXScale] = useState<XScale>(logByDefault ? "log" : "linear");
+  const scaleName = `x-scale-${useId()}`;
   const { data, isFetching, isError, error } = useQuery({
     queryKey: ["plot", version.id, x, y, POINTS],
     queryFn: () => fetchJson<PlotData>(`/api/versions/${version.id}/plot?${new URLSearchParams({ x, y, points: String(POINTS) })}`),
@@ -27,7 +38,7 @@ export function QuickPlotPanel({ version }: { version: VersionView }) {
   if (numeric.length < 2) return <p className="text-sm text-muted">A quick plot needs two numeric columns; this version has {numeric.length}.</p>;
   const xRange = data ? extent([data.points.x]) : null;
   const canLog = xRange !== null && xRange[1] > 0;
-  const logShown = logX && canLog;
+  const logShown = xScale === "log" && canLog;
   const ordered = data ? isAscending(data.points.x) : true;
 
   return (
@@ -55,10 +66,35 @@ export function QuickPlotPanel({ version }: { version: VersionView }) {
             </Select>
           </Field>
         </div>
-        <label className="flex items-center gap-2 pb-1.5 text-sm">
-          <input type="checkbox" checked={logShown} disabled={!canLog} onChange={(e) => setLogX(e.target.checked)} className="h-4 w-4 accent-accent" />
-          log x{!canLog && data ? <span className="text-xs text-muted">(needs positive x values)</span> : null}
-        </label>
+        <fieldset className="text-sm">
+          <legend className="mb-1 font-medium">x scale</legend>
+          <div className="inline-flex overflow-hidden rounded-sm border border-rule" data-testid="x-scale">
+            {(["linear", "log"] as const).map((s) => {
+              const on = s === "log" ? logShown : !logShown;
+              const disabled = s === "log" && !canLog;
+              return (
+                <label
+                  key={s}
+                  className={`flex items-center gap-1.5 px-2.5 py-1 first:border-r first:border-rule ${on ? "bg-accent-soft font-semibold" : "bg-white"} ${disabled ? "text-muted" : "cursor-pointer"}`}
+                >
+                  <input
+                    type="radio"
+                    name={scaleName}
+                    value={s}
+                    checked={on}
+                    disabled={disabled}
+                    onChange={() => setXScale(s)}
+                    className="h-3.5 w-3.5 accent-accent"
+                  />
+                  {s} x
+                </label>
+              );
+            })}
+          </div>
+        </fieldset>
+        <span className="pb-1.5 text-xs text-muted">
+          {!canLog && data ? "log x needs positive x values" : logByDefault ? `log time axis by default for ${kindLabel(kind)} data` : ""}
+        </span>
         <span className="pb-1.5 text-xs text-muted" aria-live="polite">
           {isFetching ? "loading…" : ""}
         </span>

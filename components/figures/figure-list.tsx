@@ -1,5 +1,6 @@
 import Link from "next/link";
 import { STATE_LABELS, type ReviewState } from "@/lib/review/derive-state";
+import { FigureThumbnail } from "./figure-thumbnail";
 import { OpenThreads, ReviewStateBadge } from "./review-state";
 
 export interface FigureListItem {
@@ -9,6 +10,8 @@ export interface FigureListItem {
   widthMm: number;
   columns: number;
   reviewState: string;
+  /** Names the thumbnail's URL, so a changed figure is fetched anew. */
+  figureHash?: string | null;
   panels: Array<{ id: string; letter: string; colSpan: number; reviewState: string; openThreads: number }>;
 }
 
@@ -24,7 +27,7 @@ export function FigureList({ figures }: { figures: FigureListItem[] }) {
               href={`/figures/${f.id}`}
               className="flex items-center gap-4 rounded-sm border border-rule bg-sheet p-3 hover:border-accent hover:bg-accent-soft/40"
             >
-              <FigureThumb figure={f} />
+              <FigureThumbnail figure={f} />
               <div className="min-w-0 flex-1">
                 <p className="font-semibold">
                   <span className="text-muted">Figure {f.number}</span> · {f.title}
@@ -36,6 +39,7 @@ export function FigureList({ figures }: { figures: FigureListItem[] }) {
                   <ReviewStateBadge state={f.reviewState} />
                   <OpenThreads count={open} />
                 </p>
+                <PanelStates figure={f} />
               </div>
               <span aria-hidden className="text-muted">
                 →
@@ -48,26 +52,19 @@ export function FigureList({ figures }: { figures: FigureListItem[] }) {
   );
 }
 
-/** A light schematic of the layout (no chart library): panel letters on the grid with their state shape. */
-function FigureThumb({ figure }: { figure: FigureListItem }) {
-  const cols = Math.max(1, figure.columns);
+/** Each panel's letter with its state's shape and label (the thumbnail shows the figure; this, where it stands). */
+function PanelStates({ figure }: { figure: FigureListItem }) {
+  if (!figure.panels.length) return null;
   return (
-    <div
-      aria-hidden
-      className="grid w-24 shrink-0 gap-0.5 rounded-sm border border-rule bg-white p-1"
-      style={{ gridTemplateColumns: `repeat(${cols}, minmax(0, 1fr))`, aspectRatio: `${figure.widthMm} / 100` }}
-    >
-      {figure.panels.length === 0 ? <span className="col-span-full self-center text-center text-[10px] text-muted">empty</span> : null}
-      {figure.panels.map((p) => (
-        <span
-          key={p.id}
-          className="flex items-start justify-between rounded-[1px] bg-paper px-0.5 text-[9px] leading-tight"
-          style={{ gridColumn: `span ${Math.min(cols, p.colSpan)}` }}
-        >
-          <b>{p.letter}</b>
-          <span>{STATE_LABELS[p.reviewState as ReviewState]?.shape}</span>
-        </span>
-      ))}
-    </div>
+    <ul className="mt-1 flex flex-wrap gap-x-3 text-xs text-muted" aria-label={`Panels of figure ${figure.number}`}>
+      {figure.panels.map((p) => {
+        const s = STATE_LABELS[p.reviewState as ReviewState] ?? { label: p.reviewState, shape: "?" };
+        return (
+          <li key={p.id}>
+            <b className="text-ink">{p.letter}</b> <span aria-hidden>{s.shape}</span> {s.label.toLowerCase()}
+          </li>
+        );
+      })}
+    </ul>
   );
 }

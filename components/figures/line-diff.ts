@@ -1,4 +1,4 @@
-/** A line diff by longest common subsequence, for comparing two pretty-printed specs. */
+/** A line diff by longest common subsequence, for showing two pretty-printed specs side by side. */
 
 export type DiffLine = { kind: "same" | "added" | "removed"; text: string; oldNo?: number; newNo?: number };
 
@@ -58,15 +58,4 @@ function middle(a: string[], b: string[], offset: number): DiffLine[] {
     }
   }
   return out;
-}
-
-/** Counts of added and removed lines. */
-export function diffStats(lines: DiffLine[]): { added: number; removed: number } {
-  let added = 0,
-    removed = 0;
-  for (const l of lines) {
-    if (l.kind === "added") added++;
-    else if (l.kind === "removed") removed++;
-  }
-  return { added, removed };
 }

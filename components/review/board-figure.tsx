@@ -1,5 +1,6 @@
 "use client";
 import Link from "next/link";
+import { FigureThumbnail } from "@/components/figures/figure-thumbnail";
 import { RelativeTime } from "./relative-time";
 import { figureLastActivity, panelLastActivity, type LastActivity } from "./last-activity";
 import type { ActivityEntry, BoardFigure, BoardPanel } from "./review-api";
@@ -95,6 +96,7 @@ export function BoardFigureRow({ f, names, byTarget, isPi }: { f: BoardFigure; n
           </h2>
           <p className="text-sm">{f.title}</p>
         </div>
+        <FigureThumbnail figure={f} width={240} height={150} />
         <dl className="space-y-0.5 text-xs">
           <div className="flex gap-1.5">
             <dt className="text-muted">State</dt>

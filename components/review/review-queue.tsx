@@ -67,9 +67,9 @@ const columns = [
     header: "Manuscript",
     cell: (c) => (
       <Link
-        href={`/manuscripts/${c.row.original.manuscriptId}/board`}
+        href={`/manuscripts/${c.row.original.manuscriptId}/status`}
         className="line-clamp-2 min-w-[12rem] hover:underline"
-        title={`${c.getValue()} — open the board`}
+        title={`${c.getValue()} — open its figure status`}
       >
         {c.getValue()}
       </Link>

@@ -40,7 +40,7 @@ function useMemberNames(figureId: string, enabled: boolean) {
     queryKey: ["figure-member-names", figureId],
     enabled,
     staleTime: 5 * 60_000,
-    // A page that already holds the manuscript (the board) answers from its cache without a request.
+    // A page that already holds the manuscript (the figure status page) answers from its cache without a request.
     initialData: () => {
       for (const [, m] of queryClient.getQueriesData<ManuscriptView>({ queryKey: ["manuscript"] })) {
         if (m?.figures.some((f) => f.id === figureId)) return Object.fromEntries(m.members.map((u) => [u.userId, u.name]));

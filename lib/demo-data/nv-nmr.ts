@@ -11,7 +11,7 @@ import { PROTON_GAMMA_OVER_2PI } from "@/lib/physics/constants";
 import { larmorFrequency } from "@/lib/physics/larmor";
 import { odmrResonances } from "@/lib/physics/odmr";
 
-const NV_NMR_FIELD_T = 0.2093;
+export const NV_NMR_FIELD_T = 0.2093;
 const FWHM_MHZ = 0.045;
 const DEPTH = 0.065;
 const SIGMA = 0.006;

@@ -11,7 +11,7 @@ import { SAMPLE, SPECTROMETER, commentHeader, measuredAt, standardHeader } from 
 import { NV_MINUS_ZPL_ENERGY_EV, NV_ZERO_ZPL_ENERGY_EV } from "@/lib/physics/constants";
 import { photonWavelengthNm } from "@/lib/physics/photon";
 
-const DARK_COUNTS = 310;
+export const DARK_COUNTS = 310;
 
 interface Band {
   centre: number;

@@ -6,6 +6,7 @@ import { changeRoleInput, inviteInput } from "@/lib/server/members";
 import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schemas";
 import { analysisInput, calculatorInput, statisticsQuery } from "@/lib/server/analyses/schemas";
 import { exportQuery } from "@/lib/server/export/export-figure";
+import { thumbnailQuery } from "@/lib/server/export/thumbnails";
 import { decisionInput, editCommentInput, newThreadInput, replyInput, resolveInput, signoffInput } from "@/lib/server/review/schemas";
 import { addPanelInput, createFigureInput, reorderInput, revisionInput, updateFigureInput } from "@/lib/server/figures/schemas";
 
@@ -174,7 +175,8 @@ export const API_OPERATIONS: ApiOperation[] = [
     method: "POST",
     path: "/api/panels/{id}/revisions",
     permission: "figure.edit",
-    summary: "New revision (409 when baseRevisionId is not current; 422 when the spec names a field the bound data lacks, with the columns there are)",
+    summary:
+      "New revision with its revision note (409 when baseRevisionId is not current; 422 when the spec names a field the bound data lacks, with the columns there are)",
     body: revisionInput,
     success: 201,
   },
@@ -195,6 +197,22 @@ export const API_OPERATIONS: ApiOperation[] = [
     success: 200,
   },
   { method: "GET", path: "/api/figures/{id}/trace", permission: "manuscript.read", summary: "Provenance chain with every hash", success: 200 },
+  {
+    method: "GET",
+    path: "/api/figures/{id}/thumbnail",
+    permission: "manuscript.read",
+    summary: "The figure as a small PNG, drawn on first request and cached by figure hash (ETag); a placeholder when it has no panels",
+    query: thumbnailQuery,
+    success: 200,
+  },
+  {
+    method: "GET",
+    path: "/api/panels/{id}/thumbnail",
+    permission: "manuscript.read",
+    summary: "A panel's current revision as a small PNG, cached by content hash (ETag); a placeholder when it has no revision",
+    query: thumbnailQuery,
+    success: 200,
+  },
   { method: "GET", path: "/api/panels/{id}/threads", permission: "manuscript.read", summary: "Threads on a panel with their comments", success: 200 },
   {
     method: "POST",

@@ -86,6 +86,9 @@ describe("analyses", () => {
     expect(p.status).toBe(200);
     expect(p.json.id).toBeUndefined();
     expect(p.json.curve.x).toHaveLength(400);
+    // The σ column travels with the points, for the fit plot's error bars.
+    expect(p.json.data.sigma).toHaveLength(p.json.data.x.length);
+    expect(p.json.data.sigma.every((s: number) => s > 0)).toBe(true);
     const badModel = await call(analyses.POST, { method: "POST", token: tokens.pi, body: { ...echoFit(v.id), model: "nope" } });
     expect(badModel.status).toBe(400);
     expect(badModel.json.error.message).toMatch(/^model: unknown model "nope"/);

@@ -145,7 +145,7 @@ describe("spec ↔ data integrity at save", () => {
 });
 
 describe("data warnings at render", () => {
-  it("an old revision whose field the data lacks: warned in the data response, the panel, the figure and the manuscript board", async () => {
+  it("an old revision whose field the data lacks: warned in the data response, the panel, the figure and the manuscript's figure status", async () => {
     const { figureId, panelId } = await newPanel();
     // Saved before the check existed: straight into the database.
     const oldSpec = spec("t_us");

@@ -91,6 +91,8 @@ const FIXTURES: Record<string, Fixture> = {
   "GET /api/revisions/{id}": async () => ({ params: { id: sample.revisionId } }),
   "GET /api/revisions/{id}/data": async () => ({ params: { id: sample.revisionId } }),
   "GET /api/figures/{id}/trace": async () => ({ params: { id: sample.figureId } }),
+  "GET /api/figures/{id}/thumbnail": async () => ({ params: { id: sample.figureId } }),
+  "GET /api/panels/{id}/thumbnail": async () => ({ params: { id: sample.panelIds[1]! } }),
   "GET /api/figures/{id}/export": async () => ({ params: { id: sample.reviewFigureId }, query: "format=source-data" }),
   "GET /api/panels/{id}/threads": async () => ({ params: { id: sample.reviewPanelId } }),
   "POST /api/panels/{id}/threads": async () => ({
@@ -179,6 +181,8 @@ const EXPECTED: Record<string, Row> = {
   "POST /api/figures/{id}/panels":                    [201, 201,   403,     403,   404,     401],
   "POST /api/figures/{id}/order":                     [200, 200,   403,     403,   404,     401],
   "GET /api/figures/{id}/trace":                      [200, 200,   200,     200,   404,     401],
+  "GET /api/figures/{id}/thumbnail":                  [200, 200,   200,     200,   404,     401],
+  "GET /api/panels/{id}/thumbnail":                   [200, 200,   200,     200,   404,     401],
   "GET /api/figures/{id}/export":                     [200, 200,   200,     200,   404,     401],
   "GET /api/panels/{id}":                             [200, 200,   200,     200,   404,     401],
   "GET /api/panels/{id}/revisions":                   [200, 200,   200,     200,   404,     401],

@@ -35,13 +35,23 @@ test("the author fits a Hahn echo, sees T2 in µs with χ²ᵣ, and saves the ru
   await expect(page.getByRole("alert").filter({ hasText: "T2 start value" })).toContainText("T2 start value: “abc” is not a number.");
   await page.getByLabel("T2 start value").fill("");
 
-  // One bound typed, the other left to the model's default: the stretch exponent pinned low hits its bound.
-  await page.getByLabel("n upper bound").fill("1.5");
+  // One end of the range typed, the other left to the model's default: the stretch exponent pinned low hits its bound.
+  await page.getByLabel("n range to").fill("1.5");
   await page.getByRole("button", { name: "Fit", exact: true }).click();
   await expect(page.getByRole("list", { name: "Fit warnings" })).toContainText("⚠hit a bound: n");
   await expect(page.getByTestId("param-n")).toContainText("at a bound");
-  await expect(page.getByLabel("n lower bound")).toHaveAttribute("placeholder", "0.5");
-  await page.getByLabel("n upper bound").fill("");
+  await expect(page.getByLabel("n range from")).toHaveAttribute("placeholder", "0.5");
+  await page.getByLabel("n range to").fill("");
+  // The "fixed" switch, by keyboard: the value field now holds n at the last fitted value and the range rests.
+  const holdN = page.getByRole("switch", { name: "Hold n fixed" });
+  await holdN.focus();
+  await page.keyboard.press("Space");
+  await expect(holdN).toBeChecked();
+  await expect(page.getByLabel("n held value")).toHaveValue(/^\d/);
+  await expect(page.getByLabel("n range from")).toBeDisabled();
+  await page.keyboard.press("Space");
+  await expect(holdN).not.toBeChecked();
+  await page.getByLabel("n start value").fill("");
   await expect(page.getByText("settings changed since this fit").first()).toBeVisible();
   await expect(page.getByRole("button", { name: "Save run" })).toBeDisabled();
 
@@ -56,18 +66,22 @@ test("the author fits a Hahn echo, sees T2 in µs with χ²ᵣ, and saves the ru
   await expect(page.getByLabel("Logarithmic x axis")).toBeChecked();
   await shoot(page, "fit");
 
+  // The seeded demo story already stored a run on every echo version: saving adds one, whose derived
+  // version is the next of the fit's derived dataset (or the same one when the bytes are identical).
+  const runsBefore = ((await (await page.request.get(`/api/versions/${echo!.latestVersion!.id}/analyses`)).json()) as { items: unknown[] }).items.length;
   await page.getByRole("button", { name: "Save run" }).click();
   const saved = page.getByRole("status").filter({ hasText: "Saved — derived version" });
-  await expect(saved).toContainText("Saved — derived version 1");
-  await expect(saved.getByRole("link", { name: "derived version 1" })).toHaveAttribute("href", /^\/datasets\/[\w-]+\?v=[\w-]+$/);
+  await expect(saved).toContainText(/Saved — derived version \d+/);
+  const derivedLink = saved.getByRole("link", { name: /^derived version \d+$/ });
+  await expect(derivedLink).toHaveAttribute("href", /^\/datasets\/[\w-]+\?v=[\w-]+$/);
   const runs = page.getByRole("table", { name: "Stored runs on this version" });
-  await expect(runs.getByRole("row")).toHaveCount(2);
+  await expect(runs.getByRole("row")).toHaveCount(runsBefore + 2); // the header and every run, the new one included
   await expect(runs).toContainText("Hahn echo decay");
   await expect(runs).toContainText(/T2 = [\d.]+ ± [\d.]+ µs/);
-  await expect(runs.getByRole("link", { name: "version 1" })).toBeVisible();
+  await expect(runs.getByRole("link", { name: /^version \d+$/ }).first()).toBeVisible();
   await shoot(page, "fit-saved");
 
-  await saved.getByRole("link", { name: "derived version 1" }).click();
+  await derivedLink.click();
   await expect(page.getByRole("heading", { level: 1 })).toContainText("fit: Hahn echo decay");
   await page.goto(`/datasets/${echo!.id}`);
   await page.getByRole("link", { name: "Fit this version →" }).click();

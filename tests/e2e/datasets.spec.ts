@@ -104,7 +104,13 @@ test("a demo echo file shows the quick plot; the 2,000-row ODMR sweep pages thro
   await expect(plot).toContainText("tau (µs)");
   await expect(plot).toContainText("signal (norm)");
   expect((await plot.locator("path").getAttribute("d"))!.length).toBeGreaterThan(200);
-  await page.getByLabel("log x").check();
+  // Echo delays span decades: the time axis is logarithmic by default, and the switch beside it goes linear.
+  // (by role: the plot's own aria-label says "(log x)" too)
+  await expect(page.getByRole("radio", { name: "log x" })).toBeChecked();
+  await expect(plot).toHaveAttribute("aria-label", /\(log x\)/);
+  await page.getByRole("radio", { name: "linear x" }).check();
+  await expect(plot).not.toHaveAttribute("aria-label", /\(log x\)/);
+  await page.getByRole("radio", { name: "log x" }).check();
   await expect(plot).toHaveAttribute("aria-label", /\(log x\)/);
   await expect(page.getByRole("table", { name: /Column summary/ })).toContainText("tau");
   await shoot(page, "dataset");

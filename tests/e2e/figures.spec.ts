@@ -77,7 +77,7 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await expectRendered(page.getByTestId("preview"));
   await replaceInSpec(page, '"title": "coherence"', '"title": "echo amplitude"');
   await expect(page.getByTestId("preview").locator("svg.marks")).toContainText("echo amplitude");
-  await page.getByLabel("What changed (commit message)").fill("Echo with stretched-exponential fit; y axis named");
+  await page.getByLabel("Revision note").fill("Echo with stretched-exponential fit; y axis named");
   await page.getByRole("button", { name: "Save revision 1" }).click();
   await expect(page.getByRole("status").filter({ hasText: "Saved revision 1" })).toBeVisible();
   const current = page.getByRole("region", { name: "Current revision" });
@@ -100,7 +100,7 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await page.getByRole("button", { name: "Undo" }).click();
   await expect(page.getByTestId("spec-status")).toContainText("Valid Vega-Lite");
   await replaceInSpec(page, '"title": "echo amplitude"', '"title": "normalised echo"');
-  await page.getByLabel("What changed (commit message)").fill("y axis: normalised echo");
+  await page.getByLabel("Revision note").fill("y axis: normalised echo");
   await page.getByRole("button", { name: "Save as revision 2" }).click();
   await expect(page.getByRole("status").filter({ hasText: "Saved revision 2" })).toBeVisible();
   await expect(current).toContainText("Revision 2");
@@ -112,15 +112,25 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await expect(stale.getByRole("alert").filter({ hasText: "This panel changed since you opened it — reload" })).toBeVisible();
   await stale.close();
 
-  // Revisions: the list and the comparison of 1 and 2, as a diff and two renders.
+  // Revisions: the list and the comparison of 1 and 2, as changes in words, the JSON side by side on request, and two renders.
   await page.getByRole("tab", { name: "Revisions" }).click();
   const revisions = page.getByRole("table", { name: "Revisions" });
   await expect(revisions.getByRole("row")).toHaveCount(3);
   await expect(revisions).toContainText("y axis: normalised echo");
+  await expect(page.getByTestId("diff-summary")).toContainText("revision 1 → 2");
+  await expect(page.getByTestId("diff-summary")).toContainText("the data unchanged");
+  const changes = page.getByRole("list", { name: "Changes from revision 1 to 2" });
+  await expect(
+    changes.getByRole("listitem").filter({ hasText: /^~?axis title of y in layers? [\d, and]+ of plot 1: "echo amplitude" → "normalised echo"$/ }),
+  ).toHaveCount(1);
+  await expect(page.getByTestId("spec-diff")).toHaveCount(0);
+  const showJson = page.getByRole("button", { name: "Show the JSON side by side" });
+  await expect(showJson).toHaveAttribute("aria-expanded", "false");
+  await showJson.click();
+  await expect(page.getByRole("button", { name: "Hide the JSON" })).toHaveAttribute("aria-expanded", "true");
   const diff = page.getByTestId("spec-diff");
   await expect(diff.locator('[data-kind="removed"]').filter({ hasText: "echo amplitude" }).first()).toBeVisible();
   await expect(diff.locator('[data-kind="added"]').filter({ hasText: "normalised echo" }).first()).toBeVisible();
-  await expect(page.getByTestId("diff-summary")).toContainText("revision 1 → 2");
   const renders = page.getByTestId("compare-renders").getByTestId("panel-chart");
   await expect(renders).toHaveCount(2);
   await expectRendered(renders.nth(0));

@@ -50,7 +50,7 @@ async function figureWithPanel(page: Page, title: string, versionId: string): Pr
 const row = (page: Page, s: Scene) => page.getByRole("row").filter({ has: page.getByRole("cell", { name: `Figure ${s.number}`, exact: true }) });
 const figureRow = (page: Page, s: Scene) => page.getByTestId(`figure-row-${s.number}`);
 
-test.describe.serial("review: queue, board, activity and sign-off", () => {
+test.describe.serial("review: queue, figure status, activity and sign-off", () => {
   test("the author drafts two figures bound to a Hahn-echo version and names the reviewer", async ({ page }) => {
     await signIn(page, "author@lab.example.org");
     const { items } = (await api(page).get(`/api/manuscripts/${DEMO_MANUSCRIPT}/datasets`)) as {
@@ -101,7 +101,7 @@ test.describe.serial("review: queue, board, activity and sign-off", () => {
     await expect(row(page, b)).toHaveCount(0);
   });
 
-  test("the PI sees the sign-off waiting, reads the board and the activity, and signs off", async ({ page }) => {
+  test("the PI sees the sign-off waiting, reads the figure status and the activity, and signs off", async ({ page }) => {
     const { a, b, versionId } = scene as Required<typeof scene>;
     await signIn(page, "pi@lab.example.org");
     await page.goto("/review");
@@ -112,8 +112,8 @@ test.describe.serial("review: queue, board, activity and sign-off", () => {
     await expect(row(page, b)).toHaveCount(0);
     await signRow.getByRole("link", { name: /Coherence and proton NMR/ }).click();
 
-    await expect(page).toHaveURL(new RegExp(`/manuscripts/${DEMO_MANUSCRIPT}/board$`));
-    await expect(page.getByRole("heading", { level: 1, name: "Review board" })).toBeVisible();
+    await expect(page).toHaveURL(new RegExp(`/manuscripts/${DEMO_MANUSCRIPT}/status$`));
+    await expect(page.getByRole("heading", { level: 1, name: "Figure status" })).toBeVisible();
     await expect(page.getByRole("definition").filter({ hasText: "the PI signed off this exact version" })).toBeVisible();
     const rowA = figureRow(page, a);
     const rowB = figureRow(page, b);
@@ -134,7 +134,7 @@ test.describe.serial("review: queue, board, activity and sign-off", () => {
     await expect(page.locator("li code").first()).toHaveAttribute("title", /^entry hash [0-9a-f]{64}$/);
     await shoot(page, "activity");
 
-    await page.getByRole("link", { name: "Review board" }).click();
+    await page.getByRole("link", { name: "Figure status" }).click();
     const boxA = page.getByTestId(`signoff-box-${a.figureId}`);
     await boxA.getByRole("button", { name: "Sign off this figure" }).click();
     await expect(boxA.getByRole("status")).toContainText("Signed off hash");
@@ -142,7 +142,7 @@ test.describe.serial("review: queue, board, activity and sign-off", () => {
     await expect(boxA.getByRole("list", { name: "Sign-offs" })).toContainText("Mira Halvorsen signed off");
     await expect(boxA).toContainText("on the current version");
 
-    // Someone changes figure B while the PI looks at the board: the old hash is refused, then open issues need a reason.
+    // Someone changes figure B while the PI looks at the figure status: the old hash is refused, then open issues need a reason.
     const boxB = page.getByTestId(`signoff-box-${b.figureId}`);
     await expect(boxB).toContainText("signing off now asks for a reason");
     const changed = { ...SPEC, mark: "circle", title: "Hahn echo, annealed" };
@@ -179,7 +179,7 @@ test.describe.serial("review: queue, board, activity and sign-off", () => {
     await expect(boxA.getByRole("listitem").first()).toContainText("◇");
     await expect(rowA.getByTestId("panel-cell-a")).toContainText("revision 2");
     await expect(rowA.getByTestId("panel-cell-a").getByTestId("waiting-on")).toContainText("Ines Varga");
-    await shoot(page, "board");
+    await shoot(page, "figure-status");
 
     // The figure page renders the same sign-off box.
     const figurePage = await page.goto(`/figures/${b.figureId}`);
@@ -207,7 +207,7 @@ test.describe.serial("review: queue, board, activity and sign-off", () => {
       headers: { origin: new URL(page.url()).origin },
     });
     expect(refused.status()).toBe(400);
-    // The same markup as a decision note, which the activity log and the board print in words
+    // The same markup as a decision note, which the activity log and the figure status print in words
     // ("… asked for a revision: “<note>”"); the panel page shows the comment itself.
     await call.post(`/api/panels/${a.panelId}/approvals`, { revisionId, decision: "needs_revision", note: HOSTILE });
     const asked = `asked for a revision: “${HOSTILE}”`;
@@ -216,7 +216,7 @@ test.describe.serial("review: queue, board, activity and sign-off", () => {
     // fire onerror, and window.__xss was never set. Auto-waiting assertions only — no sleeps.
     const pages = [
       { path: `/manuscripts/${DEMO_MANUSCRIPT}/activity`, payload: () => page.getByText(asked) },
-      { path: `/manuscripts/${DEMO_MANUSCRIPT}/board`, payload: () => figureRow(page, a).getByTestId("panel-cell-a").getByText(asked) },
+      { path: `/manuscripts/${DEMO_MANUSCRIPT}/status`, payload: () => figureRow(page, a).getByTestId("panel-cell-a").getByText(asked) },
       { path: `/panels/${a.panelId}`, payload: () => page.getByTestId("comment").getByText(HOSTILE, { exact: true }) },
     ];
     for (const { path, payload } of pages) {
@@ -227,7 +227,9 @@ test.describe.serial("review: queue, board, activity and sign-off", () => {
       await expect(page.locator('img[src="x"]'), path).toHaveCount(0);
       expect(await page.evaluate(() => (window as unknown as { __xss?: unknown }).__xss), path).toBeUndefined();
     }
+    // The former address of the page still leads to it.
     await page.goto(`/manuscripts/${DEMO_MANUSCRIPT}/board`);
+    await expect(page).toHaveURL(new RegExp(`/manuscripts/${DEMO_MANUSCRIPT}/status$`));
     await expect(figureRow(page, a).getByTestId("panel-cell-a").getByTestId("open-threads")).toHaveText("1 open thread");
   });
 

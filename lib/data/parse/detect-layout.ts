@@ -112,7 +112,7 @@ export function detectLayout(text: string, opts: ParseOptions): Layout {
   if (d > 0) {
     let h = sample.lines[d - 1];
     header = splitHeaderFields(h.text, delimiter, width);
-    // Origin-style exports put the units in a row of their own below the names.
+    // Some plotting programs export the units in a row of their own, right below the column names.
     const names = d > 1 ? splitHeaderFields(sample.lines[d - 2].text, delimiter, header.length) : [];
     if (isUnitsRow(header) && names.length === header.length) {
       const units = header;

@@ -87,7 +87,13 @@ function describeRun(input: AnalysisInput, data: FitData, fit: ModelFitResult, c
     correlation: fit.correlation.map((r) => r.map(nullIfNaN)),
     points: data.x.length,
     units: { x: data.xUnit, y: data.yUnit },
-    data: { x: Array.from(data.x), y: Array.from(data.y), residuals: fit.residuals.map(nullIfNaN) },
+    // σ per point (the options' sigma column, same units as y) for the plot's error bars; null when unweighted.
+    data: {
+      x: Array.from(data.x),
+      y: Array.from(data.y),
+      sigma: data.sigma ? Array.from(data.sigma, nullIfNaN) : null,
+      residuals: fit.residuals.map(nullIfNaN),
+    },
     curve,
   };
 }

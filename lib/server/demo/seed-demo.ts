@@ -6,6 +6,7 @@ import { demoFiles } from "@/lib/demo-data";
 import { DEMO_ACCOUNTS, DEMO_LAB_ID, DEMO_MANUSCRIPT_ID, DEMO_PASSWORD, OTHER_LAB_ID, OTHER_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import { importDatasetFromBytes } from "../datasets/upload-dataset";
 import { hashPassword } from "../users";
+import { seedDemoStory } from "./demo-story";
 
 /** The demo lab, its people and manuscripts. Idempotent: a rerun keeps every existing row and only adds what is missing. */
 export async function seedDemo(): Promise<void> {
@@ -45,12 +46,19 @@ export async function seedDemo(): Promise<void> {
 
 /**
  * The demo lab, its people and manuscript, then the invented measurement files uploaded by the
- * demo author through the ordinary ingest path. Idempotent: files are only added to an empty manuscript.
+ * demo author through the ordinary ingest path, then the manuscript's review story (demo-story.ts).
+ * Idempotent: files are only added to an empty manuscript, the story only to one without figures.
+ * The API tests seed with `seedDemo` alone, which stays fast.
  */
-export async function seedDemoWithData(): Promise<{ filesAdded: number }> {
+export async function seedDemoWithData(): Promise<{ filesAdded: number; storyTold: boolean }> {
   await seedDemo();
   const [{ n } = { n: 0 }] = await getDb().select({ n: count() }).from(datasets).where(eq(datasets.manuscriptId, DEMO_MANUSCRIPT_ID));
-  if (n > 0) return { filesAdded: 0 };
+  const filesAdded = n > 0 ? 0 : await uploadDemoFiles();
+  const { told } = await seedDemoStory();
+  return { filesAdded, storyTold: told };
+}
+
+async function uploadDemoFiles(): Promise<number> {
   const author = DEMO_ACCOUNTS.find((a) => a.role === "author")!;
   const user = { id: author.id, email: author.email, name: author.name };
   const files = demoFiles();
@@ -60,5 +68,5 @@ export async function seedDemoWithData(): Promise<{ filesAdded: number }> {
       metadata: JSON.stringify({ kind: f.kind, sample: f.sample, instrument: f.instrument, measuredAt: f.measuredAt, notes: f.notes, tags: f.tags }),
     });
   }
-  return { filesAdded: files.length };
+  return files.length;
 }

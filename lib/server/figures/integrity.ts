@@ -144,7 +144,7 @@ export async function revisionWarnings(rev: { spec: unknown; bound: Record<strin
 }
 
 /**
- * Warnings for several revisions (the board, a figure), by revision id. A revision whose data
+ * Warnings for several revisions (the figure status page, a figure), by revision id. A revision whose data
  * cannot be read is left out here rather than failing the whole overview; its panel page, which
  * reads the same data, reports the error.
  */

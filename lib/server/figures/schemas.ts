@@ -47,6 +47,6 @@ export const revisionInput = z.object({
     .refine((b) => Object.keys(b).length <= 100, "at most 100 bindings")
     .default({}),
   baseRevisionId: z.string().min(1).max(ID_MAX).nullable(),
-  message: z.string().trim().max(2000).default(""),
+  message: z.string().trim().max(2000).default("").describe("The revision note: what changed and why, for the co-authors"),
 });
 export type RevisionInput = z.infer<typeof revisionInput>;

@@ -22,7 +22,7 @@ describe("files as instruments write them", () => {
     expect(t.headerLines).toHaveLength(5);
   });
 
-  it("a units row under the names (Origin style)", () => {
+  it("a units row under the names", () => {
     const t = parse("time,counts,label\nus,[kcps],\n1,2,a\n3,4,b\n");
     expect(t.columns.map((c) => [c.name, c.unit, c.sourceHeader])).toEqual([
       ["time", "µs", "time (us)"],

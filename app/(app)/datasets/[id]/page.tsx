@@ -72,7 +72,7 @@ export default async function DatasetPage({ params, searchParams }: { params: Pr
               </p>
               <Sheet>
                 <h3 className="mb-3 text-sm font-semibold">Quick plot</h3>
-                <QuickPlotPanel version={selected} />
+                <QuickPlotPanel version={selected} kind={d.kind} />
               </Sheet>
               <div>
                 <h3 className="mb-2 text-sm font-semibold">Column summary</h3>

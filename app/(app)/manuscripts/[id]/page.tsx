@@ -18,8 +18,8 @@ export default async function ManuscriptPage({ params }: { params: Promise<{ id:
         }
         actions={
           <>
-            <Link href={`/manuscripts/${m.id}/board`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
-              Board
+            <Link href={`/manuscripts/${m.id}/status`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+              Figure status
             </Link>
             <Link href={`/manuscripts/${m.id}/activity`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
               Activity

@@ -4,6 +4,8 @@ import Link from "next/link";
 import { useState, type FormEvent } from "react";
 import { sendJson } from "@/components/api-client";
 import { queryKeys, type FigureView } from "@/components/figures/api";
+import { PanelThumbnail } from "@/components/figures/figure-thumbnail";
+import { ReviewStateBadge } from "@/components/figures/review-state";
 import { Button, Field, Select, TextInput } from "@/components/ui";
 
 /** Add a panel and change the order (letters follow the order). */
@@ -39,10 +41,16 @@ export function PanelManager({ figure, editable }: { figure: FigureView; editabl
         {figure.panels.map((p, i) => (
           <li key={p.id} className="flex items-center gap-2 py-1.5">
             <b className="w-5">{p.letter}</b>
-            <Link href={`/panels/${p.id}`} className="min-w-0 flex-1 truncate underline">
-              {p.title || "untitled"}
-            </Link>
-            <span className="text-xs text-muted">{p.colSpan > 1 ? `spans ${p.colSpan}` : ""}</span>
+            <PanelThumbnail panel={p} width={72} height={48} />
+            <span className="flex min-w-0 flex-1 flex-col items-start gap-0.5">
+              <Link href={`/panels/${p.id}`} className="max-w-full truncate underline">
+                {p.title || "untitled"}
+              </Link>
+              <span className="flex items-center gap-1.5 text-xs text-muted">
+                <ReviewStateBadge state={p.reviewState} />
+                {p.colSpan > 1 ? `spans ${p.colSpan}` : ""}
+              </span>
+            </span>
             {editable ? (
               <span className="flex gap-1">
                 <button

@@ -22,8 +22,8 @@ export default async function ManuscriptActivityPage({ params }: { params: Promi
           </Link>
         }
         actions={
-          <Link href={`/manuscripts/${id}/board`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
-            Review board
+          <Link href={`/manuscripts/${id}/status`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+            Figure status
           </Link>
         }
       />

@@ -1,5 +1,5 @@
 import { PageSkeleton } from "@/components/page-states";
 
-export default function ManuscriptBoardLoading() {
-  return <PageSkeleton what="the review board" />;
+export default function FigureStatusLoading() {
+  return <PageSkeleton what="the figure status" />;
 }

@@ -4,15 +4,15 @@ import { PageHeader } from "@/components/ui";
 import { manuscriptActivity } from "@/lib/server/review/activity";
 import { BackToManuscript, loadManuscriptPage } from "../_components/manuscript-page";
 
-export const metadata = { title: "Review board" };
+export const metadata = { title: "Figure status" };
 
-export default async function ManuscriptBoardPage({ params }: { params: Promise<{ id: string }> }) {
+export default async function FigureStatusPage({ params }: { params: Promise<{ id: string }> }) {
   const { user, id, manuscript: m } = await loadManuscriptPage(params);
   const activity = await manuscriptActivity(user, id);
   return (
     <>
       <PageHeader
-        title="Review board"
+        title="Figure status"
         subtitle={<BackToManuscript manuscript={m} />}
         actions={
           <>

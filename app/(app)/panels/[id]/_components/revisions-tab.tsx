@@ -8,7 +8,7 @@ import { shortHash } from "@/lib/data/format";
 import { RevisionCompare } from "./revision-compare";
 import { RelativeTime } from "@/components/review/relative-time";
 
-/** The chain of revisions, newest first; any two compared as a spec diff and two renders. */
+/** The chain of revisions, newest first; any two compared: the changes in words, the JSON side by side on request, and two renders. */
 export function RevisionsTab({ panelId, widthMm }: { panelId: string; widthMm: number }) {
   const list = useQuery({
     queryKey: queryKeys.revisions(panelId),
@@ -30,7 +30,7 @@ export function RevisionsTab({ panelId, widthMm }: { panelId: string; widthMm: n
         <thead className="text-xs text-muted">
           <tr>
             <th className="py-1">#</th>
-            <th>Message</th>
+            <th>Revision note</th>
             <th>Author</th>
             <th>When</th>
             <th>Content hash</th>
@@ -40,7 +40,7 @@ export function RevisionsTab({ panelId, widthMm }: { panelId: string; widthMm: n
           {items.map((r) => (
             <tr key={r.id} className="border-t border-rule align-top">
               <td className="py-1.5 pr-2 font-semibold tabular">{r.number}</td>
-              <td className="pr-2">{r.message || <span className="text-muted">(no message)</span>}</td>
+              <td className="pr-2">{r.message || <span className="text-muted">(no note)</span>}</td>
               <td className="pr-2">{r.createdByName}</td>
               <td className="pr-2 whitespace-nowrap" title={String(r.createdAt)}>
                 <RelativeTime at={r.createdAt} />

@@ -141,7 +141,7 @@ export function SpecEditorTab({
               save.mutate();
             }}
           >
-            <Field label="What changed (commit message)">
+            <Field label="Revision note" hint="What changed and why, for your co-authors.">
               <TextInput value={message} onChange={(e) => setMessage(e.target.value)} placeholder="e.g. axis title with units" />
             </Field>
             <div className="flex items-center gap-3">
