@@ -44,28 +44,8 @@ export function QuickPlotPanel({ version, kind }: { version: VersionView; kind?:
   return (
     <div>
       <div className="mb-3 flex flex-wrap items-end gap-3">
-        <div className="w-44">
-          <Field label="x axis">
-            <Select value={x} onChange={(e) => setX(e.target.value)}>
-              {numeric.map((c) => (
-                <option key={c.name} value={c.name}>
-                  {axisTitle(c.name, c.unit)}
-                </option>
-              ))}
-            </Select>
-          </Field>
-        </div>
-        <div className="w-44">
-          <Field label="y axis">
-            <Select value={y} onChange={(e) => setY(e.target.value)}>
-              {numeric.map((c) => (
-                <option key={c.name} value={c.name}>
-                  {axisTitle(c.name, c.unit)}
-                </option>
-              ))}
-            </Select>
-          </Field>
-        </div>
+        <ColumnPicker label="x axis" columns={numeric} value={x} onChange={setX} />
+        <ColumnPicker label="y axis" columns={numeric} value={y} onChange={setY} />
         <fieldset className="text-sm">
           <legend className="mb-1 font-medium">x scale</legend>
           <div className="inline-flex overflow-hidden rounded-sm border border-rule" data-testid="x-scale">
@@ -120,6 +100,32 @@ export function QuickPlotPanel({ version, kind }: { version: VersionView; kind?:
           ) : null}
         </p>
       ) : null}
+    </div>
+  );
+}
+
+function ColumnPicker({
+  label,
+  columns,
+  value,
+  onChange,
+}: {
+  label: string;
+  columns: Array<{ name: string; unit: string | null }>;
+  value: string;
+  onChange: (name: string) => void;
+}) {
+  return (
+    <div className="w-44">
+      <Field label={label}>
+        <Select value={value} onChange={(e) => onChange(e.target.value)}>
+          {columns.map((c) => (
+            <option key={c.name} value={c.name}>
+              {axisTitle(c.name, c.unit)}
+            </option>
+          ))}
+        </Select>
+      </Field>
     </div>
   );
 }

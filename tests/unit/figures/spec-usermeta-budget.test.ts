@@ -1,28 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { checkSpecSecurity } from "@/lib/figures/spec-security";
-import { validateSpec, type SpecError } from "@/lib/figures/validate-spec";
-
-const unit = (extra: Record<string, unknown> = {}) => ({
-  $schema: "https://vega.github.io/schema/vega-lite/v6.json",
-  data: { name: "echo" },
-  mark: "point",
-  encoding: { x: { field: "tau", type: "quantitative" }, y: { field: "signal", type: "quantitative" } },
-  ...extra,
-});
-
-function errorsOf(spec: unknown): SpecError[] {
-  const r = validateSpec(spec);
-  expect(r.ok, JSON.stringify(r)).toBe(false);
-  return r.ok ? [] : r.errors;
-}
-
-function expectError(spec: unknown, path: string, message: RegExp): void {
-  const errors = errorsOf(spec);
-  expect(
-    errors.some((e) => e.path === path && message.test(e.message)),
-    JSON.stringify(errors, null, 1),
-  ).toBe(true);
-}
+import { validateSpec } from "@/lib/figures/validate-spec";
+import { errorsOf, expectError, unit } from "./spec-test-helpers";
 
 describe("usermeta cannot carry vega-embed options (stored XSS through the reviewer's browser)", () => {
   it("refuses usermeta.embedOptions with actions, i18n, a <script> sourceHeader, a patch and an editor URL", () => {

@@ -1,29 +1,8 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { FIGURE_TEMPLATES } from "@/lib/figures/templates";
-import { MAX_SPEC_BYTES, validateSpec, type SpecError } from "@/lib/figures/validate-spec";
-
-const unit = (extra: Record<string, unknown> = {}) => ({
-  $schema: "https://vega.github.io/schema/vega-lite/v6.json",
-  data: { name: "echo" },
-  mark: "point",
-  encoding: { x: { field: "tau", type: "quantitative" }, y: { field: "signal", type: "quantitative" } },
-  ...extra,
-});
-
-function errorsOf(spec: unknown): SpecError[] {
-  const r = validateSpec(spec);
-  expect(r.ok, JSON.stringify(r)).toBe(false);
-  return r.ok ? [] : r.errors;
-}
-
-function expectError(spec: unknown, path: string, message: RegExp): void {
-  const errors = errorsOf(spec);
-  expect(
-    errors.some((e) => e.path === path && message.test(e.message)),
-    JSON.stringify(errors, null, 1),
-  ).toBe(true);
-}
+import { MAX_SPEC_BYTES, validateSpec } from "@/lib/figures/validate-spec";
+import { errorsOf, expectError, unit } from "./spec-test-helpers";
 
 describe("validateSpec: good specs", () => {
   it("accepts a plain unit spec and reports the data names to bind", () => {

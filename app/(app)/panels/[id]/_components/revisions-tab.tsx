@@ -58,30 +58,8 @@ export function RevisionsTab({ panelId, widthMm }: { panelId: string; widthMm: n
         <section aria-label="Compare revisions">
           <div className="mb-3 flex flex-wrap items-end gap-3">
             <h3 className="text-sm font-semibold">Compare</h3>
-            <label className="text-sm">
-              from{" "}
-              <span className="inline-block w-36">
-                <Select aria-label="Compare from" value={older} onChange={(e) => setA(e.target.value)}>
-                  {items.map((r) => (
-                    <option key={r.id} value={r.id}>
-                      revision {r.number}
-                    </option>
-                  ))}
-                </Select>
-              </span>
-            </label>
-            <label className="text-sm">
-              to{" "}
-              <span className="inline-block w-36">
-                <Select aria-label="Compare to" value={newer} onChange={(e) => setB(e.target.value)}>
-                  {items.map((r) => (
-                    <option key={r.id} value={r.id}>
-                      revision {r.number}
-                    </option>
-                  ))}
-                </Select>
-              </span>
-            </label>
+            <RevisionPicker word="from" items={items} value={older} onChange={setA} />
+            <RevisionPicker word="to" items={items} value={newer} onChange={setB} />
           </div>
           {left.data && right.data ? <RevisionCompare a={left.data} b={right.data} widthMm={widthMm} /> : <p className="text-sm text-muted">loading…</p>}
         </section>
@@ -97,4 +75,31 @@ function useRevision(id: string) {
     enabled: Boolean(id),
     staleTime: Infinity,
   });
+}
+
+function RevisionPicker({
+  word,
+  items,
+  value,
+  onChange,
+}: {
+  word: string;
+  items: Array<{ id: string; number: number }>;
+  value: string;
+  onChange: (id: string) => void;
+}) {
+  return (
+    <label className="text-sm">
+      {word}{" "}
+      <span className="inline-block w-36">
+        <Select aria-label={`Compare ${word}`} value={value} onChange={(e) => onChange(e.target.value)}>
+          {items.map((r) => (
+            <option key={r.id} value={r.id}>
+              revision {r.number}
+            </option>
+          ))}
+        </Select>
+      </span>
+    </label>
+  );
 }
