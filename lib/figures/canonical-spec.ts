@@ -36,7 +36,8 @@ function sortKeys(value: unknown, seen: Set<object>, path: string): unknown {
     out = value.map((v, i) => (v === undefined ? null : sortKeys(v, seen, `${path}[${i}]`)));
   } else {
     const src = value as Record<string, unknown>;
-    const sorted: Record<string, unknown> = {};
+    // No prototype: a "__proto__" key is kept as data, not turned into a prototype and lost from the hash.
+    const sorted = Object.create(null) as Record<string, unknown>;
     for (const key of Object.keys(src).sort()) {
       const v = src[key];
       if (v !== undefined) sorted[key] = sortKeys(v, seen, `${path}.${key}`);

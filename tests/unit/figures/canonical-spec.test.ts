@@ -53,6 +53,10 @@ describe("canonical JSON and content hash", () => {
     );
   });
 
+  it("keeps a __proto__ key as data (found by the property above)", () => {
+    expect(canonicalJson(JSON.parse('{"__proto__":null,"a":1}'))).toBe('{"__proto__":null,"a":1}');
+  });
+
   it("does not depend on key order", () => {
     const a = { mark: "point", data: { name: "echo" }, encoding: { y: { field: "s" }, x: { field: "t" } } };
     const b = { encoding: { x: { field: "t" }, y: { field: "s" } }, data: { name: "echo" }, mark: "point" };
