@@ -31,8 +31,8 @@ export const MAX_VIEWS = 200;
 
 export const fmt = (n: number) => n.toLocaleString("en", { maximumFractionDigits: 6 });
 /** How many values start..stop by step gives (a hair of tolerance for decimal steps such as 0.1). */
-export const countOf = (start: number, stop: number, step: number) => Math.max(0, Math.ceil((stop - start) / step - 1e-9));
-export const isNum = (v: unknown): v is number => typeof v === "number" && Number.isFinite(v);
+const countOf = (start: number, stop: number, step: number) => Math.max(0, Math.ceil((stop - start) / step - 1e-9));
+const isNum = (v: unknown): v is number => typeof v === "number" && Number.isFinite(v);
 
 const SIZE_KEYS = new Set(["width", "height", "continuousWidth", "continuousHeight", "discreteWidth", "discreteHeight"]);
 const STEP_KEYS = new Set(["steps", "minsteps", "maxsteps"]);
