@@ -3,3 +3,4 @@ export * from "./tables/people";
 export * from "./tables/data";
 export * from "./tables/figures";
 export * from "./tables/review";
+export * from "./tables/mail";

@@ -34,6 +34,8 @@ const schema = z.object({
     .positive()
     .default(1024 * 1024),
   COMMENTS_PER_MINUTE: z.coerce.number().int().positive().default(30),
+  /** Review notices to one person within this many seconds of the first go out as one mail. */
+  MAIL_COALESCE_SECONDS: z.coerce.number().int().min(0).max(86_400).default(60),
 });
 
 function load() {
@@ -77,6 +79,7 @@ function load() {
     uploadsInTotal: e.UPLOADS_IN_TOTAL,
     jsonBodyMaxBytes: e.JSON_BODY_MAX_BYTES,
     commentsPerMinute: e.COMMENTS_PER_MINUTE,
+    mailCoalesceMs: e.MAIL_COALESCE_SECONDS * 1000,
     secureCookies: appUrl.startsWith("https://"),
   };
 }

@@ -1,5 +1,5 @@
 "use client";
-import { useEffect, useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { ApiError } from "@/components/api-client";
 import { describeAnchor } from "@/components/figures/format";
 import { CommentBox } from "./comment-box";
@@ -30,10 +30,21 @@ export function ThreadItem({
 }) {
   const [replying, setReplying] = useState(false);
   const [error, setError] = useState<string | null>(null);
+  const self = useRef<HTMLLIElement>(null);
+  // A mail's link names the thread (#thread-<id>); threads arrive after the page, so scroll once this one is there.
+  useEffect(() => {
+    if (window.location.hash === `#thread-${thread.id}`) self.current?.scrollIntoView({ block: "start" });
+  }, [thread.id]);
   const resolved = thread.status === "resolved";
   const older = currentRevisionNumber !== null && thread.revisionNumber !== currentRevisionNumber;
   return (
-    <li className={`rounded-sm border bg-sheet p-3 ${resolved ? "border-rule opacity-80" : "border-rule"}`} data-testid="thread" aria-label={`Thread ${index}`}>
+    <li
+      ref={self}
+      id={`thread-${thread.id}`}
+      className={`scroll-mt-4 rounded-sm border bg-sheet p-3 ${resolved ? "border-rule opacity-80" : "border-rule"}`}
+      data-testid="thread"
+      aria-label={`Thread ${index}`}
+    >
       <div className="mb-2 flex flex-wrap items-center gap-x-2 gap-y-1 text-xs">
         <span className="rounded-sm bg-[#fbefe6] px-1.5 font-semibold text-[#a34700]">#{index}</span>
         <span data-testid="thread-anchor">{describeAnchor(thread.anchor)}</span>

@@ -165,6 +165,8 @@ export const mailOutbox = sqliteTable(
     subject: text("subject").notNull(),
     text: text("text_body").notNull(),
     html: text("html_body"),
+    /** Extra headers for the message (List-Unsubscribe and List-Unsubscribe-Post on notices). */
+    headers: text("headers", { mode: "json" }).$type<Record<string, string>>(),
     status: text("status", { enum: ["pending", "sending", "sent", "failed"] })
       .notNull()
       .default("pending"),

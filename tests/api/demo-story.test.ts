@@ -3,7 +3,8 @@
 // what, the mails and the activity it leaves, and that a second run adds nothing.
 import { beforeAll, describe, expect, it } from "vitest";
 import { getClient, getDb } from "@/db/client";
-import { mailOutbox } from "@/db/schema";
+import { asc, eq } from "drizzle-orm";
+import { mailOutbox, notices, users } from "@/db/schema";
 import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import { seedDemoWithData } from "@/lib/server/demo/seed-demo";
 import * as activity from "@/app/api/manuscripts/[id]/activity/route";
@@ -175,11 +176,46 @@ describe("the demo story", () => {
       "figure.signoff": 1,
     });
     expect(log.find((e) => e.action === "figure.signoff")!.actor).toBe("Mira Halvorsen");
+    // Each event's notice, to everyone it concerns but the one who acted.
+    const told = await getDb()
+      .select({ to: users.email, kind: notices.kind, headline: notices.headline })
+      .from(notices)
+      .innerJoin(users, eq(users.id, notices.userId))
+      .orderBy(asc(notices.createdAt));
+    const of = (to: string) => told.filter((n) => n.to === to).map((n) => `${n.kind}: ${n.headline}`);
+    expect(of("author@lab.example.org")).toEqual([
+      "approved: Figure 1a approved by Ines Varga",
+      "approved: Figure 1b approved by Ines Varga",
+      "approved: Figure 1c approved by Ines Varga",
+      "signed_off: Figure 1 signed off",
+      "approved: Figure 2a approved by Ines Varga",
+      "mention: Ines Varga mentioned you on Figure 2b",
+      "needs_revision: Figure 2b needs revision",
+      "approved: Figure 3a approved by Ines Varga",
+      "approved: Figure 3b approved by Ines Varga",
+    ]);
+    expect(of("reviewer@partner.example.org")).toEqual([
+      "review_requested: Review requested: Figure 1a",
+      "review_requested: Review requested: Figure 1b",
+      "review_requested: Review requested: Figure 1c",
+      "signed_off: Figure 1 signed off",
+      "review_requested: Review requested: Figure 2a",
+      "review_requested: Review requested: Figure 2b",
+      "review_requested: Review requested: Figure 2c",
+      "mention: Tomás Ekberg mentioned you on Figure 2b",
+      "review_requested: Review requested: Figure 3a",
+      "review_requested: Review requested: Figure 3b",
+      "approval_stale: Your approval of Figure 3b went stale",
+    ]);
+    expect(of("pi@lab.example.org")).toEqual(["signoff_due: Figure 1 is ready for sign-off", "signoff_due: Figure 3 is ready for sign-off"]);
+    expect(of("viewer@lab.example.org")).toEqual(["signed_off: Figure 1 signed off"]);
+    // One mail per person, every notice in it.
     const mails = await getDb().select({ kind: mailOutbox.kind, to: mailOutbox.to, subject: mailOutbox.subject }).from(mailOutbox);
-    expect(mails.map((m) => `${m.kind} → ${m.to}: ${m.subject}`).sort()).toEqual([
-      "mention → author@lab.example.org: Ines Varga mentioned you",
-      "mention → reviewer@partner.example.org: Tomás Ekberg mentioned you",
-      "needs_revision → author@lab.example.org: A panel needs revision",
+    expect(mails.map((m) => `${m.kind} → ${m.to}: ${m.subject.slice(0, 90)}`).sort()).toEqual([
+      "notices → author@lab.example.org: 9 updates on Coherence and proton NMR of shallow NV centres…: Figure 1a approved by Ines V",
+      "notices → pi@lab.example.org: 2 updates on Coherence and proton NMR of shallow NV centres…: Figure 1 is ready for sign-o",
+      "notices → reviewer@partner.example.org: 11 updates on Coherence and proton NMR of shallow NV centres…: Review requested: Figure 1a",
+      "signed_off → viewer@lab.example.org: Figure 1 signed off — Coherence and proton NMR of shallow NV centres…",
     ]);
   });
 });

@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { comments, mailOutbox } from "@/db/schema";
+import { comments, notices } from "@/db/schema";
 import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import { plainDoc } from "@/lib/review/rich-text";
 import { verifyAuditChain } from "@/lib/server/audit";
@@ -120,8 +120,8 @@ describe("the review journey", () => {
     expect(bare.status).toBe(400);
     expect(bare.json.error.message).toMatch(/^reason: open issues \(panel a is needs revision\)/);
     expect((await post(signoff.POST, "pi", { id: fid }, { figureHash: f.figureHash, reason: "units fixed in caption" })).status).toBe(201);
-    const mail = await getDb().select().from(mailOutbox).where(eq(mailOutbox.kind, "needs_revision"));
-    expect(mail.map((x) => x.to)).toContain("author@lab.example.org");
+    const told = await getDb().select().from(notices).where(eq(notices.kind, "needs_revision"));
+    expect(told.map((x) => x.userId)).toContain("demo-author");
   });
 });
 
@@ -165,8 +165,8 @@ describe("comments", () => {
     };
     const t = await post(threads.POST, "reviewer", { id: panelId }, { body, revisionId: rev1.id });
     expect(t.status).toBe(201);
-    const mails = await getDb().select().from(mailOutbox).where(eq(mailOutbox.kind, "mention"));
-    expect(mails.map((m) => m.to)).toContain("author@lab.example.org");
+    const told = await getDb().select().from(notices).where(eq(notices.kind, "mention"));
+    expect(told.map((m) => m.userId)).toContain("demo-author");
     const q = (await call(queue.GET, { token: tokens.author })).json.items;
     expect(q).toEqual(expect.arrayContaining([expect.objectContaining({ kind: "mention", panelId })]));
     const stranger = await post(

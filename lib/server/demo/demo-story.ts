@@ -17,6 +17,8 @@ import { importDatasetFromBytes } from "../datasets/upload-dataset";
 import { addPanel } from "../figures/panels";
 import { createFigure, getFigure, updateFigure } from "../figures/figures";
 import { createRevision } from "../figures/revisions";
+import { env } from "@/lib/env";
+import { flushNotices } from "../mail/notices";
 import { deliverOutbox } from "../mail/outbox";
 import { recordDecision, signOffFigure } from "../review/decisions";
 import { createThread, replyToThread } from "../review/threads";
@@ -208,8 +210,9 @@ export async function seedDemoStory(): Promise<{ told: boolean; reason?: string 
     message: `Rebind “spectrum” to ${spectrum.file.name} version ${spectrumV2.number}`,
   });
 
-  // The mails these events queued (needs revision, two mentions) leave through the outbox now if a
-  // mail server listens, otherwise the app's outbox worker sends them once it runs.
+  // The notices these events wrote go out now, one mail per person (as the outbox worker would send
+  // them a minute later), through the outbox if a mail server listens, otherwise once the worker runs.
+  await flushNotices(Date.now() + env().mailCoalesceMs);
   await deliverOutbox().catch(() => 0);
   return { told: true };
 }

@@ -12,6 +12,8 @@ import { resolveBindings, revisionContentHash } from "./bindings";
 import { fieldProblems } from "./integrity";
 import { revisionInput, type RevisionInput } from "./schemas";
 import { manuscriptOfPanel } from "./scope";
+import { noticeNewRevision } from "../review/review-notices";
+import { describeChanges } from "../review/what-changed";
 
 /**
  * A new immutable revision. `baseRevisionId` must be the current one (null for the first);
@@ -46,6 +48,7 @@ export async function createRevision(user: SessionUser, panelId: string, raw: Re
   const spec = JSON.parse(canonicalJson(input.spec)) as unknown;
   const contentHash = revisionContentHash(spec, bound);
   const id = newId();
+  const [previous] = input.baseRevisionId ? await getDb().select().from(revisions).where(eq(revisions.id, input.baseRevisionId)) : [];
   await getDb().transaction(async (tx) => {
     const [p] = await tx.select().from(panels).where(eq(panels.id, panelId));
     if ((p.currentRevisionId ?? null) !== input.baseRevisionId)
@@ -81,6 +84,8 @@ export async function createRevision(user: SessionUser, panelId: string, raw: Re
       target: `revision:${id}`,
       data: { panelId, contentHash, number: (n ?? 0) + 1, message: input.message },
     });
+    const [rev] = await tx.select().from(revisions).where(eq(revisions.id, id));
+    await noticeNewRevision(tx, user, rev, previous ?? null, previous ? await describeChanges(previous, rev) : []);
   });
   return getRevision(user, id);
 }

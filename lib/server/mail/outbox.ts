@@ -1,37 +1,13 @@
 import "server-only";
 import { and, asc, eq, lte, or, lt, isNull } from "drizzle-orm";
 import nodemailer, { type Transporter } from "nodemailer";
-import type { Executor } from "@/db/client";
 import { getDb } from "@/db/client";
 import { mailOutbox } from "@/db/schema";
 import { env } from "@/lib/env";
-import { newId } from "../crypto";
-
-export interface MailMessage {
-  kind: string;
-  to: string;
-  subject: string;
-  text: string;
-  html?: string;
-}
+import { flushNotices } from "./notices";
 
 const MAX_ATTEMPTS = 8;
 const LEASE_MS = 60_000;
-
-/** Written in the caller's transaction, so a mail exists exactly when the event that caused it does. */
-export async function enqueueMail(tx: Executor, m: MailMessage): Promise<string> {
-  const id = newId();
-  await tx.insert(mailOutbox).values({
-    id,
-    kind: m.kind,
-    to: m.to,
-    subject: m.subject,
-    text: m.text,
-    html: m.html ?? null,
-    nextAttemptAt: new Date(),
-  });
-  return id;
-}
 
 let transporter: Transporter | undefined;
 function transport(): Transporter {
@@ -73,6 +49,7 @@ export function deliverOutbox(): Promise<number> {
 }
 
 async function deliverAll(): Promise<number> {
+  await flushNotices();
   let sent = 0;
   for (;;) {
     const msg = await claimNext(Date.now());
@@ -84,6 +61,7 @@ async function deliverAll(): Promise<number> {
         subject: msg.subject,
         text: msg.text,
         html: msg.html ?? undefined,
+        headers: msg.headers ?? undefined,
         messageId: `<${msg.id}@prooflight.localhost>`,
       });
       await getDb()

@@ -2,7 +2,9 @@ import "server-only";
 import { env } from "@/lib/env";
 import { ROLE_LABELS } from "@/lib/authz/policy";
 import type { Role } from "@/db/schema";
-import type { MailMessage } from "./outbox";
+import type { MailMessage } from "./enqueue";
+import { NOTICE_KINDS, NOTICE_LABELS, type NoticeKind } from "./notice-kinds";
+import { unsubscribeToken } from "./unsubscribe";
 
 const escapeHtml = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 
@@ -41,4 +43,65 @@ export function invitationMail(to: string, token: string, inviter: string, manus
     text: `${lines.join("\n\n")}\n\nAccept: ${href}\n`,
     html: layout("You are invited to review figures", lines, { href, label: "Accept the invitation" }),
   };
+}
+
+interface NoticeRow {
+  kind: string;
+  subject: string;
+  headline: string;
+  body: string;
+  href: string;
+  manuscriptId: string | null;
+}
+
+/**
+ * One person's pending review notices as one mail: alone, the notice's own subject; several, how
+ * many and what they are about. Each is listed with its link; the footer and the List-Unsubscribe
+ * headers (RFC 2369, one-click per RFC 8058) turn off the kinds this mail carries.
+ */
+export function noticesMail(to: string, userId: string, items: NoticeRow[]): MailMessage {
+  const base = env().appUrl;
+  const kinds = [...new Set(items.map((i) => i.kind))].filter((k): k is NoticeKind => (NOTICE_KINDS as readonly string[]).includes(k));
+  const token = unsubscribeToken(userId, kinds);
+  const page = `${base}/unsubscribe?token=${encodeURIComponent(token)}`;
+  const oneClick = `${base}/api/unsubscribe?token=${encodeURIComponent(token)}`;
+  const settings = `${base}/settings/mail`;
+  const what = kinds.map((k) => NOTICE_LABELS[k]).join(", ");
+  const single = items.length === 1;
+  const subject = single ? items[0].subject : severalSubject(items);
+  const text = [
+    ...items.map((i) => `${single ? "" : "• "}${i.headline}\n${i.body}\nOpen: ${i.href}\n`),
+    `—\nStop mails about ${what}: ${page}\nChoose which mails you get: ${settings}\n`,
+  ].join("\n");
+  const html = `<!doctype html><html><body style="font-family:Inter,Arial,sans-serif;color:#1f2328;background:#f7f5f0;padding:24px">
+<div style="max-width:560px;margin:auto;background:#fff;border:1px solid #ddd8cc;padding:24px">
+<h1 style="font-size:18px;margin:0 0 16px">${escapeHtml(single ? items[0].headline : subject)}</h1>
+${items
+  .map(
+    (i) => `<div style="margin:0 0 20px">${single ? "" : `<h2 style="font-size:15px;margin:0 0 8px">${escapeHtml(i.headline)}</h2>`}
+${i.body
+  .split("\n")
+  .map((l) => `<p style="margin:0 0 8px">${escapeHtml(l)}</p>`)
+  .join("")}
+<p style="margin:0"><a href="${escapeHtml(i.href)}" style="color:#1d4e89">Open it in Prooflight</a> <span style="font-size:12px;color:#555">(${escapeHtml(i.href)})</span></p></div>`,
+  )
+  .join("\n")}
+<p style="font-size:12px;color:#555;border-top:1px solid #ddd8cc;padding-top:12px"><a href="${escapeHtml(page)}" style="color:#555">Stop mails about ${escapeHtml(what)}</a> · <a href="${escapeHtml(settings)}" style="color:#555">Choose which mails you get</a></p>
+</div></body></html>`;
+  return {
+    kind: single ? items[0].kind : "notices",
+    to,
+    subject,
+    text,
+    html,
+    headers: { "List-Unsubscribe": `<${oneClick}>`, "List-Unsubscribe-Post": "List-Unsubscribe=One-Click" },
+  };
+}
+
+function severalSubject(items: NoticeRow[]): string {
+  const manuscripts = new Set(items.map((i) => i.manuscriptId));
+  const about = items.map((i) => i.headline).join("; ");
+  const where = manuscripts.size === 1 ? ` on ${items[0].subject.split(" — ").at(-1)}` : "";
+  const s = `${items.length} updates${where}: ${about}`;
+  return s.length > 200 ? `${s.slice(0, 199).trimEnd()}…` : s;
 }

@@ -7,11 +7,10 @@ import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
 import { badRequest, conflict, forbidden, notFound } from "@/lib/errors";
-import { enqueueMail } from "../mail/outbox";
 import { manuscriptOfFigure, manuscriptOfPanel } from "../figures/scope";
 import { loadReviewContext } from "./review-context";
 import { decisionInput, signoffInput } from "./schemas";
-import { reviewMail } from "./review-mail";
+import { noticeDecision, noticeSignoff } from "./review-notices";
 
 /**
  * A review decision on a revision's content hash. Reviewers, the PI and authors other than the
@@ -29,6 +28,7 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
     if (p.currentRevisionId !== rev.id)
       throw conflict(`Revision ${rev.number} is no longer current; review the current revision instead.`, { currentRevisionId: p.currentRevisionId });
     if (rev.createdBy === user.id) throw forbidden("You made this revision; someone else must review it.");
+    const [before] = await loadReviewContext({ figureId: p.figureId }, tx);
     await tx
       .insert(decisions)
       .values({ id, panelId, revisionId: rev.id, contentHash: rev.contentHash, decision: input.decision, note: input.note ?? "", userId: user.id });
@@ -39,7 +39,8 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
       target: `panel:${panelId}`,
       data: { revisionId: rev.id, contentHash: rev.contentHash, note: input.note ?? "", ...(input.acknowledgedWarnings ? { acknowledgedWarnings: true } : {}) },
     });
-    if (input.decision === "needs_revision") await enqueueMail(tx, await reviewMail.needsRevision(rev.createdBy, user, panelId, input.note ?? ""));
+    const [after] = await loadReviewContext({ figureId: p.figureId }, tx);
+    await noticeDecision(tx, user, rev, input.decision, input.note ?? "", { before: before, after: after });
   });
   return { id, panelId, revisionId: input.revisionId, decision: input.decision };
 }
@@ -66,6 +67,7 @@ export async function signOffFigure(user: SessionUser, figureId: string, raw: z.
       target: `figure:${figureId}`,
       data: { figureHash: input.figureHash, reason: input.reason ?? "", open },
     });
+    await noticeSignoff(tx, user, figureId, input.reason ?? "");
   });
   return { id, figureId, figureHash: input.figureHash, openIssues: open };
 }

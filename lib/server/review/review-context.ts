@@ -1,14 +1,16 @@
 import "server-only";
 import { asc, desc, eq, inArray } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Executor } from "@/db/client";
 import { decisions, figures, panels, revisions, signoffs, threads, users } from "@/db/schema";
 import { figureReviewState, panelReviewState, type ReviewState } from "@/lib/review/derive-state";
 import { letterFor } from "../figures/scope";
 import { figureContentHash } from "../figures/figure-hash";
 
-/** Everything needed to derive review states for the figures of one manuscript (or one figure), in a few queries. */
-export async function loadReviewContext(where: { manuscriptId?: string; figureId?: string }) {
-  const db = getDb();
+/**
+ * Everything needed to derive review states for the figures of one manuscript (or one figure), in a
+ * few queries; inside a transaction, pass it to see that transaction's own writes.
+ */
+export async function loadReviewContext(where: { manuscriptId?: string; figureId?: string }, db: Executor = getDb()) {
   const figs = await db
     .select()
     .from(figures)

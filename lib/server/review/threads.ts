@@ -8,10 +8,10 @@ import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
 import { badRequest, conflict, forbidden, notFound } from "@/lib/errors";
-import { deliverOutbox, enqueueMail } from "../mail/outbox";
+import { deliverOutbox } from "../mail/outbox";
 import { manuscriptOfPanel } from "../figures/scope";
 import { prepareCommentBody } from "./comment-body";
-import { reviewMail } from "./review-mail";
+import { noticeComment } from "./review-notices";
 import { editCommentInput, newThreadInput, replyInput } from "./schemas";
 import { env } from "@/lib/env";
 import { consumeRate, type RateRule } from "../limits/rate-limit";
@@ -54,7 +54,7 @@ async function insertComment(
     .replace(/\s+/g, " ")
     .trim()
     .slice(0, 300);
-  for (const m of prepared.mentions.filter((m) => m !== user.id)) await enqueueMail(tx, await reviewMail.mention(m, user, panelId, excerpt));
+  await noticeComment(tx, user, { id, threadId, panelId, mentions: prepared.mentions, excerpt });
   return id;
 }
 

@@ -1,0 +1,17 @@
+import "server-only";
+
+/** The immediate review notices, each of which a person can turn off. */
+export const NOTICE_KINDS = ["review_requested", "needs_revision", "approved", "signoff_due", "signed_off", "approval_stale", "reply", "mention"] as const;
+export type NoticeKind = (typeof NOTICE_KINDS)[number];
+
+/** What each kind is, as a person reads it on the preferences and unsubscribe pages. */
+export const NOTICE_LABELS: Record<NoticeKind, string> = {
+  review_requested: "review requests (a new revision waits for your review)",
+  needs_revision: "revision requests on panels you made",
+  approved: "approvals of panels you made",
+  signoff_due: "figures ready for your sign-off",
+  signed_off: "figures signed off",
+  approval_stale: "approvals of yours that went stale",
+  reply: "replies in threads you wrote in",
+  mention: "@mentions",
+};

@@ -1,0 +1,111 @@
+import "server-only";
+import { and, asc, eq, inArray, isNull, sql, TransactionRollbackError } from "drizzle-orm";
+import type { Executor } from "@/db/client";
+import { getDb } from "@/db/client";
+import { mailPreferences, notices, users } from "@/db/schema";
+import { env } from "@/lib/env";
+import { newId } from "../crypto";
+import { enqueueMail } from "./enqueue";
+import type { NoticeKind } from "./notice-kinds";
+import { noticesMail } from "./templates";
+
+interface Notice {
+  kind: NoticeKind;
+  /** Everyone the event concerns; the actor and anyone who turned this off are dropped here. */
+  to: string[];
+  actorId: string;
+  manuscriptId: string;
+  manuscriptTitle: string;
+  /** What it is about without the manuscript, e.g. "Figure 2b needs revision". */
+  headline: string;
+  lines: string[];
+  href: string;
+}
+
+/** A manuscript title short enough for a subject line: cut at a word, with an ellipsis. */
+function shortTitle(title: string, max = 48): string {
+  if (title.length <= max) return title;
+  const cut = title.slice(0, max - 1);
+  const space = cut.lastIndexOf(" ");
+  return `${(space > max / 2 ? cut.slice(0, space) : cut).replace(/[\s,;:.–—-]+$/, "")}…`;
+}
+
+/**
+ * Writes one pending notice per recipient in the caller's transaction (so a notice exists exactly
+ * when its event does). Never to the actor; not to whoever turned the kind off or unfollowed the manuscript.
+ */
+export async function notify(tx: Executor, n: Notice): Promise<number> {
+  const to = [...new Set(n.to)].filter((id) => id !== n.actorId);
+  if (!to.length) return 0;
+  const prefs = await tx.select().from(mailPreferences).where(inArray(mailPreferences.userId, to));
+  const wanted = to.filter((id) => {
+    const p = prefs.find((x) => x.userId === id);
+    return !p || (!p.mutedKinds.includes(n.kind) && !p.unfollowed.includes(n.manuscriptId));
+  });
+  if (!wanted.length) return 0;
+  await tx.insert(notices).values(
+    wanted.map((userId) => ({
+      id: newId(),
+      userId,
+      kind: n.kind,
+      manuscriptId: n.manuscriptId,
+      subject: `${n.headline} — ${shortTitle(n.manuscriptTitle)}`,
+      headline: n.headline,
+      body: n.lines.join("\n"),
+      href: n.href,
+    })),
+  );
+  return wanted.length;
+}
+
+/**
+ * Turns each person's pending notices into one mail once the first of them is older than the
+ * coalescing window (MAIL_COALESCE_SECONDS). Each person's notices are stamped with the mail's id
+ * in the transaction that enqueues it, so a crash leaves either both or neither, and a second
+ * worker finds nothing left to take: no notice is lost and none is mailed twice.
+ */
+export async function flushNotices(now = Date.now()): Promise<number> {
+  const db = getDb();
+  const cutoff = now - env().mailCoalesceMs;
+  const due = await db
+    .select({ userId: notices.userId })
+    .from(notices)
+    .where(isNull(notices.mailId))
+    .groupBy(notices.userId)
+    .having(sql`min(${notices.createdAt}) <= ${cutoff}`);
+  let mails = 0;
+  for (const { userId } of due) {
+    const sent = await db
+      .transaction(async (tx) => {
+        const pending = await tx
+          .select()
+          .from(notices)
+          .where(and(eq(notices.userId, userId), isNull(notices.mailId)))
+          .orderBy(asc(notices.createdAt));
+        const [u] = await tx.select({ email: users.email }).from(users).where(eq(users.id, userId));
+        if (!pending.length || !u) return false;
+        const mailId = await enqueueMail(tx, noticesMail(u.email, userId, pending));
+        const taken = await tx
+          .update(notices)
+          .set({ mailId })
+          .where(
+            and(
+              inArray(
+                notices.id,
+                pending.map((p) => p.id),
+              ),
+              isNull(notices.mailId),
+            ),
+          )
+          .returning({ id: notices.id });
+        if (taken.length !== pending.length) tx.rollback(); // another worker took some of them: leave it to that one
+        return true;
+      })
+      .catch((err: unknown) => {
+        if (err instanceof TransactionRollbackError) return false;
+        throw err;
+      });
+    if (sent) mails++;
+  }
+  return mails;
+}

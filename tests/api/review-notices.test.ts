@@ -1,0 +1,188 @@
+// Every review notice through the real SMTP sink: exactly one mail to the right people (never the
+// actor), a subject that names the figure and panel, a link to the exact page; several notices to
+// one person inside the window go out as one mail; mail preferences turn a kind or a manuscript off.
+import fs from "node:fs";
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { eq, isNull } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { mailOutbox, mailPreferences, notices } from "@/db/schema";
+import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
+import { commentDoc } from "@/lib/demo-data/story";
+import { env } from "@/lib/env";
+import { plainDoc } from "@/lib/review/rich-text";
+import { importDatasetFromBytes } from "@/lib/server/datasets/upload-dataset";
+import { addPanel } from "@/lib/server/figures/panels";
+import { createFigure, getFigure } from "@/lib/server/figures/figures";
+import { createRevision } from "@/lib/server/figures/revisions";
+import { flushNotices } from "@/lib/server/mail/notices";
+import { deliverOutbox } from "@/lib/server/mail/outbox";
+import { startMailSink, type SinkHandle } from "@/lib/server/mail/sink-server";
+import { listSinkMessages, type SinkMessage } from "@/lib/server/mail/sink-store";
+import { recordDecision, signOffFigure } from "@/lib/server/review/decisions";
+import { createThread, replyToThread } from "@/lib/server/review/threads";
+import { setupTestApp } from "./harness";
+
+const PI = { id: "demo-pi", email: "pi@lab.example.org", name: "Mira Halvorsen" };
+const AUTHOR = { id: "demo-author", email: "author@lab.example.org", name: "Tomás Ekberg" };
+const REVIEWER = { id: "demo-reviewer", email: "reviewer@partner.example.org", name: "Ines Varga" };
+const APP = "http://localhost:3000";
+const MS = "Coherence and proton NMR of shallow NV centres…";
+const SPEC = {
+  $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+  data: { name: "echo" },
+  mark: "point",
+  encoding: { x: { field: "tau", type: "quantitative" }, y: { field: "signal", type: "quantitative" } },
+};
+
+let sink: SinkHandle;
+const seen = new Set<string>();
+/** Sends what is due a minute from now (past the coalescing window) and answers the mails that arrived. */
+async function mailsAfterWindow(): Promise<SinkMessage[]> {
+  await flushNotices(Date.now() + 61_000);
+  await deliverOutbox();
+  const fresh = listSinkMessages().filter((m) => !seen.has(m.id));
+  for (const m of fresh) seen.add(m.id);
+  return fresh.sort((a, b) => a.envelope.to[0]!.localeCompare(b.envelope.to[0]!));
+}
+const summary = (ms: SinkMessage[]) => ms.map((m) => `${m.envelope.to.join(",")}: ${m.subject}`);
+const links = (m: SinkMessage) => [...m.text.matchAll(/^Open: (\S+)$/gm)].map((x) => x[1]);
+
+let versionId: string, datasetId: string, figureId: string, panelId: string, rev1: { id: string }, rev2: { id: string }, rev3: { id: string; number: number };
+beforeAll(async () => {
+  process.env.APP_URL = APP;
+  await setupTestApp();
+  sink = await startMailSink({ port: env().smtpPort, dir: env().mailSinkDir, quiet: true });
+  // The demo story's own mails were queued while no sink listened: not part of these checks.
+  await getDb().update(mailOutbox).set({ status: "failed" }).where(eq(mailOutbox.status, "pending"));
+  await mailsAfterWindow();
+  const v1 = await importDatasetFromBytes(AUTHOR, DEMO_MANUSCRIPT_ID, "echo.csv", new TextEncoder().encode("tau (µs),signal\n1,0.9\n2,0.8\n"), {});
+  versionId = v1.id;
+  datasetId = v1.datasetId;
+  figureId = (await createFigure(AUTHOR, { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Echo check" })).id;
+  panelId = (await addPanel(AUTHOR, figureId, { title: "Echo of NV01" })).id;
+});
+afterAll(async () => {
+  await sink.close();
+  delete process.env.APP_URL;
+});
+
+describe("each review notice, once, to the right people", () => {
+  it("a new revision asks the reviewers (none named: every reviewer) for a review", async () => {
+    rev1 = await createRevision(AUTHOR, panelId, { spec: SPEC, bindings: { echo: { versionId } }, baseRevisionId: null, message: "first cut" });
+    const mails = await mailsAfterWindow();
+    expect(summary(mails)).toEqual([`reviewer@partner.example.org: Review requested: Figure 1a — ${MS}`]);
+    expect(links(mails[0]!)).toEqual([`${APP}/panels/${panelId}`]);
+    expect(mails[0]!.text).toContain("Tomás Ekberg saved revision 1 of Figure 1a “Echo of NV01”; it waits for your review.");
+    expect(mails[0]!.text).toContain("Revision note: first cut");
+  });
+
+  it("an approval tells the panel's author, and the last approval tells the PI that sign-off is due", async () => {
+    await recordDecision(REVIEWER, panelId, { revisionId: rev1.id, decision: "approved", note: "clean" });
+    const mails = await mailsAfterWindow();
+    expect(summary(mails)).toEqual([
+      `author@lab.example.org: Figure 1a approved by Ines Varga — ${MS}`,
+      `pi@lab.example.org: Figure 1 is ready for sign-off — ${MS}`,
+    ]);
+    expect(links(mails[0]!)).toEqual([`${APP}/panels/${panelId}`]);
+    expect(mails[0]!.text).toContain("Note: clean");
+    expect(links(mails[1]!)).toEqual([`${APP}/figures/${figureId}`]);
+  });
+
+  it("a sign-off tells every member but the PI who signed", async () => {
+    const f = await getFigure(PI, figureId);
+    await signOffFigure(PI, figureId, { figureHash: f.figureHash });
+    const mails = await mailsAfterWindow();
+    expect(summary(mails)).toEqual([
+      `author@lab.example.org: Figure 1 signed off — ${MS}`,
+      `reviewer@partner.example.org: Figure 1 signed off — ${MS}`,
+      `viewer@lab.example.org: Figure 1 signed off — ${MS}`,
+    ]);
+    expect(mails.map((m) => links(m))).toEqual([[`${APP}/figures/${figureId}`], [`${APP}/figures/${figureId}`], [`${APP}/figures/${figureId}`]]);
+  });
+
+  it("a rebind to a new data version tells the approver that the approval went stale, with what changed", async () => {
+    const v2 = await importDatasetFromBytes(AUTHOR, DEMO_MANUSCRIPT_ID, "echo.csv", new TextEncoder().encode("tau (µs),signal\n1,0.91\n2,0.79\n"), {
+      datasetId,
+    });
+    rev2 = await createRevision(AUTHOR, panelId, { spec: SPEC, bindings: { echo: { versionId: v2.id } }, baseRevisionId: rev1.id, message: "v2" });
+    const mails = await mailsAfterWindow();
+    expect(summary(mails)).toEqual([`reviewer@partner.example.org: Your approval of Figure 1a went stale — ${MS}`]);
+    expect(mails[0]!.text).toContain('What changed: data "echo": version 1 → 2.');
+    expect(links(mails[0]!)).toEqual([`${APP}/panels/${panelId}`]);
+  });
+
+  it("a request for a revision tells the panel's author, with the note", async () => {
+    await recordDecision(REVIEWER, panelId, { revisionId: rev2.id, decision: "needs_revision", note: "Give σ." });
+    const mails = await mailsAfterWindow();
+    expect(summary(mails)).toEqual([`author@lab.example.org: Figure 1a needs revision — ${MS}`]);
+    expect(mails[0]!.text).toContain("Ines Varga asked for a revision of Figure 1a “Echo of NV01” (revision 2).");
+    expect(mails[0]!.text).toContain("Note: Give σ.");
+  });
+
+  it("a reply tells who wrote in the thread; a mention tells who is mentioned; the link opens the thread", async () => {
+    const thread = await createThread(REVIEWER, panelId, { revisionId: rev2.id, body: plainDoc("Where are the error bars?") });
+    expect(await mailsAfterWindow()).toEqual([]); // a new thread mentioning nobody tells nobody
+    await replyToThread(AUTHOR, thread.id, { body: commentDoc({ mention: PI.id, label: PI.name }, " can you check the field value?") });
+    const mails = await mailsAfterWindow();
+    expect(summary(mails)).toEqual([
+      `pi@lab.example.org: Tomás Ekberg mentioned you on Figure 1a — ${MS}`,
+      `reviewer@partner.example.org: Tomás Ekberg replied on Figure 1a — ${MS}`,
+    ]);
+    expect(mails.map((m) => links(m))).toEqual([[`${APP}/panels/${panelId}#thread-${thread.id}`], [`${APP}/panels/${panelId}#thread-${thread.id}`]]);
+    expect(mails[1]!.text).toContain("“@Mira Halvorsen can you check the field value?”");
+  });
+});
+
+describe("several notices to one person within the window", () => {
+  it("go out as one mail listing each; other people get their own; nothing goes out twice", async () => {
+    const thread = await createThread(AUTHOR, panelId, {
+      revisionId: rev2.id,
+      body: commentDoc({ mention: PI.id, label: PI.name }, " and ", { mention: REVIEWER.id, label: REVIEWER.name }, " — σ bars added."),
+    });
+    rev3 = await createRevision(AUTHOR, panelId, {
+      spec: { ...SPEC, mark: "circle" },
+      bindings: { echo: { versionId } },
+      baseRevisionId: rev2.id,
+      message: "σ bars",
+    });
+    // Inside the window nothing is sent yet.
+    expect(await flushNotices(Date.now())).toBe(0);
+    const mails = await mailsAfterWindow();
+    expect(summary(mails)).toEqual([
+      `pi@lab.example.org: Tomás Ekberg mentioned you on Figure 1a — ${MS}`,
+      `reviewer@partner.example.org: 2 updates on ${MS}: Tomás Ekberg mentioned you on Figure 1a; Review requested: Figure 1a`,
+    ]);
+    expect(links(mails[1]!)).toEqual([`${APP}/panels/${panelId}#thread-${thread.id}`, `${APP}/panels/${panelId}`]);
+    expect(mails[1]!.text).toContain("Tomás Ekberg saved revision 3 of Figure 1a");
+    expect(rev3.number).toBe(3);
+    // Flushing and delivering again sends nothing more; every notice names the one mail it went out in.
+    expect(await flushNotices(Date.now() + 61_000)).toBe(0);
+    await deliverOutbox();
+    expect(listSinkMessages().filter((m) => !seen.has(m.id))).toEqual([]);
+    expect(await getDb().select().from(notices).where(isNull(notices.mailId))).toEqual([]);
+  });
+
+  it("carries the one-click unsubscribe headers (RFC 8058) and a link in the body", async () => {
+    const [mail] = listSinkMessages().filter((m) => m.envelope.to.includes("pi@lab.example.org") && m.subject.startsWith("Tomás Ekberg mentioned you"));
+    const raw = fs.readFileSync(path.join(env().mailSinkDir, `${mail!.id}.eml`), "utf8").replace(/\r\n[ \t]+/g, " ");
+    expect(raw).toMatch(/^List-Unsubscribe: <http:\/\/localhost:3000\/api\/unsubscribe\?token=[\w.%-]+>\r$/m);
+    expect(raw).toMatch(/^List-Unsubscribe-Post: List-Unsubscribe=One-Click\r$/m);
+    expect(mail!.text).toMatch(/^Stop mails about @mentions: http:\/\/localhost:3000\/unsubscribe\?token=[\w.%-]+$/m);
+  });
+});
+
+describe("mail preferences", () => {
+  it("a kind turned off, or a manuscript unfollowed, sends nothing of it", async () => {
+    await getDb()
+      .insert(mailPreferences)
+      .values({ userId: REVIEWER.id, mutedKinds: ["review_requested"], unfollowed: [], updatedAt: new Date() });
+    await getDb()
+      .insert(mailPreferences)
+      .values({ userId: AUTHOR.id, mutedKinds: [], unfollowed: [DEMO_MANUSCRIPT_ID], updatedAt: new Date() });
+    const rev4 = await createRevision(AUTHOR, panelId, { spec: SPEC, bindings: { echo: { versionId } }, baseRevisionId: rev3.id, message: "again" });
+    const thread = await createThread(REVIEWER, panelId, { revisionId: rev4.id, body: commentDoc({ mention: AUTHOR.id, label: AUTHOR.name }, " look") });
+    expect(thread.comments).toHaveLength(1);
+    expect(await mailsAfterWindow()).toEqual([]);
+  });
+});
