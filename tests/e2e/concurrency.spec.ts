@@ -1,4 +1,5 @@
-import { expect, test, type APIRequestContext, type APIResponse } from "@playwright/test";
+import { type APIRequestContext, type APIResponse } from "@playwright/test";
+import { expect, test } from "./fixtures";
 import { DEMO_MANUSCRIPT, signIn } from "./helpers";
 
 // 50 clients post 20 comments each into one thread at the same time, against `next start`: all
@@ -39,7 +40,7 @@ async function json<T = any>(res: APIResponse, status: number): Promise<T> {
   return (await res.json()) as T;
 }
 
-test("50 clients posting 20 comments each into one thread: all 1,000 stored once, retries idempotent, no 5xx", async ({ browser, playwright }) => {
+test("50 clients posting 20 comments each into one thread: all 1,000 stored once, retries idempotent, no 5xx", async ({ newContext, playwright }) => {
   // A hang guard, not a performance check: generous enough for 1,000 posts on a busy two-core machine.
   test.setTimeout(300_000);
   const baseURL = test.info().project.use.baseURL!;
@@ -47,7 +48,7 @@ test("50 clients posting 20 comments each into one thread: all 1,000 stored once
   const headers = { origin };
 
   // The author sets up a figure with one panel whose revision is bound to a demo Hahn-echo version.
-  const authorContext = await browser.newContext();
+  const authorContext = await newContext();
   const author = await authorContext.newPage();
   await signIn(author, "author@lab.example.org");
   const { items } = await json<{ items: Array<{ kind: string; tags: Record<string, string>; latestVersion: { id: string } | null }> }>(
@@ -71,7 +72,7 @@ test("50 clients posting 20 comments each into one thread: all 1,000 stored once
   await authorContext.close();
 
   // The reviewer signs in once and opens the thread; the 50 clients carry that session.
-  const reviewerContext = await browser.newContext();
+  const reviewerContext = await newContext();
   const reviewer = await reviewerContext.newPage();
   await signIn(reviewer, "reviewer@partner.example.org");
   const thread = await json<Thread>(

@@ -1,5 +1,6 @@
 import { createHash } from "node:crypto";
-import { expect, test, type Page } from "@playwright/test";
+import { type Page } from "@playwright/test";
+import { expect, test } from "./fixtures";
 import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
 
 const VALID = { name: "echo-e2e.csv", mimeType: "text/csv", buffer: Buffer.from("tau (µs),signal\n1,0.9\n2,0.8\n") };
@@ -15,7 +16,8 @@ async function openDataset(page: Page, name: RegExp) {
   await expect(page.getByRole("heading", { level: 1, name }).first()).toBeVisible();
 }
 
-test("the author uploads two files at once: one is stored, the other is refused with its line", async ({ page }) => {
+test("the author uploads two files at once: one is stored, the other is refused with its line", async ({ page, consoleGuard }) => {
+  consoleGuard.allow(/status of 422 .*\/api\/manuscripts\/demo-manuscript\/datasets$/, "the malformed file is refused");
   await signIn(page, "author@lab.example.org");
   await page.goto(`/manuscripts/${DEMO_MANUSCRIPT}`);
   await page.getByRole("link", { name: /\d+ datasets/ }).click();
@@ -67,7 +69,8 @@ test("the author uploads two files at once: one is stored, the other is refused 
   await expect(page.getByRole("heading", { name: /Version 1 \(an earlier version\)/ })).toBeVisible();
 });
 
-test("the author edits a dataset's details; a bad date is refused with the server's message", async ({ page }) => {
+test("the author edits a dataset's details; a bad date is refused with the server's message", async ({ page, consoleGuard }) => {
+  consoleGuard.allow(/status of 400 .*\/api\/datasets\/[\w-]+$/, "the bad date is refused");
   await signIn(page, "author@lab.example.org");
   await openDataset(page, /T1 relaxation, NV01/);
   await page.getByRole("button", { name: "Edit details" }).click();

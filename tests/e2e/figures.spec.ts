@@ -1,4 +1,5 @@
-import { expect, test, type Locator, type Page } from "@playwright/test";
+import { type Locator, type Page } from "@playwright/test";
+import { expect, test } from "./fixtures";
 import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
 
 interface ListedDataset {
@@ -27,10 +28,13 @@ async function expectRendered(chart: Locator) {
 
 test("the author builds a Hahn-echo panel with its fit, revises it twice and compares; the reviewer marks an x-range, comments and approves", async ({
   page,
-  browser,
+  newContext,
   baseURL,
+  consoleGuard,
 }) => {
   test.setTimeout(240_000);
+  consoleGuard.allow(/status of 409 .*\/api\/panels\/[\w-]+\/revisions$/, "the second tab saves on an old revision");
+  consoleGuard.allow(/status of 400 .*\/api\/figures\/[\w-]+\/signoff$/, "signing off with a panel open first asks for a reason");
   await signIn(page, "author@lab.example.org");
 
   // A stored fit of one demo echo measurement, through the API as a script would run it.
@@ -165,7 +169,7 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await expect(trace.getByRole("row")).toHaveCount(5); // header, echo / fit / residuals of a, and b with no revision
 
   // The reviewer marks an x-range on the plot, comments in bold, and approves.
-  const reviewerContext = await browser.newContext();
+  const reviewerContext = await newContext();
   const reviewer = await reviewerContext.newPage();
   await signIn(reviewer, "reviewer@partner.example.org");
   await reviewer.goto(panelUrl);
@@ -219,7 +223,7 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await page.getByRole("button", { name: `rebind to version ${next.number}` }).click();
   await expect(page.getByRole("status").filter({ hasText: "Rebound" })).toContainText("revision 3 saved");
 
-  const again = await browser.newContext();
+  const again = await newContext();
   const reviewer2 = await again.newPage();
   await signIn(reviewer2, "reviewer@partner.example.org");
   await reviewer2.goto(panelUrl);
@@ -231,7 +235,7 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await again.close();
 
   // The PI signs off; panel b is still open, so the sign-off asks for a reason and records it.
-  const piContext = await browser.newContext();
+  const piContext = await newContext();
   const pi = await piContext.newPage();
   await signIn(pi, "pi@lab.example.org");
   await pi.goto(figureUrl);

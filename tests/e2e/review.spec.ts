@@ -1,4 +1,5 @@
-import { expect, test, type APIResponse, type Page } from "@playwright/test";
+import { type APIResponse, type Page } from "@playwright/test";
+import { expect, test } from "./fixtures";
 import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
 
 const SPEC = {
@@ -101,7 +102,9 @@ test.describe.serial("review: queue, figure status, activity and sign-off", () =
     await expect(row(page, b)).toHaveCount(0);
   });
 
-  test("the PI sees the sign-off waiting, reads the figure status and the activity, and signs off", async ({ page }) => {
+  test("the PI sees the sign-off waiting, reads the figure status and the activity, and signs off", async ({ page, consoleGuard }) => {
+    consoleGuard.allow(/status of 409 .*\/api\/figures\/[\w-]+\/signoff$/, "figure B changes while the PI looks at it");
+    consoleGuard.allow(/status of 400 .*\/api\/figures\/[\w-]+\/signoff$/, "open issues ask for a reason first");
     const { a, b, versionId } = scene as Required<typeof scene>;
     await signIn(page, "pi@lab.example.org");
     await page.goto("/review");

@@ -1,6 +1,7 @@
 import { spawn } from "node:child_process";
 import os from "node:os";
-import { expect, test, type Page } from "@playwright/test";
+import { type Page } from "@playwright/test";
+import { expect, test } from "./fixtures";
 import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
 
 const SPEC = {
@@ -76,7 +77,8 @@ test.describe.serial("security at the edge", () => {
     expect(await violations()).toEqual([]);
   });
 
-  test("script a spec or comment might smuggle in is blocked by the policy", async ({ page }) => {
+  test("script a spec or comment might smuggle in is blocked by the policy", async ({ page, consoleGuard }) => {
+    consoleGuard.allow(/violates the following Content Security Policy directive/, "the smuggled script is blocked, which is what this test checks");
     const violations = await watchViolations(page);
     await signIn(page, "reviewer@partner.example.org");
     await page.goto(`/panels/${panelId}`);
@@ -154,8 +156,8 @@ test.describe.serial("security at the edge", () => {
     }
   });
 
-  test("signing out ends the session on the server: the old cookie no longer works", async ({ browser, playwright }) => {
-    const context = await browser.newContext();
+  test("signing out ends the session on the server: the old cookie no longer works", async ({ newContext, playwright }) => {
+    const context = await newContext();
     const page = await context.newPage();
     await signIn(page, "viewer@lab.example.org");
     const state = await context.storageState();
