@@ -23,7 +23,7 @@ const MANUSCRIPT_POLICY = {
 
 export type ManuscriptAction = keyof typeof MANUSCRIPT_POLICY;
 /** Actions that need only a signed-in user (they act on the caller's own things). */
-type UserAction = "self.read" | "self.tokens" | "manuscript.list" | "manuscript.create" | "model.list";
+type UserAction = "self.read" | "self.tokens" | "self.mail" | "manuscript.list" | "manuscript.create" | "model.list";
 export type Action = ManuscriptAction | UserAction;
 
 export function isManuscriptAction(action: Action): action is ManuscriptAction {

@@ -10,6 +10,8 @@ import { thumbnailQuery } from "@/lib/server/export/thumbnails";
 import { decisionInput, editCommentInput, newThreadInput, replyInput, resolveInput, signoffInput } from "@/lib/server/review/schemas";
 import { addPanelInput, createFigureInput, reorderInput, revisionInput, updateFigureInput } from "@/lib/server/figures/schemas";
 
+const unsubscribeQuery = z.object({ token: z.string().describe("the signed token from the mail's List-Unsubscribe address") });
+
 export interface ApiOperation {
   method: "GET" | "POST" | "PATCH" | "DELETE";
   path: string; // OpenAPI style: /api/manuscripts/{id}
@@ -33,6 +35,22 @@ export const API_OPERATIONS: ApiOperation[] = [
     summary: "E-mail a single-use sign-in link",
     body: z.object({ email: z.string().email() }),
     success: 202,
+  },
+  {
+    method: "GET",
+    path: "/api/unsubscribe",
+    permission: "public",
+    summary: "A mail's unsubscribe address opened in a browser: 303 to the landing page that asks first",
+    query: unsubscribeQuery,
+    success: 303,
+  },
+  {
+    method: "POST",
+    path: "/api/unsubscribe",
+    permission: "public",
+    summary: "One-click unsubscribe (RFC 8058): turns off the notice kinds the signed, expiring token names; no sign-in",
+    query: unsubscribeQuery,
+    success: 200,
   },
   { method: "GET", path: "/api/me", permission: "self.read", summary: "The caller and their memberships", success: 200 },
   { method: "GET", path: "/api/tokens", permission: "self.tokens", summary: "The caller's API tokens", success: 200 },

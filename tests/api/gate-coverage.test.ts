@@ -2,12 +2,15 @@ import { describe, expect, it } from "vitest";
 import { API_OPERATIONS } from "@/lib/http/api-catalogue";
 import { HTTP_VERBS, routeFiles, serverActionFiles } from "./route-files";
 
-// Public on purpose: the readiness probe, the API description, sign-in itself.
+// Public on purpose: the readiness probe, the API description, sign-in itself, unsubscribing from mail.
 const PUBLIC_ALLOW_LIST = new Set([
   "GET /api/health",
   "GET /api/openapi.json",
   "GET /api/ping",
   "POST /api/sign-in-link",
+  // One-click unsubscribe from a mail (RFC 8058): mail clients post without a session; a signed token names the person.
+  "GET /api/unsubscribe",
+  "POST /api/unsubscribe",
   "GET /api/auth/[...nextauth]",
   "POST /api/auth/[...nextauth]",
 ]);

@@ -21,7 +21,10 @@ import { startMailSink, type SinkHandle } from "@/lib/server/mail/sink-server";
 import { listSinkMessages, type SinkMessage } from "@/lib/server/mail/sink-store";
 import { recordDecision, signOffFigure } from "@/lib/server/review/decisions";
 import { createThread, replyToThread } from "@/lib/server/review/threads";
-import { setupTestApp } from "./harness";
+import { describeUnsubscribe, unsubscribeToken } from "@/lib/server/mail/unsubscribe";
+import { saveMailPreferences } from "@/lib/server/mail/preferences";
+import * as unsubscribe from "@/app/api/unsubscribe/route";
+import { call, setupTestApp } from "./harness";
 
 const PI = { id: "demo-pi", email: "pi@lab.example.org", name: "Mira Halvorsen" };
 const AUTHOR = { id: "demo-author", email: "author@lab.example.org", name: "Tomás Ekberg" };
@@ -172,14 +175,79 @@ describe("several notices to one person within the window", () => {
   });
 });
 
+describe("one-click unsubscribe", () => {
+  const piMentionMail = () =>
+    listSinkMessages().find((m) => m.envelope.to.includes("pi@lab.example.org") && m.subject.startsWith("Tomás Ekberg mentioned you"))!;
+  const oneClickUrl = (m: SinkMessage) =>
+    /^List-Unsubscribe: <([^>]+)>/m.exec(fs.readFileSync(path.join(env().mailSinkDir, `${m.id}.eml`), "utf8").replace(/\r\n[ \t]+/g, " "))![1]!;
+  const post = (url: string) =>
+    call(unsubscribe.POST, {
+      method: "POST",
+      path: url.replace(APP, ""),
+      rawBody: "List-Unsubscribe=One-Click",
+      headers: { "content-type": "application/x-www-form-urlencoded" },
+    });
+  const withToken = (url: string, token: string) => url.replace(/token=[^&]+/, `token=${encodeURIComponent(token)}`);
+  const tokenIn = (url: string) => decodeURIComponent(/token=([^&]+)/.exec(url)![1]!);
+
+  it("the body's link opens a page that asks first; opening the one-click address lands there too", async () => {
+    const link = /^Stop mails about @mentions: (\S+)$/m.exec(piMentionMail().text)![1]!;
+    expect(link.startsWith(`${APP}/unsubscribe?token=`)).toBe(true);
+    expect(await describeUnsubscribe(tokenIn(link))).toEqual({
+      email: "pi@lab.example.org",
+      kinds: [{ kind: "mention", label: "@mentions", alreadyOff: false }],
+    });
+    const opened = await call(unsubscribe.GET, { path: oneClickUrl(piMentionMail()).replace(APP, "") });
+    expect(opened.status).toBe(303);
+    expect(opened.headers.get("location")).toBe(link);
+  });
+
+  it("refuses a changed token, another person's name under this signature, and an expired token", async () => {
+    const url = oneClickUrl(piMentionMail());
+    const [payload, mac] = tokenIn(url).split(".");
+    const claims = JSON.parse(Buffer.from(payload!, "base64url").toString("utf8"));
+    const forAuthor = Buffer.from(JSON.stringify({ ...claims, u: AUTHOR.id })).toString("base64url");
+    const invalid =
+      "This unsubscribe link is not valid: it was changed or cut short. Use the link from the mail as it is, or choose your mail on the settings page.";
+    for (const forged of [`${payload}.${mac!.slice(0, -2)}xx`, `${forAuthor}.${mac}`, `${payload}.`, "garbage"]) {
+      const r = await post(withToken(url, forged));
+      expect([r.status, r.json.error.message]).toEqual([400, invalid]);
+    }
+    const old = unsubscribeToken(PI.id, ["mention"], Date.now() - 61 * 24 * 3600 * 1000);
+    const r = await post(withToken(url, old));
+    expect([r.status, r.json.error.message]).toEqual([
+      410,
+      "This unsubscribe link has expired. Sign in and choose which mails you get on the mail settings page.",
+    ]);
+    const missing = await call(unsubscribe.POST, { method: "POST", path: "/api/unsubscribe" });
+    expect(missing.status).toBe(400);
+    expect(await getDb().select().from(mailPreferences)).toEqual([]);
+  });
+
+  it("a mail client's one-click POST, signed out, turns the kind off and says so; the kind then stays quiet", async () => {
+    const r = await post(oneClickUrl(piMentionMail()));
+    expect(r.status).toBe(200);
+    expect(r.json).toEqual({ ok: true, email: "pi@lab.example.org", turnedOff: ["mention"], message: "Turned off for pi@lab.example.org: @mentions." });
+    const [p] = await getDb().select().from(mailPreferences).where(eq(mailPreferences.userId, PI.id));
+    expect(p!.mutedKinds).toEqual(["mention"]);
+    expect((await post(oneClickUrl(piMentionMail()))).status).toBe(200); // a second click changes nothing
+    await createThread(AUTHOR, panelId, { revisionId: rev3.id, body: commentDoc({ mention: PI.id, label: PI.name }, " once more") });
+    expect(await mailsAfterWindow()).toEqual([]);
+  });
+});
+
 describe("mail preferences", () => {
   it("a kind turned off, or a manuscript unfollowed, sends nothing of it", async () => {
-    await getDb()
-      .insert(mailPreferences)
-      .values({ userId: REVIEWER.id, mutedKinds: ["review_requested"], unfollowed: [], updatedAt: new Date() });
-    await getDb()
-      .insert(mailPreferences)
-      .values({ userId: AUTHOR.id, mutedKinds: [], unfollowed: [DEMO_MANUSCRIPT_ID], updatedAt: new Date() });
+    const everyKindOn = Object.fromEntries(
+      ["review_requested", "needs_revision", "approved", "signoff_due", "signed_off", "approval_stale", "reply", "mention"].map((k) => [`kind.${k}`, "on"]),
+    );
+    // The form sends only ticked boxes: review requests unticked for the reviewer, the manuscript unticked for the author.
+    const reviewerForm: Record<string, string> = { ...everyKindOn, [`follow-shown.${DEMO_MANUSCRIPT_ID}`]: "1", [`follow.${DEMO_MANUSCRIPT_ID}`]: "on" };
+    delete reviewerForm["kind.review_requested"];
+    const saved = await saveMailPreferences(REVIEWER, reviewerForm);
+    expect(saved.kinds.filter((k) => !k.on).map((k) => k.kind)).toEqual(["review_requested"]);
+    const authorSaved = await saveMailPreferences(AUTHOR, { ...everyKindOn, [`follow-shown.${DEMO_MANUSCRIPT_ID}`]: "1" });
+    expect(authorSaved.manuscripts.find((m) => m.id === DEMO_MANUSCRIPT_ID)!.following).toBe(false);
     const rev4 = await createRevision(AUTHOR, panelId, { spec: SPEC, bindings: { echo: { versionId } }, baseRevisionId: rev3.id, message: "again" });
     const thread = await createThread(REVIEWER, panelId, { revisionId: rev4.id, body: commentDoc({ mention: AUTHOR.id, label: AUTHOR.name }, " look") });
     expect(thread.comments).toHaveLength(1);

@@ -9,6 +9,7 @@ import { call, setupTestApp, uploadForm, type Who } from "./harness";
 import { plainDoc } from "@/lib/review/rich-text";
 import { createThread, replyToThread } from "@/lib/server/review/threads";
 import { routeFiles } from "./route-files";
+import { unsubscribeToken } from "@/lib/server/mail/unsubscribe";
 
 type Caller = Who | "anonymous";
 const CALLERS: Caller[] = ["pi", "author", "reviewer", "viewer", "outsider", "anonymous"];
@@ -32,6 +33,9 @@ const FIXTURES: Record<string, Fixture> = {
   "GET /api/ping": async () => ({}),
   // One address per caller: three links per address in 15 minutes is the limit, not what is tested here.
   "POST /api/sign-in-link": async (who) => ({ body: { email: `nobody-${who}@walk.example.org` } }),
+  // Each caller turns off their own kind of notice with the token from their mail; the route needs no sign-in.
+  "GET /api/unsubscribe": async (who) => ({ query: `token=${unsubscribeToken(userOf(who === "anonymous" ? "viewer" : who).id, ["signed_off"])}` }),
+  "POST /api/unsubscribe": async (who) => ({ query: `token=${unsubscribeToken(userOf(who === "anonymous" ? "viewer" : who).id, ["reply"])}` }),
   "GET /api/me": async () => ({}),
   "GET /api/tokens": async () => ({}),
   "POST /api/tokens": async () => ({ body: { name: "walk" } }),
@@ -128,7 +132,8 @@ async function commentBy(who: Caller): Promise<string> {
  * The expected status of every route for every caller (demo accounts as in the README), written out
  * by hand from the product's role rules below — not read from lib/authz/policy.ts or the catalogue,
  * so a wrong policy entry, permission or success code fails here.
- *   - anonymous: 401 on every gated route; public routes answer everyone alike.
+ *   - anonymous: 401 on every gated route; public routes answer everyone alike (unsubscribing from
+ *     mail is public: the signed token in the link names the person).
  *   - outsider (signed in, member of another manuscript only): 404 on anything of the demo manuscript,
  *     including POST /api/analyses, whose manuscript comes from the body; their own things (/api/me,
  *     tokens, queue, models, calculators) work.
@@ -146,6 +151,8 @@ const EXPECTED: Record<string, Row> = {
   "GET /api/openapi.json":                            [200, 200,   200,     200,   200,     200],
   "GET /api/ping":                                    [200, 200,   200,     200,   200,     200],
   "POST /api/sign-in-link":                           [202, 202,   202,     202,   202,     202],
+  "GET /api/unsubscribe":                             [303, 303,   303,     303,   303,     303],
+  "POST /api/unsubscribe":                            [200, 200,   200,     200,   200,     200],
   "GET /api/me":                                      [200, 200,   200,     200,   200,     401],
   "GET /api/tokens":                                  [200, 200,   200,     200,   200,     401],
   "POST /api/tokens":                                 [201, 201,   201,     201,   201,     401],
