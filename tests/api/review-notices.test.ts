@@ -13,7 +13,7 @@ import { env } from "@/lib/env";
 import { plainDoc } from "@/lib/review/rich-text";
 import { importDatasetFromBytes } from "@/lib/server/datasets/upload-dataset";
 import { addPanel } from "@/lib/server/figures/panels";
-import { createFigure, getFigure } from "@/lib/server/figures/figures";
+import { createFigure, getFigure, updateFigure } from "@/lib/server/figures/figures";
 import { createRevision } from "@/lib/server/figures/revisions";
 import { flushNotices } from "@/lib/server/mail/notices";
 import { deliverOutbox } from "@/lib/server/mail/outbox";
@@ -172,6 +172,18 @@ describe("several notices to one person within the window", () => {
     expect(raw).toMatch(/^List-Unsubscribe: <http:\/\/localhost:3000\/api\/unsubscribe\?token=[\w.%-]+>\r$/m);
     expect(raw).toMatch(/^List-Unsubscribe-Post: List-Unsubscribe=One-Click\r$/m);
     expect(mail!.text).toMatch(/^Stop mails about @mentions: http:\/\/localhost:3000\/unsubscribe\?token=[\w.%-]+$/m);
+  });
+});
+
+describe("named reviewers", () => {
+  it("a figure that names its reviewers asks only them, whatever their role", async () => {
+    const fig = (await createFigure(AUTHOR, { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Named" })).id;
+    await updateFigure(PI, fig, { requiredReviewers: [PI.id] });
+    const pid = (await addPanel(AUTHOR, fig, { title: "Spectrum" })).id;
+    await createRevision(AUTHOR, pid, { spec: SPEC, bindings: { echo: { versionId } }, baseRevisionId: null, message: "" });
+    const mails = await mailsAfterWindow();
+    expect(summary(mails)).toEqual([`pi@lab.example.org: Review requested: Figure 2a — ${MS}`]);
+    expect(links(mails[0]!)).toEqual([`${APP}/panels/${pid}`]);
   });
 });
 

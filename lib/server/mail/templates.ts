@@ -8,7 +8,7 @@ import { unsubscribeToken } from "./unsubscribe";
 
 const escapeHtml = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 
-export function layout(title: string, paragraphs: string[], link: { href: string; label: string }): string {
+function layout(title: string, paragraphs: string[], link: { href: string; label: string }): string {
   const body = paragraphs.map((p) => `<p style="margin:0 0 12px">${escapeHtml(p)}</p>`).join("");
   return `<!doctype html><html><body style="font-family:Inter,Arial,sans-serif;color:#1f2328;background:#f7f5f0;padding:24px">
 <div style="max-width:560px;margin:auto;background:#fff;border:1px solid #ddd8cc;padding:24px">
