@@ -6,9 +6,11 @@
  * `encoding.y.scale.type` → "scale of y", `config.*` → "… (house style)", `layer[1]` → "layer 2");
  * anything else is written as its path from the spec root ("spec.encoding.size.value: 3 → 4").
  * The same change made in several layers of one plot is one sentence ("in layers 1 and 2 of plot 1").
+ * The builder's record of template options (`usermeta.template`) is left out: what it changes is in the spec.
  */
 import { formatPath } from "./spec-path";
 import { diffJson, isObject, keyOf, TRANSFORM_OPS, type RawChange, type Seg, type SpecChangeKind } from "./spec-structural-diff";
+import { withoutTemplateRecord } from "./template-record";
 
 export type { SpecChangeKind };
 
@@ -295,5 +297,7 @@ function dataSentences(a: Record<string, BoundSource>, b: Record<string, BoundSo
  * `versions` names the bound versions by number where known (by version id).
  */
 export function describeSpecChange(before: RevisionSide, after: RevisionSide, versions: Record<string, VersionLabel> = {}): SpecChange[] {
-  return [...specSentences(diffJson(before.spec, after.spec)), ...dataSentences(before.bound ?? {}, after.bound ?? {}, versions)];
+  // The builder's record (usermeta.template) is how the spec was made, not what it shows: its changes are the spec's.
+  const spec = diffJson(withoutTemplateRecord(before.spec), withoutTemplateRecord(after.spec));
+  return [...specSentences(spec), ...dataSentences(before.bound ?? {}, after.bound ?? {}, versions)];
 }

@@ -12,13 +12,16 @@ import { budget, countViews, fmt, isObject, MAX_VIEWS, transformBudget, type Jso
 const MAX_INLINE_VALUES = 5_000;
 
 /**
- * `usermeta` keys a spec may carry: plain notes. vega-embed reads `usermeta.embedOptions` and
- * merges it over the app's own options (actions, sourceHeader HTML, i18n, patch, loader, ast …),
- * so that key, and every key not listed here, is refused. Prooflight itself writes no usermeta.
+ * `usermeta` keys a spec may carry: plain notes, and the builder's record of the template and
+ * options that made the spec (`template`, ./template-record). vega-embed reads
+ * `usermeta.embedOptions` and merges it over the app's own options (actions, sourceHeader HTML,
+ * i18n, patch, loader, ast …), so that key, and every key not listed here, is refused.
  */
-const USERMETA_KEYS: ReadonlySet<string> = new Set(["description", "note", "notes", "source", "tags"]);
+const USERMETA_KEYS: ReadonlySet<string> = new Set(["description", "note", "notes", "source", "tags", "template"]);
 /** Nesting allowed inside an allowed usermeta key: `{ note: { sample: { id: "B14" } } }`. */
 const MAX_USERMETA_NESTING = 2;
+/** The builder's record nests deeper: `template.options.markers[0].label`, `template.options.print.widthMm`. */
+const MAX_TEMPLATE_NESTING = 4;
 const EMBED_OPTIONS_MESSAGE = "display options (usermeta.embedOptions) are set by Prooflight and cannot come from a spec";
 const PROTO_MESSAGE = 'the key "__proto__" is not allowed';
 
@@ -215,26 +218,26 @@ function checkUsermeta(value: Json, at: SpecPath, ctx: Context): void {
     else if (!USERMETA_KEYS.has(key)) {
       ctx.issues.push({
         path: where,
-        message: `usermeta may only hold description, note, notes, source and tags; "${key}" is not one of them (display options are set by Prooflight)`,
+        message: `usermeta may only hold description, note, notes, source and tags; "${key}" is not one of them (display options are set by Prooflight; "template" is the builder's own record)`,
       });
-    } else usermetaValue(v, where, 1, ctx);
+    } else usermetaValue(v, where, 1, ctx, key === "template" ? MAX_TEMPLATE_NESTING : MAX_USERMETA_NESTING);
   }
 }
 
-function usermetaValue(value: Json, at: SpecPath, level: number, ctx: Context): void {
+function usermetaValue(value: Json, at: SpecPath, level: number, ctx: Context, maxNesting: number): void {
   if (value === null || typeof value !== "object") return;
-  if (level > MAX_USERMETA_NESTING) {
+  if (level > maxNesting) {
     ctx.issues.push({
       path: at,
-      message: `usermeta values must be text, numbers or small lists or objects of them (nested at most ${MAX_USERMETA_NESTING} levels)`,
+      message: `usermeta values must be text, numbers or small lists or objects of them (nested at most ${maxNesting} levels)`,
     });
     return;
   }
-  if (Array.isArray(value)) return value.forEach((v, i) => usermetaValue(v, [...at, i], level + 1, ctx));
+  if (Array.isArray(value)) return value.forEach((v, i) => usermetaValue(v, [...at, i], level + 1, ctx, maxNesting));
   for (const [key, v] of Object.entries(value)) {
     if (key === "embedOptions") ctx.issues.push({ path: [...at, key], message: EMBED_OPTIONS_MESSAGE });
     else if (key === "__proto__") ctx.issues.push({ path: [...at, key], message: PROTO_MESSAGE });
-    else usermetaValue(v, [...at, key], level + 1, ctx);
+    else usermetaValue(v, [...at, key], level + 1, ctx, maxNesting);
   }
 }
 

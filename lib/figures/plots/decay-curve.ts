@@ -36,6 +36,8 @@ export interface DecayCurveOptions extends CommonOptions, XYAxisText {
   fitYField?: string;
   seriesField?: string;
   xScale: ScaleKind;
+  /** Title of the residual strip's y axis. */
+  residualTitle?: string;
 }
 
 export const DECAY_CURVE_DEFAULTS: DecayCurveOptions = {
@@ -51,6 +53,7 @@ export const DECAY_CURVE_DEFAULTS: DecayCurveOptions = {
   yName: "coherence",
   yUnit: "",
   xScale: "linear",
+  residualTitle: "residual",
 };
 
 function build(input: Partial<DecayCurveOptions>): TopLevelSpec {
@@ -105,7 +108,7 @@ function build(input: Partial<DecayCurveOptions>): TopLevelSpec {
         mark: { type: "point", color: OKABE_ITO.blue },
         encoding: {
           x: x(fitX, true),
-          y: { field: vlField(fitY), type: "quantitative", title: "residual", axis: { tickCount: 3 } },
+          y: { field: vlField(fitY), type: "quantitative", title: o.residualTitle, axis: { tickCount: 3 } },
         },
       },
     ],
@@ -141,6 +144,7 @@ export const decayCurveTemplate: FigureTemplate<DecayCurveOptions> = {
     ...axisTextOptions("Time", ["xName", "τ"], ["xUnit", "µs"]),
     ...axisTextOptions("Signal", ["yName", "coherence"], ["yUnit", ""]),
     scaleOption("xScale", "Time axis"),
+    { key: "residualTitle", label: "Residual axis name", kind: "text", default: "residual" },
   ],
   dataNames: dataNamesOf(DECAY_CURVE_DEFAULTS, ["dataName", "fitName", "residualName"]),
   build,

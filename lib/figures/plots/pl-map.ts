@@ -18,6 +18,9 @@ export interface PlMapOptions extends CommonOptions {
   scaleBarUm: number;
   colorScheme: "viridis" | "cividis" | "magma" | "greys";
   colorTitle: string;
+  /** Axis names; the position unit is written after them. */
+  xName: string;
+  yName: string;
   unit: string;
 }
 
@@ -30,6 +33,8 @@ const PL_MAP_DEFAULTS: PlMapOptions = {
   scaleBarUm: 5,
   colorScheme: "viridis",
   colorTitle: "count rate (kcounts/s)",
+  xName: "x",
+  yName: "y",
   unit: "µm",
 };
 
@@ -39,8 +44,8 @@ function build(input: Partial<PlMapOptions>): TopLevelSpec {
   const o = { ...PL_MAP_DEFAULTS, ...input };
   const p = withPrint(o.print);
   const half = num(o.pixelUm / 2);
-  const xTitle = axisTitle("x", o.unit);
-  const yTitle = axisTitle("y", o.unit);
+  const xTitle = axisTitle(o.xName, o.unit);
+  const yTitle = axisTitle(o.yName, o.unit);
   const scale = { zero: false, nice: false };
   const pos = (field: string, title: string): Spec => quantitative(field, title, scale);
   const heightPt = mmToPt(p.heightMm);
@@ -133,6 +138,8 @@ export const plMapTemplate: FigureTemplate<PlMapOptions> = {
       ],
     },
     { key: "colorTitle", label: "Colour bar title", kind: "text", default: "count rate (kcounts/s)" },
+    { key: "xName", label: "x axis name", kind: "text", default: "x" },
+    { key: "yName", label: "y axis name", kind: "text", default: "y" },
     { key: "unit", label: "Position unit", kind: "text", default: "µm" },
   ],
   dataNames: dataNamesOf(PL_MAP_DEFAULTS, ["dataName"]),

@@ -5,6 +5,7 @@
 import { NUCLEI, type Nucleus } from "@/lib/physics/constants";
 import { decouplingDipSpacing, larmorFrequency } from "@/lib/physics/larmor";
 import { axisTitle, OKABE_ITO, quantitative, type ScaleKind, scaleFor, seriesFilter, singleViewPanel, type Spec, vlField, withPrint } from "./print";
+import { NV_ZPL_MARKERS } from "./data-defaults";
 import { axisTextOptions, dataNamesOf, dataOptions, fittedCurveOption, scaleOption } from "./template-options";
 import type { CommonOptions, FigureTemplate, Marker, XYAxisText } from "./types";
 
@@ -20,11 +21,8 @@ export interface SpectrumOptions extends CommonOptions, XYAxisText {
   markers: Marker[];
 }
 
-/** NV⁰ and NV⁻ zero-phonon lines, nm. */
-const ZPL_MARKERS: Marker[] = [
-  { position: 575.1, label: "NV⁰ ZPL" },
-  { position: 637.4, label: "NV⁻ ZPL" },
-];
+/** NV⁰ and NV⁻ zero-phonon lines, nm (sources beside NV_ZPL_MARKERS). */
+const ZPL_MARKERS: Marker[] = NV_ZPL_MARKERS;
 
 const SPECTRUM_DEFAULTS: SpectrumOptions = {
   dataName: "spectrum",
@@ -94,6 +92,8 @@ export const spectrumTemplate: FigureTemplate<SpectrumOptions> = {
 };
 
 export interface NvNmrOptions extends Omit<SpectrumOptions, "markers" | "xName" | "xUnit"> {
+  /** x axis name; default "frequency" or "τ" by `xQuantity` (the unit follows `xQuantity`). */
+  xName?: string;
   nucleus: Nucleus;
   /** Bias field along the NV axis, mT. */
   fieldMt: number;
@@ -151,6 +151,7 @@ export const nvNmrTemplate: FigureTemplate<NvNmrOptions> = {
       choices: (["1H", "13C", "19F", "14N", "15N"] as Nucleus[]).map((n) => ({ value: n, label: NUCLEI[n].label })),
     },
     { key: "fieldMt", label: "Bias field", kind: "number", default: 50, min: 0, unit: "mT" },
+    { key: "xName", label: "x axis name", kind: "text", help: "default: frequency, or τ for pulse spacing" },
     ...axisTextOptions("Signal", ["yName", "contrast"], ["yUnit", ""]),
   ],
   dataNames: dataNamesOf(NV_NMR_DEFAULTS, ["dataName", "fitName"]),
@@ -158,7 +159,7 @@ export const nvNmrTemplate: FigureTemplate<NvNmrOptions> = {
     const o = { ...NV_NMR_DEFAULTS, ...input };
     const marker = expectedNucleusMarker(o.nucleus, o.fieldMt, o.xQuantity);
     const spacing = o.xQuantity === "spacing";
-    const spectrum: SpectrumOptions = { ...o, xName: spacing ? "τ" : "frequency", xUnit: spacing ? "µs" : "MHz", markers: [marker] };
+    const spectrum: SpectrumOptions = { ...o, xName: o.xName || (spacing ? "τ" : "frequency"), xUnit: spacing ? "µs" : "MHz", markers: [marker] };
     const description = `NV-NMR spectrum with the ${NUCLEI[o.nucleus].label} line at ${o.fieldMt} mT`;
     return singleViewPanel(withPrint(o.print), description, {}, spectrumLayers(spectrum, OKABE_ITO.vermillion));
   },

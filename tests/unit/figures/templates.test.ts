@@ -82,9 +82,10 @@ describe("builder templates", () => {
   it("spectrum: labelled dashed rules at the zero-phonon lines by default", () => {
     const spec = build("spectrum");
     const markers = spec.layer[spec.layer.length - 1];
+    // As published: NV⁰ 575 nm, NV⁻ 637 nm (Manson et al., Phys. Rev. B 87, 155209 (2013), abstract; Doherty et al., Phys. Rep. 528, 1 (2013)).
     expect(markers.data.values).toEqual([
-      { position: 575.1, label: "NV⁰ ZPL" },
-      { position: 637.4, label: "NV⁻ ZPL" },
+      { position: 575, label: "NV⁰ ZPL" },
+      { position: 637, label: "NV⁻ ZPL" },
     ]);
     expect(markers.layer.map((l: Json) => l.mark.type)).toEqual(["rule", "text"]);
   });
