@@ -7,4 +7,7 @@ export async function register() {
   await sweepUploadTemp(30 * 60 * 1000).catch((err) => console.warn("[prooflight] could not sweep uploads/tmp:", (err as Error).message));
   const { startOutboxWorker } = await import("@/lib/server/mail/outbox");
   startOutboxWorker();
+  // Digests fall due at each person's hour; every instance may look (the unique period key sends each once).
+  const { startDigestScheduler } = await import("@/lib/server/mail/digests");
+  startDigestScheduler();
 }

@@ -15,3 +15,8 @@ export const NOTICE_LABELS: Record<NoticeKind, string> = {
   reply: "replies in threads you wrote in",
   mention: "@mentions",
 };
+
+/** What a one-click unsubscribe can turn off: a notice kind, or the digest. */
+export const MAIL_LIST_KINDS = [...NOTICE_KINDS, "digest"] as const;
+export type MailListKind = (typeof MAIL_LIST_KINDS)[number];
+export const MAIL_LIST_LABELS: Record<MailListKind, string> = { ...NOTICE_LABELS, digest: "the daily or weekly digest" };

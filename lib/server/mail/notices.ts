@@ -23,7 +23,7 @@ interface Notice {
 }
 
 /** A manuscript title short enough for a subject line: cut at a word, with an ellipsis. */
-function shortTitle(title: string, max = 48): string {
+export function shortTitle(title: string, max = 48): string {
   if (title.length <= max) return title;
   const cut = title.slice(0, max - 1);
   const space = cut.lastIndexOf(" ");

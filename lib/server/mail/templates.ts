@@ -4,6 +4,8 @@ import { ROLE_LABELS } from "@/lib/authz/policy";
 import type { Role } from "@/db/schema";
 import type { MailMessage } from "./enqueue";
 import { NOTICE_KINDS, NOTICE_LABELS, type NoticeKind } from "./notice-kinds";
+import type { Digest } from "./digests";
+import { shortTitle } from "./notices";
 import { unsubscribeToken } from "./unsubscribe";
 
 const escapeHtml = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
@@ -104,4 +106,61 @@ function severalSubject(items: NoticeRow[]): string {
   const where = manuscripts.size === 1 ? ` on ${items[0].subject.split(" — ").at(-1)}` : "";
   const s = `${items.length} updates${where}: ${about}`;
   return s.length > 200 ? `${s.slice(0, 199).trimEnd()}…` : s;
+}
+
+/** "Friday 2 January at 08:00" in the reader's own time zone. */
+function localMoment(d: Date, timeZone: string): string {
+  return new Intl.DateTimeFormat("en-GB", { timeZone, weekday: "long", day: "numeric", month: "long", hour: "2-digit", minute: "2-digit" }).format(d);
+}
+
+const figureHeading = (f: { number: number; title: string }) => `Figure ${f.number}${f.title ? ` “${f.title}”` : ""}`;
+
+/**
+ * A person's digest: what happened on their manuscripts since the last one, grouped by manuscript
+ * then figure, each line with its link; the footer and List-Unsubscribe headers turn the digest off.
+ */
+export function digestMail(to: string, userId: string, d: Digest): MailMessage {
+  const base = env().appUrl;
+  const token = unsubscribeToken(userId, ["digest"]);
+  const page = `${base}/unsubscribe?token=${encodeURIComponent(token)}`;
+  const oneClick = `${base}/api/unsubscribe?token=${encodeURIComponent(token)}`;
+  const settings = `${base}/settings/mail`;
+  const which = d.frequency === "daily" ? "Daily" : "Weekly";
+  const updates = `${d.count} ${d.count === 1 ? "update" : "updates"}`;
+  const where = d.manuscripts.length === 1 ? shortTitle(d.manuscripts[0].title) : `${d.manuscripts.length} manuscripts`;
+  const intro = `What happened on your manuscripts since ${localMoment(d.since, d.timeZone)} (${d.timeZone}).`;
+  const text = [
+    `${which} digest for ${d.name}`,
+    intro,
+    ...d.manuscripts.map((m) =>
+      [`== ${m.title}`, m.href, ...m.figures.map((f) => [``, `${figureHeading(f)}`, ...f.lines.map((l) => `- ${l.text}\n  ${l.href}`)].join("\n"))].join("\n"),
+    ),
+    `—\nStop the digest: ${page}\nChoose when it comes and which mails you get: ${settings}\n`,
+  ].join("\n\n");
+  const html = `<!doctype html><html><body style="font-family:Inter,Arial,sans-serif;color:#1f2328;background:#f7f5f0;padding:24px">
+<div style="max-width:560px;margin:auto;background:#fff;border:1px solid #ddd8cc;padding:24px">
+<h1 style="font-size:18px;margin:0 0 8px">${escapeHtml(`${which} digest`)}</h1><p style="margin:0 0 16px">${escapeHtml(intro)}</p>
+${d.manuscripts
+  .map(
+    (m) => `<h2 style="font-size:16px;margin:16px 0 8px"><a href="${escapeHtml(m.href)}" style="color:#1f2328">${escapeHtml(m.title)}</a></h2>
+${m.figures
+  .map(
+    (
+      f,
+    ) => `<h3 style="font-size:14px;margin:12px 0 4px"><a href="${escapeHtml(f.href)}" style="color:#1f2328">${escapeHtml(figureHeading(f))}</a></h3><ul style="margin:0;padding-left:20px">
+${f.lines.map((l) => `<li style="margin:0 0 6px"><a href="${escapeHtml(l.href)}" style="color:#1d4e89">${escapeHtml(l.text)}</a></li>`).join("")}</ul>`,
+  )
+  .join("")}`,
+  )
+  .join("")}
+<p style="font-size:12px;color:#555;border-top:1px solid #ddd8cc;padding-top:12px;margin-top:20px"><a href="${escapeHtml(page)}" style="color:#555">Stop the digest</a> · <a href="${escapeHtml(settings)}" style="color:#555">Choose when it comes and which mails you get</a></p>
+</div></body></html>`;
+  return {
+    kind: "digest",
+    to,
+    subject: `${which} digest: ${updates} on ${where}`,
+    text,
+    html,
+    headers: { "List-Unsubscribe": `<${oneClick}>`, "List-Unsubscribe-Post": "List-Unsubscribe=One-Click" },
+  };
 }

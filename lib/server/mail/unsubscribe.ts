@@ -6,7 +6,7 @@ import { mailPreferences, users } from "@/db/schema";
 import { env } from "@/lib/env";
 import { AppError, badRequest, notFound } from "@/lib/errors";
 import { appendAudit } from "../audit";
-import { NOTICE_KINDS, NOTICE_LABELS, type NoticeKind } from "./notice-kinds";
+import { MAIL_LIST_KINDS, MAIL_LIST_LABELS, type MailListKind } from "./notice-kinds";
 
 /** How long the link in a mail keeps working. */
 const TOKEN_LIFETIME_MS = 60 * 24 * 60 * 60 * 1000;
@@ -14,8 +14,8 @@ const TOKEN_LIFETIME_MS = 60 * 24 * 60 * 60 * 1000;
 interface Claims {
   /** The person whose mail is turned off. */
   u: string;
-  /** The notice kinds turned off. */
-  k: NoticeKind[];
+  /** The notice kinds (or "digest") turned off. */
+  k: MailListKind[];
   /** Expiry, milliseconds since the epoch. */
   e: number;
 }
@@ -28,8 +28,8 @@ function secret(): string {
 
 const sign = (payload: string) => createHmac("sha256", secret()).update(`prooflight-unsubscribe\n${payload}`).digest("base64url");
 
-/** A signed, expiring token naming one person and the notice kinds a click turns off; no database row. */
-export function unsubscribeToken(userId: string, kinds: NoticeKind[], now = Date.now()): string {
+/** A signed, expiring token naming one person and the notice kinds (or the digest) a click turns off; no database row. */
+export function unsubscribeToken(userId: string, kinds: MailListKind[], now = Date.now()): string {
   const payload = Buffer.from(JSON.stringify({ u: userId, k: [...new Set(kinds)].sort(), e: now + TOKEN_LIFETIME_MS } satisfies Claims)).toString("base64url");
   return `${payload}.${sign(payload)}`;
 }
@@ -49,7 +49,7 @@ function verify(token: string, now: number): Claims {
   } catch {
     throw badRequest(INVALID);
   }
-  if (typeof claims.u !== "string" || !Array.isArray(claims.k) || typeof claims.e !== "number" || !claims.k.every((k) => NOTICE_KINDS.includes(k)))
+  if (typeof claims.u !== "string" || !Array.isArray(claims.k) || typeof claims.e !== "number" || !claims.k.every((k) => MAIL_LIST_KINDS.includes(k)))
     throw badRequest(INVALID);
   if (claims.e < now) throw new AppError(410, "gone", "This unsubscribe link has expired. Sign in and choose which mails you get on the mail settings page.");
   return claims;
@@ -57,7 +57,7 @@ function verify(token: string, now: number): Claims {
 
 export interface UnsubscribeView {
   email: string;
-  kinds: Array<{ kind: NoticeKind; label: string; alreadyOff: boolean }>;
+  kinds: Array<{ kind: MailListKind; label: string; alreadyOff: boolean }>;
 }
 
 /** What a token would turn off, for the landing page; 400 for a forged, altered or expired token. */
@@ -66,7 +66,14 @@ export async function describeUnsubscribe(token: string, now = Date.now()): Prom
   const [u] = await getDb().select({ email: users.email }).from(users).where(eq(users.id, claims.u));
   if (!u) throw notFound("The account this link was sent to no longer exists.");
   const [p] = await getDb().select().from(mailPreferences).where(eq(mailPreferences.userId, claims.u));
-  return { email: u.email, kinds: claims.k.map((kind) => ({ kind, label: NOTICE_LABELS[kind], alreadyOff: p?.mutedKinds.includes(kind) ?? false })) };
+  return {
+    email: u.email,
+    kinds: claims.k.map((kind) => ({
+      kind,
+      label: MAIL_LIST_LABELS[kind],
+      alreadyOff: kind === "digest" ? p?.digest === "off" : (p?.mutedKinds.includes(kind) ?? false),
+    })),
+  };
 }
 
 /** Turns the token's kinds off for its person (a second click changes nothing) and says what is off. */
@@ -76,11 +83,12 @@ export async function applyUnsubscribe(token: string, now = Date.now()): Promise
     const [u] = await tx.select({ id: users.id }).from(users).where(eq(users.id, claims.u));
     if (!u) throw notFound("The account this link was sent to no longer exists.");
     const [p] = await tx.select().from(mailPreferences).where(eq(mailPreferences.userId, claims.u));
-    const muted = [...new Set([...(p?.mutedKinds ?? []), ...claims.k])].sort();
+    const muted = [...new Set([...(p?.mutedKinds ?? []), ...claims.k.filter((k) => k !== "digest")])].sort();
+    const digest = claims.k.includes("digest") ? ("off" as const) : (p?.digest ?? "daily");
     await tx
       .insert(mailPreferences)
-      .values({ userId: claims.u, mutedKinds: muted, unfollowed: p?.unfollowed ?? [], updatedAt: new Date(now) })
-      .onConflictDoUpdate({ target: mailPreferences.userId, set: { mutedKinds: muted, updatedAt: new Date(now) } });
+      .values({ userId: claims.u, mutedKinds: muted, unfollowed: p?.unfollowed ?? [], digest, updatedAt: new Date(now) })
+      .onConflictDoUpdate({ target: mailPreferences.userId, set: { mutedKinds: muted, digest, updatedAt: new Date(now) } });
     await appendAudit(tx, { actorId: claims.u, manuscriptId: null, action: "mail.unsubscribe", target: `user:${claims.u}`, data: { kinds: claims.k } });
   });
   return describeUnsubscribe(token, now);

@@ -25,3 +25,18 @@ export function prepareCommentBody(body: unknown, memberIds: Set<string>): { htm
   if (stranger) throw badRequest(`body: @mention of "${stranger}", who is not a member of this manuscript.`);
   return { html: sanitizeHtml(rendered.html, POLICY), mentions: rendered.mentions };
 }
+
+const ENTITIES: Record<string, string> = { "&amp;": "&", "&lt;": "<", "&gt;": ">", "&quot;": '"', "&#39;": "'", "&nbsp;": " " };
+
+/**
+ * A stored comment as plain text for a mail (notices, digests): through the same sanitiser with
+ * nothing allowed, block ends kept as spaces, cut at `max` characters with an ellipsis.
+ */
+export function commentExcerpt(html: string, max = 300): string {
+  const spaced = html.replace(/<\/(p|li|pre|blockquote)>|<br\s*\/?>/gi, "$& ");
+  const text = sanitizeHtml(spaced, { allowedTags: [], allowedAttributes: {} })
+    .replace(/&(amp|lt|gt|quot|#39|nbsp);/g, (e) => ENTITIES[e] ?? e)
+    .replace(/\s+/g, " ")
+    .trim();
+  return text.length > max ? `${text.slice(0, max - 1).trimEnd()}…` : text;
+}

@@ -5,6 +5,8 @@ import { MailPreferencesForm } from "./_components/mail-preferences-form";
 
 export const metadata = { title: "Mail" };
 
+const TIME_ZONES = ["UTC", ...Intl.supportedValuesOf("timeZone").filter((z) => z !== "UTC")];
+
 export default async function MailSettingsPage() {
   const user = await requireUser();
   const prefs = await getMailPreferences(user);
@@ -12,10 +14,10 @@ export default async function MailSettingsPage() {
     <>
       <PageHeader
         title="Mail"
-        subtitle={`Which review notices reach ${user.email}. Several within a minute arrive as one mail; sign-in links and invitations always arrive.`}
+        subtitle={`Which mail reaches ${user.email}: a digest, and review notices as they happen (several within a minute arrive as one mail). Sign-in links and invitations always arrive.`}
       />
       <Sheet className="max-w-2xl">
-        <MailPreferencesForm kinds={prefs.kinds} manuscripts={prefs.manuscripts} />
+        <MailPreferencesForm kinds={prefs.kinds} manuscripts={prefs.manuscripts} digest={prefs.digest} timeZones={TIME_ZONES} />
       </Sheet>
     </>
   );
