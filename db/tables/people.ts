@@ -164,7 +164,10 @@ export const mailOutbox = sqliteTable(
     to: text("to_address").notNull(),
     subject: text("subject").notNull(),
     text: text("text_body").notNull(),
+    /** Drawn from `view` by the outbox worker before the first attempt (react-email). */
     html: text("html_body"),
+    /** The data the HTML part is drawn from (lib/server/mail/render/mail-views.d.mts). */
+    view: text("view", { mode: "json" }).$type<{ kind: string }>(),
     /** Extra headers for the message (List-Unsubscribe and List-Unsubscribe-Post on notices). */
     headers: text("headers", { mode: "json" }).$type<Record<string, string>>(),
     status: text("status", { enum: ["pending", "sending", "sent", "failed"] })

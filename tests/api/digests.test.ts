@@ -248,7 +248,11 @@ describe("a week of activity", () => {
         "",
       ].join("\n"),
     );
-    // The HTML part carries the same links, user text escaped.
+    // The HTML part (react-email, drawn in the render child) carries the same links, user text escaped,
+    // no images, and a dark variant.
+    expect(weekly.html).toContain('<meta name="color-scheme" content="light dark"/>');
+    expect(weekly.html).not.toContain("<img");
+    for (const href of [...weekly.text.matchAll(/^ {2}(http\S+)$/gm)].map((m) => m[1]!)) expect(weekly.html).toContain(`href="${href}"`);
     expect(weekly.html).toContain(`href="${APP}/panels/${ids.p1}#thread-${ids.thread}"`);
     expect(weekly.html).toContain("&lt;√χ²&gt;");
     expect(weekly.html).not.toContain("<√χ²>");

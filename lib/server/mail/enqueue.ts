@@ -2,13 +2,16 @@ import "server-only";
 import type { Executor } from "@/db/client";
 import { mailOutbox } from "@/db/schema";
 import { newId } from "../crypto";
+import type { MailView } from "./render-html";
 
 export interface MailMessage {
   kind: string;
   to: string;
   subject: string;
+  /** The plain-text part: always complete (every link written out). */
   text: string;
-  html?: string;
+  /** What the HTML part is drawn from (react-email, when the outbox worker delivers). */
+  view?: MailView;
   /** Extra headers, e.g. List-Unsubscribe (RFC 2369) and List-Unsubscribe-Post (RFC 8058). */
   headers?: Record<string, string>;
 }
@@ -22,7 +25,7 @@ export async function enqueueMail(tx: Executor, m: MailMessage): Promise<string>
     to: m.to,
     subject: m.subject,
     text: m.text,
-    html: m.html ?? null,
+    view: m.view ?? null,
     headers: m.headers ?? null,
     nextAttemptAt: new Date(),
   });

@@ -1,10 +1,40 @@
 import "server-only";
-import { and, asc, eq, lte, or, lt, isNull } from "drizzle-orm";
+import { and, asc, eq, lte, or, lt, isNull, isNotNull } from "drizzle-orm";
 import nodemailer, { type Transporter } from "nodemailer";
 import { getDb } from "@/db/client";
 import { mailOutbox } from "@/db/schema";
 import { env } from "@/lib/env";
 import { flushNotices } from "./notices";
+import { renderMailHtml, type MailView } from "./render-html";
+
+const RENDER_BATCH = 500;
+
+/**
+ * Draws the HTML part of pending messages from their views (react-email, in the render child),
+ * once per message: a retry sends what was drawn. A message whose drawing failed goes out as text.
+ */
+async function drawPendingHtml(): Promise<void> {
+  const db = getDb();
+  for (;;) {
+    const rows = await db
+      .select({ id: mailOutbox.id, view: mailOutbox.view })
+      .from(mailOutbox)
+      .where(and(eq(mailOutbox.status, "pending"), isNull(mailOutbox.html), isNotNull(mailOutbox.view)))
+      .limit(RENDER_BATCH);
+    if (!rows.length) return;
+    const html = await renderMailHtml(rows.map((r) => r.view as MailView)).catch((err: unknown) => {
+      console.warn("[prooflight] mail HTML could not be drawn; sending text only:", (err as Error).message);
+      return rows.map(() => null);
+    });
+    // A view that cannot be drawn is dropped, so the message leaves as text rather than waiting.
+    for (const [i, r] of rows.entries())
+      await db
+        .update(mailOutbox)
+        .set(html[i] ? { html: html[i] } : { view: null })
+        .where(and(eq(mailOutbox.id, r.id), isNull(mailOutbox.html)));
+    if (rows.length < RENDER_BATCH) return;
+  }
+}
 
 const MAX_ATTEMPTS = 8;
 const LEASE_MS = 60_000;
@@ -50,23 +80,26 @@ export function deliverOutbox(): Promise<number> {
 
 async function deliverAll(): Promise<number> {
   await flushNotices();
+  await drawPendingHtml();
   let sent = 0;
   for (;;) {
     const msg = await claimNext(Date.now());
     if (!msg) return sent;
     try {
+      // Enqueued after this run drew the pending ones: draw it now.
+      const html = msg.html ?? (msg.view ? ((await renderMailHtml([msg.view as MailView]).catch(() => [null]))[0] ?? null) : null);
       await transport().sendMail({
         from: env().mailFrom,
         to: msg.to,
         subject: msg.subject,
         text: msg.text,
-        html: msg.html ?? undefined,
+        html: html ?? undefined,
         headers: msg.headers ?? undefined,
         messageId: `<${msg.id}@prooflight.localhost>`,
       });
       await getDb()
         .update(mailOutbox)
-        .set({ status: "sent", sentAt: new Date(), leaseUntil: null, attempts: msg.attempts + 1 })
+        .set({ status: "sent", sentAt: new Date(), leaseUntil: null, attempts: msg.attempts + 1, html })
         .where(eq(mailOutbox.id, msg.id));
       sent++;
     } catch (err) {

@@ -3,22 +3,11 @@ import { env } from "@/lib/env";
 import { ROLE_LABELS } from "@/lib/authz/policy";
 import type { Role } from "@/db/schema";
 import type { MailMessage } from "./enqueue";
+import type { DigestView, NoticesView } from "./render/mail-views.mjs";
 import { NOTICE_KINDS, NOTICE_LABELS, type NoticeKind } from "./notice-kinds";
 import type { Digest } from "./digests";
 import { shortTitle } from "./notices";
 import { unsubscribeToken } from "./unsubscribe";
-
-const escapeHtml = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
-
-function layout(title: string, paragraphs: string[], link: { href: string; label: string }): string {
-  const body = paragraphs.map((p) => `<p style="margin:0 0 12px">${escapeHtml(p)}</p>`).join("");
-  return `<!doctype html><html><body style="font-family:Inter,Arial,sans-serif;color:#1f2328;background:#f7f5f0;padding:24px">
-<div style="max-width:560px;margin:auto;background:#fff;border:1px solid #ddd8cc;padding:24px">
-<h1 style="font-size:18px;margin:0 0 16px">${escapeHtml(title)}</h1>${body}
-<p><a href="${escapeHtml(link.href)}" style="display:inline-block;padding:8px 14px;background:#1d4e89;color:#fff;text-decoration:none">${escapeHtml(link.label)}</a></p>
-<p style="font-size:12px;color:#555">Or paste this address into your browser: ${escapeHtml(link.href)}</p>
-</div></body></html>`;
-}
 
 export function signInLinkMail(to: string, token: string): MailMessage {
   const href = `${env().appUrl}/sign-in/link?token=${encodeURIComponent(token)}`;
@@ -31,7 +20,7 @@ export function signInLinkMail(to: string, token: string): MailMessage {
     to,
     subject: "Your Prooflight sign-in link",
     text: `${lines.join("\n\n")}\n\nSign in: ${href}\n`,
-    html: layout("Sign in to Prooflight", lines, { href, label: "Sign in" }),
+    view: { kind: "link", heading: "Sign in to Prooflight", paragraphs: lines, button: { href, label: "Sign in" } },
   };
 }
 
@@ -43,7 +32,7 @@ export function invitationMail(to: string, token: string, inviter: string, manus
     to,
     subject: `Invitation: ${manuscript}`,
     text: `${lines.join("\n\n")}\n\nAccept: ${href}\n`,
-    html: layout("You are invited to review figures", lines, { href, label: "Accept the invitation" }),
+    view: { kind: "link", heading: "You are invited to review figures", paragraphs: lines, button: { href, label: "Accept the invitation" } },
   };
 }
 
@@ -75,27 +64,18 @@ export function noticesMail(to: string, userId: string, items: NoticeRow[]): Mai
     ...items.map((i) => `${single ? "" : "• "}${i.headline}\n${i.body}\nOpen: ${i.href}\n`),
     `—\nStop mails about ${what}: ${page}\nChoose which mails you get: ${settings}\n`,
   ].join("\n");
-  const html = `<!doctype html><html><body style="font-family:Inter,Arial,sans-serif;color:#1f2328;background:#f7f5f0;padding:24px">
-<div style="max-width:560px;margin:auto;background:#fff;border:1px solid #ddd8cc;padding:24px">
-<h1 style="font-size:18px;margin:0 0 16px">${escapeHtml(single ? items[0].headline : subject)}</h1>
-${items
-  .map(
-    (i) => `<div style="margin:0 0 20px">${single ? "" : `<h2 style="font-size:15px;margin:0 0 8px">${escapeHtml(i.headline)}</h2>`}
-${i.body
-  .split("\n")
-  .map((l) => `<p style="margin:0 0 8px">${escapeHtml(l)}</p>`)
-  .join("")}
-<p style="margin:0"><a href="${escapeHtml(i.href)}" style="color:#1d4e89">Open it in Prooflight</a> <span style="font-size:12px;color:#555">(${escapeHtml(i.href)})</span></p></div>`,
-  )
-  .join("\n")}
-<p style="font-size:12px;color:#555;border-top:1px solid #ddd8cc;padding-top:12px"><a href="${escapeHtml(page)}" style="color:#555">Stop mails about ${escapeHtml(what)}</a> · <a href="${escapeHtml(settings)}" style="color:#555">Choose which mails you get</a></p>
-</div></body></html>`;
+  const view: NoticesView = {
+    kind: "notices",
+    heading: single ? items[0].headline : subject,
+    items: items.map((i) => ({ headline: single ? null : i.headline, lines: i.body.split("\n"), href: i.href })),
+    footer: { stop: { href: page, label: `Stop mails about ${what}` }, settings: { href: settings, label: "Choose which mails you get" } },
+  };
   return {
     kind: single ? items[0].kind : "notices",
     to,
     subject,
     text,
-    html,
+    view,
     headers: { "List-Unsubscribe": `<${oneClick}>`, "List-Unsubscribe-Post": "List-Unsubscribe=One-Click" },
   };
 }
@@ -137,30 +117,23 @@ export function digestMail(to: string, userId: string, d: Digest): MailMessage {
     ),
     `—\nStop the digest: ${page}\nChoose when it comes and which mails you get: ${settings}\n`,
   ].join("\n\n");
-  const html = `<!doctype html><html><body style="font-family:Inter,Arial,sans-serif;color:#1f2328;background:#f7f5f0;padding:24px">
-<div style="max-width:560px;margin:auto;background:#fff;border:1px solid #ddd8cc;padding:24px">
-<h1 style="font-size:18px;margin:0 0 8px">${escapeHtml(`${which} digest`)}</h1><p style="margin:0 0 16px">${escapeHtml(intro)}</p>
-${d.manuscripts
-  .map(
-    (m) => `<h2 style="font-size:16px;margin:16px 0 8px"><a href="${escapeHtml(m.href)}" style="color:#1f2328">${escapeHtml(m.title)}</a></h2>
-${m.figures
-  .map(
-    (
-      f,
-    ) => `<h3 style="font-size:14px;margin:12px 0 4px"><a href="${escapeHtml(f.href)}" style="color:#1f2328">${escapeHtml(figureHeading(f))}</a></h3><ul style="margin:0;padding-left:20px">
-${f.lines.map((l) => `<li style="margin:0 0 6px"><a href="${escapeHtml(l.href)}" style="color:#1d4e89">${escapeHtml(l.text)}</a></li>`).join("")}</ul>`,
-  )
-  .join("")}`,
-  )
-  .join("")}
-<p style="font-size:12px;color:#555;border-top:1px solid #ddd8cc;padding-top:12px;margin-top:20px"><a href="${escapeHtml(page)}" style="color:#555">Stop the digest</a> · <a href="${escapeHtml(settings)}" style="color:#555">Choose when it comes and which mails you get</a></p>
-</div></body></html>`;
+  const view: DigestView = {
+    kind: "digest",
+    heading: `${which} digest`,
+    intro,
+    manuscripts: d.manuscripts.map((m) => ({
+      title: m.title,
+      href: m.href,
+      figures: m.figures.map((f) => ({ heading: figureHeading(f), href: f.href, lines: f.lines.map((l) => ({ text: l.text, href: l.href })) })),
+    })),
+    footer: { stop: { href: page, label: "Stop the digest" }, settings: { href: settings, label: "Choose when it comes and which mails you get" } },
+  };
   return {
     kind: "digest",
     to,
     subject: `${which} digest: ${updates} on ${where}`,
     text,
-    html,
+    view,
     headers: { "List-Unsubscribe": `<${oneClick}>`, "List-Unsubscribe-Post": "List-Unsubscribe=One-Click" },
   };
 }

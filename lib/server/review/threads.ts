@@ -10,7 +10,7 @@ import { newId } from "../crypto";
 import { badRequest, conflict, forbidden, notFound } from "@/lib/errors";
 import { deliverOutbox } from "../mail/outbox";
 import { manuscriptOfPanel } from "../figures/scope";
-import { prepareCommentBody } from "./comment-body";
+import { commentExcerpt, prepareCommentBody } from "./comment-body";
 import { noticeComment } from "./review-notices";
 import { editCommentInput, newThreadInput, replyInput } from "./schemas";
 import { env } from "@/lib/env";
@@ -49,11 +49,7 @@ async function insertComment(
     .returning({ id: comments.id });
   if (!inserted[0]) return null;
   await appendAudit(tx, { actorId: user.id, manuscriptId, action: "comment.create", target: `comment:${id}`, data: { threadId, mentions: prepared.mentions } });
-  const excerpt = prepared.html
-    .replace(/<[^>]+>/g, " ")
-    .replace(/\s+/g, " ")
-    .trim()
-    .slice(0, 300);
+  const excerpt = commentExcerpt(prepared.html, 300);
   await noticeComment(tx, user, { id, threadId, panelId, mentions: prepared.mentions, excerpt });
   return id;
 }
