@@ -75,3 +75,14 @@ export const digestRuns = sqliteTable(
   },
   (t) => [uniqueIndex("digest_runs_user_period").on(t.userId, t.periodStart)],
 );
+
+/**
+ * An address the receiving server refused for good (an SMTP 5xx answer). Shown to the PI on the
+ * members page; a later successful delivery to it removes the mark.
+ */
+export const mailBounces = sqliteTable("mail_bounces", {
+  email: text("email").primaryKey(),
+  /** The SMTP server's answer, e.g. "550 5.1.1 <x@y>: Recipient address rejected". */
+  answer: text("answer").notNull(),
+  at: integer("at", { mode: "timestamp_ms" }).notNull(),
+});

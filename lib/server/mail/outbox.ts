@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, eq, lte, or, lt, isNull, isNotNull } from "drizzle-orm";
 import nodemailer, { type Transporter } from "nodemailer";
 import { getDb } from "@/db/client";
-import { mailOutbox } from "@/db/schema";
+import { mailBounces, mailOutbox } from "@/db/schema";
 import { env } from "@/lib/env";
 import { flushNotices } from "./notices";
 import { renderMailHtml, type MailView } from "./render-html";
@@ -101,23 +101,43 @@ async function deliverAll(): Promise<number> {
         .update(mailOutbox)
         .set({ status: "sent", sentAt: new Date(), leaseUntil: null, attempts: msg.attempts + 1, html })
         .where(eq(mailOutbox.id, msg.id));
+      await getDb().delete(mailBounces).where(eq(mailBounces.email, msg.to.toLowerCase()));
       sent++;
     } catch (err) {
       const tries = msg.attempts + 1;
-      const failed = tries >= MAX_ATTEMPTS;
+      const { code, answer } = smtpAnswer(err);
+      // 5xx: the receiving server refused for good (no such mailbox…): no retry, and the address is marked.
+      const refused = code !== null && code >= 500;
+      const failed = refused || tries >= MAX_ATTEMPTS;
       await getDb()
         .update(mailOutbox)
         .set({
           status: failed ? "failed" : "pending",
           attempts: tries,
-          lastError: String(err instanceof Error ? err.message : err).slice(0, 500),
+          lastError: answer.slice(0, 500),
           nextAttemptAt: new Date(Date.now() + Math.min(2 ** tries * 1000, 10 * 60_000)),
           leaseUntil: null,
         })
         .where(eq(mailOutbox.id, msg.id));
-      return sent; // the relay is probably down; the next tick retries
+      if (refused) {
+        const row = { email: msg.to.toLowerCase(), answer: answer.slice(0, 500), at: new Date() };
+        await getDb()
+          .insert(mailBounces)
+          .values(row)
+          .onConflictDoUpdate({ target: mailBounces.email, set: { answer: row.answer, at: row.at } });
+        continue; // the relay works; the next message may go through
+      }
+      return sent; // the relay is probably down or busy; the next tick retries, later and later
     }
   }
+}
+
+/** The SMTP reply code and text of a failed send (nodemailer puts them on the error), or the error's message. */
+function smtpAnswer(err: unknown): { code: number | null; answer: string } {
+  const e = err as { responseCode?: unknown; response?: unknown; message?: unknown };
+  const code = typeof e?.responseCode === "number" ? e.responseCode : null;
+  const answer = typeof e?.response === "string" && e.response ? e.response : String(err instanceof Error ? err.message : err);
+  return { code, answer };
 }
 
 let timer: NodeJS.Timeout | undefined;

@@ -4,6 +4,7 @@ import { formatDate } from "@/lib/data/format";
 import { listPendingInvitations } from "@/lib/server/members";
 import { BackToManuscript, loadManuscriptPage } from "../_components/manuscript-page";
 import { InviteForm, MemberControls } from "./_components/member-forms";
+import { MailDelivery } from "./_components/mail-delivery";
 
 export const metadata = { title: "Members" };
 
@@ -43,6 +44,7 @@ export default async function MembersPage({ params }: { params: Promise<{ id: st
               ))}
             </tbody>
           </table>
+          {mayManage ? <MailDelivery user={user} manuscriptId={id} /> : null}
           {invitations.length ? (
             <Sheet>
               <h2 className="text-sm font-semibold">Pending invitations</h2>
