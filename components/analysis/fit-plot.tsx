@@ -1,6 +1,7 @@
 "use client";
 import { useId, useState } from "react";
 import { extent, linearScale, logScale, padRange, type Scale } from "@/components/data/plot-scales";
+import { formatCount, formatValueError } from "@/lib/data/format";
 
 const W = 720;
 const LEFT = 70,
@@ -27,6 +28,25 @@ export interface FitPlotProps {
   modelTitle: string;
   /** The σ column's name, for the legend. */
   sigmaName?: string;
+  /** Fitted parameters, said in the plot's description ("T2 = 12.3 ± 0.4 µs"); a fixed one without error. */
+  parameters?: Array<{ name: string; value: number | null; stderr?: number | null; unit?: string | null; fixed?: boolean }>;
+}
+
+/** The plot in words, for screen readers: what is drawn against what, how many points, the fitted values. */
+export function fitPlotDescription(p: FitPlotProps & { logX: boolean }): string {
+  const points = (n: number) => `${formatCount(n)} point${n === 1 ? "" : "s"}`;
+  const residuals = p.data.residuals.filter((r) => r !== null && r !== undefined).length;
+  const sigma = p.data.sigma?.filter((v) => v !== null && Number.isFinite(v) && v > 0).length ?? 0;
+  const parts = [
+    `Scatter plot of ${p.yTitle} against ${p.xTitle}${p.logX ? " on a log scale" : ""}: ${points(p.data.x.length)}` +
+      `${sigma ? ` with ± σ error bars${p.sigmaName ? ` from ${p.sigmaName}` : ""}` : ""}, and the fitted curve (${p.modelTitle}) as a line of ${points(p.curve.x.length)}.`,
+    `Beneath, on the same x axis: ${p.residualTitle} (data − fit), ${points(residuals)}.`,
+  ];
+  const fitted = (p.parameters ?? []).map(
+    (q) => `${q.name} = ${formatValueError(q.value, q.fixed ? null : q.stderr)}${q.unit ? ` ${q.unit}` : ""}${q.fixed ? " (held fixed)" : ""}`,
+  );
+  if (fitted.length) parts.push(`Fitted values: ${fitted.join("; ")}.`);
+  return parts.join(" ");
 }
 
 /** ± σ as a vertical bar with caps, centred on (cx, cy) in pixels; `lo`/`hi` are the pixel ends. */
@@ -37,7 +57,8 @@ function ErrorBar({ cx, lo, hi }: { cx: number; lo: number; hi: number }) {
 }
 
 /** Data points with the fitted curve, and the residuals (data − fit) in a strip beneath on the same x axis. */
-export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle, sigmaName }: FitPlotProps) {
+export function FitPlot(props: FitPlotProps) {
+  const { data, curve, xTitle, yTitle, residualTitle, modelTitle, sigmaName } = props;
   const clip = `fit-clip-${useId().replace(/[^a-zA-Z0-9_-]/g, "")}`;
   const positive = data.x.length > 0 && data.x.every((v) => v > 0);
   const xPositive = extent([data.x], true);
@@ -93,7 +114,8 @@ export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle
         viewBox={`0 0 ${W} ${H}`}
         className="h-auto w-full rounded-sm border border-rule bg-white"
         role="img"
-        aria-label={`${yTitle} against ${xTitle}: ${data.x.length} data points${sigma ? ` with ± σ error bars${sigmaName ? ` from ${sigmaName}` : ""}` : ""} and the fitted curve; residuals beneath`}
+        aria-label={`Fit of ${modelTitle}: ${yTitle} against ${xTitle}, with residuals`}
+        aria-describedby={`${clip}-description`}
         data-testid="fit-plot"
       >
         <defs>
@@ -153,6 +175,9 @@ export function FitPlot({ data, curve, xTitle, yTitle, residualTitle, modelTitle
           return r === null || r === undefined ? null : <circle key={i} cx={xs(x)} cy={rs(r)} r={2.2} fill={DATA} fillOpacity={0.85} />;
         })}
       </svg>
+      <p id={`${clip}-description`} className="sr-only">
+        {fitPlotDescription({ ...props, logX: useLog })}
+      </p>
     </figure>
   );
 }

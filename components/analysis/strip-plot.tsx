@@ -1,3 +1,4 @@
+import { useId } from "react";
 import { extent, linearScale, padRange } from "@/components/data/plot-scales";
 import { formatNumber } from "@/lib/data/format";
 import type { PopulationStats } from "./api";
@@ -13,8 +14,20 @@ const POINT = "#0072B2";
 /** A small fixed spread so equal values stay visible side by side; the same every render. */
 const jitter = (i: number) => ((i * 0.618034) % 1) - 0.5;
 
+/** The plot in words, for screen readers: each group's n, mean and sd, and how they are drawn. */
+export function stripPlotDescription(stats: Pick<PopulationStats, "groups" | "groupBy">, yTitle: string): string {
+  const groups = stats.groups.map(
+    (g) => `${g.group}: n = ${g.n}, mean ${formatNumber(g.mean, 4)}${g.sd !== null && Number.isFinite(g.sd) ? `, sd ${formatNumber(g.sd, 3)}` : ""}`,
+  );
+  return (
+    `Strip plot of ${yTitle} per ${stats.groupBy}, ${stats.groups.length} group${stats.groups.length === 1 ? "" : "s"}: one dot per fitted value, ` +
+    `a thick line at the group mean and a bar of ± one standard deviation. ${groups.join("; ")}.`
+  );
+}
+
 /** Each group's values as dots, with the group mean ± sd as a bar and n under the name. */
 export function StripPlot({ stats, yTitle }: { stats: PopulationStats; yTitle: string }) {
+  const descriptionId = `strip-description-${useId().replace(/[^a-zA-Z0-9_-]/g, "")}`;
   const groups = stats.groups;
   const bars = groups.flatMap((g) => (g.sd === null || !Number.isFinite(g.sd) ? [g.mean] : [g.mean - g.sd, g.mean + g.sd]));
   const ys = linearScale(padRange(extent([stats.members.map((m) => m.value), bars]), 0.08), [BOTTOM, TOP], 5);
@@ -26,8 +39,10 @@ export function StripPlot({ stats, yTitle }: { stats: PopulationStats; yTitle: s
       className="h-auto w-full rounded-sm border border-rule bg-white"
       role="img"
       data-testid="strip-plot"
-      aria-label={`${yTitle} per ${stats.groupBy}: ${groups.map((g) => `${g.group} n = ${g.n}, mean ${formatNumber(g.mean, 3)}`).join("; ")}`}
+      aria-label={`Strip plot of ${yTitle} per ${stats.groupBy}`}
+      aria-describedby={descriptionId}
     >
+      <desc id={descriptionId}>{stripPlotDescription(stats, yTitle)}</desc>
       <rect x={LEFT} y={TOP} width={W - LEFT - RIGHT} height={BOTTOM - TOP} fill="none" stroke="#ddd8cc" />
       {ys.ticks.map((t) => (
         <g key={t.value}>

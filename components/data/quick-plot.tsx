@@ -1,6 +1,6 @@
 "use client";
 import { useEffect, useId, useRef, useState } from "react";
-import { axisTitle } from "@/lib/data/format";
+import { axisTitle, formatCount, formatNumber } from "@/lib/data/format";
 import type { PlotData } from "./api";
 import { extent, isAscending, linearScale, logScale, padRange, type Scale } from "./plot-scales";
 
@@ -23,6 +23,24 @@ function linePath(xs: Array<number | null>, ys: Array<number | null>, sx: Scale,
     pen = true;
   }
   return d;
+}
+
+/** The plot in words, for screen readers: kind, axes, points drawn (of how many rows) and the ranges. */
+export function quickPlotDescription(data: PlotData, logX: boolean, ordered: boolean): string {
+  const { x: xs, y: ys } = data.points;
+  const drawn = xs.filter((x, i) => x !== null && ys[i] !== null && Number.isFinite(x) && Number.isFinite(ys[i]) && (!logX || x > 0)).length;
+  const range = (v: Array<number | null>) => {
+    const finite = v.filter((n): n is number => n !== null && Number.isFinite(n));
+    if (!finite.length) return "with no values";
+    const [lo, hi] = finite.reduce(([a, b], n) => [Math.min(a, n), Math.max(b, n)], [Infinity, -Infinity]);
+    return `from ${formatNumber(lo)} to ${formatNumber(hi)}`;
+  };
+  const kind = ordered ? "Line chart" : "Scatter plot";
+  const of = data.rowCount !== xs.length ? ` (${data.downsampled ? "reduced for display" : "shown"} from ${formatCount(data.rowCount)} rows)` : "";
+  return (
+    `${kind} of ${axisTitle(data.y.name, data.y.unit)} against ${axisTitle(data.x.name, data.x.unit)}${logX ? " on a log scale" : ""}: ` +
+    `${formatCount(drawn)} point${drawn === 1 ? "" : "s"} drawn${of}. x ${range(xs)}; y ${range(ys)}.`
+  );
 }
 
 /** Drawn at the width it is shown, so tick labels keep their size on a phone. */
@@ -74,8 +92,10 @@ export function QuickPlot({ data, logX }: { data: PlotData; logX: boolean }) {
         className="block h-auto max-w-full"
         role="img"
         aria-label={`${yTitle} against ${xTitle}${logX ? " (log x)" : ""}, ${xs.length} points`}
+        aria-describedby={`${clipId}-description`}
         data-testid="quick-plot"
       >
+        <desc id={`${clipId}-description`}>{quickPlotDescription(data, logX, ordered)}</desc>
         <rect x={M.left} y={M.top} width={W - M.left - M.right} height={H - M.top - M.bottom} fill="#fff" stroke="var(--color-rule)" />
         <g fontSize={12} fill="var(--color-muted)">
           {sy.ticks

@@ -39,7 +39,7 @@ export function FigureThumbnail({
   return (
     <Thumb
       src={`/api/figures/${figure.id}/thumbnail${hashTag(figure.figureHash)}`}
-      alt={`Figure ${figure.number}: ${figure.title} — ${stateWords(figure.reviewState)}`}
+      alt={`Figure ${figure.number}${figure.title.trim() ? `: ${figure.title.trim()}` : ""} — ${stateWords(figure.reviewState)}`}
       width={width}
       height={height}
       label="drawing"

@@ -66,6 +66,10 @@ export function JsonEditor({
         }),
       ],
     });
+    // The scroller must be reachable by keyboard even when the text is read-only (not focusable itself).
+    v.scrollDOM.tabIndex = 0;
+    v.scrollDOM.setAttribute("role", "region");
+    v.scrollDOM.setAttribute("aria-label", `${label}, scrollable`);
     view.current = v;
     return () => {
       v.destroy();

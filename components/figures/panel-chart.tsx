@@ -1,12 +1,13 @@
 "use client";
 import { useQuery } from "@tanstack/react-query";
-import { useEffect, useMemo, useRef, useState } from "react";
+import { useEffect, useId, useMemo, useRef, useState } from "react";
 import type { Result } from "vega-embed";
 import embed from "vega-embed";
 import { expressionInterpreter } from "vega-interpreter";
 import { fetchJson } from "@/components/api-client";
+import { axisTitlesOf, describeChart } from "@/lib/figures/describe-chart";
 import { queryKeys, type BoundRows, type RevisionData, type ThreadAnchor } from "./api";
-import { ChartAnchors, type ChartAnchor, type PickMode } from "./chart-anchors";
+import { ChartAnchors, focusThread, type ChartAnchor, type PickMode } from "./chart-anchors";
 import { DataWarningList, NOTHING_DRAWN, previewWarnings } from "./data-warnings";
 import {
   dataMarkItems,
@@ -33,7 +34,11 @@ export interface PanelChartProps {
   anchors?: ChartAnchor[];
   pickMode?: PickMode;
   onPick?: (anchor: ThreadAnchor) => void;
-  /** Accessible name of the rendered figure. */
+  /** A thread's mark was activated (click, Enter, Space); by default its thread in the review column gets focus. */
+  onSelectAnchor?: (anchor: ChartAnchor) => void;
+  /** Fitted values the plot shows, formatted ("T2 = 12.3 ± 0.4 µs"), for the text alternative. */
+  fitSummary?: string[];
+  /** Accessible name of the rendered figure; the chart's own name (title, or what it plots) follows it. */
   label?: string;
   className?: string;
 }
@@ -49,9 +54,23 @@ interface Rendered {
  * anchors drawn over the plot. Specs the pure rules refuse (lib/figures/spec-security: display
  * options in usermeta, settings past the budget) are not drawn; the rest go through prepareSpec,
  * which drops usermeta, so vega-embed only sees the options below. Load it with next/dynamic
- * (ssr: false): Vega is large.
+ * (ssr: false): Vega is large. For assistive technology the drawing is one image, named and
+ * described from the spec and the rows (lib/figures/describe-chart); Vega's SVG is hidden from it.
  */
-export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors = [], pickMode = "none", onPick, label, className = "" }: PanelChartProps) {
+export function PanelChart({
+  spec,
+  data,
+  revisionId,
+  widthMm,
+  zoom = 1,
+  anchors = [],
+  pickMode = "none",
+  onPick,
+  onSelectAnchor,
+  fitSummary,
+  label,
+  className = "",
+}: PanelChartProps) {
   const fetched = useQuery({
     queryKey: queryKeys.revisionData(revisionId ?? ""),
     queryFn: () => fetchJson<RevisionData>(`/api/revisions/${revisionId}/data`),
@@ -142,11 +161,27 @@ export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors 
   const shownWarnings = drewNothing && rendered && !error && !warnings.some((w) => w.message.startsWith("Nothing")) ? [...warnings, NOTHING_DRAWN] : warnings;
   const reduced = Object.entries(rows ?? {}).filter(([, v]) => v.reduced);
   const missing = rows ? names.filter((n) => !rows[n]) : [];
+  const descriptionId = `chart-description-${useId().replace(/[^a-zA-Z0-9_-]/g, "")}`;
+  const text = useMemo(() => {
+    const counts = Object.fromEntries(Object.entries(rows ?? {}).map(([n, v]) => [n, v.rows.length]));
+    return describeChart(JSON.parse(specKey), counts, fitSummary);
+  }, [specKey, rows, fitSummary]);
+  const axes = useMemo(() => axisTitlesOf(JSON.parse(specKey)), [specKey]);
   return (
     <figure className={`m-0 ${className}`} aria-label={label} data-testid="panel-chart">
       <DataWarningList warnings={shownWarnings} className="mb-1" />
       <div className="relative bg-white" style={{ width: targetPx, minHeight: rendered ? heightPx : 80 }}>
-        <div ref={host} className={error ? "hidden" : ""} />
+        <div
+          role="img"
+          aria-label={label ? `${label}: ${text.name}` : text.name}
+          aria-describedby={descriptionId}
+          aria-busy={!rendered && !error}
+          className={error ? "hidden" : ""}
+          data-testid="panel-chart-image"
+        >
+          {/* Vega's SVG is hidden: the image is read as its name and the description below, not mark by mark. */}
+          <div ref={host} aria-hidden />
+        </div>
         {!rendered && !error ? <div className="absolute inset-0 animate-pulse bg-paper" aria-hidden /> : null}
         {rendered?.geometry && !error ? (
           <ChartAnchors
@@ -157,6 +192,8 @@ export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors 
             anchors={anchors}
             pickMode={pickMode}
             onPick={onPick}
+            onSelect={onSelectAnchor ?? focusThread}
+            axes={axes}
           />
         ) : null}
         {error ? (
@@ -165,6 +202,9 @@ export function PanelChart({ spec, data, revisionId, widthMm, zoom = 1, anchors 
           </p>
         ) : null}
       </div>
+      <p id={descriptionId} className="sr-only">
+        {text.description}
+      </p>
       {fetched.isError ? (
         <p role="alert" className="mt-1 text-xs text-bad">
           ✕ {fetched.error.message}

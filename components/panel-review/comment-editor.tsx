@@ -126,7 +126,7 @@ export function CommentEditor({ editor }: { editor: Editor | null }) {
           • list
         </Tool>
         <Tool label="Numbered list" on={!!active?.ordered} onClick={() => c().toggleOrderedList().run()}>
-          1. list
+          # list
         </Tool>
         <Tool label="Code block" on={!!active?.block} onClick={() => c().toggleCodeBlock().run()}>
           {"{ }"}

@@ -10,11 +10,23 @@ import { StateBadge } from "./state-badge";
 type Names = Map<string, string>;
 const list = (ids: string[], names: Names) => ids.map((id) => names.get(id) ?? "a former member").join(", ");
 
-function People({ label, ids, names, testId }: { label: string; ids: string[]; names: Names; testId?: string }) {
+/** One label/value pair of a `<dl>`: the people named, or `empty` ("—", read as "nobody"). */
+function People({ label, ids, names, testId, empty }: { label: string; ids: string[]; names: Names; testId?: string; empty?: string }) {
   return (
     <div className="flex gap-1.5" data-testid={testId}>
       <dt className="shrink-0 text-muted">{label}</dt>
-      <dd className="min-w-0">{ids.length ? list(ids, names) : <span className="text-muted">—</span>}</dd>
+      <dd className="min-w-0">
+        {ids.length ? (
+          list(ids, names)
+        ) : empty ? (
+          <span className="text-muted">{empty}</span>
+        ) : (
+          <span className="text-muted">
+            <span aria-hidden>—</span>
+            <span className="sr-only">nobody</span>
+          </span>
+        )}
+      </dd>
     </div>
   );
 }
@@ -44,8 +56,7 @@ function PanelCell({ p, names, byTarget }: { p: BoardPanel; names: Names; byTarg
     >
       <div className="flex flex-wrap items-start justify-between gap-x-2 gap-y-1">
         <Link href={`/panels/${p.id}`} className="min-w-0 flex-1 hover:underline">
-          <span className="mr-1.5 font-semibold">{p.letter}</span>
-          <span className="text-muted">{p.title || "untitled panel"}</span>
+          <span className="mr-0.5 font-semibold">{p.letter}</span> <span className="text-muted">{p.title || "untitled panel"}</span>
         </Link>
         <StateBadge state={p.reviewState} className="shrink-0" />
       </div>
@@ -83,7 +94,7 @@ export function BoardFigureRow({ f, names, byTarget, isPi }: { f: BoardFigure; n
   const last = figureLastActivity(f, byTarget);
   return (
     <li
-      className="grid gap-4 border-t border-rule py-5 first:border-t-0 md:grid-cols-[17rem_1fr]"
+      className="grid grid-cols-[minmax(0,1fr)] gap-4 border-t border-rule py-5 first:border-t-0 md:grid-cols-[17rem_minmax(0,1fr)]"
       aria-labelledby={`figure-${f.id}`}
       data-testid={`figure-row-${f.number}`}
     >
@@ -120,8 +131,7 @@ export function BoardFigureRow({ f, names, byTarget, isPi }: { f: BoardFigure; n
               ) : null}
             </dd>
           </div>
-          <People label="Required reviewers" ids={f.requiredReviewers} names={names} />
-          {!f.requiredReviewers.length ? <p className="text-muted">(none named: one approval per panel suffices)</p> : null}
+          <People label="Required reviewers" ids={f.requiredReviewers} names={names} empty="none named: one approval per panel suffices" />
           <div className="flex gap-1.5">
             <dt className="shrink-0 text-muted">Last activity</dt>
             <dd className="min-w-0">
@@ -137,11 +147,11 @@ export function BoardFigureRow({ f, names, byTarget, isPi }: { f: BoardFigure; n
         ) : null}
       </div>
       {f.panels.length ? (
-        <ol className="grid content-start gap-3 sm:grid-cols-[repeat(auto-fill,minmax(14rem,1fr))]" aria-label={`Panels of figure ${f.number}`}>
+        <ul className="grid content-start gap-3 sm:grid-cols-[repeat(auto-fill,minmax(14rem,1fr))]" aria-label={`Panels of figure ${f.number}`}>
           {f.panels.map((p) => (
             <PanelCell key={p.id} p={p} names={names} byTarget={byTarget} />
           ))}
-        </ol>
+        </ul>
       ) : (
         <p className="self-center rounded-sm border border-dashed border-rule p-4 text-sm text-muted">No panels yet.</p>
       )}

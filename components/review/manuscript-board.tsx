@@ -56,11 +56,11 @@ export function ManuscriptBoard({ initial, initialActivity }: { initial: Manuscr
           <span className="ml-auto">{isFetching ? "refreshing…" : error ? `✕ could not refresh: ${error.message}` : ""}</span>
         </p>
         {m.figures.length ? (
-          <ol className="rounded-sm border border-rule bg-paper/60 px-4">
+          <ul className="rounded-sm border border-rule bg-paper/60 px-4" aria-label="Figures">
             {m.figures.map((f) => (
               <BoardFigureRow key={f.id} f={f} names={names} byTarget={byTarget} isPi={roleAllows(m.role, "figure.signoff")} />
             ))}
-          </ol>
+          </ul>
         ) : (
           <EmptyState title="No figures yet">Figures and their panels appear here with their review state as soon as an author creates them.</EmptyState>
         )}
