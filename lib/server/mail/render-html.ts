@@ -32,7 +32,8 @@ let warm: Warm | undefined;
 let nextId = 1;
 
 function start(): Warm {
-  const child = fork(childPath(), [], { env: { NODE_ENV: "production" }, stdio: ["ignore", "ignore", "inherit", "ipc"] });
+  // execArgv: [] — fork would pass on the parent's flags, and --conditions=react-server (tsx scripts) makes react-dom/server throw.
+  const child = fork(childPath(), [], { execArgv: [], env: { NODE_ENV: "production" }, stdio: ["ignore", "ignore", "inherit", "ipc"] });
   const w: Warm = { child, ready: Promise.resolve() };
   w.ready = new Promise<void>((resolve, reject) => {
     const timer = setTimeout(() => reject(new Error("the mail render child did not start")), STARTUP_TIMEOUT_MS);
