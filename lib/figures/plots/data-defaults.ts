@@ -125,6 +125,26 @@ function zplMarkers(xUnit: string | null): Marker[] {
   return NV_ZPL_MARKERS.map((m) => ({ ...m, position: convert(m.position, "nm", xUnit) }));
 }
 
+/** Every option key `dataDefaults` may set: what a builder lets go of when other data are chosen. */
+export const DATA_DEFAULT_KEYS: ReadonlySet<string> = new Set([
+  "xField",
+  "yField",
+  "sigmaField",
+  "xName",
+  "xUnit",
+  "yName",
+  "yUnit",
+  "xScale",
+  "markers",
+  "xQuantity",
+  "valueField",
+  "unit",
+  "colorTitle",
+  "groupField",
+  "groupName",
+  "valueName",
+]);
+
 /**
  * Options of `template` that follow the data (only keys the template has): columns, axis names
  * and units, scales, markers. The builder uses them where the person has not chosen otherwise.
@@ -166,5 +186,5 @@ export function dataDefaults(template: FigureTemplate<any>, facts: DataFacts): R
     Object.assign(out, { groupField: group?.name, groupName: group?.name, valueField: value?.name, valueName: value?.name, unit: unit(value) });
   }
   const keys = new Set(template.options.map((o) => o.key));
-  return Object.fromEntries(Object.entries(out).filter(([k, v]) => keys.has(k) && v !== undefined));
+  return Object.fromEntries(Object.entries(out).filter(([k, v]) => keys.has(k) && DATA_DEFAULT_KEYS.has(k) && v !== undefined));
 }

@@ -9,6 +9,7 @@ import { NV_NMR_FIELD_T } from "@/lib/demo-data/nv-nmr";
 import { DARK_COUNTS } from "@/lib/demo-data/pl-spectrum";
 import { commentDoc, darkSubtractedSpectrum, depthEstimate, populationTable, STORY_FIGURES, type PopulationRow, type StoryUpload } from "@/lib/demo-data/story";
 import { getModel } from "@/lib/analysis";
+import { withTemplateRecord } from "@/lib/figures/template-record";
 import { getTemplate, type CommonOptions } from "@/lib/figures/templates";
 import type { AnalysisInput } from "../analyses/schemas";
 import { populationStatistics } from "../analyses/population";
@@ -328,7 +329,7 @@ function panelWidthMm(f: FigureRef, span: number): number {
   return Math.round((col * span + 2 * (span - 1)) * 10) / 10;
 }
 
-/** A panel with its first revision, its spec built by a figure template as the builder would. */
+/** A panel with its first revision, its spec built by a figure template as the builder would (the options recorded in it). */
 async function panel(
   user: Account,
   f: FigureRef,
@@ -340,7 +341,7 @@ async function panel(
   if (!template) throw new Error(`demo story: no figure template ${build.template}`);
   const colSpan = build.colSpan ?? 1;
   const options = { ...build.options, print: { widthMm: panelWidthMm(f, colSpan), heightMm: build.heightMm ?? 55 } } as Partial<CommonOptions>;
-  const spec = template.build(options) as unknown as Record<string, unknown>;
+  const spec = withTemplateRecord(template.build(options), { id: template.id, options });
   const p = await addPanel(user, f.id, { title, colSpan });
   const rev = await createRevision(user, p.id, { spec, bindings: build.bindings, baseRevisionId: null, message });
   return { panelId: p.id, revisionId: rev.id, spec };
