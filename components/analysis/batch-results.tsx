@@ -15,7 +15,7 @@ export function BatchResults({ outcomes, model, groupTag }: { outcomes: BatchOut
   const unitOf = (name: string) => outcomes.find((o) => o.run)?.run?.parameters.find((p) => p.name === name)?.unit ?? "";
   const th = "px-2.5 py-2 whitespace-nowrap";
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="w-full border border-rule bg-sheet text-sm" aria-label="Batch fit results">
         <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
           <tr>

@@ -51,52 +51,55 @@ export function FitResultView({ result, modelTitle, xName, yName }: { result: Fi
         yTitle={yTitle}
         residualTitle={axisTitle("residual", result.units.y)}
         sigmaName={result.options.sigma}
+        parameters={result.parameters}
       />
       <div className="space-y-4">
-        <table className="w-full text-sm" aria-label="Fitted parameters">
-          <thead className="text-left text-xs uppercase tracking-wide text-muted">
-            <tr className="border-b border-rule">
-              <th className="py-1.5 pr-3">Parameter</th>
-              <th className="py-1.5 pr-3">Value ± standard error</th>
-              <th className="py-1.5 pr-3">Unit</th>
-              <th className="py-1.5">Note</th>
-            </tr>
-          </thead>
-          <tbody className="divide-y divide-rule/70">
-            {result.parameters.map((p) => (
-              <tr key={p.name} data-testid={`param-${p.name}`}>
-                <th scope="row" className="py-1.5 pr-3 text-left font-mono font-medium">
-                  {p.name}
-                </th>
-                <td className="py-1.5 pr-3 tabular-nums">{formatValueError(p.value, p.fixed ? null : p.stderr)}</td>
-                <td className="py-1.5 pr-3">{p.unit || <span className="text-muted">1</span>}</td>
-                <td className="py-1.5 text-xs">
-                  {p.fixed ? (
-                    <span className="text-muted">
-                      <span aria-hidden>◇ </span>held fixed
-                    </span>
-                  ) : null}
-                  {p.atBound ? (
-                    <span className="text-warn">
-                      <span aria-hidden className="font-bold">
-                        ⚠{" "}
-                      </span>
-                      at a bound
-                    </span>
-                  ) : null}
-                  {!p.fixed && p.stderr === null ? (
-                    <span className="text-warn">
-                      <span aria-hidden className="font-bold">
-                        ⚠{" "}
-                      </span>
-                      not determined
-                    </span>
-                  ) : null}
-                </td>
+        <div className="relative overflow-x-auto">
+          <table className="w-full text-sm" aria-label="Fitted parameters">
+            <thead className="text-left text-xs uppercase tracking-wide text-muted">
+              <tr className="border-b border-rule">
+                <th className="py-1.5 pr-3">Parameter</th>
+                <th className="py-1.5 pr-3">Value ± standard error</th>
+                <th className="py-1.5 pr-3">Unit</th>
+                <th className="py-1.5">Note</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody className="divide-y divide-rule/70">
+              {result.parameters.map((p) => (
+                <tr key={p.name} data-testid={`param-${p.name}`}>
+                  <th scope="row" className="py-1.5 pr-3 text-left font-mono font-medium">
+                    {p.name}
+                  </th>
+                  <td className="py-1.5 pr-3 tabular-nums">{formatValueError(p.value, p.fixed ? null : p.stderr)}</td>
+                  <td className="py-1.5 pr-3">{p.unit || <span className="text-muted">1</span>}</td>
+                  <td className="py-1.5 text-xs">
+                    {p.fixed ? (
+                      <span className="text-muted">
+                        <span aria-hidden>◇ </span>held fixed
+                      </span>
+                    ) : null}
+                    {p.atBound ? (
+                      <span className="text-warn">
+                        <span aria-hidden className="font-bold">
+                          ⚠{" "}
+                        </span>
+                        at a bound
+                      </span>
+                    ) : null}
+                    {!p.fixed && p.stderr === null ? (
+                      <span className="text-warn">
+                        <span aria-hidden className="font-bold">
+                          ⚠{" "}
+                        </span>
+                        not determined
+                      </span>
+                    ) : null}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
         <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm" aria-label="Goodness of fit">
           <dt className="text-muted">χ²ᵣ</dt>
           <dd className="tabular-nums" data-testid="chi2red">

@@ -70,7 +70,7 @@ export function ColumnSelects({
     </option>
   ));
   return (
-    <div className="grid grid-cols-3 gap-3">
+    <div className="grid grid-cols-1 gap-3 min-[420px]:grid-cols-3">
       <Field label="x column">
         <Select value={value.x} onChange={(e) => onChange({ ...value, x: e.target.value })}>
           {options}

@@ -8,7 +8,7 @@ const n = (v: number | null | undefined) => formatNumber(v, 4);
 /** Per group: n, mean, sd, sem, median, IQR, range and the t-based 95 % CI of the mean. */
 export function GroupsTable({ stats }: { stats: PopulationStats }) {
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       {stats.unit ? <p className="mb-1 text-xs text-muted">All values in {stats.unit} (n is a count).</p> : null}
       <table className="w-full border border-rule bg-sheet text-sm" aria-label={`Statistics of ${stats.parameter} per group`}>
         <thead className="bg-paper text-left text-xs tracking-wide text-muted">
@@ -59,7 +59,7 @@ export function GroupsTable({ stats }: { stats: PopulationStats }) {
 export function ComparisonsTable({ stats }: { stats: PopulationStats }) {
   if (!stats.comparisons.length) return <p className="text-sm text-muted">Comparisons need at least two groups.</p>;
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="w-full border border-rule bg-sheet text-sm" aria-label="Comparisons between groups">
         <thead className="bg-paper text-left text-xs tracking-wide text-muted">
           <tr>

@@ -35,7 +35,7 @@ export function StoredRuns({ runs, models }: { runs: StoredRun[]; models: readon
     return <EmptyState title="No stored runs on this version yet">A saved fit appears here with its parameters and a derived version.</EmptyState>;
   const byId = new Map(models.map((m) => [m.id, m]));
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="w-full border border-rule bg-sheet text-sm" aria-label="Stored runs on this version">
         <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
           <tr>

@@ -188,7 +188,7 @@ export function ReviewQueue() {
           {rows.length} of {data.length} shown{isFetching ? " · refreshing…" : error ? ` · ✕ could not refresh: ${error.message}` : ""}
         </span>
       </div>
-      <div className="overflow-x-auto border border-rule bg-sheet">
+      <div className="relative overflow-x-auto border border-rule bg-sheet">
         <table className="w-full text-sm">
           <caption className="sr-only">What waits on you; select a column heading to sort</caption>
           <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">

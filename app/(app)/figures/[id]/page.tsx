@@ -15,7 +15,7 @@ export default async function FigurePage({ params }: { params: Promise<{ id: str
   const [title, members] = await Promise.all([getManuscriptTitle(figure.manuscriptId), listMembers(figure.manuscriptId)]);
   return (
     <>
-      <nav aria-label="Breadcrumb" className="mb-2 text-sm text-muted">
+      <nav aria-label="Breadcrumb" className="mb-2 text-sm text-muted print:hidden">
         <ol className="flex flex-wrap gap-1">
           <li>
             <Link href={`/manuscripts/${figure.manuscriptId}`} className="underline">
@@ -36,6 +36,7 @@ export default async function FigurePage({ params }: { params: Promise<{ id: str
       <FigureWorkspace
         initial={JSON.parse(JSON.stringify(figure)) as FigureView}
         members={members.map(({ userId, name, email, role }) => ({ userId, name, email, role }))}
+        manuscriptTitle={title}
       />
     </>
   );

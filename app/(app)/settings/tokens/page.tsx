@@ -13,37 +13,39 @@ export default async function TokensPage() {
   return (
     <>
       <PageHeader title="API tokens" subtitle="For scripts on instrument PCs: send Authorization: Bearer <token>. A token acts as you, with your roles." />
-      <div className="grid gap-6 lg:grid-cols-[1fr_340px]">
-        <table className="w-full self-start border border-rule bg-sheet text-sm">
-          <caption className="sr-only">Your API tokens</caption>
-          <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
-            <tr>
-              <th className="px-4 py-2">Name</th>
-              <th className="px-4 py-2">Starts with</th>
-              <th className="px-4 py-2">Created</th>
-              <th className="px-4 py-2">Last used</th>
-              <th className="px-4 py-2">State</th>
-            </tr>
-          </thead>
-          <tbody className="divide-y divide-rule">
-            {tokens.length === 0 ? (
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_340px]">
+        <div className="relative min-w-0 self-start overflow-x-auto">
+          <table className="w-full border border-rule bg-sheet text-sm">
+            <caption className="sr-only">Your API tokens</caption>
+            <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
               <tr>
-                <td colSpan={5} className="px-4 py-6 text-center text-muted">
-                  No tokens yet.
-                </td>
+                <th className="px-4 py-2">Name</th>
+                <th className="px-4 py-2">Starts with</th>
+                <th className="px-4 py-2">Created</th>
+                <th className="px-4 py-2">Last used</th>
+                <th className="px-4 py-2">State</th>
               </tr>
-            ) : null}
-            {tokens.map((t) => (
-              <tr key={t.id}>
-                <td className="px-4 py-2.5 font-medium">{t.name}</td>
-                <td className="px-4 py-2.5 font-mono text-xs">{t.prefix}…</td>
-                <td className="px-4 py-2.5">{formatDate(t.createdAt)}</td>
-                <td className="px-4 py-2.5">{formatDate(t.lastUsedAt)}</td>
-                <td className="px-4 py-2.5">{t.revokedAt ? <span>⊘ revoked</span> : <RevokeTokenButton tokenId={t.id} name={t.name} />}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody className="divide-y divide-rule">
+              {tokens.length === 0 ? (
+                <tr>
+                  <td colSpan={5} className="px-4 py-6 text-center text-muted">
+                    No tokens yet.
+                  </td>
+                </tr>
+              ) : null}
+              {tokens.map((t) => (
+                <tr key={t.id}>
+                  <td className="px-4 py-2.5 font-medium">{t.name}</td>
+                  <td className="px-4 py-2.5 font-mono text-xs">{t.prefix}…</td>
+                  <td className="px-4 py-2.5">{formatDate(t.createdAt)}</td>
+                  <td className="px-4 py-2.5">{formatDate(t.lastUsedAt)}</td>
+                  <td className="px-4 py-2.5">{t.revokedAt ? <span>⊘ revoked</span> : <RevokeTokenButton tokenId={t.id} name={t.name} />}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
         <Sheet>
           <h2 className="mb-3 text-sm font-semibold">New token</h2>
           <NewTokenForm />

@@ -9,13 +9,15 @@ import { PanelChartLazy } from "@/components/figures/panel-chart-lazy";
 import { OpenThreads, ReviewStateBadge } from "@/components/figures/review-state";
 import { PX_PER_MM } from "@/components/figures/vega-render";
 import { MmRuler } from "./mm-ruler";
+import { usePrintedAt } from "./use-printing";
 
 const ZOOMS = { min: 50, max: 200, step: 10 };
 
 /** The figure at print size (96 CSS px per inch at 100 %), with mm rulers and zoom; panels on the figure's grid. */
 export function FigureCanvas({ figure }: { figure: FigureView }) {
   const [zoomPct, setZoomPct] = useState(100);
-  const zoom = zoomPct / 100;
+  // Printed, the figure is always at its true size (the print stylesheet hides rulers and controls).
+  const zoom = usePrintedAt() !== null ? 1 : zoomPct / 100;
   const perMm = PX_PER_MM * zoom;
   const content = useRef<HTMLDivElement>(null);
   const [contentMm, setContentMm] = useState(0);
@@ -32,7 +34,7 @@ export function FigureCanvas({ figure }: { figure: FigureView }) {
 
   return (
     <section aria-label={`Figure ${figure.number} at print size`}>
-      <div className="mb-2 flex flex-wrap items-center gap-3 text-sm">
+      <div className="mb-2 flex flex-wrap items-center gap-3 text-sm print:hidden">
         <span className="text-muted tabular">
           {figure.widthMm} mm × up to {figure.maxHeightMm} mm · {figure.columns} column{figure.columns === 1 ? "" : "s"}
         </span>
@@ -76,14 +78,16 @@ export function FigureCanvas({ figure }: { figure: FigureView }) {
           </button>
         </div>
       </div>
-      <div className="overflow-auto rounded-sm border border-rule bg-[#e9e5dc] p-4">
-        <div className="grid w-max" style={{ gridTemplateColumns: "22px auto" }}>
-          <div className="bg-sheet" />
+      <div className="overflow-auto rounded-sm border border-rule bg-[#e9e5dc] p-4 print:overflow-visible print:border-0 print:bg-transparent print:p-0">
+        <div className="grid w-max print:block" style={{ gridTemplateColumns: "22px auto" }}>
+          <div className="bg-sheet print:hidden" />
           <MmRuler lengthMm={figure.widthMm} zoom={zoom} orientation="horizontal" />
           <MmRuler lengthMm={sheetMm} zoom={zoom} orientation="vertical" />
           <div
-            className="relative bg-white shadow-[0_1px_3px_rgba(0,0,0,0.15)]"
+            className="relative bg-white shadow-[0_1px_3px_rgba(0,0,0,0.15)] print:min-h-0! print:shadow-none"
             style={{ width: figure.widthMm * perMm, minHeight: sheetMm * perMm }}
+            role="group"
+            aria-label={`Figure ${figure.number}${figure.title ? `: ${figure.title}` : ""}, ${figure.panels.length} panel${figure.panels.length === 1 ? "" : "s"} on ${figure.columns} column${figure.columns === 1 ? "" : "s"}`}
             data-testid="figure-sheet"
           >
             <div
@@ -97,7 +101,7 @@ export function FigureCanvas({ figure }: { figure: FigureView }) {
             </div>
             <div
               aria-hidden
-              className="pointer-events-none absolute inset-x-0 border-t border-dashed border-bad/60"
+              className="pointer-events-none absolute inset-x-0 border-t border-dashed border-bad/60 print:hidden"
               style={{ top: figure.maxHeightMm * perMm }}
             >
               <span className="absolute right-1 top-0.5 bg-white/80 px-1 text-[10px] text-bad">max height {figure.maxHeightMm} mm</span>
@@ -106,7 +110,7 @@ export function FigureCanvas({ figure }: { figure: FigureView }) {
         </div>
       </div>
       {tooTall ? (
-        <p role="status" className="mt-2 text-sm text-warn">
+        <p role="status" className="mt-2 text-sm text-warn print:hidden">
           <span aria-hidden>△ </span>The panels are {Math.round(contentMm)} mm tall, more than the maximum height of {figure.maxHeightMm} mm.
         </p>
       ) : null}
@@ -125,19 +129,24 @@ function PanelTile({ panel, figure, zoom }: { panel: FigurePanel; figure: Figure
   });
   const widthMm = panelWidthMm(figure, panel.colSpan);
   const letterPx = ((8 * 96) / 72) * zoom;
+  // The link holds only the letter (its visible text is part of its name); its ::after covers the tile, so all of it stays clickable.
   return (
-    <Link
-      href={`/panels/${panel.id}`}
-      className="group relative block outline-offset-2 hover:bg-accent-soft/30"
+    <div
+      className="group relative hover:bg-accent-soft/30"
       style={{ gridColumn: `span ${Math.min(figure.columns, panel.colSpan)}` }}
-      aria-label={`Panel ${panel.letter}${panel.title ? `: ${panel.title}` : ""}`}
       data-testid={`panel-tile-${panel.letter}`}
     >
       <div className="flex items-center justify-between gap-2">
-        <b className="leading-none" style={{ fontSize: letterPx }} data-testid="panel-letter">
-          {panel.letter}
-        </b>
-        <span className="flex items-center gap-1.5 opacity-90 group-hover:opacity-100">
+        <Link
+          href={`/panels/${panel.id}`}
+          className="after:absolute after:inset-0 after:z-10 after:content-[''] focus-visible:outline-none! focus-visible:after:outline-2 focus-visible:after:outline-solid focus-visible:after:outline-offset-2 focus-visible:after:outline-accent"
+          aria-label={`Panel ${panel.letter}${panel.title ? `: ${panel.title}` : ""}`}
+        >
+          <b className="leading-none" style={{ fontSize: letterPx }} data-testid="panel-letter">
+            {panel.letter}
+          </b>
+        </Link>
+        <span className="flex items-center gap-1.5 opacity-90 group-hover:opacity-100 print:hidden">
           <ReviewStateBadge state={panel.reviewState} />
           {panel.openThreads ? <OpenThreads count={panel.openThreads} /> : null}
         </span>
@@ -149,6 +158,6 @@ function PanelTile({ panel, figure, zoom }: { panel: FigurePanel; figure: Figure
           {rev ? "loading…" : "no revision yet — open the panel to build it"}
         </div>
       )}
-    </Link>
+    </div>
   );
 }

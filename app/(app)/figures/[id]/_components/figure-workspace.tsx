@@ -6,10 +6,13 @@ import { fetchJson } from "@/components/api-client";
 import { queryKeys, type FigureView, type MemberView } from "@/components/figures/api";
 import { OpenThreads, ReviewStateBadge } from "@/components/figures/review-state";
 import { SignoffBox } from "@/components/review/signoff-box";
+import { formatDate } from "@/lib/data/format";
+import { STATE_LABELS } from "@/lib/review/derive-state";
 import { FigureCanvas } from "./figure-canvas";
 import { FigureSettings } from "./figure-settings";
 import { PanelManager } from "./panel-manager";
 import { TraceTable } from "./trace-table";
+import { usePrintedAt } from "./use-printing";
 
 const EXPORTS = [
   { format: "svg", label: "SVG (vector)" },
@@ -28,8 +31,11 @@ function Side({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-/** The figure page: the figure at print size in the centre; settings, panels, trace, sign-off and exports beside it. */
-export function FigureWorkspace({ initial, members }: { initial: FigureView; members: MemberView[] }) {
+/**
+ * The figure page: the figure at print size in the centre; settings, panels, trace, sign-off and exports beside it.
+ * Printed (print: variants), only the figure at its true width in mm, its number and title, and a caption line.
+ */
+export function FigureWorkspace({ initial, members, manuscriptTitle }: { initial: FigureView; members: MemberView[]; manuscriptTitle: string }) {
   const { data: figure = initial } = useQuery({
     queryKey: queryKeys.figure(initial.id),
     queryFn: () => fetchJson<FigureView>(`/api/figures/${initial.id}`),
@@ -43,14 +49,15 @@ export function FigureWorkspace({ initial, members }: { initial: FigureView; mem
     requestAnimationFrame(() => document.getElementById("trace")?.scrollIntoView({ behavior: "smooth", block: "start" }));
   };
   const open = figure.panels.reduce((n, p) => n + p.openThreads, 0);
+  const printedAt = usePrintedAt();
   return (
     <>
-      <header className="mb-5 flex flex-wrap items-end justify-between gap-3 border-b border-rule pb-3">
+      <header className="mb-5 flex flex-wrap items-end justify-between gap-3 border-b border-rule pb-3 print:mb-[3mm] print:border-0 print:pb-0">
         <div>
-          <h1 className="text-2xl font-semibold tracking-tight">
+          <h1 className="text-2xl font-semibold tracking-tight print:text-[11pt]">
             Figure {figure.number} · {figure.title}
           </h1>
-          <p className="mt-1 flex flex-wrap items-center gap-2 text-sm text-muted">
+          <p className="mt-1 flex flex-wrap items-center gap-2 text-sm text-muted print:hidden">
             <ReviewStateBadge state={figure.reviewState} />
             <span>
               {figure.panels.length} panel{figure.panels.length === 1 ? "" : "s"}
@@ -59,12 +66,18 @@ export function FigureWorkspace({ initial, members }: { initial: FigureView; mem
           </p>
         </div>
       </header>
-      <div className="grid grid-cols-1 gap-6 xl:grid-cols-[minmax(0,1fr)_300px]">
+      <div className="grid grid-cols-1 gap-6 xl:grid-cols-[minmax(0,1fr)_300px] print:block">
         <div className="min-w-0 space-y-4">
           <FigureCanvas figure={figure} />
-          <TraceTable figureId={figure.id} open={traceOpen} onToggle={setTraceOpen} />
+          <p className="hidden print:mt-[3mm] print:block print:text-[8pt] print:text-muted" data-testid="print-caption">
+            {manuscriptTitle} · {STATE_LABELS[figure.reviewState].label} · printed {printedAt !== null ? formatDate(printedAt) : null}
+          </p>
+          <div className="print:hidden">
+            <TraceTable figureId={figure.id} open={traceOpen} onToggle={setTraceOpen} />
+          </div>
         </div>
-        <aside className="space-y-4">
+        {/* Below xl the side sections sit under the figure, two abreast from md. */}
+        <aside className="grid min-w-0 grid-cols-1 content-start gap-4 md:grid-cols-2 xl:grid-cols-1 print:hidden">
           <Side title="Panels">
             <PanelManager figure={figure} editable={editable} />
           </Side>

@@ -37,7 +37,7 @@ export function MmRuler({ lengthMm, zoom, orientation }: { lengthMm: number; zoo
   const w = orientation === "horizontal" ? length : thick;
   const h = orientation === "horizontal" ? thick : length;
   return (
-    <svg width={w} height={h} className="block shrink-0 bg-sheet text-muted" aria-hidden data-testid={`ruler-${orientation}`}>
+    <svg width={w} height={h} className="block shrink-0 bg-sheet text-muted print:hidden" aria-hidden data-testid={`ruler-${orientation}`}>
       <g stroke="currentColor" strokeWidth={0.75}>
         {ticks}
       </g>

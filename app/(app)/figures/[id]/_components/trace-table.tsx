@@ -23,7 +23,7 @@ export function TraceTable({ figureId, open, onToggle }: { figureId: string; ope
         </p>
       ) : null}
       {trace.data ? (
-        <div className="mt-2 overflow-x-auto">
+        <div className="relative mt-2 overflow-x-auto">
           <p className="mb-1 text-xs text-muted">
             figure hash <code title={trace.data.figure.figureHash}>{shortHash(trace.data.figure.figureHash, 16)}</code>
           </p>

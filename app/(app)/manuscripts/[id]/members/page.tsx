@@ -15,35 +15,37 @@ export default async function MembersPage({ params }: { params: Promise<{ id: st
   return (
     <>
       <PageHeader title="Members" subtitle={<BackToManuscript manuscript={m} showRole={false} />} />
-      <div className="grid gap-6 lg:grid-cols-[1fr_320px]">
-        <div className="space-y-6">
-          <table className="w-full border border-rule bg-sheet text-sm">
-            <caption className="sr-only">Members of {m.title}</caption>
-            <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
-              <tr>
-                <th className="px-4 py-2">Name</th>
-                <th className="px-4 py-2">E-mail</th>
-                <th className="px-4 py-2">Role</th>
-                {mayManage ? <th className="px-4 py-2">Manage</th> : null}
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-rule">
-              {m.members.map((p) => (
-                <tr key={p.userId}>
-                  <td className="px-4 py-2.5 font-medium">{p.name}</td>
-                  <td className="px-4 py-2.5 text-muted">{p.email}</td>
-                  <td className="px-4 py-2.5">
-                    <RoleBadge role={p.role} />
-                  </td>
-                  {mayManage ? (
-                    <td className="px-4 py-2.5">
-                      <MemberControls manuscriptId={id} userId={p.userId} role={p.role} name={p.name} />
-                    </td>
-                  ) : null}
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_320px]">
+        <div className="min-w-0 space-y-6">
+          <div className="relative overflow-x-auto">
+            <table className="w-full border border-rule bg-sheet text-sm">
+              <caption className="sr-only">Members of {m.title}</caption>
+              <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
+                <tr>
+                  <th className="px-4 py-2">Name</th>
+                  <th className="px-4 py-2">E-mail</th>
+                  <th className="px-4 py-2">Role</th>
+                  {mayManage ? <th className="px-4 py-2">Manage</th> : null}
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody className="divide-y divide-rule">
+                {m.members.map((p) => (
+                  <tr key={p.userId}>
+                    <td className="px-4 py-2.5 font-medium">{p.name}</td>
+                    <td className="px-4 py-2.5 text-muted">{p.email}</td>
+                    <td className="px-4 py-2.5">
+                      <RoleBadge role={p.role} />
+                    </td>
+                    {mayManage ? (
+                      <td className="px-4 py-2.5">
+                        <MemberControls manuscriptId={id} userId={p.userId} role={p.role} name={p.name} />
+                      </td>
+                    ) : null}
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
           {mayManage ? <MailDelivery user={user} manuscriptId={id} /> : null}
           {invitations.length ? (
             <Sheet>

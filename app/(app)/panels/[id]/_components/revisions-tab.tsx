@@ -26,32 +26,34 @@ export function RevisionsTab({ panelId, widthMm }: { panelId: string; widthMm: n
   if (!items.length) return <p className="text-sm text-muted">No revisions yet.</p>;
   return (
     <div className="space-y-5">
-      <table className="w-full text-left text-sm" aria-label="Revisions">
-        <thead className="text-xs text-muted">
-          <tr>
-            <th className="py-1">#</th>
-            <th>Revision note</th>
-            <th>Author</th>
-            <th>When</th>
-            <th>Content hash</th>
-          </tr>
-        </thead>
-        <tbody>
-          {items.map((r) => (
-            <tr key={r.id} className="border-t border-rule align-top">
-              <td className="py-1.5 pr-2 font-semibold tabular">{r.number}</td>
-              <td className="pr-2">{r.message || <span className="text-muted">(no note)</span>}</td>
-              <td className="pr-2">{r.createdByName}</td>
-              <td className="pr-2 whitespace-nowrap" title={String(r.createdAt)}>
-                <RelativeTime at={r.createdAt} />
-              </td>
-              <td>
-                <code title={r.contentHash}>{shortHash(r.contentHash)}</code>
-              </td>
+      <div className="relative overflow-x-auto">
+        <table className="w-full text-left text-sm" aria-label="Revisions">
+          <thead className="text-xs text-muted">
+            <tr>
+              <th className="py-1">#</th>
+              <th>Revision note</th>
+              <th>Author</th>
+              <th>When</th>
+              <th>Content hash</th>
             </tr>
-          ))}
-        </tbody>
-      </table>
+          </thead>
+          <tbody>
+            {items.map((r) => (
+              <tr key={r.id} className="border-t border-rule align-top">
+                <td className="py-1.5 pr-2 font-semibold tabular">{r.number}</td>
+                <td className="pr-2">{r.message || <span className="text-muted">(no note)</span>}</td>
+                <td className="pr-2">{r.createdByName}</td>
+                <td className="pr-2 whitespace-nowrap" title={String(r.createdAt)}>
+                  <RelativeTime at={r.createdAt} />
+                </td>
+                <td>
+                  <code title={r.contentHash}>{shortHash(r.contentHash)}</code>
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
       {items.length < 2 ? (
         <p className="text-sm text-muted">Save a second revision to compare two.</p>
       ) : (
