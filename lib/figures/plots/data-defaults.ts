@@ -7,7 +7,7 @@
 import { toSIFactor } from "@/lib/data/units";
 import type { FigureTemplate, Marker } from "./types";
 
-export interface ColumnFacts {
+interface ColumnFacts {
   name: string;
   unit: string | null;
   type: string;
