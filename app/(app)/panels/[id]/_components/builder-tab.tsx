@@ -479,7 +479,7 @@ function BuilderForm({
             save.mutate();
           }}
         >
-          <Field label="Revision note" hint="What changed and why, for your co-authors.">
+          <Field label="What changed (revision note)" hint="For your co-authors; saved with the revision.">
             <TextInput value={message} onChange={(e) => setMessage(e.target.value)} placeholder="e.g. y axis: normalised PL" />
           </Field>
           <div className="flex flex-wrap items-center gap-3">
