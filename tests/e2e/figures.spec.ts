@@ -79,7 +79,7 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await expect(page.getByRole("tab", { name: "Spec editor" })).toHaveAttribute("aria-selected", "true");
   await expect(page.getByTestId("spec-status")).toContainText("Valid Vega-Lite · data “echo”, “fit”, “residuals”");
   await expectRendered(page.getByTestId("preview"));
-  await replaceInSpec(page, '"title": "coherence"', '"title": "echo amplitude"');
+  await replaceInSpec(page, '"title": "Echo signal (norm)"', '"title": "echo amplitude"');
   await expect(page.getByTestId("preview").locator("svg.marks")).toContainText("echo amplitude");
   await page.getByLabel("Revision note").fill("Echo with stretched-exponential fit; y axis named");
   await page.getByRole("button", { name: "Save revision 1" }).click();

@@ -239,6 +239,10 @@ export function PanelWorkspace({
                   manuscriptId={panel.manuscriptId}
                   datasets={datasets}
                   defaultWidthMm={widthMm}
+                  panelId={panel.id}
+                  revision={rev}
+                  baseRevisionId={base}
+                  onSaved={onSaved}
                   onGenerate={(t, c) => {
                     setText(t);
                     setChoices(c);
