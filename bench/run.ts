@@ -8,6 +8,7 @@ import os from "node:os";
 import path from "node:path";
 import { benchFit } from "./fit";
 import { benchIngest } from "./ingest";
+import { benchMail } from "./mail";
 import { benchRender } from "./render";
 import { benchReview } from "./review";
 
@@ -16,6 +17,7 @@ const BENCHMARKS: Record<string, { what: string; run: () => Promise<Record<strin
   ingest: { what: "1M × 3 CSV: parsers, upload through the HTTP API, server memory, row paging", run: benchIngest },
   render: { what: "server SVG vs bare Vega, 1M-point display series, two-panel figure PDF", run: benchRender },
   review: { what: "board read and comment post, 32 concurrent clients, against a fixed-JSON route", run: benchReview },
+  mail: { what: "digests for 1,000 people on 20 manuscripts after a month of activity: build, draw, send", run: benchMail },
 };
 
 const resultsDir = path.join(process.cwd(), "bench", "results");
