@@ -49,7 +49,10 @@ export default async function ManuscriptDataPage({ params }: { params: Promise<{
               dataset.
             </p>
             <div className="mt-3 flex items-start gap-2">
-              <pre className="min-w-0 flex-1 overflow-x-auto rounded-sm border border-rule bg-paper px-3 py-2 font-mono text-xs" data-testid="curl-line">
+              <pre
+                className="min-w-0 flex-1 whitespace-pre-wrap break-all rounded-sm border border-rule bg-paper px-3 py-2 font-mono text-xs"
+                data-testid="curl-line"
+              >
                 {curl}
               </pre>
               <CopyButton value={curl} label="Copy the curl command" />
