@@ -33,7 +33,7 @@ export interface FitPlotProps {
 }
 
 /** The plot in words, for screen readers: what is drawn against what, how many points, the fitted values. */
-export function fitPlotDescription(p: FitPlotProps & { logX: boolean }): string {
+function fitPlotDescription(p: FitPlotProps & { logX: boolean }): string {
   const points = (n: number) => `${formatCount(n)} point${n === 1 ? "" : "s"}`;
   const residuals = p.data.residuals.filter((r) => r !== null && r !== undefined).length;
   const sigma = p.data.sigma?.filter((v) => v !== null && Number.isFinite(v) && v > 0).length ?? 0;

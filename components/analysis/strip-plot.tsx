@@ -15,7 +15,7 @@ const POINT = "#0072B2";
 const jitter = (i: number) => ((i * 0.618034) % 1) - 0.5;
 
 /** The plot in words, for screen readers: each group's n, mean and sd, and how they are drawn. */
-export function stripPlotDescription(stats: Pick<PopulationStats, "groups" | "groupBy">, yTitle: string): string {
+function stripPlotDescription(stats: Pick<PopulationStats, "groups" | "groupBy">, yTitle: string): string {
   const groups = stats.groups.map(
     (g) => `${g.group}: n = ${g.n}, mean ${formatNumber(g.mean, 4)}${g.sd !== null && Number.isFinite(g.sd) ? `, sd ${formatNumber(g.sd, 3)}` : ""}`,
   );

@@ -26,7 +26,7 @@ function linePath(xs: Array<number | null>, ys: Array<number | null>, sx: Scale,
 }
 
 /** The plot in words, for screen readers: kind, axes, points drawn (of how many rows) and the ranges. */
-export function quickPlotDescription(data: PlotData, logX: boolean, ordered: boolean): string {
+function quickPlotDescription(data: PlotData, logX: boolean, ordered: boolean): string {
   const { x: xs, y: ys } = data.points;
   const drawn = xs.filter((x, i) => x !== null && ys[i] !== null && Number.isFinite(x) && Number.isFinite(ys[i]) && (!logX || x > 0)).length;
   const range = (v: Array<number | null>) => {

@@ -32,14 +32,14 @@ function coordinate(title: string | null | undefined, fallback: string, v: numbe
 }
 
 /** What a screen reader says for an anchor: "point at τ = 2.1 µs, signal = 0.5", "τ from 2.1 to 3.4 µs". */
-export function anchorWords(a: ThreadAnchor, axes: AnchorAxes = {}): string {
+function anchorWords(a: ThreadAnchor, axes: AnchorAxes = {}): string {
   if (a.type === "point") return `point at ${coordinate(axes.x, "x", a.x)}, ${coordinate(axes.y, "y", a.y)}`;
   const { name, unit } = parseHeaderUnit(axes.x || "x");
   return `${name} from ${formatNumber(a.x0, 4)} to ${formatNumber(a.x1, 4)}${unit ? ` ${unit}` : ""}`;
 }
 
 /** Id of a thread's element in the review column (components/panel-review/thread-item.tsx; mail links point at it too). */
-export const threadElementId = (threadId: string) => `thread-${threadId}`;
+const threadElementId = (threadId: string) => `thread-${threadId}`;
 
 /** Brings a thread of the review column into view and gives it focus; false when it is not on the page. */
 export function focusThread(anchor: Pick<ChartAnchor, "id">): boolean {

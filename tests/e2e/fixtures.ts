@@ -19,7 +19,7 @@ interface Seen {
 
 export const test = base.extend<{ consoleGuard: ConsoleGuard; newContext: () => Promise<BrowserContext> }>({
   consoleGuard: [
-    async ({ context }, use) => {
+    async ({ context }, provide) => {
       const allowed: RegExp[] = [];
       const seen: Seen[] = [];
       const watchPage = (page: Page) => {
@@ -38,15 +38,15 @@ export const test = base.extend<{ consoleGuard: ConsoleGuard; newContext: () => 
         },
       };
       guard.watch(context);
-      await use(guard);
+      await provide(guard);
       const unexpected = seen.filter((s) => !allowed.some((re) => re.test(s.text)));
       expect(unexpected, "console errors the test did not expect").toEqual([]);
     },
     { auto: true },
   ],
-  newContext: async ({ browser, consoleGuard }, use) => {
+  newContext: async ({ browser, consoleGuard }, provide) => {
     const opened: BrowserContext[] = [];
-    await use(async () => {
+    await provide(async () => {
       const context = await browser.newContext();
       consoleGuard.watch(context);
       opened.push(context);
