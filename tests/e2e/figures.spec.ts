@@ -81,7 +81,7 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await expectRendered(page.getByTestId("preview"));
   await replaceInSpec(page, '"title": "Echo signal (norm)"', '"title": "echo amplitude"');
   await expect(page.getByTestId("preview").locator("svg.marks")).toContainText("echo amplitude");
-  await page.getByLabel("Revision note").fill("Echo with stretched-exponential fit; y axis named");
+  await page.getByRole("textbox", { name: "Revision note", exact: true }).fill("Echo with stretched-exponential fit; y axis named");
   await page.getByRole("button", { name: "Save revision 1" }).click();
   await expect(page.getByRole("status").filter({ hasText: "Saved revision 1" })).toBeVisible();
   const current = page.getByRole("region", { name: "Current revision" });
@@ -104,7 +104,7 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await page.getByRole("button", { name: "Undo" }).click();
   await expect(page.getByTestId("spec-status")).toContainText("Valid Vega-Lite");
   await replaceInSpec(page, '"title": "echo amplitude"', '"title": "normalised echo"');
-  await page.getByLabel("Revision note").fill("y axis: normalised echo");
+  await page.getByRole("textbox", { name: "Revision note", exact: true }).fill("y axis: normalised echo");
   await page.getByRole("button", { name: "Save as revision 2" }).click();
   await expect(page.getByRole("status").filter({ hasText: "Saved revision 2" })).toBeVisible();
   await expect(current).toContainText("Revision 2");
