@@ -1,5 +1,5 @@
 import { index, integer, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
-import { createdAt, id } from "./columns";
+import { archivedAt, createdAt, id } from "./columns";
 import { manuscripts, users } from "./people";
 
 export const MEASUREMENT_KINDS = ["pl_map", "pl_spectrum", "odmr", "hahn_echo", "relaxation", "ramsey", "nv_nmr", "other"] as const;
@@ -23,6 +23,7 @@ export const datasets = sqliteTable(
       .notNull()
       .references(() => users.id),
     createdAt: createdAt(),
+    archivedAt: archivedAt(),
   },
   (t) => [index("datasets_manuscript").on(t.manuscriptId)],
 );
@@ -97,6 +98,7 @@ export const analyses = sqliteTable(
       .notNull()
       .references(() => users.id),
     createdAt: createdAt(),
+    archivedAt: archivedAt(),
   },
   (t) => [index("analyses_version").on(t.versionId)],
 );

@@ -1,5 +1,5 @@
 import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
-import { createdAt, id } from "./columns";
+import { archivedAt, createdAt, id } from "./columns";
 import { manuscripts, users } from "./people";
 
 export const figures = sqliteTable(
@@ -19,6 +19,7 @@ export const figures = sqliteTable(
       .notNull()
       .references(() => users.id),
     createdAt: createdAt(),
+    archivedAt: archivedAt(),
   },
   (t) => [uniqueIndex("figures_manuscript_number").on(t.manuscriptId, t.number)],
 );
@@ -34,10 +35,13 @@ export const panels = sqliteTable(
     title: text("title").notNull().default(""),
     colSpan: integer("col_span").notNull().default(1),
     currentRevisionId: text("current_revision_id"),
+    /** When the author sent the panel to review; null while it is a draft (reviewers are not asked yet). */
+    reviewRequestedAt: integer("review_requested_at", { mode: "timestamp_ms" }),
     createdBy: text("created_by")
       .notNull()
       .references(() => users.id),
     createdAt: createdAt(),
+    archivedAt: archivedAt(),
   },
   (t) => [index("panels_figure").on(t.figureId, t.position)],
 );

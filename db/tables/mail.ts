@@ -16,6 +16,8 @@ export const notices = sqliteTable(
       .references(() => users.id, { onDelete: "cascade" }),
     kind: text("kind").notNull(),
     manuscriptId: text("manuscript_id"),
+    /** The figure the notice is about, when it is about one (for people who unfollowed that figure). */
+    figureId: text("figure_id"),
     /** The whole subject when this notice goes out alone ("Figure 2b needs revision — <manuscript>"). */
     subject: text("subject").notNull(),
     /** The same without the manuscript, for a list of several ("Figure 2b needs revision"). */
@@ -44,6 +46,8 @@ export const mailPreferences = sqliteTable("mail_preferences", {
   mutedKinds: text("muted_kinds", { mode: "json" }).$type<string[]>().notNull().default([]),
   /** Manuscripts whose notices are not wanted. */
   unfollowed: text("unfollowed", { mode: "json" }).$type<string[]>().notNull().default([]),
+  /** Figures whose notices are not wanted (in manuscripts still followed). */
+  unfollowedFigures: text("unfollowed_figures", { mode: "json" }).$type<string[]>().notNull().default([]),
   /** "daily": Monday to Friday; "weekly": Mondays; at `digestHour` o'clock in `timeZone`. */
   digest: text("digest", { enum: DIGEST_FREQUENCIES }).notNull().default("daily"),
   digestHour: integer("digest_hour").notNull().default(8),

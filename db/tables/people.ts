@@ -41,6 +41,8 @@ export const manuscripts = sqliteTable("manuscripts", {
     .notNull()
     .references(() => labs.id),
   title: text("title").notNull(),
+  /** The manuscript's house style for exports (fonts, sizes, line widths, panel letters); null = the defaults. */
+  houseStyle: text("house_style", { mode: "json" }).$type<Record<string, unknown>>(),
   createdBy: text("created_by")
     .notNull()
     .references(() => users.id),

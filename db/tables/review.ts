@@ -1,4 +1,4 @@
-import { index, integer, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import { index, integer, primaryKey, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { createdAt, id } from "./columns";
 import { panels, revisions, figures } from "./figures";
 import { users } from "./people";
@@ -24,6 +24,25 @@ export const threads = sqliteTable(
     createdAt: createdAt(),
   },
   (t) => [index("threads_panel").on(t.panelId)],
+);
+
+/**
+ * A person's explicit choice about a thread's reply notices: `following` true to hear of every reply
+ * (without having written), false to stop hearing of it (though they wrote in it). No row: writers hear.
+ */
+export const threadFollows = sqliteTable(
+  "thread_follows",
+  {
+    threadId: text("thread_id")
+      .notNull()
+      .references(() => threads.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    following: integer("following", { mode: "boolean" }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.threadId, t.userId] })],
 );
 
 export const comments = sqliteTable(
@@ -93,6 +112,10 @@ export const signoffs = sqliteTable(
       .notNull()
       .references(() => users.id),
     createdAt: createdAt(),
+    /** A withdrawn sign-off stays on record; the figure is no longer signed off by it. */
+    withdrawnAt: integer("withdrawn_at", { mode: "timestamp_ms" }),
+    withdrawnBy: text("withdrawn_by").references(() => users.id),
+    withdrawReason: text("withdraw_reason"),
   },
   (t) => [index("signoffs_figure").on(t.figureId)],
 );
