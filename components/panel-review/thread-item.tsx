@@ -59,7 +59,7 @@ export function ThreadItem({
           <CommentItem key={c.id} c={c} me={me} members={members} actions={actions} />
         ))}
       </ol>
-      {thread.pending ? <p className="mt-1 text-xs text-muted">sending…</p> : null}
+      {thread.pending ? <p className="mt-1 text-xs text-muted">sending…</p> : <FollowSwitch thread={thread} actions={actions} />}
       {canWrite && !thread.pending ? (
         <div className="mt-2">
           {replying ? (
@@ -99,6 +99,19 @@ export function ThreadItem({
         </div>
       ) : null}
     </li>
+  );
+}
+
+/** Whether replies in this thread reach the reader by mail; anyone who can read the thread may choose. */
+function FollowSwitch({ thread, actions }: { thread: ShownThread; actions: ReturnType<typeof useThreadActions> }) {
+  const on = thread.followingReplies;
+  return (
+    <p className="mt-2 text-xs text-muted">
+      <button type="button" className="underline" aria-pressed={on} onClick={() => actions.follow.mutate({ threadId: thread.id, following: !on })}>
+        Mail me replies
+      </button>{" "}
+      <span>{on ? "— on: you get a mail when someone replies here" : "— off"}</span>
+    </p>
   );
 }
 

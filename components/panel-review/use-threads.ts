@@ -58,6 +58,7 @@ export function useThreadActions(panelId: string, me: Me) {
         createdAt: new Date().toISOString(),
         resolvedAt: null,
         resolvedBy: null,
+        followingReplies: true,
         revisionNumber: v.revisionNumber,
         status: "open",
         pending: true,
@@ -99,11 +100,26 @@ export function useThreadActions(panelId: string, me: Me) {
     onSettled: settle,
   });
 
+  const follow = useMutation({
+    mutationFn: (v: { threadId: string; following: boolean }) =>
+      sendJson<{ threadId: string; following: boolean }>(`/api/threads/${v.threadId}/follow`, "POST", { following: v.following }),
+    onMutate: async (v) => {
+      const before = await snapshot();
+      qc.setQueryData<ShownThread[]>(
+        key,
+        (before ?? []).map((t) => (t.id === v.threadId ? { ...t, followingReplies: v.following } : t)),
+      );
+      return { before };
+    },
+    onError: rollback,
+    onSettled: settle,
+  });
+
   const edit = useMutation({
     mutationFn: (v: { commentId: string; body: JSONContent; baseEditedAt: number | null }) =>
       sendJson<ShownThread>(`/api/comments/${v.commentId}`, "PATCH", { body: v.body, baseEditedAt: v.baseEditedAt }),
     onSettled: settle,
   });
 
-  return { start, reply, resolve, edit };
+  return { start, reply, resolve, follow, edit };
 }

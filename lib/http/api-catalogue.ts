@@ -8,6 +8,7 @@ import { analysisInput, calculatorInput, statisticsQuery } from "@/lib/server/an
 import { exportQuery } from "@/lib/server/export/export-figure";
 import { thumbnailQuery } from "@/lib/server/export/thumbnails";
 import { decisionInput, editCommentInput, newThreadInput, replyInput, resolveInput, signoffInput } from "@/lib/server/review/schemas";
+import { threadFollowInput } from "@/lib/server/review/thread-follows";
 import { addPanelInput, createFigureInput, reorderInput, revisionInput, updateFigureInput } from "@/lib/server/figures/schemas";
 
 const unsubscribeQuery = z.object({ token: z.string().describe("the signed token from the mail's List-Unsubscribe address") });
@@ -242,6 +243,14 @@ export const API_OPERATIONS: ApiOperation[] = [
   },
   { method: "POST", path: "/api/threads/{id}/comments", permission: "comment.write", summary: "Reply in a thread", body: replyInput, success: 201 },
   { method: "POST", path: "/api/threads/{id}/resolve", permission: "comment.write", summary: "Resolve (or reopen) a thread", body: resolveInput, success: 200 },
+  {
+    method: "POST",
+    path: "/api/threads/{id}/follow",
+    permission: "manuscript.read",
+    summary: "Follow (or stop following) a thread's replies by mail",
+    body: threadFollowInput,
+    success: 200,
+  },
   {
     method: "PATCH",
     path: "/api/comments/{id}",

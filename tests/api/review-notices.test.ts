@@ -20,7 +20,8 @@ import { deliverOutbox } from "@/lib/server/mail/outbox";
 import { startMailSink, type SinkHandle } from "@/lib/server/mail/sink-server";
 import { listSinkMessages, type SinkMessage } from "@/lib/server/mail/sink-store";
 import { recordDecision, signOffFigure } from "@/lib/server/review/decisions";
-import { createThread, replyToThread } from "@/lib/server/review/threads";
+import { createThread, listThreads, replyToThread } from "@/lib/server/review/threads";
+import { setThreadFollow } from "@/lib/server/review/thread-follows";
 import { describeUnsubscribe, unsubscribeToken } from "@/lib/server/mail/unsubscribe";
 import { saveMailPreferences } from "@/lib/server/mail/preferences";
 import * as unsubscribe from "@/app/api/unsubscribe/route";
@@ -264,5 +265,55 @@ describe("mail preferences", () => {
     const thread = await createThread(REVIEWER, panelId, { revisionId: rev4.id, body: commentDoc({ mention: AUTHOR.id, label: AUTHOR.name }, " look") });
     expect(thread.comments).toHaveLength(1);
     expect(await mailsAfterWindow()).toEqual([]);
+  });
+});
+
+describe("following figures and threads", () => {
+  const kinds = ["review_requested", "needs_revision", "approved", "signoff_due", "signed_off", "approval_stale", "reply", "mention"];
+  const form = (over: Record<string, string>) => ({
+    ...Object.fromEntries(kinds.map((k) => [`kind.${k}`, "on"])),
+    [`follow-shown.${DEMO_MANUSCRIPT_ID}`]: "1",
+    [`follow.${DEMO_MANUSCRIPT_ID}`]: "on",
+    ...over,
+  });
+
+  it("an unfollowed figure sends nothing about it; the manuscript's other figures still do", async () => {
+    const second = (await createFigure(AUTHOR, { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Field check" })).id;
+    const otherPanel = (await addPanel(AUTHOR, second, { title: "ODMR of NV01" })).id;
+    // Review requests stay off for the reviewer (as the previous test left them), so only mentions are in play.
+    const reviewerForm = form({ [`figure-shown.${figureId}`]: "1", [`figure-shown.${second}`]: "1", [`figure.${second}`]: "on" });
+    delete (reviewerForm as Record<string, string>)["kind.review_requested"];
+    const saved = await saveMailPreferences(REVIEWER, reviewerForm);
+    const figs = saved.manuscripts.find((m) => m.id === DEMO_MANUSCRIPT_ID)!.figures;
+    expect(figs.map((f) => [f.label, f.following])).toEqual([
+      ["Figure 1 — Echo check", false],
+      ["Figure 2 — Named", true], // not on this form: keeps its setting
+      ["Figure 3 — Field check", true],
+    ]);
+    await saveMailPreferences(AUTHOR, form({}));
+    const otherRev = await createRevision(AUTHOR, otherPanel, { spec: SPEC, bindings: { echo: { versionId } }, baseRevisionId: null, message: "first" });
+    await mailsAfterWindow();
+    const rev = (await getFigure(AUTHOR, figureId)).panels[0]!.currentRevision!;
+    await createThread(AUTHOR, panelId, { revisionId: rev.id, body: commentDoc({ mention: REVIEWER.id, label: REVIEWER.name }, " figure one") });
+    await createThread(AUTHOR, otherPanel, { revisionId: otherRev.id, body: commentDoc({ mention: REVIEWER.id, label: REVIEWER.name }, " figure two") });
+    expect(summary(await mailsAfterWindow())).toEqual([`reviewer@partner.example.org: Tomás Ekberg mentioned you on Figure 3a — ${MS}`]);
+  });
+
+  it("a follower who never wrote hears of replies; a writer who stopped following does not", async () => {
+    await saveMailPreferences(REVIEWER, form({}));
+    await saveMailPreferences(PI, form({}));
+    const rev = (await getFigure(AUTHOR, figureId)).panels[0]!.currentRevision!;
+    const thread = await createThread(REVIEWER, panelId, { revisionId: rev.id, body: plainDoc("Is the baseline subtracted?") });
+    expect((await listThreads(PI, panelId)).find((t) => t.id === thread.id)!.followingReplies).toBe(false);
+    expect((await listThreads(REVIEWER, panelId)).find((t) => t.id === thread.id)!.followingReplies).toBe(true);
+    await setThreadFollow(PI, thread.id, { following: true });
+    await setThreadFollow(REVIEWER, thread.id, { following: false });
+    expect((await listThreads(PI, panelId)).find((t) => t.id === thread.id)!.followingReplies).toBe(true);
+    expect((await listThreads(REVIEWER, panelId)).find((t) => t.id === thread.id)!.followingReplies).toBe(false);
+    await mailsAfterWindow();
+    await replyToThread(AUTHOR, thread.id, { body: plainDoc("Yes, a linear baseline.") });
+    const mails = await mailsAfterWindow();
+    expect(summary(mails)).toEqual([`pi@lab.example.org: Tomás Ekberg replied on Figure 1a — ${MS}`]);
+    expect(links(mails[0]!)).toEqual([`${APP}/panels/${panelId}#thread-${thread.id}`]);
   });
 });

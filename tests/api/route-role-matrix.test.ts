@@ -105,6 +105,7 @@ const FIXTURES: Record<string, Fixture> = {
   }),
   "POST /api/threads/{id}/comments": async () => ({ params: { id: sample.threadId }, body: { body: plainDoc("reply") } }),
   "POST /api/threads/{id}/resolve": async () => ({ params: { id: sample.threadId }, body: { reopen: true } }),
+  "POST /api/threads/{id}/follow": async () => ({ params: { id: sample.threadId }, body: { following: true } }),
   "PATCH /api/comments/{id}": async (who) => ({ params: { id: await commentBy(who) }, body: { body: plainDoc("edited") } }),
   "DELETE /api/comments/{id}": async (who) => ({ params: { id: await commentBy(who) } }),
   "POST /api/panels/{id}/approvals": async () => ({
@@ -200,6 +201,7 @@ const EXPECTED: Record<string, Row> = {
   "POST /api/panels/{id}/threads":                    [201, 201,   201,     403,   404,     401],
   "POST /api/threads/{id}/comments":                  [201, 201,   201,     403,   404,     401],
   "POST /api/threads/{id}/resolve":                   [200, 200,   200,     403,   404,     401],
+  "POST /api/threads/{id}/follow":                    [200, 200,   200,     200,   404,     401],
   "PATCH /api/comments/{id}":                         [200, 200,   200,     403,   404,     401],
   "DELETE /api/comments/{id}":                        [200, 200,   200,     403,   404,     401],
   "POST /api/panels/{id}/approvals":                  [201, 201,   201,     403,   404,     401],

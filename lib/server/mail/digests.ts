@@ -108,10 +108,10 @@ class Places {
  * What happened on the given manuscripts in [since, until) that concerns `userId`, grouped by
  * manuscript then figure: comments and decisions by others, their approvals gone stale and still
  * waiting on them, new data versions under panels they reviewed, sign-offs done, and (to a PI)
- * figures that became ready for sign-off. Their own actions are left out.
+ * figures that became ready for sign-off. Their own actions and figures they unfollowed are left out.
  */
 async function buildDigest(
-  user: { id: string; name: string },
+  user: { id: string; name: string; unfollowedFigures?: string[] },
   memberships: Array<{ manuscriptId: string; role: Role }>,
   schedule: { frequency: Exclude<DigestFrequency, "off">; timeZone: string },
   since: Date,
@@ -122,7 +122,9 @@ async function buildDigest(
   const app = env().appUrl;
   const ids = memberships.map((m) => m.manuscriptId);
   const byManuscript = new Map<string, Map<string, DigestLine[]>>();
+  const unfollowed = new Set(user.unfollowedFigures);
   const add = (manuscriptId: string, figureId: string, line: DigestLine) => {
+    if (unfollowed.has(figureId)) return;
     const figs = byManuscript.get(manuscriptId) ?? new Map<string, DigestLine[]>();
     byManuscript.set(manuscriptId, figs);
     figs.set(figureId, [...(figs.get(figureId) ?? []), line]);
@@ -385,7 +387,8 @@ export async function runDigests(now = new Date(), hooks: RunHooks = {}): Promis
     ).filter((m) => !person.p?.unfollowed.includes(m.manuscriptId));
     if (!memberships.length) continue;
     const since = new Date(Math.max((previous ?? previousDigestSlot(schedule, slot) ?? slot).getTime(), slot.getTime() - LONGEST_WINDOW_MS));
-    const digest = await buildDigest(person, memberships, { frequency: schedule.frequency, timeZone: schedule.timeZone }, since, slot, places);
+    const reader = { id: person.id, name: person.name, unfollowedFigures: person.p?.unfollowedFigures };
+    const digest = await buildDigest(reader, memberships, { frequency: schedule.frequency, timeZone: schedule.timeZone }, since, slot, places);
     await hooks.afterBuild?.(person.id);
     const outcome = await db
       .transaction(async (tx) => {

@@ -15,6 +15,8 @@ interface Notice {
   to: string[];
   actorId: string;
   manuscriptId: string;
+  /** The figure it is about, so that people who unfollowed that figure are left out. */
+  figureId?: string;
   manuscriptTitle: string;
   /** What it is about without the manuscript, e.g. "Figure 2b needs revision". */
   headline: string;
@@ -32,7 +34,8 @@ export function shortTitle(title: string, max = 48): string {
 
 /**
  * Writes one pending notice per recipient in the caller's transaction (so a notice exists exactly
- * when its event does). Never to the actor; not to whoever turned the kind off or unfollowed the manuscript.
+ * when its event does). Never to the actor; not to whoever turned the kind off or unfollowed the
+ * manuscript or the figure.
  */
 export async function notify(tx: Executor, n: Notice): Promise<number> {
   const to = [...new Set(n.to)].filter((id) => id !== n.actorId);
@@ -40,7 +43,9 @@ export async function notify(tx: Executor, n: Notice): Promise<number> {
   const prefs = await tx.select().from(mailPreferences).where(inArray(mailPreferences.userId, to));
   const wanted = to.filter((id) => {
     const p = prefs.find((x) => x.userId === id);
-    return !p || (!p.mutedKinds.includes(n.kind) && !p.unfollowed.includes(n.manuscriptId));
+    if (!p) return true;
+    const figureUnfollowed = n.figureId !== undefined && p.unfollowedFigures.includes(n.figureId);
+    return !p.mutedKinds.includes(n.kind) && !p.unfollowed.includes(n.manuscriptId) && !figureUnfollowed;
   });
   if (!wanted.length) return 0;
   await tx.insert(notices).values(
@@ -49,6 +54,7 @@ export async function notify(tx: Executor, n: Notice): Promise<number> {
       userId,
       kind: n.kind,
       manuscriptId: n.manuscriptId,
+      figureId: n.figureId ?? null,
       subject: `${n.headline} — ${shortTitle(n.manuscriptTitle)}`,
       headline: n.headline,
       body: n.lines.join("\n"),

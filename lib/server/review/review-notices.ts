@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import type { Executor } from "@/db/client";
-import { comments, decisions, figures, manuscriptMembers, manuscripts, panels, type revisions } from "@/db/schema";
+import { comments, decisions, figures, manuscriptMembers, manuscripts, panels, threadFollows, type revisions } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
 import { env } from "@/lib/env";
 import { notify } from "../mail/notices";
@@ -70,7 +70,7 @@ export async function noticeNewRevision(tx: Executor, actor: SessionUser, rev: R
     const latest = new Map(onPrevious.map((d) => [d.userId, d.decision]));
     for (const [userId, decision] of latest) if (decision === "approved" && isMember(userId)) stale.add(userId);
   }
-  const common = { actorId: actor.id, manuscriptId: place.manuscriptId, manuscriptTitle: place.manuscriptTitle, href: place.href };
+  const common = { actorId: actor.id, manuscriptId: place.manuscriptId, figureId: place.figure.id, manuscriptTitle: place.manuscriptTitle, href: place.href };
   if (stale.size)
     await notify(tx, {
       ...common,
@@ -111,7 +111,7 @@ export async function noticeDecision(
   figure: { before: FigureReview; after: FigureReview },
 ) {
   const place = await placeOfPanel(tx, rev.panelId);
-  const common = { actorId: actor.id, manuscriptId: place.manuscriptId, manuscriptTitle: place.manuscriptTitle, href: place.href };
+  const common = { actorId: actor.id, manuscriptId: place.manuscriptId, figureId: place.figure.id, manuscriptTitle: place.manuscriptTitle, href: place.href };
   const noteLine = note ? [`Note: ${note}`] : [];
   if (decision === "needs_revision")
     await notify(tx, {
@@ -151,6 +151,7 @@ export async function noticeSignoff(tx: Executor, actor: SessionUser, figureId: 
     to: (await members(tx, fig.manuscriptId)).map((m) => m.userId),
     actorId: actor.id,
     manuscriptId: fig.manuscriptId,
+    figureId,
     manuscriptTitle: fig.manuscriptTitle,
     href: fig.href,
     headline: `${fig.label} signed off`,
@@ -160,7 +161,8 @@ export async function noticeSignoff(tx: Executor, actor: SessionUser, figureId: 
 
 /**
  * A comment: whoever it mentions learns of the mention; everyone else who wrote in the thread
- * before learns of the reply. The link opens the panel at the thread.
+ * before, or follows it, learns of the reply, unless they stopped following it. The link opens
+ * the panel at the thread.
  */
 export async function noticeComment(
   tx: Executor,
@@ -171,6 +173,7 @@ export async function noticeComment(
   const common = {
     actorId: actor.id,
     manuscriptId: place.manuscriptId,
+    figureId: place.figure.id,
     manuscriptTitle: place.manuscriptTitle,
     href: `${place.href}#thread-${c.threadId}`,
     lines: [`${actor.name} wrote on ${place.label}${named(place.panelTitle)}:`, `“${c.excerpt}”`],
@@ -181,6 +184,10 @@ export async function noticeComment(
     .from(comments)
     .where(eq(comments.threadId, c.threadId));
   const people = new Set((await members(tx, place.manuscriptId)).map((m) => m.userId));
-  const writers = earlier.filter((e) => e.id !== c.id && !e.deletedAt && people.has(e.by)).map((e) => e.by);
-  await notify(tx, { ...common, kind: "reply", to: writers.filter((id) => !c.mentions.includes(id)), headline: `${actor.name} replied on ${place.label}` });
+  const choices = await tx.select().from(threadFollows).where(eq(threadFollows.threadId, c.threadId));
+  const stopped = new Set(choices.filter((f) => !f.following).map((f) => f.userId));
+  const writers = earlier.filter((e) => e.id !== c.id && !e.deletedAt).map((e) => e.by);
+  const followers = choices.filter((f) => f.following).map((f) => f.userId);
+  const to = [...writers, ...followers].filter((id) => people.has(id) && !stopped.has(id) && !c.mentions.includes(id));
+  await notify(tx, { ...common, kind: "reply", to, headline: `${actor.name} replied on ${place.label}` });
 }

@@ -3,7 +3,7 @@ import { and, asc, eq, inArray } from "drizzle-orm";
 import { z } from "zod";
 import type { Transaction } from "@/db/client";
 import { getDb } from "@/db/client";
-import { commentEdits, comments, manuscriptMembers, revisions, threads, users } from "@/db/schema";
+import { commentEdits, comments, manuscriptMembers, revisions, threadFollows, threads, users } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
@@ -199,10 +199,28 @@ async function listThreadsWhere(user: SessionUser, panelId: string, only?: strin
         )
         .orderBy(asc(comments.createdAt))
     : [];
+  const mine = ts.length
+    ? await getDb()
+        .select()
+        .from(threadFollows)
+        .where(
+          and(
+            eq(threadFollows.userId, user.id),
+            inArray(
+              threadFollows.threadId,
+              ts.map((t) => t.t.id),
+            ),
+          ),
+        )
+    : [];
+  // Whether a reply reaches the caller by mail: their own choice, else whether they wrote in it.
+  const following = (threadId: string) =>
+    mine.find((f) => f.threadId === threadId)?.following ?? cs.some(({ c }) => c.threadId === threadId && c.createdBy === user.id && !c.deletedAt);
   return ts.map(({ t, rev }) => ({
     ...t,
     revisionNumber: rev,
     status: t.resolvedAt ? "resolved" : "open",
+    followingReplies: following(t.id),
     comments: cs
       .filter(({ c }) => c.threadId === t.id && !c.deletedAt)
       .map(({ c, name }) => ({

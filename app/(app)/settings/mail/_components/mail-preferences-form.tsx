@@ -6,7 +6,7 @@ import { Button, Field, Select } from "@/components/ui";
 
 interface Props {
   kinds: Array<{ kind: string; label: string; on: boolean }>;
-  manuscripts: Array<{ id: string; title: string; following: boolean }>;
+  manuscripts: Array<{ id: string; title: string; following: boolean; figures: Array<{ id: string; label: string; following: boolean }> }>;
   digest: { frequency: "off" | "daily" | "weekly"; hour: number; timeZone: string | null };
   timeZones: string[];
 }
@@ -80,9 +80,25 @@ export function MailPreferencesForm({ kinds, manuscripts, digest, timeZones }: P
               <input type="checkbox" name={`follow.${m.id}`} defaultChecked={m.following} className="mt-0.5" />
               <span>{m.title}</span>
             </label>
+            {m.figures.length ? (
+              <ul className="mb-2 ml-6" aria-label={`Figures of ${m.title}`}>
+                {m.figures.map((f) => (
+                  <li key={f.id}>
+                    <input type="hidden" name={`figure-shown.${f.id}`} value="1" />
+                    <label className={boxLook}>
+                      <input type="checkbox" name={`figure.${f.id}`} defaultChecked={f.following} className="mt-0.5" />
+                      <span>{f.label}</span>
+                    </label>
+                  </li>
+                ))}
+              </ul>
+            ) : null}
           </div>
         ))}
-        <p className="mt-1 text-xs text-muted">Unfollowed manuscripts send you no notices; they stay in your lists and queue.</p>
+        <p className="mt-1 text-xs text-muted">
+          Unfollowed manuscripts and figures send you no notices and leave your digest; they stay in your lists and queue. Threads have their own “Follow
+          replies” switch.
+        </p>
       </fieldset>
       <Button type="submit">Save mail settings</Button>
     </ActionForm>
