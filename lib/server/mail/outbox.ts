@@ -37,6 +37,7 @@ async function drawPendingHtml(): Promise<void> {
 }
 
 const MAX_ATTEMPTS = 8;
+const INTERRUPTED = "interrupted while sending: the server stopped before the relay's answer was recorded; sent again";
 const LEASE_MS = 60_000;
 
 let transporter: Transporter | undefined;
@@ -45,11 +46,20 @@ function transport(): Transporter {
   return transporter;
 }
 
-/** Takes one due message by an atomic status change, so two workers never send the same mail. */
+/**
+ * Takes one due message by an atomic status change, so two workers never send the same mail.
+ *
+ * The one window SMTP leaves open: a sender that dies after the relay accepted a message and before
+ * it marked the message sent cannot know the relay has it. After its lease runs out the message is
+ * sent again with the same Message-ID (mail clients and many relays drop the second copy); each
+ * such retry is logged and recorded on the message as "interrupted while sending", so the window is
+ * counted, not hidden. Digest and notice periods themselves are taken once (unique keys), so a
+ * crash never builds a second, different digest.
+ */
 async function claimNext(now: number) {
   const db = getDb();
   const due = await db
-    .select({ id: mailOutbox.id })
+    .select({ id: mailOutbox.id, status: mailOutbox.status, to: mailOutbox.to })
     .from(mailOutbox)
     .where(
       or(
@@ -60,11 +70,16 @@ async function claimNext(now: number) {
     .orderBy(asc(mailOutbox.nextAttemptAt))
     .limit(1);
   if (!due[0]) return null;
+  const interrupted = due[0].status === "sending";
   const claimed = await db
     .update(mailOutbox)
-    .set({ status: "sending", leaseUntil: new Date(now + LEASE_MS) })
+    .set({ status: "sending", leaseUntil: new Date(now + LEASE_MS), ...(interrupted ? { lastError: INTERRUPTED } : {}) })
     .where(and(eq(mailOutbox.id, due[0].id), or(eq(mailOutbox.status, "pending"), lt(mailOutbox.leaseUntil, new Date(now)))))
     .returning();
+  if (interrupted && claimed[0])
+    console.warn(
+      `[prooflight] mail ${claimed[0].id} was interrupted while sending; sending it again with the same Message-ID (the relay may already have it).`,
+    );
   return claimed[0] ?? null;
 }
 
