@@ -95,6 +95,8 @@ async function runBrowserTests(): Promise<number> {
     PROOFLIGHT_INSTANCE: "demo",
     // The concurrency test posts 1,000 comments as one reviewer; the limit itself is tested in tests/api.
     COMMENTS_PER_MINUTE: "5000",
+    // Notices to one person within 2 s become one mail (60 s in use), so the mail tests wait seconds.
+    MAIL_COALESCE_SECONDS: "2",
   };
   Object.assign(process.env, env);
   const { applyMigrations } = await import("@/db/migrate");
