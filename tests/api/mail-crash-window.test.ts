@@ -86,19 +86,19 @@ afterAll(async () => {
 });
 
 describe("killed between the relay's receipt and the mark", () => {
-  it("the first run dies holding one message; every digest period is already taken", async () => {
+  it("the first run dies holding a message; every digest period is already taken", async () => {
     const first = await runDigestCommand(port);
     expect(first.signal).toBe("SIGKILL");
-    expect(received).toHaveLength(1);
+    expect(received.length).toBeGreaterThanOrEqual(1);
     const rows = await digestRows();
     // The demo manuscript's other members: the PI, the reviewer and the viewer.
     expect(rows.map((r) => r.to).sort()).toEqual(["pi@lab.example.org", "reviewer@partner.example.org", "viewer@lab.example.org"]);
-    expect(rows.filter((r) => r.status === "sending").map((r) => `<${r.id}@prooflight.localhost>`)).toEqual([received[0]!.messageId]);
-    expect(rows.filter((r) => r.status === "pending")).toHaveLength(2);
+    // Four senders share the run: others may have been mid-message too; the first one is surely held.
+    expect(rows.find((r) => `<${r.id}@prooflight.localhost>` === received[0]!.messageId)!.status).toBe("sending");
     expect(await getDb().select().from(digestRuns).where(eq(digestRuns.items, 1))).toHaveLength(3);
   }, 120_000);
 
-  it("a minute later the rerun builds nothing new, resends that one under the same Message-ID and counts it", async () => {
+  it("a minute later the rerun builds nothing new, resends what was held under the same Message-ID and counts it", async () => {
     // A minute passes: the dead sender's lease on its message runs out.
     await getDb()
       .update(mailOutbox)
@@ -111,14 +111,16 @@ describe("killed between the relay's receipt and the mark", () => {
     const rows = await digestRows();
     expect(rows.map((r) => r.status)).toEqual(["sent", "sent", "sent"]);
     expect(await getDb().select().from(digestRuns).where(eq(digestRuns.items, 1))).toHaveLength(3);
-    // Four deliveries, three messages: the interrupted one twice under one Message-ID, no other repeat.
-    expect(received).toHaveLength(4);
+    // One message per person however often it was handed over; only interrupted messages went twice.
     const perMessage = new Map<string, number>();
     for (const r of received) perMessage.set(r.messageId, (perMessage.get(r.messageId) ?? 0) + 1);
-    expect([...perMessage.values()].sort()).toEqual([1, 1, 2]);
+    expect(perMessage.size).toBe(3);
     expect(new Set(received.map((r) => r.to)).size).toBe(3);
-    const twice = rows.find((r) => `<${r.id}@prooflight.localhost>` === received[0]!.messageId)!;
-    expect(twice.lastError).toMatch(/^interrupted while sending/);
-    expect(rows.filter((r) => r.lastError).map((r) => r.id)).toEqual([twice.id]);
+    expect(perMessage.get(received[0]!.messageId)).toBe(2);
+    for (const row of rows) {
+      const times = perMessage.get(`<${row.id}@prooflight.localhost>`);
+      if (times === 2) expect(row.lastError, row.to).toMatch(/^interrupted while sending/);
+      else expect(times, row.to).toBe(1);
+    }
   }, 120_000);
 });

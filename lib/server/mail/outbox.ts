@@ -40,10 +40,19 @@ const MAX_ATTEMPTS = 8;
 const INTERRUPTED = "interrupted while sending: the server stopped before the relay's answer was recorded; sent again";
 const LEASE_MS = 60_000;
 
-let transporter: Transporter | undefined;
-function transport(): Transporter {
-  transporter ??= nodemailer.createTransport(env().smtpUrl, { connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 30_000 });
-  return transporter;
+/** Messages in flight at once, each on its own pooled SMTP connection. */
+const SENDERS = 4;
+
+/** Pooled for one delivery run: a digest run reuses a few connections instead of a handshake per message. */
+function openTransport(): Transporter {
+  return nodemailer.createTransport({
+    url: env().smtpUrl,
+    pool: true,
+    maxConnections: SENDERS,
+    connectionTimeout: 10_000,
+    greetingTimeout: 10_000,
+    socketTimeout: 30_000,
+  });
 }
 
 /**
@@ -96,6 +105,17 @@ export function deliverOutbox(): Promise<number> {
 async function deliverAll(): Promise<number> {
   await flushNotices();
   await drawPendingHtml();
+  const transport = openTransport();
+  try {
+    const counts = await Promise.all(Array.from({ length: SENDERS }, () => sendUntilDone(transport)));
+    return counts.reduce((a, b) => a + b, 0);
+  } finally {
+    transport.close(); // idle connections would keep a command-line run (and the relay) waiting
+  }
+}
+
+/** One sender: takes due messages one by one until none is left or the relay stops answering. */
+async function sendUntilDone(transport: Transporter): Promise<number> {
   let sent = 0;
   for (;;) {
     const msg = await claimNext(Date.now());
@@ -103,7 +123,7 @@ async function deliverAll(): Promise<number> {
     try {
       // Enqueued after this run drew the pending ones: draw it now.
       const html = msg.html ?? (msg.view ? ((await renderMailHtml([msg.view as MailView]).catch(() => [null]))[0] ?? null) : null);
-      await transport().sendMail({
+      await transport.sendMail({
         from: env().mailFrom,
         to: msg.to,
         subject: msg.subject,
