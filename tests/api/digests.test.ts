@@ -329,3 +329,37 @@ describe("one digest per person and period", () => {
     expect(runs.map((r) => r.periodStart.toISOString())).not.toContain("2026-01-14T08:00:00.000Z");
   });
 });
+
+describe("a busy figure", () => {
+  it("shows its first seven lines and one line to the figure for the rest; the subject counts every update", async () => {
+    // Thursday 15 January: twelve replies by the author on Figure 1; the viewer's Friday digest.
+    for (let i = 1; i <= 12; i++)
+      await at(`2026-01-15T09:${String(i).padStart(2, "0")}:00Z`, () => replyToThread(AUTHOR, ids.thread, { body: plainDoc(`Point ${i}.`) }));
+    const { mails } = await digestsAt("2026-01-16T08:00:00Z");
+    const viewer = mails.find((m) => m.envelope.to[0] === "viewer@lab.example.org")!;
+    expect(viewer.subject).toBe("Daily digest: 12 updates on Coherence and proton NMR of shallow NV centres…");
+    const lines = body(viewer)
+      .split("\n")
+      .filter((l) => l.startsWith("- "));
+    expect(lines).toHaveLength(8);
+    expect(lines[0]).toContain("“Point 1.”");
+    expect(lines[6]).toContain("“Point 7.”");
+    expect(lines[7]).toBe("- …and 5 more on Figure 1: open the figure to see them all");
+    expect(body(viewer)).toContain(`see them all\n  ${APP}/figures/${ids.fig1}`);
+  });
+
+  it("a figure the reader unfollowed leaves their digest", async () => {
+    const VIEWER = { id: "demo-viewer", email: "viewer@lab.example.org", name: "Luca Brenner" };
+    await saveMailPreferences(VIEWER, {
+      "follow-shown.demo-manuscript": "1",
+      "follow.demo-manuscript": "on",
+      [`figure-shown.${ids.fig1}`]: "1",
+      [`figure-shown.${ids.fig2}`]: "1",
+      [`figure.${ids.fig2}`]: "on",
+    });
+    await at("2026-01-16T10:00:00Z", () => replyToThread(AUTHOR, ids.thread, { body: plainDoc("Point 13.") }));
+    const { mails } = await digestsAt("2026-01-19T08:00:00Z");
+    expect(mails.map((m) => m.envelope.to[0])).not.toContain("viewer@lab.example.org");
+    expect(mails.map((m) => m.envelope.to[0])).toContain("reviewer@partner.example.org");
+  });
+});

@@ -5,7 +5,7 @@ import type { Role } from "@/db/schema";
 import type { MailMessage } from "./enqueue";
 import type { DigestView, NoticesView } from "./render/mail-views.mjs";
 import { NOTICE_KINDS, NOTICE_LABELS, type NoticeKind } from "./notice-kinds";
-import type { Digest } from "./digests";
+import type { Digest } from "./digest-content";
 import { shortTitle } from "./notices";
 import { unsubscribeToken } from "./unsubscribe";
 
