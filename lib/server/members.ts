@@ -64,17 +64,23 @@ async function pisLeft(tx: Transaction, manuscriptId: string, exceptUserId: stri
   return pis.filter((p) => p.userId !== exceptUserId).length;
 }
 
+/** The member row; refuses when `losesPi` would take away the manuscript's last PI. */
+async function memberKeepingAPi(tx: Transaction, manuscriptId: string, memberId: string, losesPi: boolean) {
+  const [m] = await tx
+    .select()
+    .from(manuscriptMembers)
+    .where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(manuscriptMembers.userId, memberId)));
+  if (!m) throw notFound("No such member.");
+  if (m.role === "pi" && losesPi && (await pisLeft(tx, manuscriptId, memberId)) === 0)
+    throw conflict("A manuscript always keeps at least one PI. Make someone else PI first.");
+  return m;
+}
+
 export async function changeMemberRole(user: SessionUser, manuscriptId: string, memberId: string, input: z.infer<typeof changeRoleInput>) {
   await authorize(user, "member.manage", manuscriptId);
   const { role } = changeRoleInput.parse(input);
   await getDb().transaction(async (tx) => {
-    const [m] = await tx
-      .select()
-      .from(manuscriptMembers)
-      .where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(manuscriptMembers.userId, memberId)));
-    if (!m) throw notFound("No such member.");
-    if (m.role === "pi" && role !== "pi" && (await pisLeft(tx, manuscriptId, memberId)) === 0)
-      throw conflict("A manuscript always keeps at least one PI. Make someone else PI first.");
+    const m = await memberKeepingAPi(tx, manuscriptId, memberId, role !== "pi");
     await tx
       .update(manuscriptMembers)
       .set({ role })
@@ -86,13 +92,7 @@ export async function changeMemberRole(user: SessionUser, manuscriptId: string, 
 export async function removeMember(user: SessionUser, manuscriptId: string, memberId: string) {
   await authorize(user, "member.manage", manuscriptId);
   await getDb().transaction(async (tx) => {
-    const [m] = await tx
-      .select()
-      .from(manuscriptMembers)
-      .where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(manuscriptMembers.userId, memberId)));
-    if (!m) throw notFound("No such member.");
-    if (m.role === "pi" && (await pisLeft(tx, manuscriptId, memberId)) === 0)
-      throw conflict("A manuscript always keeps at least one PI. Make someone else PI first.");
+    const m = await memberKeepingAPi(tx, manuscriptId, memberId, true);
     await tx.delete(manuscriptMembers).where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(manuscriptMembers.userId, memberId)));
     await appendAudit(tx, { actorId: user.id, manuscriptId, action: "member.remove", target: `user:${memberId}`, data: { role: m.role } });
   });
