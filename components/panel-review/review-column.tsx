@@ -42,6 +42,18 @@ export function ReviewColumn({
   const open = all.filter((t) => t.status === "open");
   const resolved = all.filter((t) => t.status !== "open");
   const numberOf = (id: string) => all.findIndex((t) => t.id === id) + 1;
+  const threadItem = (t: (typeof all)[number]) => (
+    <ThreadItem
+      key={t.id}
+      thread={t}
+      index={numberOf(t.id)}
+      currentRevisionNumber={rev?.number ?? null}
+      me={me.id}
+      members={mentionable}
+      canWrite={canWrite}
+      actions={actions}
+    />
+  );
   const pick = (m: PickMode) => onPickMode(pickMode === m ? "none" : m);
 
   return (
@@ -152,18 +164,7 @@ export function ReviewColumn({
           </p>
         ) : null}
         <ul className="space-y-3" aria-label="Open threads">
-          {open.map((t) => (
-            <ThreadItem
-              key={t.id}
-              thread={t}
-              index={numberOf(t.id)}
-              currentRevisionNumber={rev?.number ?? null}
-              me={me.id}
-              members={mentionable}
-              canWrite={canWrite}
-              actions={actions}
-            />
-          ))}
+          {open.map(threadItem)}
         </ul>
         {!threads.isLoading && !open.length ? <p className="text-sm text-muted">No open threads.</p> : null}
         {resolved.length ? (
@@ -171,20 +172,7 @@ export function ReviewColumn({
             <summary className="cursor-pointer text-sm text-muted">
               {resolved.length} resolved thread{resolved.length === 1 ? "" : "s"}
             </summary>
-            <ul className="mt-2 space-y-3">
-              {resolved.map((t) => (
-                <ThreadItem
-                  key={t.id}
-                  thread={t}
-                  index={numberOf(t.id)}
-                  currentRevisionNumber={rev?.number ?? null}
-                  me={me.id}
-                  members={mentionable}
-                  canWrite={canWrite}
-                  actions={actions}
-                />
-              ))}
-            </ul>
+            <ul className="mt-2 space-y-3">{resolved.map(threadItem)}</ul>
           </details>
         ) : null}
         {actions.resolve.isError ? (
