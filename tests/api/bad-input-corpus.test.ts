@@ -19,20 +19,8 @@ import { plainDoc } from "@/lib/review/rich-text";
 import { call, setupTestApp, type Who } from "./harness";
 import { routeFiles } from "./route-files";
 
-// A session cookie cannot be minted outside a Next request scope: a request carrying one is the demo author (as in origin-check.test.ts).
-vi.mock("@/lib/http/request-user", async () => {
-  const actual = await vi.importActual<typeof import("@/lib/http/request-user")>("@/lib/http/request-user");
-  const { getUserById } = await import("@/lib/server/users");
-  return {
-    ...actual,
-    resolveCaller: async (req: Request) => {
-      // As in the real resolver, a bearer token wins over the cookie.
-      if (req.headers.get("authorization") || !req.headers.get("cookie")?.includes("authjs.session-token=")) return actual.resolveCaller(req);
-      const user = await getUserById("demo-author");
-      return user ? { user, via: "session" as const } : null;
-    },
-  };
-});
+// A request carrying a session cookie is the demo author (see cookie-caller.ts).
+vi.mock("@/lib/http/request-user", () => import("./cookie-caller").then((m) => m.cookieCallerModule()));
 
 type Part = string | { repeat: string; times: number } | { hex: string };
 interface UploadPart {

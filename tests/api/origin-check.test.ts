@@ -6,19 +6,8 @@ import * as figuresRoute from "@/app/api/figures/route";
 import * as figure from "@/app/api/figures/[id]/route";
 import { call, setupTestApp, type Who } from "./harness";
 
-// A session cookie cannot be minted outside a Next request scope; stand in for the cookie's caller.
-vi.mock("@/lib/http/request-user", async () => {
-  const actual = await vi.importActual<typeof import("@/lib/http/request-user")>("@/lib/http/request-user");
-  const { getUserById } = await import("@/lib/server/users");
-  return {
-    ...actual,
-    resolveCaller: async (req: Request) => {
-      if (!req.headers.get("cookie")?.includes("authjs.session-token=")) return actual.resolveCaller(req);
-      const user = await getUserById("demo-author");
-      return user ? { user, via: "session" as const } : null;
-    },
-  };
-});
+// A request carrying a session cookie is the demo author (see cookie-caller.ts).
+vi.mock("@/lib/http/request-user", () => import("./cookie-caller").then((m) => m.cookieCallerModule()));
 
 let tokens: Record<Who, string>;
 let figureId: string;
