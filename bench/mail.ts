@@ -51,7 +51,7 @@ export async function benchMail(): Promise<Record<string, unknown>> {
   await applyMigrations();
   const s = await import("@/db/schema");
   const { runDigests } = await import("@/lib/server/mail/digests");
-  const { deliverOutbox } = await import("@/lib/server/mail/outbox");
+  const { deliverOutbox, drawPendingHtml } = await import("@/lib/server/mail/outbox");
   const { startMailSink } = await import("@/lib/server/mail/sink-server");
   const { env } = await import("@/lib/env");
   const db = getDb();
@@ -223,6 +223,8 @@ export async function benchMail(): Promise<Record<string, unknown>> {
   // Draw the HTML and send everything through the local sink.
   const sink = await startMailSink({ port: env().smtpPort, dir: env().mailSinkDir, quiet: true });
   const t2 = performance.now();
+  await drawPendingHtml();
+  const drawMs = performance.now() - t2;
   let delivered = 0;
   for (;;) {
     const n = await deliverOutbox();
@@ -245,6 +247,7 @@ export async function benchMail(): Promise<Record<string, unknown>> {
     seedSeconds: round(seedMs / 1000),
     buildSeconds: round(buildMs / 1000),
     medianMsPerDigest: round(median(perDigest)),
+    drawSeconds: round(drawMs / 1000),
     drawAndSendSeconds: round(sendMs / 1000),
     delivered,
     totalSeconds: round((buildMs + sendMs) / 1000),
@@ -256,6 +259,7 @@ export async function benchMail(): Promise<Record<string, unknown>> {
     ["lines per digest (median / max)", `${result.linesPerDigest.median} / ${result.linesPerDigest.max}`],
     ["build + enqueue, s", result.buildSeconds],
     ["median per digest, ms", result.medianMsPerDigest],
+    ["of which drawing HTML (react-email), s", result.drawSeconds],
     ["draw HTML + send via sink, s", result.drawAndSendSeconds],
     ["total, s", result.totalSeconds],
     ["peak RSS (this process), MB", result.peakRssMb],

@@ -13,7 +13,7 @@ const RENDER_BATCH = 500;
  * Draws the HTML part of pending messages from their views (react-email, in the render child),
  * once per message: a retry sends what was drawn. A message whose drawing failed goes out as text.
  */
-async function drawPendingHtml(): Promise<void> {
+export async function drawPendingHtml(): Promise<void> {
   const db = getDb();
   for (;;) {
     const rows = await db
@@ -67,29 +67,29 @@ function openTransport(): Transporter {
  */
 async function claimNext(now: number) {
   const db = getDb();
-  const due = await db
-    .select({ id: mailOutbox.id, status: mailOutbox.status, to: mailOutbox.to })
-    .from(mailOutbox)
-    .where(
-      or(
-        and(eq(mailOutbox.status, "pending"), lte(mailOutbox.nextAttemptAt, new Date(now))),
-        and(eq(mailOutbox.status, "sending"), or(isNull(mailOutbox.leaseUntil), lt(mailOutbox.leaseUntil, new Date(now)))),
-      ),
-    )
-    .orderBy(asc(mailOutbox.nextAttemptAt))
-    .limit(1);
-  if (!due[0]) return null;
-  const interrupted = due[0].status === "sending";
-  const claimed = await db
-    .update(mailOutbox)
-    .set({ status: "sending", leaseUntil: new Date(now + LEASE_MS), ...(interrupted ? { lastError: INTERRUPTED } : {}) })
-    .where(and(eq(mailOutbox.id, due[0].id), or(eq(mailOutbox.status, "pending"), lt(mailOutbox.leaseUntil, new Date(now)))))
-    .returning();
-  if (interrupted && claimed[0])
-    console.warn(
-      `[prooflight] mail ${claimed[0].id} was interrupted while sending; sending it again with the same Message-ID (the relay may already have it).`,
-    );
-  return claimed[0] ?? null;
+  const leaseOver = and(eq(mailOutbox.status, "sending"), or(isNull(mailOutbox.leaseUntil), lt(mailOutbox.leaseUntil, new Date(now))));
+  for (;;) {
+    // Two index-friendly lookups: due pending mail first, then mail whose sender died mid-send.
+    const [pending] = await db
+      .select({ id: mailOutbox.id })
+      .from(mailOutbox)
+      .where(and(eq(mailOutbox.status, "pending"), lte(mailOutbox.nextAttemptAt, new Date(now))))
+      .orderBy(asc(mailOutbox.nextAttemptAt))
+      .limit(1);
+    const [stranded] = pending ? [] : await db.select({ id: mailOutbox.id }).from(mailOutbox).where(leaseOver).limit(1);
+    const due = pending ?? stranded;
+    if (!due) return null;
+    const interrupted = !pending;
+    const [claimed] = await db
+      .update(mailOutbox)
+      .set({ status: "sending", leaseUntil: new Date(now + LEASE_MS), ...(interrupted ? { lastError: INTERRUPTED } : {}) })
+      .where(and(eq(mailOutbox.id, due.id), interrupted ? leaseOver : eq(mailOutbox.status, "pending")))
+      .returning();
+    if (!claimed) continue; // another sender took it first: look for the next one
+    if (interrupted)
+      console.warn(`[prooflight] mail ${claimed.id} was interrupted while sending; sending it again with the same Message-ID (the relay may already have it).`);
+    return claimed;
+  }
 }
 
 let running: Promise<number> | null = null;
@@ -134,7 +134,8 @@ async function sendUntilDone(transport: Transporter): Promise<number> {
       });
       await getDb()
         .update(mailOutbox)
-        .set({ status: "sent", sentAt: new Date(), leaseUntil: null, attempts: msg.attempts + 1, html })
+        // The HTML is written back only when it was drawn just now (it is already stored otherwise).
+        .set({ status: "sent", sentAt: new Date(), leaseUntil: null, attempts: msg.attempts + 1, ...(msg.html ? {} : { html }) })
         .where(eq(mailOutbox.id, msg.id));
       await getDb().delete(mailBounces).where(eq(mailBounces.email, msg.to.toLowerCase()));
       sent++;
