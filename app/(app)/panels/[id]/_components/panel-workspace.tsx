@@ -1,5 +1,6 @@
 "use client";
 import { useQuery, useQueryClient } from "@tanstack/react-query";
+import { useSearchParams } from "next/navigation";
 import { useEffect, useRef, useState, type KeyboardEvent } from "react";
 import { fetchJson } from "@/components/api-client";
 import { queryKeys, type DatasetItem, type MemberView, type PanelView, type RevisionView, type ThreadAnchor } from "@/components/figures/api";
@@ -65,7 +66,9 @@ export function PanelWorkspace({
   });
   const rev = panel.currentRevision;
   const editable = roleAllows(panel.role, "figure.edit");
-  const [tab, setTab] = useState<Tab>(!editable ? "revisions" : rev ? "editor" : "builder");
+  // Coming back from the fit page (`?tab=builder`) opens the builder with the new run chosen.
+  const asked = useSearchParams().get("tab");
+  const [tab, setTab] = useState<Tab>(!editable ? "revisions" : asked === "builder" || !rev ? "builder" : "editor");
   const [zoomChoice, setZoomChoice] = useState<"fit" | number>("fit");
   const [chartBox, chartBoxWidth] = useContentWidth();
   const naturalPx = widthMm * PX_PER_MM;

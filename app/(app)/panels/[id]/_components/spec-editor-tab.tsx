@@ -1,14 +1,14 @@
 "use client";
 import { useMutation } from "@tanstack/react-query";
 import { useCallback, useEffect, useState } from "react";
-import { ApiError, sendJson } from "@/components/api-client";
+import { sendJson } from "@/components/api-client";
 import type { RevisionView } from "@/components/figures/api";
 import type { Diagnostic } from "@/components/figures/json-editor";
 import { JsonEditorLazy } from "@/components/figures/json-editor-lazy";
 import { PanelChartLazy } from "@/components/figures/panel-chart-lazy";
 import { checkSpecText, type SpecCheck } from "@/components/figures/spec-check";
 import { toBinding, usePreviewData, type BindingChoice } from "@/components/figures/use-preview-data";
-import { Button, Field, TextInput } from "@/components/ui";
+import { SaveRevisionBar } from "./save-revision-bar";
 
 interface SavedRevision {
   id: string;
@@ -81,7 +81,6 @@ export function SpecEditorTab({
       onSaved(r);
     },
   });
-  const conflict = save.error instanceof ApiError && save.error.status === 409;
   const blocked = !check?.ok
     ? "Fix the problems in the spec first."
     : unbound.length
@@ -133,45 +132,22 @@ export function SpecEditorTab({
               ✕ {preview.error.message}
             </p>
           ) : null}
-          <form
-            className="mt-4 space-y-2"
-            aria-label="Save revision"
-            onSubmit={(e) => {
-              e.preventDefault();
-              save.mutate();
-            }}
-          >
-            <Field label="Revision note" hint="What changed and why, for your co-authors.">
-              <TextInput value={message} onChange={(e) => setMessage(e.target.value)} placeholder="e.g. axis title with units" />
-            </Field>
-            <div className="flex items-center gap-3">
-              <Button type="submit" disabled={Boolean(blocked) || save.isPending}>
-                {save.isPending ? "Saving…" : revision ? `Save as revision ${revision.number + 1}` : "Save revision 1"}
-              </Button>
-              {blocked ? <span className="text-xs text-muted">{blocked}</span> : null}
-            </div>
-            {conflict ? (
-              <div role="alert" className="rounded-sm border border-bad bg-[#fbeeee] p-3 text-sm text-bad">
-                <p className="font-semibold">
-                  <span aria-hidden>✕ </span>This panel changed since you opened it — reload.
-                </p>
-                <p className="mt-1 text-xs">Someone saved a newer revision. Copy your edits if you want to keep them, then reload and apply them again.</p>
-                <Button type="button" variant="danger" className="mt-2" onClick={() => window.location.reload()}>
-                  Reload
-                </Button>
-              </div>
-            ) : save.isError ? (
-              <p role="alert" className="text-sm text-bad">
-                <span aria-hidden>✕ </span>
-                {save.error.message}
-              </p>
-            ) : null}
-            {save.isSuccess ? (
-              <p role="status" className="text-sm text-good">
-                <span aria-hidden>✓ </span>Saved revision {save.data.number}.
-              </p>
-            ) : null}
-          </form>
+          <div className="mt-4">
+            <SaveRevisionBar
+              formLabel="Save revision"
+              noteLabel="Revision note"
+              noteHint="What changed and why, for your co-authors."
+              placeholder="e.g. axis title with units"
+              note={message}
+              onNote={setMessage}
+              revisionNumber={revision ? revision.number : null}
+              blocked={blocked}
+              pending={save.isPending}
+              error={save.error}
+              savedNumber={save.isSuccess ? save.data.number : null}
+              onSave={() => save.mutate()}
+            />
+          </div>
         </div>
       ) : (
         <p className="text-sm text-muted">PI and authors edit specs; you can read the current one here (drawn above).</p>
