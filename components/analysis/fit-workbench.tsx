@@ -5,6 +5,7 @@ import { useMemo, useState } from "react";
 import { ApiError, fetchJson, sendJson } from "@/components/api-client";
 import { Button, Notice, Sheet } from "@/components/ui";
 import { resolveUnit } from "@/lib/analysis/param-unit";
+import { returnWithRun } from "@/lib/figures/return-to";
 import type { FitOptions, FitResult, ModelInfo, SavedRun, StoredRun } from "./api";
 import { buildOptions, defaultColumns, defaultsFrom, orderModels, type Column, type DefaultBounds, type ParamDraft } from "./fit-options";
 import { FitResultView } from "./fit-result";
@@ -19,6 +20,8 @@ interface Props {
   models: ModelInfo[];
   mayRun: boolean;
   initialRuns: StoredRun[];
+  /** The panel builder that sent the user here (a checked path); after saving, a link leads back with the new run. */
+  returnTo?: string | null;
 }
 
 interface Shown {
@@ -30,7 +33,7 @@ interface Shown {
 }
 
 /** Choose a model and columns, adjust the parameters, fit (nothing stored), then save the run with its derived version. */
-export function FitWorkbench({ versionId, kind, columns, models, mayRun, initialRuns }: Props) {
+export function FitWorkbench({ versionId, kind, columns, models, mayRun, initialRuns, returnTo }: Props) {
   const queryClient = useQueryClient();
   const runsKey = ["version-analyses", versionId];
   const runs = useQuery({
@@ -45,7 +48,7 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
   const [shown, setShown] = useState<Shown | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState<"fit" | "save" | null>(null);
-  const [saved, setSaved] = useState<{ number: number; datasetId: string; id: string } | null>(null);
+  const [saved, setSaved] = useState<{ number: number; datasetId: string; id: string; analysisId: string } | null>(null);
 
   const model = models.find((m) => m.id === modelId);
   const unitOf = (name: string) => columns.find((c) => c.name === name)?.unit ?? null;
@@ -102,7 +105,7 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
       const run = await sendJson<SavedRun>("/api/analyses", "POST", { versionId, model: shown.run.model, options: shown.run.options });
       setShown({ ...shown, run });
       const derived = await fetchJson<{ number: number; datasetId: string }>(`/api/versions/${run.derivedVersionId}`);
-      setSaved({ number: derived.number, datasetId: derived.datasetId, id: run.derivedVersionId });
+      setSaved({ number: derived.number, datasetId: derived.datasetId, id: run.derivedVersionId, analysisId: run.id });
       await queryClient.invalidateQueries({ queryKey: runsKey });
     } catch (err) {
       setError(err instanceof ApiError ? err.message : (err as Error).message);
@@ -120,6 +123,14 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
 
   return (
     <div className="space-y-6">
+      {returnTo && !saved ? (
+        <p className="text-sm text-muted" data-testid="fit-for-panel">
+          You came here from a panel: fit, then save the run to go back to the panel with it chosen.{" "}
+          <Link href={returnTo} className="underline">
+            Back to the panel without a fit
+          </Link>
+        </p>
+      ) : null}
       {mayRun ? (
         <Sheet>
           <h2 className="sr-only">Fit settings</h2>
@@ -172,6 +183,15 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
                 derived version {saved.number}
               </Link>{" "}
               (fitted curve, data and residuals, traceable to this version).
+              {returnTo ? (
+                <>
+                  {" "}
+                  <Link href={returnWithRun(returnTo, saved.analysisId)} className="font-semibold underline">
+                    Back to the panel
+                  </Link>{" "}
+                  (the builder there uses this run).
+                </>
+              ) : null}
             </Notice>
           ) : null}
         </Sheet>

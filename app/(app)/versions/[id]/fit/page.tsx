@@ -4,15 +4,18 @@ import { EstimateCaution } from "@/components/analysis/estimate-caution";
 import { PageHeader, RoleBadge } from "@/components/ui";
 import { roleAllows } from "@/lib/authz/policy";
 import { loadOrNotFound, requireUser } from "@/lib/http/session";
+import { safeReturnTo } from "@/lib/figures/return-to";
 import { analysisCatalogue } from "@/lib/server/analyses/catalogue";
 import { listAnalysesForVersion } from "@/lib/server/analyses/run-analysis";
 import { getDataset, getVersion } from "@/lib/server/datasets/read-datasets";
 
 export const metadata = { title: "Fit" };
 
-export default async function FitPage({ params }: { params: Promise<{ id: string }> }) {
+export default async function FitPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ returnTo?: string | string[] }> }) {
   const user = await requireUser();
   const { id } = await params;
+  const asked = (await searchParams).returnTo;
+  const returnTo = safeReturnTo(Array.isArray(asked) ? asked[0] : asked);
   const version = await loadOrNotFound(() => getVersion(user, id));
   const dataset = await loadOrNotFound(() => getDataset(user, version.datasetId));
   const runs = await listAnalysesForVersion(user, id);
@@ -50,6 +53,7 @@ export default async function FitPage({ params }: { params: Promise<{ id: string
         models={analysisCatalogue().items}
         mayRun={mayRun}
         initialRuns={runs}
+        returnTo={returnTo}
       />
     </>
   );
