@@ -1,6 +1,6 @@
 /**
  * Hahn-echo decays, four centres per sample group: S(τ) = S0 + A·exp(−(τ/T2)ⁿ)
- * (REFERENCES.md §6) on 80 log-spaced τ from 1 to 2000 µs, Gaussian noise with a per-point σ
+ * (the model in lib/analysis/models/decay-models.ts) on 80 log-spaced τ from 1 to 2000 µs, Gaussian noise with a per-point σ
  * that is written in the `sigma` column. The true T2 and n go into each file's notes.
  */
 import type { DemoFile } from "./types";

@@ -12,7 +12,7 @@ import { odmrResonances } from "@/lib/physics/odmr";
 /**
  * ¹⁴N |A∥| in MHz used for the demo lines: 2.16 MHz, the "later work" value beside Felton et
  * al., PRB 79, 075203 (2009) (−2.14(7) MHz, the value in lib/physics/constants); see
- * Steiner et al., PRB 81, 035205 (2010) (from memory, REFERENCES.md).
+ * Steiner et al., PRB 81, 035205 (2010) (from memory).
  */
 export const DEMO_14N_SPLITTING_MHZ = 2.16;
 

@@ -1,5 +1,5 @@
 /**
- * Ramsey fringes with the ¹⁴N hyperfine triplet resolved (REFERENCES.md §6):
+ * Ramsey fringes with the ¹⁴N hyperfine triplet resolved (the model in lib/analysis/models/ramsey-models.ts):
  * S(t) = S0 + A·exp(−(t/T2*)²)·Σₘ cos(2π(δ + m·|A∥|)t + φ), m = −1, 0, +1, equal weights.
  * Time is in ns, so frequencies enter as 1/ns: δ = 2.5 MHz is 0.0025 ns⁻¹.
  */

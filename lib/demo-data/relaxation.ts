@@ -1,6 +1,6 @@
 /**
  * Spin-relaxation (T1) curves, two centres per group: normalised PL after a wait time,
- * S(t) = S0 + A·exp(−t/T1) (REFERENCES.md §6) on 50 log-spaced waits from 1 µs to 20 ms.
+ * S(t) = S0 + A·exp(−t/T1) (the model in lib/analysis/models/decay-models.ts) on 50 log-spaced waits from 1 µs to 20 ms.
  */
 import type { DemoFile } from "./types";
 import { Rng } from "./prng";

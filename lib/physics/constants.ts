@@ -4,7 +4,7 @@
  * Fundamental constants: CODATA 2018 recommended values (Tiesinga et al., Rev. Mod. Phys. 93,
  * 025010 (2021); NIST, physics.nist.gov/constants). CODATA 2022 differs only past the 8th digit.
  * NV-centre and nuclear values carry their own source beside them; "(from memory)" marks a
- * source that was recalled rather than re-read, as in the project's REFERENCES.md.
+ * source that was recalled rather than re-read.
  */
 
 // ---- CODATA 2018 -------------------------------------------------------------------------

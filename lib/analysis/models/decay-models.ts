@@ -1,5 +1,7 @@
 /**
- * Decay models for spin-echo and relaxation data (REFERENCES.md §6): x is the free-evolution
+ * Decay models for spin-echo and relaxation data — the stretched-exponential echo decay and the
+ * exponential T1 decay as fitted in NV work, e.g. de Lange et al., Science 330, 60 (2010) and
+ * Jarmola et al., PRL 108, 197601 (2012) (both from memory). x is the free-evolution
  * or wait time in the x column's unit, y the signal in the y column's unit.
  */
 import { guessDecay } from "./guess/decay-guess";

@@ -1,5 +1,7 @@
 /**
- * Ramsey (free-induction decay) models, REFERENCES.md §6: t is the free-precession time in the
+ * Ramsey (free-induction decay) models: a Gaussian envelope exp(−(t/T₂*)²) on the fringes, three
+ * cosines at δ + m·|A∥| when the ¹⁴N hyperfine lines are resolved (Childress et al., Science 314,
+ * 281 (2006); from memory). t is the free-precession time in the
  * x column's unit, so the detuning δ and the hyperfine splitting |A∥| come out in 1/x
  * (MHz when x is in µs; ¹⁴N |A∥| ≈ 2.16 MHz). Phases in radians.
  */
