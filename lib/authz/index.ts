@@ -32,6 +32,8 @@ const ACTION_WORDS: Record<ManuscriptAction, string> = {
   "comment.write": "comment (PI, authors and reviewers)",
   "review.decide": "record review decisions (PI, authors and reviewers)",
   "figure.signoff": "sign off figures (PI only)",
+  "archive.manage": "archive or restore (PI and authors)",
+  "archive.delete": "delete archived things for good (PI only)",
 };
 
 /**

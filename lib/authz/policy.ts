@@ -19,6 +19,10 @@ const MANUSCRIPT_POLICY = {
   "comment.write": commenters,
   "review.decide": commenters,
   "figure.signoff": ["pi"],
+  /** Archive and restore datasets, stored runs, panels and figures. */
+  "archive.manage": writers,
+  /** Delete an archived thing nothing references, for good. */
+  "archive.delete": ["pi"],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type ManuscriptAction = keyof typeof MANUSCRIPT_POLICY;

@@ -9,6 +9,8 @@ import { exportQuery } from "@/lib/server/export/export-figure";
 import { thumbnailQuery } from "@/lib/server/export/thumbnails";
 import { decisionInput, editCommentInput, newThreadInput, replyInput, resolveInput, signoffInput } from "@/lib/server/review/schemas";
 import { threadFollowInput } from "@/lib/server/review/thread-follows";
+import { withdrawSignoffInput } from "@/lib/server/review/review-edges";
+import { archiveInput, archivedQuery } from "@/lib/server/archive/archive";
 import { addPanelInput, createFigureInput, reorderInput, revisionInput, updateFigureInput } from "@/lib/server/figures/schemas";
 
 const unsubscribeQuery = z.object({ token: z.string().describe("the signed token from the mail's List-Unsubscribe address") });
@@ -91,7 +93,14 @@ export const API_OPERATIONS: ApiOperation[] = [
     success: 200,
   },
   { method: "DELETE", path: "/api/manuscripts/{id}/members/{userId}", permission: "member.manage", summary: "Remove a member", success: 200 },
-  { method: "GET", path: "/api/manuscripts/{id}/datasets", permission: "manuscript.read", summary: "Datasets with their latest version", success: 200 },
+  {
+    method: "GET",
+    path: "/api/manuscripts/{id}/datasets",
+    permission: "manuscript.read",
+    summary: "Datasets with their latest version (archived ones left out; ?archived=1 lists only those)",
+    query: archivedQuery,
+    success: 200,
+  },
   {
     method: "POST",
     path: "/api/manuscripts/{id}/datasets",
@@ -134,7 +143,14 @@ export const API_OPERATIONS: ApiOperation[] = [
     query: plotQuery,
     success: 200,
   },
-  { method: "GET", path: "/api/versions/{id}/analyses", permission: "manuscript.read", summary: "Analysis runs on a version", success: 200 },
+  {
+    method: "GET",
+    path: "/api/versions/{id}/analyses",
+    permission: "manuscript.read",
+    summary: "Analysis runs on a version (archived ones left out; ?archived=1 lists only those)",
+    query: archivedQuery,
+    success: 200,
+  },
   { method: "GET", path: "/api/analysis-models", permission: "model.list", summary: "Fit models and calculators with parameters and units", success: 200 },
   {
     method: "POST",
@@ -162,7 +178,14 @@ export const API_OPERATIONS: ApiOperation[] = [
     body: calculatorInput,
     success: 200,
   },
-  { method: "GET", path: "/api/manuscripts/{id}/figures", permission: "manuscript.read", summary: "Figures with their panels", success: 200 },
+  {
+    method: "GET",
+    path: "/api/manuscripts/{id}/figures",
+    permission: "manuscript.read",
+    summary: "Figures with their panels (archived ones left out; ?archived=1 lists only those)",
+    query: archivedQuery,
+    success: 200,
+  },
   { method: "POST", path: "/api/figures", permission: "figure.edit", summary: "Create a figure", body: createFigureInput, success: 201 },
   { method: "GET", path: "/api/figures/{id}", permission: "manuscript.read", summary: "A figure with its lettered panels", success: 200 },
   {
@@ -276,6 +299,38 @@ export const API_OPERATIONS: ApiOperation[] = [
     body: signoffInput,
     success: 201,
   },
+  {
+    method: "POST",
+    path: "/api/figures/{id}/signoff/withdraw",
+    permission: "figure.signoff",
+    summary: "PI withdraws a sign-off with a reason (kept on record, no longer counts)",
+    body: withdrawSignoffInput,
+    success: 200,
+  },
+  {
+    method: "POST",
+    path: "/api/panels/{id}/send-to-review",
+    permission: "figure.edit",
+    summary: "Send a draft panel to review (reviewers are asked)",
+    success: 200,
+  },
+  ...(["datasets", "analyses", "panels", "figures"] as const).flatMap((things): ApiOperation[] => [
+    {
+      method: "POST",
+      path: `/api/${things}/{id}/archive`,
+      permission: "archive.manage",
+      summary: "Archive (archived: true) or restore (false); it leaves lists and pickers and stays resolvable from every trace",
+      body: archiveInput,
+      success: 200,
+    },
+    {
+      method: "DELETE",
+      path: `/api/${things}/{id}`,
+      permission: "archive.delete",
+      summary: "Delete an archived thing for good; 409 names what still references it",
+      success: 200,
+    },
+  ]),
   { method: "GET", path: "/api/review-queue", permission: "self.read", summary: "What waits on the caller", success: 200 },
   { method: "GET", path: "/api/manuscripts/{id}/activity", permission: "manuscript.read", summary: "The audit log in words", success: 200 },
 ];

@@ -20,6 +20,8 @@ export interface PanelStateInput {
   requiredReviewers: string[];
   /** The figure is signed off on its current hash. */
   signedOff: boolean;
+  /** The author sent the panel to review; false keeps it a draft whatever its revisions (absent counts as sent). */
+  reviewRequested?: boolean;
 }
 
 export interface PanelState {
@@ -41,7 +43,7 @@ function latestDecisionsOn(hash: string, decisions: DecisionRecord[]): Map<strin
 }
 
 export function panelReviewState(input: PanelStateInput): PanelState {
-  if (!input.currentHash) return { state: "draft", approvedBy: [], needsRevisionBy: [], waitingOn: [] };
+  if (!input.currentHash || input.reviewRequested === false) return { state: "draft", approvedBy: [], needsRevisionBy: [], waitingOn: [] };
   const latest = [...latestDecisionsOn(input.currentHash, input.decisions).values()];
   const approvedBy = latest
     .filter((d) => d.decision === "approved")

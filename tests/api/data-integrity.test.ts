@@ -164,7 +164,7 @@ describe("data warnings at render", () => {
         contentHash: revisionContentHash(oldSpec, bound),
         createdBy: "demo-author",
       });
-    await getDb().update(panels).set({ currentRevisionId: id }).where(eq(panels.id, panelId));
+    await getDb().update(panels).set({ currentRevisionId: id, reviewRequestedAt: new Date() }).where(eq(panels.id, panelId));
 
     const data = await call(revisionData.GET, { token: tokens.reviewer, params: { id } });
     expect(data.status).toBe(200);

@@ -22,6 +22,7 @@ import { startMailSink, type SinkHandle } from "@/lib/server/mail/sink-server";
 import { listSinkMessages, type SinkMessage } from "@/lib/server/mail/sink-store";
 import { applyUnsubscribe } from "@/lib/server/mail/unsubscribe";
 import { recordDecision, signOffFigure } from "@/lib/server/review/decisions";
+import { sendToReview } from "@/lib/server/review/review-edges";
 import { createThread, replyToThread } from "@/lib/server/review/threads";
 import { setupTestApp } from "./harness";
 
@@ -98,6 +99,7 @@ describe("a week of activity", () => {
         message: "first cut",
       }),
     );
+    await at("2026-01-02T09:20:00Z", () => sendToReview(AUTHOR, ids.p1));
     ids.early = (
       await at("2026-01-02T12:00:00Z", () => createThread(AUTHOR, ids.p1, { revisionId: rev1.id, body: plainDoc("Early draft, do not review yet.") }))
     ).id;
@@ -150,6 +152,7 @@ describe("a week of activity", () => {
     const rev2a = await at("2026-01-05T11:20:00Z", () =>
       createRevision(AUTHOR, ids.p2, { spec: spec("depth", "x", "y"), bindings: { depth: { versionId: d.id } }, baseRevisionId: null, message: "" }),
     );
+    await at("2026-01-05T11:20:00Z", () => sendToReview(AUTHOR, ids.p2));
     await at("2026-01-06T14:00:00Z", () => recordDecision(REVIEWER, ids.p1, { revisionId: rev1.id, decision: "approved", note: "" }));
     await at("2026-01-06T15:00:00Z", () =>
       recordDecision(REVIEWER, ids.p2, { revisionId: rev2a.id, decision: "approved", note: "Depth agrees with the NMR fit." }),

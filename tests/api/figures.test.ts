@@ -6,6 +6,7 @@ import * as figure from "@/app/api/figures/[id]/route";
 import * as panelsRoute from "@/app/api/figures/[id]/panels/route";
 import * as order from "@/app/api/figures/[id]/order/route";
 import * as panel from "@/app/api/panels/[id]/route";
+import * as sendToReview from "@/app/api/panels/[id]/send-to-review/route";
 import * as revisions from "@/app/api/panels/[id]/revisions/route";
 import * as trace from "@/app/api/figures/[id]/trace/route";
 import { call, setupTestApp, uploadForm, type Who } from "./harness";
@@ -90,7 +91,10 @@ describe("figures, panels and revisions", () => {
     expect(r3.json.contentHash).not.toBe(r1.json.contentHash);
     const p = await call(panel.GET, { token: tokens.reviewer, params: { id: panelId } });
     expect(p.json.currentRevision).toMatchObject({ id: r3.json.id, contentHash: r3.json.contentHash });
-    expect(p.json.reviewState).toBe("in_review");
+    // A new panel is a draft until its author sends it to review.
+    expect(p.json.reviewState).toBe("draft");
+    expect((await call(sendToReview.POST, { method: "POST", token: tokens.author, params: { id: panelId } })).status).toBe(200);
+    expect((await call(panel.GET, { token: tokens.reviewer, params: { id: panelId } })).json.reviewState).toBe("in_review");
   });
 
   it("409 when the base revision is not the current one", async () => {

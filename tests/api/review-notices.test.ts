@@ -20,6 +20,7 @@ import { deliverOutbox } from "@/lib/server/mail/outbox";
 import { startMailSink, type SinkHandle } from "@/lib/server/mail/sink-server";
 import { listSinkMessages, type SinkMessage } from "@/lib/server/mail/sink-store";
 import { recordDecision, signOffFigure } from "@/lib/server/review/decisions";
+import { sendToReview } from "@/lib/server/review/review-edges";
 import { createThread, listThreads, replyToThread } from "@/lib/server/review/threads";
 import { setThreadFollow } from "@/lib/server/review/thread-follows";
 import { describeUnsubscribe, unsubscribeToken } from "@/lib/server/mail/unsubscribe";
@@ -72,12 +73,14 @@ afterAll(async () => {
 });
 
 describe("each review notice, once, to the right people", () => {
-  it("a new revision asks the reviewers (none named: every reviewer) for a review", async () => {
+  it("a draft asks nobody; sending it to review asks the reviewers (none named: every reviewer)", async () => {
     rev1 = await createRevision(AUTHOR, panelId, { spec: SPEC, bindings: { echo: { versionId } }, baseRevisionId: null, message: "first cut" });
+    expect(summary(await mailsAfterWindow())).toEqual([]);
+    await sendToReview(AUTHOR, panelId);
     const mails = await mailsAfterWindow();
     expect(summary(mails)).toEqual([`reviewer@partner.example.org: Review requested: Figure 1a — ${MS}`]);
     expect(links(mails[0]!)).toEqual([`${APP}/panels/${panelId}`]);
-    expect(mails[0]!.text).toContain("Tomás Ekberg saved revision 1 of Figure 1a “Echo of NV01”; it waits for your review.");
+    expect(mails[0]!.text).toContain("Tomás Ekberg sent Figure 1a “Echo of NV01” (revision 1) to review; it waits for your review.");
     expect(mails[0]!.text).toContain("Revision note: first cut");
   });
 
@@ -182,6 +185,7 @@ describe("named reviewers", () => {
     await updateFigure(PI, fig, { requiredReviewers: [PI.id] });
     const pid = (await addPanel(AUTHOR, fig, { title: "Spectrum" })).id;
     await createRevision(AUTHOR, pid, { spec: SPEC, bindings: { echo: { versionId } }, baseRevisionId: null, message: "" });
+    await sendToReview(AUTHOR, pid);
     const mails = await mailsAfterWindow();
     expect(summary(mails)).toEqual([`pi@lab.example.org: Review requested: Figure 2a — ${MS}`]);
     expect(links(mails[0]!)).toEqual([`${APP}/panels/${pid}`]);

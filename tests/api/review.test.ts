@@ -18,6 +18,7 @@ import * as comment from "@/app/api/comments/[id]/route";
 import * as approvals from "@/app/api/panels/[id]/approvals/route";
 import * as signoff from "@/app/api/figures/[id]/signoff/route";
 import * as queue from "@/app/api/review-queue/route";
+import * as sendToReview from "@/app/api/panels/[id]/send-to-review/route";
 import * as activity from "@/app/api/manuscripts/[id]/activity/route";
 import * as manuscript from "@/app/api/manuscripts/[id]/route";
 import { call, setupTestApp, uploadForm, type Who } from "./harness";
@@ -31,7 +32,7 @@ const SPEC = {
 };
 const post = (h: any, who: Who, params: Record<string, string>, body: unknown) => call(h, { method: "POST", token: tokens[who], params, body });
 
-let v1: any, figureId: string, panelId: string, rev1: any;
+let v1: any, figureId: string, panelId: string, rev1: any, flatThreadId: string;
 beforeAll(async () => {
   ({ tokens } = await setupTestApp());
   v1 = (
@@ -51,6 +52,24 @@ beforeAll(async () => {
 });
 
 describe("the review journey", () => {
+  it("a new panel is a draft: nobody is asked, comments are welcome, decisions wait until its author sends it to review", async () => {
+    expect((await call(panel.GET, { token: tokens.reviewer, params: { id: panelId } })).json).toMatchObject({ reviewState: "draft", inReview: false });
+    const waiting = (await call(queue.GET, { token: tokens.reviewer })).json.items.filter((i: any) => i.panelId === panelId);
+    expect(waiting).toEqual([]);
+    const early = await post(approvals.POST, "reviewer", { id: panelId }, { revisionId: rev1.id, decision: "approved" });
+    expect(early.status).toBe(409);
+    expect(early.json.error.message).toBe(
+      "This panel is a draft: comment on it freely, but approvals and requests for a revision wait until its author sends it to review.",
+    );
+    expect((await post(sendToReview.POST, "reviewer", { id: panelId }, undefined)).status).toBe(403);
+    const sent = await post(sendToReview.POST, "author", { id: panelId }, undefined);
+    expect(sent.status).toBe(200);
+    expect((await post(sendToReview.POST, "author", { id: panelId }, undefined)).json.error.message).toBe("This panel is already in review.");
+    expect((await call(panel.GET, { token: tokens.reviewer, params: { id: panelId } })).json).toMatchObject({ reviewState: "in_review", inReview: true });
+    const asked = (await call(queue.GET, { token: tokens.reviewer })).json.items.filter((i: any) => i.panelId === panelId);
+    expect(asked.map((i: any) => i.what)).toEqual(["review panel a (revision 1)"]);
+  });
+
   it("reviewer comments on an x-range and approves; author's own approval is refused", async () => {
     const t = await post(
       threads.POST,
@@ -59,6 +78,7 @@ describe("the review journey", () => {
       { body: plainDoc("The tail above 1 ms looks flat — enough points?"), revisionId: rev1.id, anchor: { type: "xrange", x0: 1, x1: 2 } },
     );
     expect(t.status).toBe(201);
+    flatThreadId = t.json.id;
     expect(t.json).toMatchObject({ anchor: { type: "xrange", x0: 1, x1: 2 }, revisionNumber: 1, status: "open" });
     expect((await post(approvals.POST, "author", { id: panelId }, { revisionId: rev1.id, decision: "approved" })).status).toBe(403);
     expect((await post(approvals.POST, "viewer", { id: panelId }, { revisionId: rev1.id, decision: "approved" })).status).toBe(403);
@@ -103,6 +123,14 @@ describe("the review journey", () => {
     expect(f.reviewState).toBe("approved");
     expect((await post(signoff.POST, "author", { id: figureId }, { figureHash: f.figureHash })).status).toBe(403);
     expect((await post(signoff.POST, "pi", { id: figureId }, { figureHash: "0".repeat(64) })).status).toBe(409);
+    // Every panel is approved, but the reviewer's thread is still open: that is an open issue, listed with its words.
+    const asked = await post(signoff.POST, "pi", { id: figureId }, { figureHash: f.figureHash });
+    expect(asked.status).toBe(400);
+    expect(asked.json.error.details.open).toEqual(["panel a has an open thread: “The tail above 1 ms looks flat — enough points?”"]);
+    expect(asked.json.error.details.issues).toEqual([
+      { panelId, letter: "a", state: "approved", threads: [{ id: flatThreadId, excerpt: "The tail above 1 ms looks flat — enough points?" }] },
+    ]);
+    expect((await post(resolve.POST, "reviewer", { id: flatThreadId }, {})).status).toBe(200);
     const s = await post(signoff.POST, "pi", { id: figureId }, { figureHash: f.figureHash });
     expect(s.status).toBe(201);
     const m = (await call(manuscript.GET, { token: tokens.viewer, params: { id: DEMO_MANUSCRIPT_ID } })).json;
@@ -113,6 +141,14 @@ describe("the review journey", () => {
     const fid = (await post(figuresRoute.POST, "author", {}, { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Spectra" })).json.id;
     const pid = (await post(panelsRoute.POST, "author", { id: fid }, {})).json.id;
     const r = (await post(revisions.POST, "author", { id: pid }, { spec: SPEC, bindings: { echo: { versionId: v1.id } }, baseRevisionId: null })).json;
+    const draft = await post(
+      signoff.POST,
+      "pi",
+      { id: fid },
+      { figureHash: (await call(figure.GET, { token: tokens.pi, params: { id: fid } })).json.figureHash },
+    );
+    expect(draft.json.error.details.open).toEqual(["panel a is draft"]);
+    await post(sendToReview.POST, "author", { id: pid }, undefined);
     await post(approvals.POST, "reviewer", { id: pid }, { revisionId: r.id, decision: "needs_revision", note: "axis title lacks units" });
     const f = (await call(figure.GET, { token: tokens.pi, params: { id: fid } })).json;
     expect(f.reviewState).toBe("needs_revision");

@@ -10,6 +10,7 @@ import { plainDoc } from "@/lib/review/rich-text";
 import { createThread, replyToThread } from "@/lib/server/review/threads";
 import { routeFiles } from "./route-files";
 import { unsubscribeToken } from "@/lib/server/mail/unsubscribe";
+import { signOffFigure } from "@/lib/server/review/decisions";
 
 type Caller = Who | "anonymous";
 const CALLERS: Caller[] = ["pi", "author", "reviewer", "viewer", "outsider", "anonymous"];
@@ -116,6 +117,20 @@ const FIXTURES: Record<string, Fixture> = {
     const f = (await call((await import("@/app/api/figures/[id]/route")).GET, { token: tokens.pi, params: { id: sample.reviewFigureId } })).json;
     return { params: { id: sample.reviewFigureId }, body: { figureHash: f.figureHash, reason: "walk" } };
   },
+  "POST /api/figures/{id}/signoff/withdraw": async () => {
+    const f = (await call((await import("@/app/api/figures/[id]/route")).GET, { token: tokens.pi, params: { id: sample.reviewFigureId } })).json;
+    const s = await signOffFigure(PI, sample.reviewFigureId, { figureHash: f.figureHash, reason: "to withdraw" });
+    return { params: { id: sample.reviewFigureId }, body: { signoffId: s.id, reason: "walk" } };
+  },
+  "POST /api/panels/{id}/send-to-review": async () => ({ params: { id: await draftPanel() } }),
+  "POST /api/datasets/{id}/archive": async () => ({ params: { id: sample.datasetId }, body: { archived: false } }),
+  "POST /api/analyses/{id}/archive": async () => ({ params: { id: sample.analysisId }, body: { archived: false } }),
+  "POST /api/panels/{id}/archive": async () => ({ params: { id: sample.panelIds[1]! }, body: { archived: false } }),
+  "POST /api/figures/{id}/archive": async () => ({ params: { id: sample.figureId }, body: { archived: false } }),
+  "DELETE /api/datasets/{id}": async () => ({ params: { id: await archivedThing("dataset") } }),
+  "DELETE /api/analyses/{id}": async () => ({ params: { id: await archivedThing("analysis") } }),
+  "DELETE /api/panels/{id}": async () => ({ params: { id: await archivedThing("panel") } }),
+  "DELETE /api/figures/{id}": async () => ({ params: { id: await archivedThing("figure") } }),
   "GET /api/review-queue": async () => ({}),
   "GET /api/manuscripts/{id}/activity": async () => ({ params: { id: DEMO_MANUSCRIPT_ID } }),
   "POST /api/calculators/{id}": async () => ({ params: { id: "odmr-field-from-pair" }, body: { inputs: { f_minus: 2750, f_plus: 2990 } } }),
@@ -129,6 +144,62 @@ async function commentBy(who: Caller): Promise<string> {
   return t.comments.at(-1)!.id;
 }
 
+/** A fresh panel with one revision by the author, still a draft. */
+async function draftPanel(): Promise<string> {
+  const id = (
+    await call((await import("@/app/api/figures/[id]/panels/route")).POST, { method: "POST", token: tokens.author, params: { id: sample.figureId }, body: {} })
+  ).json.id;
+  await call((await import("@/app/api/panels/[id]/revisions/route")).POST, {
+    method: "POST",
+    token: tokens.author,
+    params: { id },
+    body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null },
+  });
+  return id;
+}
+
+/** A fresh archived dataset, stored run, panel or figure that nothing references, for the PI to delete for good. */
+async function archivedThing(kind: "dataset" | "analysis" | "panel" | "figure"): Promise<string> {
+  let id: string;
+  if (kind === "dataset") {
+    const upload = (await import("@/app/api/manuscripts/[id]/datasets/route")).POST;
+    id = (
+      await call(upload, {
+        method: "POST",
+        token: tokens.author,
+        params: { id: DEMO_MANUSCRIPT_ID },
+        rawBody: uploadForm(`${newId()}.csv`, `t (µs),s\n1,${Math.random()}\n2,3\n`),
+      })
+    ).json.datasetId;
+  } else if (kind === "analysis")
+    id = (await call((await import("@/app/api/analyses/route")).POST, { method: "POST", token: tokens.author, body: fitBody() })).json.id;
+  else if (kind === "panel")
+    id = (
+      await call((await import("@/app/api/figures/[id]/panels/route")).POST, {
+        method: "POST",
+        token: tokens.author,
+        params: { id: sample.figureId },
+        body: {},
+      })
+    ).json.id;
+  else
+    id = (
+      await call((await import("@/app/api/figures/route")).POST, {
+        method: "POST",
+        token: tokens.author,
+        body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "To delete" },
+      })
+    ).json.id;
+  const archive = {
+    dataset: (await import("@/app/api/datasets/[id]/archive/route")).POST,
+    analysis: (await import("@/app/api/analyses/[id]/archive/route")).POST,
+    panel: (await import("@/app/api/panels/[id]/archive/route")).POST,
+    figure: (await import("@/app/api/figures/[id]/archive/route")).POST,
+  }[kind];
+  expect((await call(archive, { method: "POST", token: tokens.author, params: { id }, body: { archived: true } })).status).toBe(200);
+  return id;
+}
+
 /**
  * The expected status of every route for every caller (demo accounts as in the README), written out
  * by hand from the product's role rules below — not read from lib/authz/policy.ts or the catalogue,
@@ -140,6 +211,8 @@ async function commentBy(who: Caller): Promise<string> {
  *     tokens, queue, models, calculators) work.
  *   - viewer reads and exports; author also uploads, edits, fits and builds figures; reviewer reads,
  *     exports, comments and decides; PI does everything, and alone manages members and signs off.
+ *   - archiving and restoring is for the PI and authors; deleting an archived thing for good, and
+ *     withdrawing a sign-off, for the PI alone; sending a draft to review for the PI and authors.
  *   - creating a manuscript needs membership of the lab it is created in (demo-lab): the reviewer
  *     (no lab) and the outsider (another lab) get 404.
  * Success codes are the route's own (201 when something is created).
@@ -206,6 +279,16 @@ const EXPECTED: Record<string, Row> = {
   "DELETE /api/comments/{id}":                        [200, 200,   200,     403,   404,     401],
   "POST /api/panels/{id}/approvals":                  [201, 201,   201,     403,   404,     401],
   "POST /api/figures/{id}/signoff":                   [201, 403,   403,     403,   404,     401],
+  "POST /api/figures/{id}/signoff/withdraw":          [200, 403,   403,     403,   404,     401],
+  "POST /api/panels/{id}/send-to-review":             [200, 200,   403,     403,   404,     401],
+  "POST /api/datasets/{id}/archive":                  [200, 200,   403,     403,   404,     401],
+  "POST /api/analyses/{id}/archive":                  [200, 200,   403,     403,   404,     401],
+  "POST /api/panels/{id}/archive":                    [200, 200,   403,     403,   404,     401],
+  "POST /api/figures/{id}/archive":                   [200, 200,   403,     403,   404,     401],
+  "DELETE /api/datasets/{id}":                        [200, 403,   403,     403,   404,     401],
+  "DELETE /api/analyses/{id}":                        [200, 403,   403,     403,   404,     401],
+  "DELETE /api/panels/{id}":                          [200, 403,   403,     403,   404,     401],
+  "DELETE /api/figures/{id}":                         [200, 403,   403,     403,   404,     401],
 };
 
 let tokens: Record<Who, string>;
@@ -291,6 +374,7 @@ beforeAll(async () => {
       body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null },
     })
   ).json.id;
+  await call((await import("@/app/api/panels/[id]/send-to-review/route")).POST, { method: "POST", token: walkerToken, params: { id: sample.reviewPanelId } });
   sample.threadId = (await createThread(PI, sample.reviewPanelId, { body: plainDoc("Is the baseline flat?"), revisionId: sample.reviewRevisionId })).id;
 });
 

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, desc, eq, isNull, sql } from "drizzle-orm";
+import { and, desc, eq, isNotNull, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, datasets, versions } from "@/db/schema";
 import { FitInputError, fitModel, getModel, sampleCurve, type ModelFitResult } from "@/lib/analysis";
@@ -203,7 +203,12 @@ export async function getAnalysis(user: SessionUser, analysisId: string) {
 
 export { manuscriptOfAnalysis };
 
-export async function listAnalysesForVersion(user: SessionUser, versionId: string) {
+/** Stored runs on a version for lists and pickers: archived ones left out, or only those when `archived`. */
+export async function listAnalysesForVersion(user: SessionUser, versionId: string, archived = false) {
   await authorize(user, "manuscript.read", await manuscriptOfVersion(versionId));
-  return getDb().select().from(analyses).where(eq(analyses.versionId, versionId)).orderBy(desc(analyses.createdAt));
+  return getDb()
+    .select()
+    .from(analyses)
+    .where(and(eq(analyses.versionId, versionId), archived ? isNotNull(analyses.archivedAt) : isNull(analyses.archivedAt)))
+    .orderBy(desc(analyses.createdAt));
 }

@@ -1,7 +1,7 @@
 import "server-only";
 import fs from "node:fs";
 import { Readable } from "node:stream";
-import { asc, desc, eq, inArray } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasets, users, versions } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
@@ -16,9 +16,14 @@ import { manuscriptOfDataset, manuscriptOfVersion } from "./scope";
 import { toVersionDto } from "./version-dto";
 import { contentDisposition } from "../storage/file-name";
 
-export async function listDatasets(user: SessionUser, manuscriptId: string) {
+/** The manuscript's datasets for lists and pickers: archived ones left out, or only those when `archived`. */
+export async function listDatasets(user: SessionUser, manuscriptId: string, archived = false) {
   await authorize(user, "manuscript.read", manuscriptId);
-  const rows = await getDb().select().from(datasets).where(eq(datasets.manuscriptId, manuscriptId)).orderBy(asc(datasets.name));
+  const rows = await getDb()
+    .select()
+    .from(datasets)
+    .where(and(eq(datasets.manuscriptId, manuscriptId), archived ? isNotNull(datasets.archivedAt) : isNull(datasets.archivedAt)))
+    .orderBy(asc(datasets.name));
   const ids = rows.map((d) => d.id);
   const vs = ids.length ? await getDb().select().from(versions).where(inArray(versions.datasetId, ids)).orderBy(desc(versions.number)) : [];
   const latest = new Map<string, (typeof vs)[number]>();

@@ -22,6 +22,7 @@ import { env } from "@/lib/env";
 import { flushNotices } from "../mail/notices";
 import { deliverOutbox } from "../mail/outbox";
 import { recordDecision, signOffFigure } from "../review/decisions";
+import { sendToReview } from "../review/review-edges";
 import { createThread, replyToThread } from "../review/threads";
 
 /**
@@ -329,7 +330,7 @@ function panelWidthMm(f: FigureRef, span: number): number {
   return Math.round((col * span + 2 * (span - 1)) * 10) / 10;
 }
 
-/** A panel with its first revision, its spec built by a figure template as the builder would (the options recorded in it). */
+/** A panel with its first revision, sent to review, its spec built by a figure template as the builder would (the options recorded in it). */
 async function panel(
   user: Account,
   f: FigureRef,
@@ -344,6 +345,8 @@ async function panel(
   const spec = withTemplateRecord(template.build(options), { id: template.id, options });
   const p = await addPanel(user, f.id, { title, colSpan });
   const rev = await createRevision(user, p.id, { spec, bindings: build.bindings, baseRevisionId: null, message });
+  // Every demo panel is past its draft: its author sent it to review with its first revision.
+  await sendToReview(user, p.id);
   return { panelId: p.id, revisionId: rev.id, spec };
 }
 

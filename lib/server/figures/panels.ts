@@ -1,8 +1,9 @@
 import "server-only";
-import { asc, eq, max } from "drizzle-orm";
+import { and, asc, count, eq, isNull, max } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { panels, revisions } from "@/db/schema";
+import { decisions, panels, revisions, threads, users } from "@/db/schema";
+import { panelReviewState } from "@/lib/review/derive-state";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
@@ -37,7 +38,8 @@ export async function getPanel(user: SessionUser, panelId: string) {
   const siblings = await getDb().select({ id: panels.id }).from(panels).where(eq(panels.figureId, p.figureId)).orderBy(asc(panels.position));
   const [rev] = p.currentRevisionId ? await getDb().select().from(revisions).where(eq(revisions.id, p.currentRevisionId)) : [];
   const [review] = await loadReviewContext({ figureId: p.figureId });
-  const view = review.panels.find((x) => x.panel.id === panelId)!;
+  // An archived panel has left its figure (no letter, no part of its state); its page still shows its trail.
+  const view = review.panels.find((x) => x.panel.id === panelId) ?? (await archivedPanelView(p, rev ?? null));
   const decided = await Promise.all(
     view.decisions.map(async (d) => {
       if (!d.stale || !rev) return { ...d, changes: [] };
@@ -49,7 +51,7 @@ export async function getPanel(user: SessionUser, panelId: string) {
     ...p,
     manuscriptId,
     role,
-    letter: letterFor(siblings.findIndex((s) => s.id === p.id)),
+    letter: p.archivedAt ? letterFor(siblings.findIndex((s) => s.id === p.id)) : view.letter,
     currentRevision: rev ? { ...rev, spec: JSON.parse(rev.spec) as unknown } : null,
     dataWarnings: rev ? await revisionWarnings(rev) : [],
     reviewState: view.state,
@@ -57,7 +59,35 @@ export async function getPanel(user: SessionUser, panelId: string) {
     needsRevisionBy: view.needsRevisionBy,
     waitingOn: view.waitingOn,
     openThreads: view.openThreads,
+    inReview: p.reviewRequestedAt != null,
     figure: { id: review.figure.id, number: review.figure.number, title: review.figure.title, figureHash: review.figureHash, state: review.state },
     decisions: decided,
+  };
+}
+
+/** The review view of an archived panel, read apart from its figure's: its decisions stay on record. */
+async function archivedPanelView(p: typeof panels.$inferSelect, rev: typeof revisions.$inferSelect | null) {
+  const rows = await getDb()
+    .select({ d: decisions, name: users.name })
+    .from(decisions)
+    .innerJoin(users, eq(users.id, decisions.userId))
+    .where(eq(decisions.panelId, p.id))
+    .orderBy(asc(decisions.createdAt));
+  const [{ n } = { n: 0 }] = await getDb()
+    .select({ n: count() })
+    .from(threads)
+    .where(and(eq(threads.panelId, p.id), isNull(threads.resolvedAt)));
+  const st = panelReviewState({
+    currentHash: rev?.contentHash ?? null,
+    requiredReviewers: [],
+    signedOff: false,
+    reviewRequested: p.reviewRequestedAt != null,
+    decisions: rows.map(({ d }) => ({ userId: d.userId, decision: d.decision, contentHash: d.contentHash, createdAt: d.createdAt.getTime() })),
+  });
+  return {
+    ...st,
+    letter: "",
+    openThreads: n,
+    decisions: rows.map(({ d, name }) => ({ ...d, userName: name, stale: d.contentHash !== rev?.contentHash })),
   };
 }

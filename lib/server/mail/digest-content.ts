@@ -218,7 +218,7 @@ export async function buildDigest(
       .from(signoffs)
       .innerJoin(figures, eq(figures.id, signoffs.figureId))
       .innerJoin(users, eq(users.id, signoffs.userId))
-      .where(and(inArray(figures.manuscriptId, ids), inWindow(signoffs.createdAt), ne(signoffs.userId, user.id)));
+      .where(and(inArray(figures.manuscriptId, ids), inWindow(signoffs.createdAt), ne(signoffs.userId, user.id), isNull(signoffs.withdrawnAt)));
     for (const { s, manuscriptId, number, by } of newSignoffs)
       add(manuscriptId, s.figureId, {
         at: s.createdAt.getTime(),

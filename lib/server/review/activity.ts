@@ -27,6 +27,11 @@ const WORDS: Record<string, (d: Record<string, any>) => string> = {
   "review.approved": (d) => `approved a panel (hash ${String(d.contentHash).slice(0, 12)}…)`,
   "review.needs_revision": (d) => `asked for a revision${d.note ? `: “${d.note}”` : ""}`,
   "figure.signoff": (d) => `signed off a figure (hash ${String(d.figureHash).slice(0, 12)}…)${d.reason ? ` — reason: “${d.reason}”` : ""}`,
+  "figure.signoff_withdraw": (d) => `withdrew a sign-off (hash ${String(d.figureHash).slice(0, 12)}…) — reason: “${d.reason}”`,
+  "panel.send_to_review": (d) => `sent a panel to review (revision ${d.number})`,
+  "archive.archive": (d) => `archived ${d.what}`,
+  "archive.restore": (d) => `restored ${d.what}`,
+  "archive.delete": (d) => `deleted ${d.what} for good`,
   "figure.export": (d) => `exported ${d.format}`,
 };
 

@@ -11,6 +11,7 @@ import { manuscriptOfFigure, manuscriptOfPanel } from "../figures/scope";
 import { loadReviewContext } from "./review-context";
 import { decisionInput, signoffInput } from "./schemas";
 import { noticeDecision, noticeSignoff } from "./review-notices";
+import { openIssuesOf } from "./review-edges";
 
 /**
  * A review decision on a revision's content hash. Reviewers, the PI and authors other than the
@@ -28,6 +29,8 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
     if (p.currentRevisionId !== rev.id)
       throw conflict(`Revision ${rev.number} is no longer current; review the current revision instead.`, { currentRevisionId: p.currentRevisionId });
     if (rev.createdBy === user.id) throw forbidden("You made this revision; someone else must review it.");
+    if (!p.reviewRequestedAt)
+      throw conflict("This panel is a draft: comment on it freely, but approvals and requests for a revision wait until its author sends it to review.");
     const [before] = await loadReviewContext({ figureId: p.figureId }, tx);
     await tx
       .insert(decisions)
@@ -55,8 +58,8 @@ export async function signOffFigure(user: SessionUser, figureId: string, raw: z.
   if (review.figureHash !== input.figureHash)
     throw conflict("The figure changed since you looked at it; review the current figure and sign off its new hash.", { figureHash: review.figureHash });
   if (!review.panels.length || review.panels.some((p) => !p.revision)) throw badRequest("Every panel needs a revision before the figure can be signed off.");
-  const open = review.panels.filter((p) => p.state !== "approved").map((p) => `panel ${p.letter} is ${p.state.replace("_", " ")}`);
-  if (open.length && !input.reason) throw badRequest(`reason: open issues (${open.join("; ")}); signing off anyway needs a recorded reason.`, { open });
+  const { lines: open, issues } = await openIssuesOf(review);
+  if (open.length && !input.reason) throw badRequest(`reason: open issues (${open.join("; ")}); signing off anyway needs a recorded reason.`, { open, issues });
   const id = newId();
   await getDb().transaction(async (tx) => {
     await tx.insert(signoffs).values({ id, figureId, figureHash: input.figureHash, reason: input.reason ?? "", userId: user.id });

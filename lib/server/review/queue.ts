@@ -36,7 +36,8 @@ export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
       };
       const required = f.figure.requiredReviewers;
       for (const p of f.panels) {
-        if (!p.revision || f.state === "signed_off") continue;
+        // A draft asks nobody until its author sends it to review.
+        if (!p.revision || f.state === "signed_off" || p.state === "draft") continue;
         const at = { ...base, panelId: p.panel.id, letter: p.letter, state: p.state, since: p.revision.createdAt.toISOString() };
         const mine = p.revision.createdBy === user.id;
         const expected = required.length ? required.includes(user.id) : m.role === "reviewer";

@@ -1,5 +1,5 @@
 import "server-only";
-import { asc, desc, eq, inArray } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
 import { getDb, type Executor } from "@/db/client";
 import { decisions, figures, panels, revisions, signoffs, threads, users } from "@/db/schema";
 import { figureReviewState, panelReviewState, type ReviewState } from "@/lib/review/derive-state";
@@ -10,14 +10,26 @@ import { figureContentHash } from "../figures/figure-hash";
  * Everything needed to derive review states for the figures of one manuscript (or one figure), in a
  * few queries; inside a transaction, pass it to see that transaction's own writes.
  */
-export async function loadReviewContext(where: { manuscriptId?: string; figureId?: string }, db: Executor = getDb()) {
+export async function loadReviewContext(where: { manuscriptId?: string; figureId?: string; archived?: boolean }, db: Executor = getDb()) {
+  // A manuscript's figures leave out archived ones (or, asked for, list only those); one figure is found either way.
   const figs = await db
     .select()
     .from(figures)
-    .where(where.figureId ? eq(figures.id, where.figureId) : eq(figures.manuscriptId, where.manuscriptId!))
+    .where(
+      where.figureId
+        ? eq(figures.id, where.figureId)
+        : and(eq(figures.manuscriptId, where.manuscriptId!), where.archived ? isNotNull(figures.archivedAt) : isNull(figures.archivedAt)),
+    )
     .orderBy(asc(figures.number));
   const figIds = figs.map((f) => f.id);
-  const ps = figIds.length ? await db.select().from(panels).where(inArray(panels.figureId, figIds)).orderBy(asc(panels.position)) : [];
+  // An archived panel has left its figure: no letter, no part of the figure hash or state.
+  const ps = figIds.length
+    ? await db
+        .select()
+        .from(panels)
+        .where(and(inArray(panels.figureId, figIds), isNull(panels.archivedAt)))
+        .orderBy(asc(panels.position))
+    : [];
   const panelIds = ps.map((p) => p.id);
   const revIds = ps.map((p) => p.currentRevisionId).filter((x): x is string => Boolean(x));
   const [revs, decs, signs, threadRows] = await Promise.all([
@@ -45,7 +57,8 @@ export async function loadReviewContext(where: { manuscriptId?: string; figureId
       })),
     );
     const figSignoffs = signs.filter((s) => s.figureId === f.id);
-    const signedOff = figSignoffs.some((s) => s.figureHash === figureHash);
+    // A withdrawn sign-off stays on record but no longer counts.
+    const signedOff = figSignoffs.some((s) => s.figureHash === figureHash && !s.withdrawnAt);
     const panelViews = fPanels.map((p, i) => {
       const rev = revs.find((r) => r.id === p.currentRevisionId) ?? null;
       const pDecs = decs.filter((d) => d.d.panelId === p.id);
@@ -53,6 +66,7 @@ export async function loadReviewContext(where: { manuscriptId?: string; figureId
         currentHash: rev?.contentHash ?? null,
         requiredReviewers: f.requiredReviewers,
         signedOff,
+        reviewRequested: p.reviewRequestedAt != null,
         decisions: pDecs.map(({ d }) => ({ userId: d.userId, decision: d.decision, contentHash: d.contentHash, createdAt: d.createdAt.getTime() })),
       });
       return {
@@ -73,7 +87,7 @@ export async function loadReviewContext(where: { manuscriptId?: string; figureId
       figureHash,
       state,
       panels: panelViews,
-      signoffs: figSignoffs.map((s) => ({ ...s, stale: s.figureHash !== figureHash })),
+      signoffs: figSignoffs.map((s) => ({ ...s, stale: s.figureHash !== figureHash, withdrawn: s.withdrawnAt != null })),
     };
   });
 }

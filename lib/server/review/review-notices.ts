@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, eq } from "drizzle-orm";
+import { and, asc, eq, isNull } from "drizzle-orm";
 import type { Executor } from "@/db/client";
 import { comments, decisions, figures, manuscriptMembers, manuscripts, panels, threadFollows, type revisions } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
@@ -19,7 +19,11 @@ async function placeOfPanel(tx: Executor, panelId: string) {
     .innerJoin(figures, eq(figures.id, panels.figureId))
     .innerJoin(manuscripts, eq(manuscripts.id, figures.manuscriptId))
     .where(eq(panels.id, panelId));
-  const siblings = await tx.select({ id: panels.id }).from(panels).where(eq(panels.figureId, row.figure.id)).orderBy(asc(panels.position));
+  const siblings = await tx
+    .select({ id: panels.id })
+    .from(panels)
+    .where(and(eq(panels.figureId, row.figure.id), isNull(panels.archivedAt)))
+    .orderBy(asc(panels.position));
   const letter = letterFor(siblings.findIndex((p) => p.id === panelId));
   return {
     figure: row.figure,
@@ -84,15 +88,40 @@ export async function noticeNewRevision(tx: Executor, actor: SessionUser, rev: R
         "Review the new revision to approve it again.",
       ],
     });
+  // A draft asks nobody: reviewers hear of it when its author sends it to review.
+  const [panel] = await tx.select({ reviewRequestedAt: panels.reviewRequestedAt }).from(panels).where(eq(panels.id, rev.panelId));
+  if (!panel?.reviewRequestedAt) return;
+  await noticeReviewRequest(tx, actor, rev, { place, people, skip: stale, saved: true });
+}
+
+/**
+ * Review requested of the expected reviewers (the figure's required reviewers, or every reviewer
+ * when none is named): when a panel in review gets a new revision, and when its author sends a draft to review.
+ */
+export async function noticeReviewRequest(
+  tx: Executor,
+  actor: SessionUser,
+  rev: Rev,
+  o: { place?: Awaited<ReturnType<typeof placeOfPanel>>; people?: Awaited<ReturnType<typeof members>>; skip?: Set<string>; saved: boolean },
+) {
+  const place = o.place ?? (await placeOfPanel(tx, rev.panelId));
+  const people = o.people ?? (await members(tx, place.manuscriptId));
+  const isMember = (id: string) => people.some((m) => m.userId === id && m.role !== "viewer");
   const required = place.figure.requiredReviewers;
   const expected = required.length ? required.filter(isMember) : people.filter((m) => m.role === "reviewer").map((m) => m.userId);
   await notify(tx, {
-    ...common,
+    actorId: actor.id,
+    manuscriptId: place.manuscriptId,
+    figureId: place.figure.id,
+    manuscriptTitle: place.manuscriptTitle,
+    href: place.href,
     kind: "review_requested",
-    to: expected.filter((id) => !stale.has(id)),
+    to: expected.filter((id) => !o.skip?.has(id)),
     headline: `Review requested: ${place.label}`,
     lines: [
-      `${actor.name} saved revision ${rev.number} of ${place.label}${named(place.panelTitle)}; it waits for your review.`,
+      o.saved
+        ? `${actor.name} saved revision ${rev.number} of ${place.label}${named(place.panelTitle)}; it waits for your review.`
+        : `${actor.name} sent ${place.label}${named(place.panelTitle)} (revision ${rev.number}) to review; it waits for your review.`,
       ...(rev.message ? [`Revision note: ${rev.message}`] : []),
     ],
   });
