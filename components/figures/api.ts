@@ -40,7 +40,7 @@ export interface RevisionData {
 }
 
 /** A binding as the API stores it. */
-export type Binding = { versionId: string } | { analysisId: string; output: "curve" | "residuals" | "data" };
+export type Binding = { versionId: string } | { analysisId: string; output: "curve" | "residuals" | "data" | "parameters" };
 
 export type ThreadAnchor = { type: "point"; x: number; y: number } | { type: "xrange"; x0: number; x1: number };
 

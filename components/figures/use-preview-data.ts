@@ -3,13 +3,19 @@ import { useQueries, useQuery, type UseQueryResult } from "@tanstack/react-query
 import { useMemo } from "react";
 import { fetchJson } from "@/components/api-client";
 import type { RowsPage } from "@/components/data/api";
+import { parameterRows, storedParameters } from "@/lib/figures/fit-value";
 import { queryKeys, type Binding, type BoundRows, type RevisionData, type Row } from "./api";
 
 /** A binding plus the version whose rows it reads (an analysis output lives in its derived version). */
-export type BindingChoice = ({ versionId: string } | { analysisId: string; output: "curve" | "residuals" | "data" }) & { rowsVersionId: string };
+export type BindingChoice = ({ versionId: string } | { analysisId: string; output: "curve" | "residuals" | "data" | "parameters" }) & { rowsVersionId: string };
 
 const SERIES: Record<string, string> = { curve: "curve", residuals: "residual", data: "data" };
 const PREVIEW_LIMIT = 10_000;
+
+const combineRuns = (results: UseQueryResult<{ model: string; result: unknown }>[]) => ({
+  data: results.map((p) => p.data),
+  error: results.find((p) => p.isError)?.error ?? null,
+});
 
 /** A stable `combine` for useQueries: the result keeps its identity until a page changes, so it can be a memo dependency. */
 const combinePages = (results: UseQueryResult<RowsPage>[]) => ({
@@ -82,16 +88,37 @@ export function usePreviewData(choices: Record<string, BindingChoice>, revision:
     })),
     combine: combinePages,
   });
+  // A run's fitted parameters (the "parameters" output) come from the run itself, not from a file's rows.
+  const runIds = useMemo(
+    () => [...new Set(Object.values(choices).flatMap((c) => ("analysisId" in c && c.output === "parameters" ? [c.analysisId] : [])))].sort(),
+    [choices],
+  );
+  const { data: runData, error: runFailed } = useQueries({
+    queries: runIds.map((id) => ({
+      queryKey: ["analysis", id],
+      queryFn: () => fetchJson<{ model: string; result: unknown }>(`/api/analyses/${id}`),
+      enabled: !saved,
+      staleTime: Infinity,
+    })),
+    combine: combineRuns,
+  });
   const data = useMemo(() => {
     if (saved) return rev.data?.data;
     const out: Record<string, BoundRows> = {};
     for (const [name, c] of Object.entries(choices)) {
+      if ("analysisId" in c && c.output === "parameters") {
+        const run = runData[runIds.indexOf(c.analysisId)];
+        if (!run) return undefined;
+        const rows = parameterRows(run.model, storedParameters(run.result));
+        out[name] = { rows, reduced: false, sourceRows: rows.length };
+        continue;
+      }
       const page = pageData[ids.indexOf(c.rowsVersionId)];
       if (!page) return undefined;
       const rows = toRecords(page, "analysisId" in c ? SERIES[c.output] : null);
       out[name] = { rows, reduced: page.rowCount > page.rows.length, sourceRows: page.rowCount };
     }
     return out;
-  }, [saved, rev.data, choices, ids, pageData]);
-  return { data, error: saved ? rev.error : failed, saved };
+  }, [saved, rev.data, choices, ids, pageData, runIds, runData]);
+  return { data, error: saved ? rev.error : (failed ?? runFailed), saved };
 }

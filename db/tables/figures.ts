@@ -52,8 +52,10 @@ export interface BoundInput {
   versionId: string;
   sha256: string;
   output?: string;
+  /** For output "parameters": SHA-256 of the run's parameter rows, so the content hash follows the fitted values. */
+  resultSha256?: string;
 }
-export type Binding = { versionId: string } | { analysisId: string; output: "curve" | "residuals" | "data" };
+export type Binding = { versionId: string } | { analysisId: string; output: "curve" | "residuals" | "data" | "parameters" };
 
 export const revisions = sqliteTable(
   "revisions",

@@ -4,6 +4,7 @@ import { getDb } from "@/db/client";
 import { analyses, datasets, versions, type Binding, type BoundInput } from "@/db/schema";
 import { decodeColumnar } from "@/lib/data/columnar";
 import { canonicalJson } from "@/lib/figures/canonical-spec";
+import { parameterRows, storedParameters } from "@/lib/figures/fit-value";
 import { sha256Hex } from "../crypto";
 import { badRequest } from "@/lib/errors";
 import { columnsFor } from "../datasets/columns-cache";
@@ -22,12 +23,13 @@ export async function resolveBindings(manuscriptId: string, bindings: Record<str
       out[name] = { kind: "version", id: v.id, versionId: v.id, sha256: v.sha };
     } else {
       const [a] = await getDb()
-        .select({ id: analyses.id, m: analyses.manuscriptId, derived: analyses.derivedVersionId })
+        .select({ id: analyses.id, m: analyses.manuscriptId, derived: analyses.derivedVersionId, model: analyses.model, result: analyses.result })
         .from(analyses)
         .where(eq(analyses.id, b.analysisId));
       if (!a || a.m !== manuscriptId || !a.derived) throw badRequest(`bindings.${name}.analysisId: no such analysis in this manuscript.`);
       const [v] = await getDb().select({ sha: versions.sha256 }).from(versions).where(eq(versions.id, a.derived));
       out[name] = { kind: "analysis", id: a.id, versionId: a.derived, sha256: v.sha, output: b.output };
+      if (b.output === "parameters") out[name].resultSha256 = sha256Hex(canonicalJson(parameterRows(a.model, storedParameters(a.result))));
     }
   }
   return out;
@@ -35,7 +37,9 @@ export async function resolveBindings(manuscriptId: string, bindings: Record<str
 
 /** SHA-256 of the canonical spec plus the content hashes of everything it binds: what approvals sign. */
 export function revisionContentHash(spec: unknown, bound: Record<string, BoundInput>): string {
-  const hashes = Object.fromEntries(Object.entries(bound).map(([n, b]) => [n, `${b.kind}:${b.sha256}${b.output ? `:${b.output}` : ""}`]));
+  const hashes = Object.fromEntries(
+    Object.entries(bound).map(([n, b]) => [n, `${b.kind}:${b.sha256}${b.output ? `:${b.output}` : ""}${b.resultSha256 ? `:${b.resultSha256}` : ""}`]),
+  );
   return sha256Hex(canonicalJson({ spec, bindings: hashes }));
 }
 
@@ -46,6 +50,11 @@ export const SERIES: Record<string, string> = { curve: "curve", residuals: "resi
 export async function loadBoundData(bound: Record<string, BoundInput>): Promise<Record<string, Array<Record<string, number | string | null>>>> {
   const out: Record<string, Array<Record<string, number | string | null>>> = {};
   for (const [name, b] of Object.entries(bound)) {
+    if (b.output === "parameters") {
+      const [a] = await getDb().select({ model: analyses.model, result: analyses.result }).from(analyses).where(eq(analyses.id, b.id));
+      out[name] = parameterRows(a.model, storedParameters(a.result));
+      continue;
+    }
     const [v] = await getDb().select({ sha: versions.sha256, fileName: versions.fileName }).from(versions).where(eq(versions.id, b.versionId));
     const t = decodeColumnar(await columnsFor(v.sha, v.fileName));
     const names = t.columns.map((c) => c.name);

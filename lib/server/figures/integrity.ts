@@ -3,6 +3,7 @@ import { inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { versions, type BoundInput } from "@/db/schema";
 import { decodeColumnar } from "@/lib/data/columnar";
+import { PARAMETER_COLUMNS } from "@/lib/figures/fit-value";
 import { blanksPlot, checkSpecFields, specFieldUses, type ColumnInfo, type FieldProblem } from "@/lib/figures/spec-fields";
 import { columnsFor } from "../datasets/columns-cache";
 import { SERIES } from "./bindings";
@@ -36,7 +37,8 @@ async function boundColumns(bound: Record<string, BoundInput>): Promise<Record<s
   const out: Record<string, ColumnInfo[]> = {};
   for (const [name, b] of Object.entries(bound)) {
     const cols = byId.get(b.versionId);
-    if (cols) out[name] = cols.map((c) => ({ name: c.name, unit: c.unit, header: c.header ?? null }));
+    if (b.output === "parameters") out[name] = PARAMETER_COLUMNS.map((c) => ({ name: c, unit: null, header: null }));
+    else if (cols) out[name] = cols.map((c) => ({ name: c.name, unit: c.unit, header: c.header ?? null }));
   }
   return out;
 }
@@ -58,7 +60,8 @@ function describeData(name: string, b: BoundInput): string {
 async function rowWarnings(spec: unknown, bound: Record<string, BoundInput>, missing: Set<string>): Promise<DataWarning[]> {
   const uses = specFieldUses(spec);
   const out: DataWarning[] = [];
-  const names = [...new Set(uses.map((u) => u.dataName))].filter((n) => n in bound);
+  // A run's parameters are a few rows written by the service; only files' rows are checked here.
+  const names = [...new Set(uses.map((u) => u.dataName))].filter((n) => n in bound && bound[n].output !== "parameters");
   if (!names.length) return out;
   const ids = [...new Set(names.map((n) => bound[n].versionId))];
   const vs = await getDb().select({ id: versions.id, sha: versions.sha256, fileName: versions.fileName }).from(versions).where(inArray(versions.id, ids));

@@ -35,7 +35,7 @@ const binding = z.union([
   z
     .object({
       analysisId: z.string().min(1).max(ID_MAX),
-      output: z.enum(["curve", "residuals", "data"], { message: "output must be curve, residuals or data" }),
+      output: z.enum(["curve", "residuals", "data", "parameters"], { message: "output must be curve, residuals, data or parameters" }),
     })
     .strict(),
 ]);

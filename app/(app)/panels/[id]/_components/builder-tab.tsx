@@ -8,10 +8,12 @@ import { toBinding, usePreviewData, type BindingChoice } from "@/components/figu
 import { Button } from "@/components/ui";
 import { canonicalJson } from "@/lib/figures/canonical-spec";
 import { DATA_DEFAULT_KEYS, dataDefaults, templateForKind, type DataFacts } from "@/lib/figures/plots/data-defaults";
+import { withFitValue } from "@/lib/figures/fit-value-layer";
 import { readTemplateRecord } from "@/lib/figures/template-record";
 import { FIGURE_TEMPLATES, PRINT_OPTION_FIELDS, type TemplateOptionField } from "@/lib/figures/templates";
 import { initialState, templateOf, type DataField, type Output, type ReturnedFrom, type Saved } from "./builder-model";
 import { BuilderDataFields } from "./builder-data-fields";
+import { BuilderFitValue, useFitValue } from "./builder-fit-value";
 import { BuilderHandEdits, BuilderRecordNotices } from "./builder-hand-edits";
 import { BuilderOptionFields } from "./builder-option-fields";
 import { BuilderPreview } from "./builder-preview";
@@ -78,7 +80,7 @@ function BuilderForm({
   // Defaults follow the data until a revision's recorded options are loaded; new data or a new template follow it again.
   const [followData, setFollowData] = useState(Object.keys(start.values).length === 0);
   const [message, setMessage] = useState("");
-  const template = templateOf(templateId);
+  const template = useMemo(() => withFitValue(templateOf(templateId)), [templateId]);
   const record = saved ? readTemplateRecord(saved.spec) : null;
   const recordTemplate = record ? FIGURE_TEMPLATES.find((t) => t.id === record.id) : undefined;
   const dataFields = template.options.filter((f): f is DataField => f.kind === "data-name");
@@ -138,6 +140,7 @@ function BuilderForm({
   const set = (key: string, v: unknown) => setValues((s) => ({ ...s, [key]: v }));
   const dataNameOf = (f: DataField) => values[f.key] as string | undefined;
 
+  const fitValue = useFitValue(saved, record, src.analysisSources, fitSource?.kind === "analysis" ? fitSource : undefined, newest);
   const built = useBuiltSpec(template, saved, record, recordTemplate?.id ?? null, dropEdits, {
     chosen,
     dataNameOf,
@@ -145,7 +148,7 @@ function BuilderForm({
     columnValue,
     valueOf,
     printValue,
-    extra: { options: {}, choices: {}, problem: null },
+    extra: fitValue.extra,
   });
 
   // The spec and choices are rebuilt on every render: the preview gets them by value, so it redraws only when they change.
@@ -238,6 +241,8 @@ function BuilderForm({
         printValue={printValue}
         onChange={set}
       />
+
+      <BuilderFitValue value={fitValue.opt} onChange={fitValue.setOpt} run={fitValue.run} />
 
       <BuilderHandEdits
         edits={built.edits}

@@ -10,6 +10,7 @@ import { ReviewStateBadge } from "@/components/figures/review-state";
 import { PX_PER_MM } from "@/components/figures/vega-render";
 import { choicesFromRevision, type BindingChoice } from "@/components/figures/use-preview-data";
 import { ReviewColumn } from "@/components/panel-review/review-column";
+import { RunParameters } from "@/components/panel-review/run-parameters";
 import { roleAllows } from "@/lib/authz/policy";
 import { shortHash } from "@/lib/data/format";
 import { useThreads } from "@/components/panel-review/use-threads";
@@ -193,6 +194,7 @@ export function PanelWorkspace({
                   label={`Panel ${panel.letter}, revision ${rev.number}`}
                 />
               </div>
+              <RunParameters bound={rev.bound} />
             </>
           ) : (
             <p className="text-sm text-muted">
