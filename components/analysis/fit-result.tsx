@@ -100,6 +100,7 @@ export function FitResultView({ result, modelTitle, xName, yName }: { result: Fi
             </tbody>
           </table>
         </div>
+        {result.derived?.length ? <DerivedTable items={result.derived} /> : null}
         <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm" aria-label="Goodness of fit">
           <dt className="text-muted">χ²ᵣ</dt>
           <dd className="tabular-nums" data-testid="chi2red">
@@ -125,5 +126,25 @@ export function FitResultView({ result, modelTitle, xName, yName }: { result: Fi
         <Warnings items={result.warnings} />
       </div>
     </div>
+  );
+}
+
+/** Quantities computed from the parameters, each with its formula and propagated error. */
+function DerivedTable({ items }: { items: NonNullable<FitResult["derived"]> }) {
+  return (
+    <table className="w-full text-sm" aria-label="Derived quantities">
+      <caption className="pb-1 text-left text-xs uppercase tracking-wide text-muted">Derived (errors through the covariance)</caption>
+      <tbody className="divide-y divide-rule/70">
+        {items.map((d) => (
+          <tr key={d.name} data-testid={`derived-${d.name}`}>
+            <th scope="row" className="py-1.5 pr-3 text-left font-medium">
+              {d.description} <span className="font-mono text-xs text-muted">{d.formula}</span>
+            </th>
+            <td className="py-1.5 pr-3 tabular-nums">{formatValueError(d.value, d.stderr)}</td>
+            <td className="py-1.5">{d.unit || <span className="text-muted">1</span>}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
   );
 }

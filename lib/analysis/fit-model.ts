@@ -38,10 +38,22 @@ interface FittedParam {
   bounds: [number, number];
 }
 
+/** A quantity computed from the fitted parameters, with its error propagated through the covariance. */
+interface DerivedValue {
+  name: string;
+  value: number;
+  /** √(gᵀ·C·g) with the scaled covariance C and the gradient g; NaN when the covariance is undetermined. */
+  stderr: number;
+  unit: UnitRole;
+  description: string;
+  formula: string;
+}
+
 export interface ModelFitResult extends Omit<CurveFitResult, "params"> {
   modelId: string;
   modelVersion: string;
   params: FittedParam[];
+  derived: DerivedValue[];
   /** Fitted values by parameter name. */
   values: Record<string, number>;
   warnings: string[];
@@ -125,9 +137,24 @@ export function fitModel(modelId: string | FitModel, input: FitInput): ModelFitR
     modelId: model.id,
     modelVersion: model.version,
     params,
+    derived: (model.derived ?? []).map((d) => ({
+      name: d.name,
+      value: d.value(result.params),
+      stderr: propagate(d.gradient(result.params), result.covariance),
+      unit: d.unit,
+      description: d.description,
+      formula: d.formula,
+    })),
     values: Object.fromEntries(params.map((p) => [p.name, p.value])),
     warnings,
   };
+}
+
+/** √(gᵀ·C·g): first-order error propagation (JCGM 100:2008 (GUM), eq. 13). */
+function propagate(g: number[], c: number[][]): number {
+  let v = 0;
+  for (let i = 0; i < g.length; i++) for (let j = 0; j < g.length; j++) v += g[i] * c[i][j] * g[j];
+  return v >= 0 ? Math.sqrt(v) : NaN;
 }
 
 function validateData(input: FitInput): void {

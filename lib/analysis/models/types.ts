@@ -12,6 +12,21 @@ export interface ModelParam {
 }
 
 /**
+ * A quantity computed from the fitted parameters (t_π = 1/(2f), g⁽²⁾(0) = 1 − β …); its standard
+ * error comes from the parameters' covariance through the gradient: σ² = gᵀ·C·g.
+ */
+export interface DerivedQuantity {
+  name: string;
+  unit: UnitRole;
+  description: string;
+  /** Readable formula with Unicode. */
+  formula: string;
+  value: (p: ArrayLike<number>) => number;
+  /** ∂value/∂pⱼ, one per parameter. */
+  gradient: (p: ArrayLike<number>) => number[];
+}
+
+/**
  * A curve model y = f(x; p). Everything is in the data's own units: the model never assumes
  * that x is in µs or MHz, so start values come from the data (extrema, periodograms,
  * log-linear regressions), not from physical constants.
@@ -37,4 +52,6 @@ export interface FitModel {
   guess(x: ArrayLike<number>, y: ArrayLike<number>): number[];
   /** Sensible default bounds for the data, one [lo, hi] per parameter (±Infinity allowed). */
   bounds?(x: ArrayLike<number>, y: ArrayLike<number>): Array<[number, number]>;
+  /** Quantities derived from the parameters, reported with propagated errors. */
+  derived?: DerivedQuantity[];
 }

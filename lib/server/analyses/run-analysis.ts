@@ -73,6 +73,15 @@ function describeRun(input: AnalysisInput, data: FitData, fit: ModelFitResult, c
     inputSha256: data.version.sha256,
     options: input.options,
     parameters,
+    // Quantities computed from the parameters (t_π …), their errors propagated through the covariance.
+    derived: fit.derived.map((d) => ({
+      name: d.name,
+      value: nullIfNaN(d.value),
+      stderr: nullIfNaN(d.stderr),
+      unit: resolveUnit(d.unit, data.xUnit, data.yUnit),
+      description: d.description,
+      formula: d.formula,
+    })),
     chi2: nullIfNaN(fit.chi2),
     chi2red: nullIfNaN(fit.chi2red),
     dof: fit.dof,
