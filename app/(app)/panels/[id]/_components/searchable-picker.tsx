@@ -88,7 +88,7 @@ export function SearchablePicker({
       <input
         id={`${id}-input`}
         role="combobox"
-        aria-expanded={open}
+        aria-expanded={open && flat.length > 0}
         aria-controls={`${id}-list`}
         aria-autocomplete="list"
         aria-activedescendant={open && flat[at] ? flat[at].optionId : undefined}
@@ -119,7 +119,7 @@ export function SearchablePicker({
         id={`${id}-list`}
         role="listbox"
         aria-label={`${label}: choices`}
-        hidden={!open}
+        hidden={!open || flat.length === 0}
         className="absolute z-20 mt-1 max-h-80 w-full overflow-y-auto rounded-sm border border-rule bg-sheet p-1 shadow-md"
         onMouseDown={(e) => e.preventDefault()}
       >
@@ -160,8 +160,12 @@ export function SearchablePicker({
             </ul>
           </li>
         ))}
-        {flat.length === (noneLabel ? 1 : 0) ? <li className="px-2 py-1 text-xs text-muted">{query ? `Nothing matches “${query}”.` : empty}</li> : null}
       </ul>
+      {open && flat.length === (noneLabel ? 1 : 0) ? (
+        <p role="status" className="absolute z-20 mt-1 w-full rounded-sm border border-rule bg-sheet px-3 py-1.5 text-xs text-muted shadow-md">
+          {query ? `Nothing matches “${query}”.` : empty}
+        </p>
+      ) : null}
     </div>
   );
 }
