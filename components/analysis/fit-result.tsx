@@ -101,6 +101,11 @@ export function FitResultView({ result, modelTitle, xName, yName }: { result: Fi
           </table>
         </div>
         {result.derived?.length ? <DerivedTable items={result.derived} /> : null}
+        {result.verdicts?.map((v) => (
+          <p key={v} className={`text-sm font-medium ${v.startsWith("Single emitter") ? "text-good" : "text-warn"}`} data-testid="fit-verdict">
+            {v}
+          </p>
+        ))}
         <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm" aria-label="Goodness of fit">
           <dt className="text-muted">χ²ᵣ</dt>
           <dd className="tabular-nums" data-testid="chi2red">

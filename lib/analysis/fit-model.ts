@@ -54,6 +54,8 @@ export interface ModelFitResult extends Omit<CurveFitResult, "params"> {
   modelVersion: string;
   params: FittedParam[];
   derived: DerivedValue[];
+  /** The model's judgement of the derived values in words (e.g. whether g⁽²⁾(0) shows a single emitter). */
+  verdicts: string[];
   /** Fitted values by parameter name. */
   values: Record<string, number>;
   warnings: string[];
@@ -122,6 +124,14 @@ export function fitModel(modelId: string | FitModel, input: FitInput): ModelFitR
   });
 
   warnings.push(...describeProblems(result, names));
+  const derived = (model.derived ?? []).map((d) => ({
+    name: d.name,
+    value: d.value(result.params),
+    stderr: propagate(d.gradient(result.params), result.covariance),
+    unit: d.unit,
+    description: d.description,
+    formula: d.formula,
+  }));
   const params: FittedParam[] = model.params.map((param, j) => ({
     name: param.name,
     value: result.params[j],
@@ -137,14 +147,8 @@ export function fitModel(modelId: string | FitModel, input: FitInput): ModelFitR
     modelId: model.id,
     modelVersion: model.version,
     params,
-    derived: (model.derived ?? []).map((d) => ({
-      name: d.name,
-      value: d.value(result.params),
-      stderr: propagate(d.gradient(result.params), result.covariance),
-      unit: d.unit,
-      description: d.description,
-      formula: d.formula,
-    })),
+    derived,
+    verdicts: model.verdict?.(derived) ?? [],
     values: Object.fromEntries(params.map((p) => [p.name, p.value])),
     warnings,
   };

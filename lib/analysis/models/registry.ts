@@ -3,6 +3,7 @@ import { exponentialModel, hahnEchoModel, relaxationModel, relaxationStretchedMo
 import { odmr14nTripletModel, odmr15nDoubletModel, odmrLorentzianModels, odmrTwoResonancesModel } from "./odmr-models";
 import { gaussianModel, lorentzianModel, pseudoVoigtModel, voigtModel } from "./peak-models";
 import { lineModel, polynomial2Model, polynomial3Model } from "./polynomial-models";
+import { g2AntibunchingModel, plSaturationModel } from "./emitter-models";
 import { rabiGaussianModel, rabiModel } from "./rabi-models";
 import { ramsey14nModel, ramseyModel } from "./ramsey-models";
 import type { FitModel } from "./types";
@@ -15,6 +16,8 @@ const MODELS: readonly FitModel[] = [
   ramsey14nModel,
   rabiModel,
   rabiGaussianModel,
+  plSaturationModel,
+  g2AntibunchingModel,
   ...odmrLorentzianModels,
   odmr14nTripletModel,
   odmr15nDoubletModel,

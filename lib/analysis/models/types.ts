@@ -54,4 +54,6 @@ export interface FitModel {
   bounds?(x: ArrayLike<number>, y: ArrayLike<number>): Array<[number, number]>;
   /** Quantities derived from the parameters, reported with propagated errors. */
   derived?: DerivedQuantity[];
+  /** Plain sentences judging the result from the derived values (e.g. single emitter or not). */
+  verdict?(derived: Array<{ name: string; value: number; stderr: number }>): string[];
 }

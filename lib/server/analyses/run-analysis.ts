@@ -82,6 +82,7 @@ function describeRun(input: AnalysisInput, data: FitData, fit: ModelFitResult, c
       description: d.description,
       formula: d.formula,
     })),
+    verdicts: fit.verdicts,
     chi2: nullIfNaN(fit.chi2),
     chi2red: nullIfNaN(fit.chi2red),
     dof: fit.dof,
