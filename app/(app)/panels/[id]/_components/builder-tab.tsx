@@ -54,9 +54,11 @@ export function BuilderTab(props: BuilderProps) {
     enabled: props.revision === undefined && Boolean(panelId),
   }).data;
   const saved: Saved | null = props.revision !== undefined ? props.revision : (panel?.currentRevision ?? null);
-  const back: ReturnedFrom = { versionId: search.get("version"), analysisId: search.get("bind"), templateId: search.get("template") };
-  // A new revision (saved here or in the spec editor) starts the form again from what it recorded.
-  return <BuilderForm key={saved?.id ?? "none"} {...props} panelId={panelId} saved={saved} back={back} />;
+  const key = saved?.id ?? "none";
+  // The return from the fit page applies to the form it opened; a revision saved since starts from what it recorded.
+  const [returned] = useState(() => ({ key, back: { versionId: search.get("version"), analysisId: search.get("bind"), templateId: search.get("template") } }));
+  const back: ReturnedFrom | undefined = returned.key === key ? returned.back : undefined;
+  return <BuilderForm key={key} {...props} panelId={panelId} saved={saved} back={back} />;
 }
 
 function BuilderForm({
@@ -69,7 +71,7 @@ function BuilderForm({
   back,
   baseRevisionId,
   onSaved,
-}: Omit<BuilderProps, "panelId" | "revision"> & { panelId: string; saved: Saved | null; back: ReturnedFrom }) {
+}: Omit<BuilderProps, "panelId" | "revision"> & { panelId: string; saved: Saved | null; back?: ReturnedFrom }) {
   const [start] = useState(() => initialState(saved, back));
   const [templateId, setTemplateId] = useState(start.templateId);
   const [values, setValues] = useState<Record<string, unknown>>(start.values);
