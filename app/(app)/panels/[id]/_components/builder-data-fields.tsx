@@ -17,8 +17,13 @@ const factsLine = (v: VersionSource) =>
 function versionGroups(versions: VersionSource[]): PickerGroup[] {
   const byDataset = new Map<string, VersionSource[]>();
   for (const v of versions) byDataset.set(v.datasetId, [...(byDataset.get(v.datasetId) ?? []), v]);
+  const named = new Map<string, number>();
+  for (const vs of byDataset.values()) named.set(vs[0].dataset, (named.get(vs[0].dataset) ?? 0) + 1);
+  // Datasets sharing a name are told apart by sample (or kind) and the start of their id.
+  const labelOf = (v: VersionSource) => (named.get(v.dataset)! > 1 ? `${v.dataset} (${v.sample ?? v.measurement}, ${v.datasetId.slice(0, 6)})` : v.dataset);
   return [...byDataset.values()].map((vs) => ({
-    label: vs[0].dataset,
+    key: vs[0].datasetId,
+    label: labelOf(vs[0]),
     options: vs
       .sort((a, b) => b.number - a.number)
       .map((v) => ({
@@ -35,7 +40,7 @@ function fitGroups(runs: AnalysisSource[], versions: VersionSource[]): PickerGro
   const groups = new Map<string, PickerGroup>();
   for (const r of runs) {
     const v = versions.find((x) => x.versionId === r.versionId);
-    const g = groups.get(r.versionId) ?? { label: v ? `Fits of ${v.label}` : "Fits", options: [] };
+    const g = groups.get(r.versionId) ?? { key: r.versionId, label: v ? `Fits of ${v.label}` : "Fits", options: [] };
     g.options.push({
       value: sourceKey(r),
       label: r.label,

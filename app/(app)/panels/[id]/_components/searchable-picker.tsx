@@ -11,6 +11,7 @@ interface PickerOption {
   search: string[];
 }
 export interface PickerGroup {
+  key: string;
   label: string;
   options: PickerOption[];
 }
@@ -129,7 +130,7 @@ export function SearchablePicker({
           </li>
         ) : null}
         {shown.map((g, gi) => (
-          <li key={g.label} role="presentation">
+          <li key={g.key} role="presentation">
             <ul role="group" aria-labelledby={`${id}-g${gi}`}>
               <li role="presentation" id={`${id}-g${gi}`} className="px-2 pt-1.5 text-xs font-semibold text-muted">
                 {g.label}
