@@ -13,7 +13,7 @@ const tagWords = (tags: Record<string, string>) => Object.entries(tags).map(([k,
 const factsLine = (v: VersionSource) =>
   [v.measurement, v.sample ? `sample ${v.sample}` : null, ...tagWords(v.tags), `version ${v.number}`, formatDate(v.createdAt)].filter(Boolean).join(" · ");
 
-/** Measured data: one group per dataset, its versions newest first. */
+/** Measured data: one group per dataset, the most recently measured first, its versions newest first. */
 function versionGroups(versions: VersionSource[]): PickerGroup[] {
   const byDataset = new Map<string, VersionSource[]>();
   for (const v of versions) byDataset.set(v.datasetId, [...(byDataset.get(v.datasetId) ?? []), v]);
@@ -21,7 +21,10 @@ function versionGroups(versions: VersionSource[]): PickerGroup[] {
   for (const vs of byDataset.values()) named.set(vs[0].dataset, (named.get(vs[0].dataset) ?? 0) + 1);
   // Datasets sharing a name are told apart by sample (or kind) and the start of their id.
   const labelOf = (v: VersionSource) => (named.get(v.dataset)! > 1 ? `${v.dataset} (${v.sample ?? v.measurement}, ${v.datasetId.slice(0, 6)})` : v.dataset);
-  return [...byDataset.values()].map((vs) => ({
+  // Datasets with the newest version first; within one, its versions newest first.
+  const newestAt = (vs: VersionSource[]) => vs.reduce((m, v) => (v.createdAt > m ? v.createdAt : m), "");
+  const ordered = [...byDataset.values()].sort((a, b) => newestAt(b).localeCompare(newestAt(a)));
+  return ordered.map((vs) => ({
     key: vs[0].datasetId,
     label: labelOf(vs[0]),
     options: vs
