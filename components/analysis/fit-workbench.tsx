@@ -222,7 +222,7 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
         <h2 id="stored-runs-heading" className="mb-2 text-lg font-semibold">
           Stored runs on this version
         </h2>
-        <StoredRuns runs={runs.data.items} models={models} />
+        <StoredRuns runs={runs.data.items} models={models} versionId={versionId} mayArchive={mayRun} />
       </section>
     </div>
   );

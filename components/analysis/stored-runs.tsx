@@ -1,6 +1,8 @@
 "use client";
 import Link from "next/link";
-import { useQuery } from "@tanstack/react-query";
+import { useQuery, useQueryClient } from "@tanstack/react-query";
+import { useState } from "react";
+import { ArchiveToggleButton, ShowArchivedToggle } from "@/components/archive/archive-controls";
 import { fetchJson } from "@/components/api-client";
 import { EmptyState } from "@/components/ui";
 import { formatDate, formatNumber, formatValueError } from "@/lib/data/format";
@@ -29,14 +31,48 @@ function ParameterSummary({ params }: { params: readonly FitParameter[] }) {
   );
 }
 
-/** Runs stored on this version, newest first. */
-export function StoredRuns({ runs, models }: { runs: StoredRun[]; models: readonly ModelInfo[] }) {
-  if (!runs.length)
-    return <EmptyState title="No stored runs on this version yet">A saved fit appears here with its parameters and a derived version.</EmptyState>;
+/** Runs stored on this version, newest first; with `versionId`, a "Show archived" switch lists the archived ones instead. */
+export function StoredRuns({
+  runs,
+  models,
+  versionId,
+  mayArchive = false,
+}: {
+  runs: StoredRun[];
+  models: readonly ModelInfo[];
+  versionId?: string;
+  mayArchive?: boolean;
+}) {
+  const queryClient = useQueryClient();
+  const [showArchived, setShowArchived] = useState(false);
+  const archived = useQuery({
+    queryKey: ["version-analyses", versionId, "archived"],
+    enabled: Boolean(versionId) && showArchived,
+    queryFn: () => fetchJson<{ items: StoredRun[] }>(`/api/versions/${versionId}/analyses?archived=1`),
+  });
+  const shown = showArchived ? (archived.data?.items ?? []) : runs;
+  const refresh = () => void queryClient.invalidateQueries({ queryKey: ["version-analyses", versionId] });
+  const toggle = versionId ? (
+    <p className="mb-2">
+      <ShowArchivedToggle checked={showArchived} onChange={setShowArchived} />
+    </p>
+  ) : null;
+  if (!shown.length)
+    return (
+      <>
+        {toggle}
+        {showArchived ? (
+          <EmptyState title="No archived runs on this version" />
+        ) : (
+          <EmptyState title="No stored runs on this version yet">A saved fit appears here with its parameters and a derived version.</EmptyState>
+        )}
+      </>
+    );
   const byId = new Map(models.map((m) => [m.id, m]));
   return (
     <div className="relative overflow-x-auto">
-      <table className="w-full border border-rule bg-sheet text-sm" aria-label="Stored runs on this version">
+      {toggle}
+      <table className="w-full border border-rule bg-sheet text-sm" aria-label={showArchived ? "Archived runs on this version" : "Stored runs on this version"}>
         <thead className="bg-paper text-left text-xs uppercase tracking-wide text-muted">
           <tr>
             <th className="px-3 py-2">When</th>
@@ -45,10 +81,11 @@ export function StoredRuns({ runs, models }: { runs: StoredRun[]; models: readon
             <th className="px-3 py-2 normal-case">χ²ᵣ</th>
             <th className="px-3 py-2">Solver</th>
             <th className="px-3 py-2">Derived</th>
+            {mayArchive ? <th className="px-3 py-2">Archive</th> : null}
           </tr>
         </thead>
         <tbody className="divide-y divide-rule">
-          {runs.map((r) => {
+          {shown.map((r) => {
             const result = r.result as StoredResult;
             const model = byId.get(r.model);
             return (
@@ -68,6 +105,11 @@ export function StoredRuns({ runs, models }: { runs: StoredRun[]; models: readon
                   <Converged ok={result.converged} />
                 </td>
                 <td className="whitespace-nowrap px-3 py-2">{r.derivedVersionId ? <DerivedLink versionId={r.derivedVersionId} /> : "—"}</td>
+                {mayArchive ? (
+                  <td className="px-3 py-2">
+                    <ArchiveToggleButton kind="analysis" id={r.id} archived={showArchived} onDone={refresh} />
+                  </td>
+                ) : null}
               </tr>
             );
           })}

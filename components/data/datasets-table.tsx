@@ -1,10 +1,11 @@
 "use client";
-import { useQuery } from "@tanstack/react-query";
+import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import Link from "next/link";
 import { Fragment, useState } from "react";
 import { fetchJson } from "@/components/api-client";
 import { EmptyState } from "@/components/ui";
+import { ArchiveToggleButton, ShowArchivedToggle } from "@/components/archive/archive-controls";
 import { formatBytes, formatCount, formatDate } from "@/lib/data/format";
 import type { DatasetListItem } from "./api";
 import { KIND_ORDER, kindLabel } from "./measurement-kinds";
@@ -71,34 +72,65 @@ const columns = [
   }),
 ];
 
-/** The manuscript's datasets, kept fresh through the API (uploads by colleagues and scripts show up on focus). */
-export function DatasetsTable({ manuscriptId, initial }: { manuscriptId: string; initial: DatasetListItem[] }) {
+/** The manuscript's datasets, kept fresh through the API (uploads by colleagues and scripts show up on focus); "Show archived" lists the archived ones. */
+export function DatasetsTable({ manuscriptId, initial, mayArchive = false }: { manuscriptId: string; initial: DatasetListItem[]; mayArchive?: boolean }) {
+  const queryClient = useQueryClient();
+  const [showArchived, setShowArchived] = useState(false);
   const { data, isFetching, error } = useQuery({
-    queryKey: ["datasets", manuscriptId],
-    queryFn: () => fetchJson<{ items: DatasetListItem[] }>(`/api/manuscripts/${manuscriptId}/datasets`).then((r) => r.items),
-    initialData: initial,
+    queryKey: ["datasets", manuscriptId, ...(showArchived ? ["archived"] : [])],
+    queryFn: () =>
+      fetchJson<{ items: DatasetListItem[] }>(`/api/manuscripts/${manuscriptId}/datasets${showArchived ? "?archived=1" : ""}`).then((r) => r.items),
+    initialData: showArchived ? undefined : initial,
   });
+  const rows = data ?? [];
+  const refresh = () => void queryClient.invalidateQueries({ queryKey: ["datasets", manuscriptId] });
+  const shownColumns = mayArchive
+    ? [
+        ...columns,
+        col.display({
+          id: "archive",
+          header: "Archive",
+          cell: (c) => <ArchiveToggleButton kind="dataset" id={c.row.original.id} archived={showArchived} onDone={refresh} />,
+        }),
+      ]
+    : columns;
+  const toggle = (
+    <p className="mb-2">
+      <ShowArchivedToggle checked={showArchived} onChange={setShowArchived} />
+    </p>
+  );
   const [sorting, setSorting] = useState<SortingState>([{ id: "kind", desc: false }]);
   const groupedByKind = sorting[0]?.id === "kind";
   const kindCounts = new Map<string, number>();
-  for (const d of data) kindCounts.set(d.kind, (kindCounts.get(d.kind) ?? 0) + 1);
+  for (const d of rows) kindCounts.set(d.kind, (kindCounts.get(d.kind) ?? 0) + 1);
   const table = useReactTable({
-    data,
-    columns,
+    data: rows,
+    columns: shownColumns,
     state: { sorting },
     onSortingChange: setSorting,
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
   });
 
-  if (!data.length) {
-    return <EmptyState title="No datasets yet">Measurement files uploaded here, or from a script, appear in this list with their versions.</EmptyState>;
+  if (!rows.length) {
+    return (
+      <div>
+        {toggle}
+        {showArchived ? (
+          <EmptyState title="No archived datasets" />
+        ) : (
+          <EmptyState title="No datasets yet">Measurement files uploaded here, or from a script, appear in this list with their versions.</EmptyState>
+        )}
+      </div>
+    );
   }
   return (
     <div>
+      {toggle}
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2 text-xs text-muted">
         <span>
-          {data.length} dataset{data.length === 1 ? "" : "s"} · {groupedByKind ? "grouped by kind; " : ""}select a column heading to sort
+          {rows.length} {showArchived ? "archived " : ""}dataset{rows.length === 1 ? "" : "s"} · {groupedByKind ? "grouped by kind; " : ""}select a column
+          heading to sort
         </span>
         <span aria-live="polite">{isFetching ? "Refreshing…" : error ? `✕ Could not refresh: ${error.message}` : ""}</span>
       </div>
@@ -121,7 +153,7 @@ export function DatasetsTable({ manuscriptId, initial }: { manuscriptId: string;
                 <Fragment key={row.id}>
                   {startsGroup ? (
                     <tr className="border-t border-rule bg-paper/70">
-                      <th scope="colgroup" colSpan={columns.length} className="px-3 py-1.5 text-left text-xs font-semibold">
+                      <th scope="colgroup" colSpan={shownColumns.length} className="px-3 py-1.5 text-left text-xs font-semibold">
                         {kindLabel(row.original.kind)} <span className="font-normal text-muted">· {kindCounts.get(row.original.kind)}</span>
                       </th>
                     </tr>

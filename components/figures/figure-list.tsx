@@ -1,4 +1,5 @@
 import Link from "next/link";
+import type { ReactNode } from "react";
 import { STATE_LABELS, type ReviewState } from "@/lib/review/derive-state";
 import { FigureThumbnail } from "./figure-thumbnail";
 import { OpenThreads, ReviewStateBadge } from "./review-state";
@@ -16,16 +17,16 @@ export interface FigureListItem {
 }
 
 /** The manuscript's figures: number, title, size, panels and review state, each opening the figure page. */
-export function FigureList({ figures }: { figures: FigureListItem[] }) {
+export function FigureList({ figures, actions }: { figures: FigureListItem[]; actions?: (f: FigureListItem) => ReactNode }) {
   return (
     <ul className="space-y-3" aria-label="Figures">
       {figures.map((f) => {
         const open = f.panels.reduce((n, p) => n + p.openThreads, 0);
         return (
-          <li key={f.id}>
+          <li key={f.id} className={actions ? "flex items-center gap-2" : undefined}>
             <Link
               href={`/figures/${f.id}`}
-              className="flex items-center gap-4 rounded-sm border border-rule bg-sheet p-3 hover:border-accent hover:bg-accent-soft/40"
+              className="flex min-w-0 flex-1 items-center gap-4 rounded-sm border border-rule bg-sheet p-3 hover:border-accent hover:bg-accent-soft/40"
             >
               <FigureThumbnail figure={f} />
               <div className="min-w-0 flex-1">
@@ -45,6 +46,7 @@ export function FigureList({ figures }: { figures: FigureListItem[] }) {
                 →
               </span>
             </Link>
+            {actions?.(f)}
           </li>
         );
       })}

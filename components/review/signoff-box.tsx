@@ -7,13 +7,24 @@ import { Button, Field, Notice } from "@/components/ui";
 import { formatDate, shortHash } from "@/lib/data/format";
 import type { ManuscriptView } from "./review-api";
 import { StateBadge } from "./state-badge";
+import { OpenIssuesList, WithdrawSignoff, type OpenIssue } from "./signoff-extras";
 
 export interface SignoffBoxProps {
   figureId: string;
   figureHash: string;
   reviewState: string;
   canSignOff: boolean;
-  signoffs: Array<{ id: string; userId: string; figureHash: string; reason: string; createdAt: string | Date; stale: boolean }>;
+  signoffs: Array<{
+    id: string;
+    userId: string;
+    figureHash: string;
+    reason: string;
+    createdAt: string | Date;
+    stale: boolean;
+    withdrawnAt?: string | Date | null;
+    withdrawnBy?: string | null;
+    withdrawReason?: string | null;
+  }>;
 }
 
 function postSignoff(figureId: string, body: { figureHash: string; reason?: string }) {
@@ -24,6 +35,12 @@ function postSignoff(figureId: string, body: { figureHash: string; reason?: stri
 function openIssuesOf(err: ApiError | null): string[] | null {
   const open = (err?.details as { open?: unknown } | undefined)?.open;
   return Array.isArray(open) ? (open as string[]) : null;
+}
+
+/** The open issues, panel by panel, a refused sign-off carries in its details. */
+function issuesOf(err: ApiError | null): OpenIssue[] {
+  const issues = (err?.details as { issues?: unknown } | undefined)?.issues;
+  return Array.isArray(issues) ? (issues as OpenIssue[]) : [];
 }
 
 /** An error answer as `fallback`: the names are a nicety, the box works without them. */
@@ -109,7 +126,7 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
             <li key={s.id} className={`border-l-2 pl-2 ${s.stale ? "border-dashed border-warn" : "border-ink"}`}>
               <p className="flex items-start gap-1.5">
                 <span aria-hidden className="w-3 text-center">
-                  {s.stale ? "◇" : "◆"}
+                  {s.stale || s.withdrawnAt ? "◇" : "◆"}
                 </span>
                 <span>
                   <span className="font-medium">{names[s.userId] ?? "The PI"}</span> signed off
@@ -121,12 +138,17 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
                   {shortHash(s.figureHash, 12)}
                 </code>
               </p>
-              {s.stale ? (
+              {s.withdrawnAt ? (
+                <p className="ml-[1.125rem] text-xs font-medium text-warn">
+                  Sign-off withdrawn by {names[s.withdrawnBy ?? ""] ?? "the PI"} — {s.withdrawReason}
+                </p>
+              ) : s.stale ? (
                 <p className="ml-[1.125rem] text-xs font-medium text-warn">Stale — signed off an earlier version of this figure</p>
               ) : (
                 <p className="ml-[1.125rem] text-xs text-good">on the current version</p>
               )}
               {s.reason ? <p className="ml-[1.125rem] text-xs">Reason: “{s.reason}”</p> : null}
+              {canSignOff && !s.withdrawnAt && !s.stale ? <WithdrawSignoff figureId={figureId} signoffId={s.id} onDone={() => void reload()} /> : null}
             </li>
           ))}
         </ul>
@@ -164,7 +186,9 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
               </span>
               <span>{sentence(err.message)}</span>
             </p>
-            {open.length ? (
+            {issuesOf(err).length ? (
+              <OpenIssuesList issues={issuesOf(err)} />
+            ) : open.length ? (
               <ul className="ml-5 mt-1 list-disc text-ink">
                 {open.map((o) => (
                   <li key={o}>{o}</li>

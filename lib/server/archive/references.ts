@@ -1,5 +1,5 @@
 import "server-only";
-import { eq, inArray } from "drizzle-orm";
+import { and, eq, gte, inArray } from "drizzle-orm";
 import type { Executor } from "@/db/client";
 import { analyses, datasets, decisions, figures, panels, revisions, signoffs, threads, versions } from "@/db/schema";
 import { letterFor } from "../figures/scope";
@@ -29,7 +29,7 @@ async function revisionsOf(tx: Executor, manuscriptId: string) {
  * What still names a thing, in words; permanent deletion is refused while anything does. A dataset:
  * a revision binding one of its versions, an analysis run on one, or the stored run whose output it holds.
  * An analysis: a revision binding it or its output. A panel: decisions, threads, a sign-off of its
- * figure. A figure: any sign-off (withdrawn ones too), and its panels' decisions and threads.
+ * figure made since it was added. A figure: any sign-off (withdrawn ones too), and its panels' decisions and threads.
  */
 export async function referencesTo(tx: Executor, kind: ArchiveKind, id: string, manuscriptId: string): Promise<string[]> {
   const refs: string[] = [];
@@ -62,11 +62,16 @@ export async function referencesTo(tx: Executor, kind: ArchiveKind, id: string, 
     return [...new Set(refs)];
   }
   const panelIds = kind === "panel" ? [id] : (await tx.select({ id: panels.id }).from(panels).where(eq(panels.figureId, id))).map((p) => p.id);
-  const figureId = kind === "figure" ? id : (await tx.select({ f: panels.figureId }).from(panels).where(eq(panels.id, id)))[0].f;
+  const [owner] = kind === "panel" ? await tx.select({ figureId: panels.figureId, createdAt: panels.createdAt }).from(panels).where(eq(panels.id, id)) : [];
+  const figureId = owner?.figureId ?? id;
   const [decs, threadRows, signs] = await Promise.all([
     panelIds.length ? tx.select({ id: decisions.id }).from(decisions).where(inArray(decisions.panelId, panelIds)) : [],
     panelIds.length ? tx.select({ id: threads.id }).from(threads).where(inArray(threads.panelId, panelIds)) : [],
-    tx.select({ id: signoffs.id }).from(signoffs).where(eq(signoffs.figureId, figureId)),
+    // A panel is named by the sign-offs of its figure made while it was there (their figure hash covers it).
+    tx
+      .select({ id: signoffs.id })
+      .from(signoffs)
+      .where(owner ? and(eq(signoffs.figureId, figureId), gte(signoffs.createdAt, owner.createdAt)) : eq(signoffs.figureId, figureId)),
   ]);
   if (decs.length) refs.push(`${decs.length} review decision${decs.length === 1 ? "" : "s"}`);
   if (threadRows.length) refs.push(`${threadRows.length} thread${threadRows.length === 1 ? "" : "s"}`);

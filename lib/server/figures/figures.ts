@@ -1,5 +1,5 @@
 import "server-only";
-import { and, eq, max } from "drizzle-orm";
+import { and, asc, eq, isNotNull, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { figures, manuscriptMembers, panels, type Role } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
@@ -67,7 +67,13 @@ export async function getFigure(user: SessionUser, figureId: string) {
   const role = await authorize(user, "manuscript.read", manuscriptId);
   const [review] = await loadReviewContext({ figureId });
   if (!review) throw notFound();
-  return presentFigure(review, role, await dataWarningCounts([review]));
+  // Archived panels have left the figure; listed apart so they can be opened and restored.
+  const archivedPanels = await getDb()
+    .select({ id: panels.id, title: panels.title, archivedAt: panels.archivedAt })
+    .from(panels)
+    .where(and(eq(panels.figureId, figureId), isNotNull(panels.archivedAt)))
+    .orderBy(asc(panels.position));
+  return { ...presentFigure(review, role, await dataWarningCounts([review])), archivedPanels };
 }
 
 /** Data warnings (lib/server/figures/integrity) per current revision id, counted. */

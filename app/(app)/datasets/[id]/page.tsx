@@ -8,6 +8,7 @@ import { UploadDropZone } from "@/components/data/upload-drop-zone";
 import { VersionHeader } from "@/components/data/version-header";
 import { VersionsTable } from "@/components/data/versions-table";
 import { EmptyState, PageHeader, RoleBadge, Sheet } from "@/components/ui";
+import { ArchivedPageBanner, ArchivePageButton } from "@/components/archive/archive-controls";
 import { roleAllows } from "@/lib/authz/policy";
 import { loadOrNotFound, requireUser } from "@/lib/http/session";
 import { getDataset } from "@/lib/server/datasets/read-datasets";
@@ -46,7 +47,18 @@ export default async function DatasetPage({ params, searchParams }: { params: Pr
           </li>
         </ol>
       </nav>
+      {d.archivedAt ? (
+        <ArchivedPageBanner
+          kind="dataset"
+          id={d.id}
+          archivedAt={d.archivedAt}
+          canRestore={roleAllows(d.role, "archive.manage")}
+          canDelete={roleAllows(d.role, "archive.delete")}
+          afterDelete={dataHref}
+        />
+      ) : null}
       <PageHeader
+        actions={!d.archivedAt && roleAllows(d.role, "archive.manage") ? <ArchivePageButton kind="dataset" id={d.id} /> : undefined}
         title={d.name}
         subtitle={
           <>

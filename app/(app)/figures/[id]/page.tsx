@@ -1,6 +1,9 @@
 import Link from "next/link";
 import type { FigureView } from "@/components/figures/api";
 import { RoleBadge } from "@/components/ui";
+import { ArchivedPageBanner, ArchivePageButton } from "@/components/archive/archive-controls";
+import { ArchivedPanels } from "@/components/archive/archived-panels";
+import { roleAllows } from "@/lib/authz/policy";
 import { loadOrNotFound, requireUser } from "@/lib/http/session";
 import { getFigure } from "@/lib/server/figures/figures";
 import { getManuscriptTitle, listMembers } from "@/lib/server/manuscripts";
@@ -33,11 +36,26 @@ export default async function FigurePage({ params }: { params: Promise<{ id: str
           ) : null}
         </ol>
       </nav>
+      {figure.archivedAt ? (
+        <ArchivedPageBanner
+          kind="figure"
+          id={figure.id}
+          archivedAt={figure.archivedAt}
+          canRestore={roleAllows(figure.role, "archive.manage")}
+          canDelete={roleAllows(figure.role, "archive.delete")}
+          afterDelete={`/manuscripts/${figure.manuscriptId}`}
+        />
+      ) : roleAllows(figure.role, "archive.manage") ? (
+        <p className="mb-2 flex justify-end print:hidden">
+          <ArchivePageButton kind="figure" id={figure.id} />
+        </p>
+      ) : null}
       <FigureWorkspace
         initial={JSON.parse(JSON.stringify(figure)) as FigureView}
         members={members.map(({ userId, name, email, role }) => ({ userId, name, email, role }))}
         manuscriptTitle={title}
       />
+      <ArchivedPanels panels={figure.archivedPanels} canRestore={roleAllows(figure.role, "archive.manage")} />
     </>
   );
 }

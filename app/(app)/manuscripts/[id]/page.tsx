@@ -1,7 +1,7 @@
 import Link from "next/link";
-import { FigureList } from "@/components/figures/figure-list";
+import { ArchivableFigureList } from "@/components/archive/archivable-figure-list";
 import { NewFigureForm } from "@/components/figures/new-figure-form";
-import { EmptyState, PageHeader, RoleBadge, Sheet } from "@/components/ui";
+import { PageHeader, RoleBadge, Sheet } from "@/components/ui";
 import { roleAllows } from "@/lib/authz/policy";
 import { loadManuscriptPage } from "./_components/manuscript-page";
 
@@ -38,11 +38,7 @@ export default async function ManuscriptPage({ params }: { params: Promise<{ id:
           <h2 id="figures-heading" className="mb-3 text-lg font-semibold">
             Figures
           </h2>
-          {m.figures.length ? (
-            <FigureList figures={m.figures} />
-          ) : (
-            <EmptyState title="No figures yet">Figures and their panels appear here, each with its review state.</EmptyState>
-          )}
+          <ArchivableFigureList manuscriptId={m.id} figures={m.figures} mayArchive={m.role ? roleAllows(m.role, "archive.manage") : false} />
           {m.role && roleAllows(m.role, "figure.edit") ? <NewFigureForm manuscriptId={m.id} /> : null}
         </section>
         <Sheet>

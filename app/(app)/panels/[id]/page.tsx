@@ -6,6 +6,7 @@ import { listDatasets } from "@/lib/server/datasets/read-datasets";
 import { getFigure } from "@/lib/server/figures/figures";
 import { getPanel } from "@/lib/server/figures/panels";
 import { getManuscriptTitle, listMembers } from "@/lib/server/manuscripts";
+import { PanelEdges } from "./_components/panel-edges";
 import { PanelWorkspace } from "./_components/panel-workspace";
 
 export const metadata = { title: "Panel" };
@@ -48,13 +49,15 @@ export default async function PanelPage({ params }: { params: Promise<{ id: stri
           ) : null}
         </ol>
       </nav>
-      <PanelWorkspace
-        initial={wire(panel)}
-        widthMm={panelWidthMm(figure, panel.colSpan)}
-        members={members.map(({ userId, name, email, role }) => ({ userId, name, email, role }))}
-        datasets={wire(datasets)}
-        me={{ id: user.id, name: user.name }}
-      />
+      <PanelEdges initial={wire(panel)}>
+        <PanelWorkspace
+          initial={wire(panel)}
+          widthMm={panelWidthMm(figure, panel.colSpan)}
+          members={members.map(({ userId, name, email, role }) => ({ userId, name, email, role }))}
+          datasets={wire(datasets)}
+          me={{ id: user.id, name: user.name }}
+        />
+      </PanelEdges>
     </>
   );
 }

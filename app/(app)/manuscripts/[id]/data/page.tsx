@@ -35,7 +35,7 @@ export default async function ManuscriptDataPage({ params }: { params: Promise<{
           <h2 id="datasets-heading" className="mb-2 text-lg font-semibold">
             Datasets
           </h2>
-          <DatasetsTable manuscriptId={m.id} initial={items} />
+          <DatasetsTable manuscriptId={m.id} initial={items} mayArchive={m.role ? roleAllows(m.role, "archive.manage") : false} />
         </section>
         {mayUpload ? (
           <Sheet>

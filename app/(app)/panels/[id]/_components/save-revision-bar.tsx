@@ -2,6 +2,7 @@
 import type { ReactNode } from "react";
 import { ApiError } from "@/components/api-client";
 import { Button, Field, TextInput } from "@/components/ui";
+import { useSignedOffGuard } from "./signed-off-warning";
 
 /**
  * The revision note and the save button under the builder and the spec editor: one place for what
@@ -43,13 +44,15 @@ export function SaveRevisionBar({
   children?: ReactNode;
 }) {
   const conflict = error instanceof ApiError && error.status === 409;
+  // On a signed-off figure, saving asks first: the sign-off would go stale.
+  const guard = useSignedOffGuard(onSave);
   return (
     <form
       className="space-y-2"
       aria-label={formLabel}
       onSubmit={(e) => {
         e.preventDefault();
-        onSave();
+        guard.request();
       }}
     >
       <Field label={noteLabel} hint={noteHint}>
@@ -62,6 +65,7 @@ export function SaveRevisionBar({
         {typeof blocked === "string" && blocked ? <span className="text-xs text-muted">{blocked}</span> : null}
         {children}
       </div>
+      {guard.warning}
       {conflict ? (
         <div role="alert" className="rounded-sm border border-bad bg-[#fbeeee] p-3 text-sm text-bad">
           <p className="font-semibold">
