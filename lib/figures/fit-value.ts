@@ -96,3 +96,12 @@ export function storedParameters(result: unknown): StoredParameter[] {
       : [];
   });
 }
+
+/** Parameters a figure usually states, most wanted first: coherence and relaxation times, then line positions. */
+const HEADLINE = ["T2", "T2star", "T1", "f0", "x0", "tau", "tau0", "Psat", "fwhm"];
+
+/** The parameter "Show fitted value" offers first: a headline one when the run has it, else the first with an uncertainty. */
+export function headlineParameter(parameters: StoredParameter[]): string | null {
+  const named = HEADLINE.find((h) => parameters.some((p) => p.name === h));
+  return named ?? parameters.find((p) => p.stderr !== null && !p.fixed)?.name ?? parameters[0]?.name ?? null;
+}

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatWithUncertainty, parameterRows, parameterSymbol, roundWithUncertainty, storedParameters } from "@/lib/figures/fit-value";
+import { formatWithUncertainty, headlineParameter, parameterRows, parameterSymbol, roundWithUncertainty, storedParameters } from "@/lib/figures/fit-value";
 
 describe("formatWithUncertainty (GUM §7.2.6: one or two significant digits of uncertainty)", () => {
   it("keeps one digit of an uncertainty starting with 3–9 and rounds the value to it", () => {
@@ -56,5 +56,26 @@ describe("storedParameters", () => {
     const result = { parameters: [{ name: "T2", value: 38.73, stderr: 0.694, unit: "µs", fixed: false }, { value: 3 }, null] };
     expect(storedParameters(result)).toEqual([{ name: "T2", value: 38.73, stderr: 0.694, unit: "µs", fixed: false }]);
     expect(storedParameters({})).toEqual([]);
+  });
+});
+
+describe("headlineParameter", () => {
+  it("offers the coherence time of an echo fit first", () => {
+    expect(
+      headlineParameter([
+        { name: "S0", value: 0.1, stderr: 0.01, unit: "" },
+        { name: "A", value: 0.9, stderr: 0.02, unit: "" },
+        { name: "T2", value: 38.7, stderr: 0.7, unit: "µs" },
+      ]),
+    ).toBe("T2");
+  });
+  it("else the first parameter with an uncertainty", () => {
+    expect(
+      headlineParameter([
+        { name: "a", value: 1, stderr: null, unit: "" },
+        { name: "b", value: 2, stderr: 0.1, unit: "" },
+      ]),
+    ).toBe("b");
+    expect(headlineParameter([])).toBeNull();
   });
 });

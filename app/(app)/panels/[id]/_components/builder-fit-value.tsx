@@ -2,7 +2,7 @@
 import { useState } from "react";
 import type { BindingChoice } from "@/components/figures/use-preview-data";
 import { Field, Select, TextInput } from "@/components/ui";
-import { parameterRows } from "@/lib/figures/fit-value";
+import { headlineParameter, parameterRows } from "@/lib/figures/fit-value";
 import { FIT_VALUE_POSITIONS, readFitValueOption, type FitValueOption } from "@/lib/figures/fit-value-layer";
 import type { TemplateRecord } from "@/lib/figures/template-record";
 import type { Saved } from "./builder-model";
@@ -24,7 +24,7 @@ export function useFitValue(saved: Saved | null, record: TemplateRecord | null, 
   const savedBinding = saved?.bindings[opt.data];
   const savedRun = savedBinding && "analysisId" in savedBinding ? runs.find((r) => r.analysisId === savedBinding.analysisId) : undefined;
   const run = fitRun ?? savedRun ?? newest;
-  const parameter = opt.parameter || (run?.parameters.find((p) => p.stderr !== null)?.name ?? run?.parameters[0]?.name ?? "");
+  const parameter = opt.parameter || (run ? (headlineParameter(run.parameters) ?? "") : "");
   const extra: { options: Record<string, unknown>; choices: Record<string, BindingChoice>; problem: string | null } = {
     options: {},
     choices: {},
