@@ -116,57 +116,56 @@ export function SearchablePicker({
         </span>
       ) : null}
       {chosen && !open ? <span className="mt-0.5 block text-xs text-muted">{chosen.detail}</span> : null}
-      <ul
-        id={`${id}-list`}
-        role="listbox"
-        aria-label={`${label}: choices`}
-        hidden={!open || flat.length === 0}
+      <div
+        hidden={!open}
         className="absolute z-20 mt-1 max-h-80 w-full overflow-y-auto rounded-sm border border-rule bg-sheet p-1 shadow-md"
         onMouseDown={(e) => e.preventDefault()}
       >
-        {noneLabel ? (
-          <li id={`${id}-none`} role="option" aria-selected={value === null} className={optionClass(at === 0)} onClick={() => choose(null)}>
-            {noneLabel}
-          </li>
+        <ul id={`${id}-list`} role="listbox" aria-label={`${label}: choices`} hidden={flat.length === 0}>
+          {noneLabel ? (
+            <li id={`${id}-none`} role="option" aria-selected={value === null} className={optionClass(at === 0)} onClick={() => choose(null)}>
+              {noneLabel}
+            </li>
+          ) : null}
+          {shown.map((g, gi) => (
+            <li key={g.key} role="presentation">
+              <ul role="group" aria-labelledby={`${id}-g${gi}`}>
+                <li role="presentation" id={`${id}-g${gi}`} className="px-2 pt-1.5 text-xs font-semibold text-muted">
+                  {g.label}
+                </li>
+                {g.options.map((o, oi) => {
+                  const optionId = `${id}-${gi}-${oi}`;
+                  return (
+                    <li
+                      key={o.value}
+                      id={optionId}
+                      role="option"
+                      aria-selected={o.value === value}
+                      aria-labelledby={`${optionId}-name`}
+                      aria-describedby={`${optionId}-detail`}
+                      className={optionClass(flat[at]?.optionId === optionId)}
+                      onClick={() => choose(o.value)}
+                    >
+                      <span className="block">
+                        {o.value === value ? <span aria-hidden>✓ </span> : null}
+                        <span id={`${optionId}-name`}>{o.label}</span>
+                      </span>
+                      <span id={`${optionId}-detail`} className="block text-xs text-muted">
+                        {o.detail}
+                      </span>
+                    </li>
+                  );
+                })}
+              </ul>
+            </li>
+          ))}
+        </ul>
+        {flat.length === (noneLabel ? 1 : 0) ? (
+          <p role="status" className="px-2 py-1 text-xs text-muted">
+            {query ? `Nothing matches “${query}”.` : empty}
+          </p>
         ) : null}
-        {shown.map((g, gi) => (
-          <li key={g.key} role="presentation">
-            <ul role="group" aria-labelledby={`${id}-g${gi}`}>
-              <li role="presentation" id={`${id}-g${gi}`} className="px-2 pt-1.5 text-xs font-semibold text-muted">
-                {g.label}
-              </li>
-              {g.options.map((o, oi) => {
-                const optionId = `${id}-${gi}-${oi}`;
-                return (
-                  <li
-                    key={o.value}
-                    id={optionId}
-                    role="option"
-                    aria-selected={o.value === value}
-                    aria-labelledby={`${optionId}-name`}
-                    aria-describedby={`${optionId}-detail`}
-                    className={optionClass(flat[at]?.optionId === optionId)}
-                    onClick={() => choose(o.value)}
-                  >
-                    <span className="block">
-                      {o.value === value ? <span aria-hidden>✓ </span> : null}
-                      <span id={`${optionId}-name`}>{o.label}</span>
-                    </span>
-                    <span id={`${optionId}-detail`} className="block text-xs text-muted">
-                      {o.detail}
-                    </span>
-                  </li>
-                );
-              })}
-            </ul>
-          </li>
-        ))}
-      </ul>
-      {open && flat.length === (noneLabel ? 1 : 0) ? (
-        <p role="status" className="absolute z-20 mt-1 w-full rounded-sm border border-rule bg-sheet px-3 py-1.5 text-xs text-muted shadow-md">
-          {query ? `Nothing matches “${query}”.` : empty}
-        </p>
-      ) : null}
+      </div>
     </div>
   );
 }
