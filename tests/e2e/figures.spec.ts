@@ -169,6 +169,12 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await expect(trace).toContainText("hahn_echo fit");
   await expect(trace.getByRole("row")).toHaveCount(5); // header, echo / fit / residuals of a, and b with no revision
 
+  // A new panel is a draft: the author sends it to review before anyone is asked.
+  await page.goto(panelUrl);
+  await expect(page.getByRole("region", { name: "Draft" })).toContainText("Draft — reviewers are not asked yet");
+  await page.getByRole("button", { name: "Send to review", exact: true }).click();
+  await expect(page.getByRole("region", { name: "Draft" })).toHaveCount(0);
+
   // The reviewer marks an x-range on the plot, comments in bold, and approves.
   const reviewerContext = await newContext();
   const reviewer = await reviewerContext.newPage();

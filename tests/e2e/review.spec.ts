@@ -45,6 +45,7 @@ async function figureWithPanel(page: Page, title: string, versionId: string): Pr
   });
   const patched = await call.patch(`/api/figures/${figure.id}`, { requiredReviewers: ["demo-reviewer"] });
   expect(patched.requiredReviewers).toEqual(["demo-reviewer"]);
+  await call.post(`/api/panels/${panel.id}/send-to-review`, undefined, 200);
   return { figureId: figure.id, number: figure.number, panelId: panel.id, revisionId: revision.id };
 }
 
@@ -162,7 +163,8 @@ test.describe.serial("review: queue, figure status, activity and sign-off", () =
     await boxB.getByRole("button", { name: "Sign off this figure" }).click();
     const issues = boxB.getByRole("alert");
     await expect(issues).toContainText("Open issues (panel a is in review)");
-    await expect(issues.getByRole("listitem")).toHaveText(["panel a is in review"]);
+    await expect(issues.getByRole("listitem")).toHaveText(["Panel a is in review (not approved)"]);
+    await expect(issues.getByRole("link", { name: "Panel a", exact: true })).toHaveAttribute("href", `/panels/${b.panelId}`);
     await expect(boxB.getByRole("button", { name: "Sign off with this reason" })).toBeDisabled();
     await boxB.getByLabel("Reason for signing off with open issues").fill("Units fixed as asked; the reviewer is travelling.");
     await boxB.getByRole("button", { name: "Sign off with this reason" }).click();
