@@ -146,6 +146,8 @@ describe("archive and restore", () => {
     const refused = await call(panel.DELETE, { method: "DELETE", token: tokens.pi, params: { id: panelId } });
     expect(refused.status).toBe(409);
     expect(refused.json.error.details.references).toEqual(["1 review decision", "1 sign-off of the figure"]);
+    const decided = await post(approvals.POST, "reviewer", { id: panelId }, { revisionId, decision: "needs_revision" });
+    expect(decided.json.error.message).toBe("This panel is archived; restore it before deciding on it.");
     await post(panelArchive.POST, "author", { id: panelId }, { archived: false });
     expect((await get(figure.GET, "viewer", { id: figureId })).json.panels.map((x: any) => x.id)).toEqual([panelId, second]);
     await post(panelArchive.POST, "author", { id: second }, { archived: true });

@@ -51,6 +51,7 @@ export async function createRevision(user: SessionUser, panelId: string, raw: Re
   const [previous] = input.baseRevisionId ? await getDb().select().from(revisions).where(eq(revisions.id, input.baseRevisionId)) : [];
   await getDb().transaction(async (tx) => {
     const [p] = await tx.select().from(panels).where(eq(panels.id, panelId));
+    if (p.archivedAt) throw conflict("This panel is archived; restore it before saving a revision.");
     if ((p.currentRevisionId ?? null) !== input.baseRevisionId)
       throw conflict(
         `This panel changed since you opened it: the current revision is ${p.currentRevisionId ?? "none"}, you edited ${input.baseRevisionId ?? "none"}. Reload and apply your change again.`,

@@ -29,6 +29,7 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
     if (p.currentRevisionId !== rev.id)
       throw conflict(`Revision ${rev.number} is no longer current; review the current revision instead.`, { currentRevisionId: p.currentRevisionId });
     if (rev.createdBy === user.id) throw forbidden("You made this revision; someone else must review it.");
+    if (p.archivedAt) throw conflict("This panel is archived; restore it before deciding on it.");
     if (!p.reviewRequestedAt)
       throw conflict("This panel is a draft: comment on it freely, but approvals and requests for a revision wait until its author sends it to review.");
     const [before] = await loadReviewContext({ figureId: p.figureId }, tx);
