@@ -58,7 +58,7 @@ export function initialState(saved: Saved | null, back?: ReturnedFrom) {
       const name = record.options[f.key];
       const b = typeof name === "string" && name ? saved.bindings[name] : undefined;
       start.picks[f.key] = !b ? null : "versionId" in b ? `v:${b.versionId}` : `a:${b.analysisId}`;
-      if (b && "analysisId" in b) start.outputs[f.key] = b.output;
+      if (b && "analysisId" in b && b.output !== "parameters") start.outputs[f.key] = b.output;
     }
   }
   if (back?.versionId || back?.analysisId) {
