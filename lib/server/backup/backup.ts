@@ -13,7 +13,7 @@ import { verifyAuditChain } from "../audit";
 import { blobPath } from "../storage/blob-store";
 
 export const MANIFEST = "manifest.json";
-export const DATABASE_FILE = "prooflight.db";
+const DATABASE_FILE = "prooflight.db";
 
 export interface BackupManifest {
   format: "prooflight-backup/1";
