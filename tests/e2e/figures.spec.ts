@@ -171,9 +171,9 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
 
   // A new panel is a draft: the author sends it to review before anyone is asked.
   await page.goto(panelUrl);
-  await expect(page.getByRole("region", { name: "Draft" })).toContainText("Draft — reviewers are not asked yet");
+  await expect(page.getByRole("region", { name: "Draft", exact: true })).toContainText("Draft — reviewers are not asked yet");
   await page.getByRole("button", { name: "Send to review", exact: true }).click();
-  await expect(page.getByRole("region", { name: "Draft" })).toHaveCount(0);
+  await expect(page.getByRole("region", { name: "Draft", exact: true })).toHaveCount(0);
 
   // The reviewer marks an x-range on the plot, comments in bold, and approves.
   const reviewerContext = await newContext();

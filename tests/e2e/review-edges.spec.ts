@@ -46,7 +46,7 @@ test.describe.serial("review at the edges: drafts, open issues at sign-off, with
     Object.assign(scene, { figureId: figure.id, number: figure.number, panelId: panel.id, revisionId: revision.id });
 
     await page.goto(`/panels/${panel.id}`);
-    const draft = page.getByRole("region", { name: "Draft" });
+    const draft = page.getByRole("region", { name: "Draft", exact: true });
     await expect(draft).toContainText("Draft — reviewers are not asked yet");
     await expect(draft).toContainText("approvals and requests for a revision wait until it is in review");
     await shoot(page, "panel-draft");

@@ -59,7 +59,7 @@ const factsOf = (d: DatasetItem | DatasetDetail): DatasetFacts => ({
   dataset: d.name,
   measurement: d.kind,
   sample: d.sample ?? null,
-  tags: (d.tags ?? {}),
+  tags: d.tags ?? {},
 });
 
 function versionSource(d: DatasetFacts, v: Pick<VersionView, "id" | "number" | "columns" | "createdAt">, newest: boolean): VersionSource {
