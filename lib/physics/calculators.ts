@@ -9,7 +9,7 @@ import { decouplingDipCalculator, larmorFieldCalculator, larmorFrequencyCalculat
 import { nmrDepthCalculator, nmrRmsFieldCalculator } from "./nv-nmr";
 import { odmrFieldFromPairCalculator, odmrFieldFromSingleLineCalculator, odmrResonancesCalculator } from "./odmr";
 import { photonEnergyCalculator, photonWavelengthCalculator } from "./photon";
-import { hahnEchoSensitivityCalculator } from "./sensitivity";
+import { cwOdmrSensitivityCalculator, hahnEchoSensitivityCalculator } from "./sensitivity";
 import { arealDensityCalculator } from "./spot-density";
 
 export type { Calculator } from "./calculator-types";
@@ -27,6 +27,7 @@ const CALCULATORS: readonly Calculator[] = [
   nmrRmsFieldCalculator,
   nmrDepthCalculator,
   hahnEchoSensitivityCalculator,
+  cwOdmrSensitivityCalculator,
   photonEnergyCalculator,
   photonWavelengthCalculator,
   arealDensityCalculator,

@@ -124,3 +124,19 @@ describe("5. Hahn-echo AC sensitivity (Taylor et al., Nat. Phys. 4, 810 (2008))"
     for (const phrase of ["Single NV", "τ ≈ T2", "best phase", "white noise", "no dead time"]) expect(text).toContain(phrase);
   });
 });
+
+// η ≈ P_F · h/(g μB) · Δν/(C √R), P_F = 4/(3√3) (Dréau et al., Phys. Rev. B 84, 195204 (2011),
+// shot-noise-limited CW-ODMR). Expected values computed independently in Python 3 with CODATA 2018
+// h = 6.62607015e-34 J s, μB = 9.2740100783e-24 J/T and g = 2.0028:
+// python3 -c "import math; print(4/(3*math.sqrt(3))*6.62607015e-34/(2.0028*9.2740100783e-24)*1e6/(0.01*math.sqrt(1e5))/1e-9)"
+describe("CW-ODMR shot-noise sensitivity (Dréau et al., PRB 84, 195204 (2011))", () => {
+  it("Δν = 1 MHz, C = 1 %, R = 100 kcps → η = 8684.2 nT/√Hz", () => {
+    expectDigits(out("cw-odmr-sensitivity", { linewidth: 1, C: 0.01, R: 100 }).eta, "8684.2"); // 8684.1835
+  });
+  it("Δν = 0.3 MHz, C = 20 %, R = 200 kcps → η = 92.110 nT/√Hz", () => {
+    expectDigits(out("cw-odmr-sensitivity", { linewidth: 0.3, C: 0.2, R: 200 }).eta, "92.110"); // 92.109676
+  });
+  it("Δν = 10 MHz, C = 3 %, R = 1 Mcps → η = 9153.9 nT/√Hz", () => {
+    expectDigits(out("cw-odmr-sensitivity", { linewidth: 10, C: 0.03, R: 1000 }).eta, "9153.9"); // 9153.9332
+  });
+});
