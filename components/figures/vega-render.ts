@@ -60,7 +60,8 @@ export function refusalOf(spec: Json): string | null {
  * display options are Prooflight's, never the spec author's.
  */
 export function prepareSpec(spec: Json, widthMm: number, family: string): Json {
-  const config = swapFonts({ ...(spec.config ?? {}), font: "Inter" }, family) as Json;
+  // As in exports: numbers without thousands separators unless the spec chooses a format.
+  const config = swapFonts({ numberFormat: "~f", ...(spec.config ?? {}), font: "Inter" }, family) as Json;
   const base: Json = { ...spec, config };
   delete base.usermeta;
   if (isComposite(spec)) return base;

@@ -102,6 +102,12 @@ describe("figure exports", () => {
     expect(r.headers.get("x-figure-hash")).toMatch(/^[0-9a-f]{64}$/);
   });
 
+  it("tick labels carry no thousands separators, as journals print them", async () => {
+    const svg = strFromU8((await download(`/x?format=svg`)).bytes);
+    expect(svg).toMatch(/>1000<\/text>/); // the τ axis runs from 1 to 2000 µs
+    expect(svg).not.toMatch(/>-?\d{1,3}(,\d{3})+(\.\d+)?<\/text>/);
+  });
+
   it("PDF sized in points, PNG with the right pixels and DPI", async () => {
     const pdf = await download(`/x?format=pdf`);
     expect(strFromU8(pdf.bytes.slice(0, 5))).toBe("%PDF-");

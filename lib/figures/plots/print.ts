@@ -85,11 +85,13 @@ export function scaleFor(kind: ScaleKind, extra: Spec = {}): Spec {
   return { type: "log", ...extra };
 }
 
-/** Vega-Lite config for print: Inter, sizes in pt, thin black axes, no grid, Okabe–Ito categories. */
+/** Vega-Lite config for print: Inter, sizes in pt, thin black axes, no grid, Okabe–Ito categories, plain numbers. */
 function printConfig(p: PrintSettings): Spec {
   const axisLine = { domainColor: "#000000", tickColor: "#000000", domainWidth: 0.6, tickWidth: 0.6 };
   return {
     font: "Inter",
+    // Journals print numbers without thousands separators: "2700", not "2,700" (precision follows the tick step).
+    numberFormat: "~f",
     background: "white",
     padding: 2,
     view: { stroke: null },

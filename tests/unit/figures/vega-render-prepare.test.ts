@@ -14,7 +14,7 @@ describe("prepareSpec: the browser never hands spec-controlled options to vega-e
     expect(out).toEqual({
       data: { name: "echo" },
       mark: "point",
-      config: { font: "Inter, sans-serif" },
+      config: { numberFormat: "~f", font: "Inter, sans-serif" }, // plain numbers: "2700", not "2,700"
       width: 226.77,
       autosize: { type: "fit", contains: "padding" },
     });
@@ -23,7 +23,7 @@ describe("prepareSpec: the browser never hands spec-controlled options to vega-e
 
   it("drops usermeta from a composite spec", () => {
     const out = prepareSpec({ vconcat: [{ mark: "point" }], usermeta: hostileMeta }, 80, "F");
-    expect(out).toEqual({ vconcat: [{ mark: "point" }], config: { font: "F" } });
+    expect(out).toEqual({ vconcat: [{ mark: "point" }], config: { numberFormat: "~f", font: "F" } });
   });
 });
 

@@ -123,7 +123,9 @@ export function boundDataNames(vlSpec) {
 export async function renderOnce(vlSpec, data, { warnings = [], refusals = [] } = {}) {
   let vgSpec;
   try {
-    vgSpec = compile(vlSpec, { logger: collectingLogger(warnings) }).spec;
+    // Journal default under the spec's own config: numbers without thousands separators ("2700", not
+    // "2,700"), precision still chosen from the tick step; a spec's config or axis format wins.
+    vgSpec = compile(vlSpec, { config: { numberFormat: "~f" }, logger: collectingLogger(warnings) }).spec;
   } catch (err) {
     throw new RenderError("invalid-spec", `Vega-Lite could not compile the spec: ${err?.message ?? err}`);
   }
