@@ -126,6 +126,9 @@ describe("figure exports", () => {
     const files = unzipSync(r.bytes);
     expect(Object.keys(files).sort()).toEqual(["README.txt", "figure-1-panel-a-echo.csv", "figure-1-panel-a-fit.csv", "figure-1-panel-b-res.csv"]);
     expect(strFromU8(files["figure-1-panel-a-echo.csv"]!).trim().split("\n")).toHaveLength(81); // 80 points + header
+    // Units back in every header, as the uploaded file named them ("tau (µs),signal (norm),sigma (norm)").
+    expect(strFromU8(files["figure-1-panel-a-echo.csv"]!).split("\n")[0]).toBe("tau (µs),signal (norm),sigma (norm)");
+    expect(strFromU8(files["figure-1-panel-a-fit.csv"]!).split("\n")[0]).toBe("series,tau (µs),signal (norm)"); // the curve's rows
     expect(strFromU8(files["README.txt"]!)).toMatch(/Figure hash: [0-9a-f]{64}/);
   });
 

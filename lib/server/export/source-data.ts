@@ -2,7 +2,8 @@ import "server-only";
 import { strToU8, zipSync } from "fflate";
 import { inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { revisions } from "@/db/schema";
+import { revisions, versions } from "@/db/schema";
+import { axisTitle } from "@/lib/data/format";
 import { loadBoundData } from "../figures/bindings";
 import type { FigureReview } from "../review/review-context";
 
@@ -18,15 +19,25 @@ export function csvCell(v: unknown): string {
   return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
-export function rowsToCsv(rows: Array<Record<string, unknown>>): string {
+/** CSV with a header row; `units` names a column's unit, written into its header as "tau (µs)". */
+export function rowsToCsv(rows: Array<Record<string, unknown>>, units: Record<string, string | null> = {}): string {
   if (!rows.length) return "";
   const cols = Object.keys(rows[0]);
-  return [cols.map(csvCell).join(","), ...rows.map((r) => cols.map((c) => csvCell(r[c])).join(","))].join("\n") + "\n";
+  const header = cols.map((c) => csvCell(units[c] ? axisTitle(c, units[c]) : c));
+  return [header.join(","), ...rows.map((r) => cols.map((c) => csvCell(r[c])).join(","))].join("\n") + "\n";
+}
+
+/** Column units of the versions bound to a revision, by version id then column name. */
+async function unitsOf(versionIds: string[]): Promise<Map<string, Record<string, string | null>>> {
+  const ids = [...new Set(versionIds)];
+  const rows = ids.length ? await getDb().select({ id: versions.id, columns: versions.columns }).from(versions).where(inArray(versions.id, ids)) : [];
+  return new Map(rows.map((v) => [v.id, Object.fromEntries(v.columns.map((c) => [c.name, c.unit]))]));
 }
 
 /**
  * The per-figure source data journals ask for: one CSV per panel and data name, every point
- * (never downsampled), and a README naming each file's origin by hash.
+ * (never downsampled), units in the column headers ("tau (µs)"), and a README naming each
+ * file's origin by hash.
  */
 export async function sourceDataFiles(review: FigureReview): Promise<Record<string, Uint8Array>> {
   const files: Record<string, Uint8Array> = {};
@@ -40,11 +51,12 @@ export async function sourceDataFiles(review: FigureReview): Promise<Record<stri
       continue;
     }
     const data = await loadBoundData(rev.bound);
+    const units = await unitsOf(Object.values(rev.bound).map((b) => b.versionId));
     readme.push(`Panel ${p.letter} — revision ${rev.number}, content hash ${rev.contentHash}`);
     for (const [name, rows] of Object.entries(data)) {
       const file = `figure-${review.figure.number}-panel-${p.letter}-${name}.csv`;
-      files[file] = strToU8(rowsToCsv(rows));
       const b = rev.bound[name];
+      files[file] = strToU8(rowsToCsv(rows, units.get(b.versionId) ?? {}));
       readme.push(`  ${file}: ${rows.length} rows from ${b.kind} ${b.id}${b.output ? ` (${b.output})` : ""}, source sha256 ${b.sha256}`);
     }
   }
