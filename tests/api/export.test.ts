@@ -1,6 +1,9 @@
 import { createHash } from "node:crypto";
 import { unzipSync, strFromU8 } from "fflate";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { desc, eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { auditLog } from "@/db/schema";
 import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import { hahnEchoFiles } from "@/lib/demo-data/hahn-echo";
 import { stopRenderWorkers } from "@/lib/server/render/render-in-worker";
@@ -119,6 +122,32 @@ describe("figure exports", () => {
     const phys = Buffer.from(png.bytes).indexOf("pHYs");
     expect(view.getUint32(phys + 4)).toBe(Math.round(600 / 0.0254)); // 23622 px/m
     expect((await download(`/x?format=png&dpi=72`)).status).toBe(400);
+  });
+
+  it("a figure not signed off says so: a strip under the SVG, the PNG's Description, the PDF's Subject; the exporter may leave the mark out, on record", async () => {
+    const r = await download(`/x?format=svg`);
+    expect(r.headers.get("x-signed-off")).toBe("no");
+    const svg = strFromU8(r.bytes);
+    expect(svg).toMatch(/>Not signed off — draft for review · figure hash [0-9a-f]{12}<\/text><\/svg>$/);
+    const plain = await download(`/x?format=svg&mark=off`);
+    expect(strFromU8(plain.bytes)).not.toContain("Not signed off");
+    // The strip adds 3 mm below the figure: the marked SVG is exactly 3 mm taller.
+    const height = (s: string) => Number(/<svg[^>]*\sheight="([\d.]+)mm"/.exec(s)![1]);
+    expect(height(svg) - height(strFromU8(plain.bytes))).toBeCloseTo(3, 6);
+    const png = Buffer.from((await download(`/x?format=png&dpi=1200`)).bytes);
+    const view = new DataView(png.buffer, png.byteOffset);
+    const phys = png.indexOf("pHYs");
+    expect(view.getUint32(phys + 4)).toBe(47244); // 1200 dpi = 1200 / 0.0254 m = 47244.09 px/m (PNG spec §11.3.5.3)
+    const text = png.indexOf("tEXt");
+    expect(png.toString("latin1", text + 4, text + 4 + 46)).toBe("Description\0Not signed off - draft for review;");
+    const pdf = strFromU8((await download(`/x?format=pdf`)).bytes);
+    expect(pdf).toMatch(/\/Subject/);
+    const [entry] = await getDb().select().from(auditLog).where(eq(auditLog.action, "figure.export")).orderBy(desc(auditLog.seq)).limit(1);
+    // The audit entry's data is stored as JSON text.
+    expect(JSON.parse(String(entry!.data))).toMatchObject({ format: "pdf", signedOff: false, draftMark: true });
+    const exports = await getDb().select().from(auditLog).where(eq(auditLog.action, "figure.export"));
+    const leftOut = exports.filter((e) => (JSON.parse(String(e.data)) as { draftMarkLeftOut?: boolean }).draftMarkLeftOut);
+    expect(leftOut).toHaveLength(1);
   });
 
   it("source data: every point, one CSV per panel and data name, with a README of hashes", async () => {

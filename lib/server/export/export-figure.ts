@@ -9,6 +9,7 @@ import { svgToPdf } from "../render/to-pdf";
 import { svgToPng } from "../render/to-png";
 import { loadReviewContext } from "../review/review-context";
 import { bundleFiles } from "./bundle";
+import { DRAFT_MARK_TEXT, withDraftMark } from "./draft-mark";
 import { renderFigureSvg } from "./render-figure";
 import { sourceDataFiles, zip } from "./source-data";
 
@@ -16,8 +17,10 @@ export const exportQuery = z.object({
   format: z.enum(["svg", "pdf", "png", "source-data", "bundle"], { message: "format must be svg, pdf, png, source-data or bundle" }),
   dpi: z.coerce
     .number()
-    .refine((d) => d === 300 || d === 600, "dpi must be 300 or 600")
+    .refine((d) => d === 300 || d === 600 || d === 1200, "dpi must be 300, 600 or 1200")
     .default(300),
+  /** "off" leaves out the draft mark on a figure that is not signed off (recorded in the audit log). */
+  mark: z.enum(["on", "off"], { message: "mark must be on or off" }).default("on"),
 });
 
 const TYPES = { svg: "image/svg+xml", pdf: "application/pdf", png: "image/png", "source-data": "application/zip", bundle: "application/zip" } as const;
@@ -26,22 +29,28 @@ const TYPES = { svg: "image/svg+xml", pdf: "application/pdf", png: "image/png", 
 export async function exportFigure(user: SessionUser, figureId: string, raw: z.infer<typeof exportQuery>) {
   const manuscriptId = await manuscriptOfFigure(figureId);
   await authorize(user, "manuscript.export", manuscriptId);
-  const { format, dpi } = exportQuery.parse(raw);
+  const { format, dpi, mark } = exportQuery.parse(raw);
   const [review] = await loadReviewContext({ figureId });
   if (!review) throw notFound();
   const base = `figure-${review.figure.number}`;
   let body: Uint8Array;
   let notes: string[] = [];
+  // A figure not signed off on its current hash carries a visible mark unless the exporter opts out.
+  const signedOff = review.state === "signed_off";
+  const draftMarked = !signedOff && mark === "on";
   if (format === "source-data") {
     body = zip(await sourceDataFiles(review));
   } else {
     const rendered = await renderFigureSvg(review);
     notes = rendered.notes;
-    if (format === "svg") body = new TextEncoder().encode(rendered.svg);
-    else if (format === "png") body = svgToPng(rendered.svg, { dpi }).png;
+    const svg = draftMarked ? withDraftMark(rendered.svg, review.figureHash) : rendered.svg;
+    const status = draftMarked ? DRAFT_MARK_TEXT : signedOff ? "Signed off on this figure hash" : `${DRAFT_MARK_TEXT} (mark left out by the exporter)`;
+    if (format === "svg") body = new TextEncoder().encode(svg);
+    else if (format === "png") body = svgToPng(svg, { dpi, text: { Description: `${status}; figure hash ${review.figureHash}` } }).png;
     else {
-      const pdf = new Uint8Array(await svgToPdf(rendered.svg, { title: `Figure ${review.figure.number}: ${review.figure.title}` }));
-      body = format === "pdf" ? pdf : zip(await bundleFiles(user, review, { svg: rendered.svg, pdf }));
+      const title = `Figure ${review.figure.number}: ${review.figure.title}`;
+      const pdf = new Uint8Array(await svgToPdf(svg, { title, subject: `${status}; figure hash ${review.figureHash}` }));
+      body = format === "pdf" ? pdf : zip(await bundleFiles(user, review, { svg, pdf }));
     }
   }
   await getDb().transaction(async (tx) => {
@@ -50,7 +59,15 @@ export async function exportFigure(user: SessionUser, figureId: string, raw: z.i
       manuscriptId,
       action: "figure.export",
       target: `figure:${figureId}`,
-      data: { format, dpi, figureHash: review.figureHash, bytes: body.byteLength },
+      data: {
+        format,
+        dpi,
+        figureHash: review.figureHash,
+        bytes: body.byteLength,
+        signedOff,
+        draftMark: draftMarked,
+        ...(mark === "off" && !signedOff ? { draftMarkLeftOut: true } : {}),
+      },
     });
   });
   const ext = { svg: "svg", pdf: "pdf", png: `${dpi}dpi.png`, "source-data": "source-data.zip", bundle: "bundle.zip" }[format];
@@ -62,6 +79,7 @@ export async function exportFigure(user: SessionUser, figureId: string, raw: z.i
       "content-length": String(body.byteLength),
       "content-disposition": `attachment; filename="${base}.${ext}"`,
       "x-figure-hash": review.figureHash,
+      "x-signed-off": signedOff ? "yes" : "no",
       ...(notes.length ? { "x-export-notes": encodeURIComponent(notes.join(" | ")) } : {}),
     },
   };

@@ -14,6 +14,8 @@ export interface PdfOptions {
   widthMm?: number;
   heightMm?: number;
   title?: string;
+  /** The document's Subject (the export says there whether the figure was signed off). */
+  subject?: string;
   /** Fixes the PDF's creation date (for reproducible files). */
   creationDate?: Date;
 }
@@ -40,6 +42,7 @@ export async function svgToPdf(svg: string, options: PdfOptions = {}): Promise<B
     margin: 0,
     info: {
       Title: options.title ?? "Figure",
+      ...(options.subject ? { Subject: options.subject } : {}),
       Producer: "Prooflight",
       Creator: "Prooflight",
       ...(options.creationDate ? { CreationDate: options.creationDate } : {}),

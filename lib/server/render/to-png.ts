@@ -13,6 +13,8 @@ export interface PngOptions {
   dpi?: number;
   /** Printed width, mm (default: the SVG's own width in mm). */
   widthMm?: number;
+  /** tEXt chunks (PNG spec §11.3.4.3), e.g. { Description: "…" }; Latin-1 keys and values. */
+  text?: Record<string, string>;
 }
 
 export interface RenderedPng {
@@ -53,8 +55,8 @@ function chunk(type: string, data: Buffer): Buffer {
 /** Pixels per metre for a resolution in dpi (PNG stores resolution per metre). */
 const pixelsPerMetre = (dpi: number): number => Math.round(dpi / 0.0254);
 
-/** Returns the PNG with its pHYs chunk (pixels per metre, both axes) set to `dpi`, replacing any other. */
-function setPngDpi(png: Buffer, dpi: number): Buffer {
+/** Returns the PNG with its pHYs chunk (pixels per metre, both axes) set to `dpi`, replacing any other, and the given tEXt chunks. */
+function setPngDpi(png: Buffer, dpi: number, text: Record<string, string> = {}): Buffer {
   if (!png.subarray(0, 8).equals(PNG_SIGNATURE)) throw new RenderError("render-failed", "not a PNG");
   const data = Buffer.alloc(9);
   data.writeUInt32BE(pixelsPerMetre(dpi), 0);
@@ -67,7 +69,10 @@ function setPngDpi(png: Buffer, dpi: number): Buffer {
     const type = png.toString("latin1", off + 4, off + 8);
     const whole = png.subarray(off, off + 12 + length);
     if (type !== "pHYs") parts.push(whole);
-    if (type === "IHDR") parts.push(chunk("pHYs", data));
+    if (type === "IHDR") {
+      parts.push(chunk("pHYs", data));
+      for (const [key, value] of Object.entries(text)) parts.push(chunk("tEXt", Buffer.from(`${key}\0${value.replace(/[^\x20-\xff]/g, "-")}`, "latin1")));
+    }
     off += 12 + length;
   }
   return Buffer.concat(parts);
@@ -90,5 +95,5 @@ export function svgToPng(svg: string, options: PngOptions = {}): RenderedPng {
     logLevel: "off",
   });
   const image = resvg.render();
-  return { png: setPngDpi(image.asPng(), dpi), widthPx: image.width, heightPx: image.height, dpi };
+  return { png: setPngDpi(image.asPng(), dpi, options.text), widthPx: image.width, heightPx: image.height, dpi };
 }

@@ -8,19 +8,12 @@ import { OpenThreads, ReviewStateBadge } from "@/components/figures/review-state
 import { SignoffBox } from "@/components/review/signoff-box";
 import { formatDate } from "@/lib/data/format";
 import { STATE_LABELS } from "@/lib/review/derive-state";
+import { ExportLinks } from "./export-links";
 import { FigureCanvas } from "./figure-canvas";
 import { FigureSettings } from "./figure-settings";
 import { PanelManager } from "./panel-manager";
 import { TraceTable } from "./trace-table";
 import { usePrintedAt } from "./use-printing";
-
-const EXPORTS = [
-  { format: "svg", label: "SVG (vector)" },
-  { format: "pdf", label: "PDF (vector)" },
-  { format: "png", label: "PNG (300 dpi)" },
-  { format: "source-data", label: "Source data" },
-  { format: "bundle", label: "Reproducibility bundle" },
-];
 
 function Side({ title, children }: { title: string; children: ReactNode }) {
   return (
@@ -91,15 +84,7 @@ export function FigureWorkspace({ initial, members, manuscriptTitle }: { initial
             />
           </Side>
           <Side title="Export">
-            <ul className="space-y-1 text-sm">
-              {EXPORTS.map((x) => (
-                <li key={x.format}>
-                  <a href={`/api/figures/${figure.id}/export?format=${x.format}`} className="underline" download>
-                    {x.label}
-                  </a>
-                </li>
-              ))}
-            </ul>
+            <ExportLinks figureId={figure.id} signedOff={figure.reviewState === "signed_off"} />
           </Side>
           <Side title="Trace">
             <p className="text-sm">Raw file → analysis → revision, with every hash.</p>
