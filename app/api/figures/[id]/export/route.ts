@@ -1,4 +1,4 @@
-// Files to submit: ?format=svg|pdf|png (&dpi=300|600)|source-data|bundle.
+// Files to submit: ?format=svg|pdf|png (&dpi=300|600|1200)|source-data|bundle, &mark=off to leave out the draft mark.
 import { withPermission } from "@/lib/http/route";
 import { exportFigure, exportQuery } from "@/lib/server/export/export-figure";
 import { manuscriptOfFigure } from "@/lib/server/figures/scope";
