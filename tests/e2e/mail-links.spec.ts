@@ -73,4 +73,19 @@ test("a mention and a reply: one mail each, to the right person, whose link open
   await expect(theirs).toContainText("Yes, against the proton line.");
   await expect(theirs.getByRole("button", { name: "Mail me replies", exact: true })).toHaveAttribute("aria-pressed", "true");
   await shoot(reviewer, "mail-link-reply");
+
+  // The reviewer stops this thread's replies, then unfollows the figure on the mail settings page.
+  await theirs.getByRole("button", { name: "Mail me replies", exact: true }).click();
+  await expect(theirs.getByRole("button", { name: "Mail me replies", exact: true })).toHaveAttribute("aria-pressed", "false");
+  await reviewer.reload();
+  await expect(reviewer.locator(`#thread-${thread.id}`).getByRole("button", { name: "Mail me replies", exact: true })).toHaveAttribute("aria-pressed", "false");
+  await reviewer.getByRole("link", { name: "Mail settings", exact: true }).click();
+  const box = reviewer.getByRole("checkbox", { name: `Figure ${figure.number} — Mail link check`, exact: true });
+  await expect(box).toBeChecked();
+  await box.uncheck();
+  await reviewer.getByRole("button", { name: "Save mail settings", exact: true }).click();
+  await expect(reviewer.getByText("Saved: your mail follows these choices from now on.")).toBeVisible();
+  await reviewer.reload();
+  await expect(reviewer.getByRole("checkbox", { name: `Figure ${figure.number} — Mail link check`, exact: true })).not.toBeChecked();
+  await shoot(reviewer, "mail-settings-figures");
 });
