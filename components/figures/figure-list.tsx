@@ -23,7 +23,7 @@ export function FigureList({ figures, actions }: { figures: FigureListItem[]; ac
       {figures.map((f) => {
         const open = f.panels.reduce((n, p) => n + p.openThreads, 0);
         return (
-          <li key={f.id} className={actions ? "flex items-center gap-2" : undefined}>
+          <li key={f.id} className={actions ? "flex flex-col gap-1 sm:flex-row sm:items-center sm:gap-2" : undefined}>
             <Link
               href={`/figures/${f.id}`}
               className="flex min-w-0 flex-1 items-center gap-4 rounded-sm border border-rule bg-sheet p-3 hover:border-accent hover:bg-accent-soft/40"
@@ -46,7 +46,7 @@ export function FigureList({ figures, actions }: { figures: FigureListItem[]; ac
                 →
               </span>
             </Link>
-            {actions?.(f)}
+            {actions ? <div className="self-end sm:self-auto">{actions(f)}</div> : null}
           </li>
         );
       })}

@@ -147,7 +147,7 @@ test.describe("on a phone (390 × 844)", () => {
     await page.getByRole("link", { name: "Figure status" }).click();
     await expect(page.getByRole("heading", { level: 1, name: "Figure status" })).toBeVisible();
     const figures = page.getByRole("region", { name: "Figures and panels" });
-    await expect(figures.getByRole("heading", { level: 2, name: "Figure 1" })).toBeVisible();
+    await expect(figures.getByRole("heading", { level: 2, name: "Figure 1", exact: true })).toBeVisible();
     await expectWithinWidth(page, figures, "the figure list");
     await expectNoSidewaysScroll(page);
     await shoot(page, "phone-figure-status");

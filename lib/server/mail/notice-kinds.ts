@@ -12,7 +12,7 @@ export const NOTICE_LABELS: Record<NoticeKind, string> = {
   signoff_due: "figures ready for your sign-off",
   signed_off: "figures signed off",
   approval_stale: "approvals of yours that went stale",
-  reply: "replies in threads you wrote in",
+  reply: "replies in threads you wrote in or follow",
   mention: "@mentions",
 };
 

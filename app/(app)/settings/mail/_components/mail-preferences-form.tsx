@@ -96,7 +96,7 @@ export function MailPreferencesForm({ kinds, manuscripts, digest, timeZones }: P
           </div>
         ))}
         <p className="mt-1 text-xs text-muted">
-          Unfollowed manuscripts and figures send you no notices and leave your digest; they stay in your lists and queue. Threads have their own “Follow
+          Unfollowed manuscripts and figures send you no notices and leave your digest; they stay in your lists and queue. Each thread has its own “Mail me
           replies” switch.
         </p>
       </fieldset>
