@@ -26,20 +26,9 @@ import * as analysis from "@/app/api/analyses/[id]/route";
 import * as analysisArchive from "@/app/api/analyses/[id]/archive/route";
 import * as versionAnalyses from "@/app/api/versions/[id]/analyses/route";
 import { call, setupTestApp, uploadForm, type Who } from "./harness";
+import { T1_CSV, T1_SPEC } from "./t1-fixture";
 
 let tokens: Record<Who, string>;
-const SPEC = {
-  $schema: "https://vega.github.io/schema/vega-lite/v6.json",
-  data: { name: "t1" },
-  mark: "point",
-  encoding: { x: { field: "wait", type: "quantitative" }, y: { field: "p", type: "quantitative" } },
-};
-const T1_CSV =
-  "wait (ms),p\n" +
-  Array.from({ length: 30 }, (_, i) => {
-    const t = 0.05 * 1.25 ** i;
-    return `${t},${(0.7 + 0.3 * Math.exp(-t / 4) + 0.002 * Math.sin(7 * i)).toFixed(5)}`;
-  }).join("\n");
 const post = (h: any, who: Who, params: Record<string, string>, body?: unknown) => call(h, { method: "POST", token: tokens[who], params, body });
 const get = (h: any, who: Who, params: Record<string, string>, path?: string) => call(h, { token: tokens[who], params, path });
 
@@ -50,7 +39,7 @@ beforeAll(async () => {
   ({ id: versionId, datasetId } = v);
   figureId = (await post(figuresRoute.POST, "author", {}, { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Relaxation" })).json.id;
   panelId = (await post(panelsRoute.POST, "author", { id: figureId }, { title: "T1 of NV07" })).json.id;
-  revisionId = (await post(revisions.POST, "author", { id: panelId }, { spec: SPEC, bindings: { t1: { versionId } }, baseRevisionId: null })).json.id;
+  revisionId = (await post(revisions.POST, "author", { id: panelId }, { spec: T1_SPEC, bindings: { t1: { versionId } }, baseRevisionId: null })).json.id;
   await post(sendToReview.POST, "author", { id: panelId });
   expect((await post(approvals.POST, "reviewer", { id: panelId }, { revisionId, decision: "approved" })).status).toBe(201);
 });

@@ -6,6 +6,7 @@ import { API_OPERATIONS } from "@/lib/http/api-catalogue";
 import { createApiToken } from "@/lib/server/api-tokens";
 import { newId } from "@/lib/server/crypto";
 import { call, setupTestApp, uploadForm, type Who } from "./harness";
+import { T1_CSV, T1_SPEC } from "./t1-fixture";
 import { plainDoc } from "@/lib/review/rich-text";
 import { createThread, replyToThread } from "@/lib/server/review/threads";
 import { routeFiles } from "./route-files";
@@ -90,7 +91,7 @@ const FIXTURES: Record<string, Fixture> = {
     const current = (await call(panel, { token: tokens.pi, params: { id: sample.panelIds[1]! } })).json.currentRevision;
     return {
       params: { id: sample.panelIds[1]! },
-      body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: current?.id ?? null, message: "walk" },
+      body: { spec: T1_SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: current?.id ?? null, message: "walk" },
     };
   },
   "GET /api/revisions/{id}": async () => ({ params: { id: sample.revisionId } }),
@@ -153,7 +154,7 @@ async function draftPanel(): Promise<string> {
     method: "POST",
     token: tokens.author,
     params: { id },
-    body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null },
+    body: { spec: T1_SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null },
   });
   return id;
 }
@@ -305,18 +306,6 @@ const sample = {
   reviewFigureId: "",
   threadId: "",
 };
-const SPEC = {
-  $schema: "https://vega.github.io/schema/vega-lite/v6.json",
-  data: { name: "t1" },
-  mark: "point",
-  encoding: { x: { field: "wait", type: "quantitative" }, y: { field: "p", type: "quantitative" } },
-};
-const T1_CSV =
-  "wait (ms),p\n" +
-  Array.from({ length: 30 }, (_, i) => {
-    const t = 0.05 * 1.25 ** i;
-    return `${t},${(0.7 + 0.3 * Math.exp(-t / 4) + 0.002 * Math.sin(7 * i)).toFixed(5)}`;
-  }).join("\n");
 const fitBody = () => ({ versionId: sample.fitVersionId, model: "relaxation", options: { x: "wait", y: "p" } });
 beforeAll(async () => {
   ({ tokens } = await setupTestApp());
@@ -351,7 +340,7 @@ beforeAll(async () => {
     method: "POST",
     token: tokens.author,
     params: { id: sample.panelIds[0]! },
-    body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null },
+    body: { spec: T1_SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null },
   });
   sample.revisionId = rev.json.id;
   // A panel whose revision none of the walking callers made, so every allowed role may decide on it.
@@ -371,7 +360,7 @@ beforeAll(async () => {
       method: "POST",
       token: walkerToken,
       params: { id: sample.reviewPanelId },
-      body: { spec: SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null },
+      body: { spec: T1_SPEC, bindings: { t1: { versionId: sample.fitVersionId } }, baseRevisionId: null },
     })
   ).json.id;
   await call((await import("@/app/api/panels/[id]/send-to-review/route")).POST, { method: "POST", token: walkerToken, params: { id: sample.reviewPanelId } });

@@ -1,6 +1,6 @@
 import fs from "node:fs";
 import path from "node:path";
-import { expect, type Page } from "@playwright/test";
+import { expect, type APIResponse, type Page } from "@playwright/test";
 
 export const PASSWORD = "prooflight-demo";
 export const DEMO_MANUSCRIPT = "demo-manuscript";
@@ -44,4 +44,18 @@ function findMail(to: string, subject: RegExp): SinkMessage | undefined {
 export async function waitForMail(to: string, subject: RegExp, timeoutMs = 30_000): Promise<SinkMessage> {
   await expect.poll(() => findMail(to, subject) !== undefined, { message: `a mail to ${to} matching ${subject}`, timeout: timeoutMs }).toBe(true);
   return findMail(to, subject)!;
+}
+
+/** JSON calls made with the page's session cookie; writes carry our Origin as a browser would. */
+export function api(page: Page) {
+  const headers = () => ({ origin: new URL(page.url()).origin });
+  const expectJson = async (res: APIResponse, status: number) => {
+    expect(res.status(), await res.text()).toBe(status);
+    return res.json();
+  };
+  return {
+    get: async (url: string) => expectJson(await page.request.get(url), 200),
+    post: async (url: string, data: unknown, status = 201) => expectJson(await page.request.post(url, { data, headers: headers() }), status),
+    patch: async (url: string, data: unknown) => expectJson(await page.request.patch(url, { data, headers: headers() }), 200),
+  };
 }

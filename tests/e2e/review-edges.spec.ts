@@ -1,6 +1,5 @@
-import { type APIResponse, type Page } from "@playwright/test";
 import { expect, test } from "./fixtures";
-import { DEMO_MANUSCRIPT, shoot, signIn, waitForMail } from "./helpers";
+import { api, DEMO_MANUSCRIPT, shoot, signIn, waitForMail } from "./helpers";
 
 const SPEC = {
   $schema: "https://vega.github.io/schema/vega-lite/v6.json",
@@ -11,19 +10,6 @@ const SPEC = {
 const doc = (text: string) => ({ type: "doc", content: [{ type: "paragraph", content: [{ type: "text", text }] }] });
 const QUESTION = "Is the echo baseline flat beyond 2 ms?";
 const WITHDRAWN = "The time axis must start at zero.";
-
-/** JSON calls made with the page's session cookie; writes carry our Origin as a browser would. */
-function api(page: Page) {
-  const headers = () => ({ origin: new URL(page.url()).origin });
-  const expectJson = async (res: APIResponse, status: number) => {
-    expect(res.status(), await res.text()).toBe(status);
-    return res.json();
-  };
-  return {
-    get: async (url: string) => expectJson(await page.request.get(url), 200),
-    post: async (url: string, data: unknown, status = 201) => expectJson(await page.request.post(url, { data, headers: headers() }), status),
-  };
-}
 
 const scene: { figureId?: string; number?: number; panelId?: string; revisionId?: string; threadId?: string } = {};
 

@@ -1,6 +1,6 @@
-import { type APIResponse, type Page } from "@playwright/test";
+import { type Page } from "@playwright/test";
 import { expect, test } from "./fixtures";
-import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
+import { api, DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
 
 const SPEC = {
   $schema: "https://vega.github.io/schema/vega-lite/v6.json",
@@ -18,20 +18,6 @@ interface Scene {
   revisionId: string;
 }
 const scene: { a?: Scene; b?: Scene; versionId?: string } = {};
-
-/** JSON calls made with the page's session cookie; writes carry our Origin as a browser would. */
-function api(page: Page) {
-  const headers = () => ({ origin: new URL(page.url()).origin });
-  const expectJson = async (res: APIResponse, status: number) => {
-    expect(res.status(), await res.text()).toBe(status);
-    return res.json();
-  };
-  return {
-    get: async (url: string) => expectJson(await page.request.get(url), 200),
-    post: async (url: string, data: unknown, status = 201) => expectJson(await page.request.post(url, { data, headers: headers() }), status),
-    patch: async (url: string, data: unknown) => expectJson(await page.request.patch(url, { data, headers: headers() }), 200),
-  };
-}
 
 async function figureWithPanel(page: Page, title: string, versionId: string): Promise<Scene> {
   const call = api(page);
