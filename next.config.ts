@@ -16,6 +16,7 @@ const nextConfig: NextConfig = {
     "vega",
     "vega-lite",
     "vega-interpreter",
+    "sharp",
   ],
   typedRoutes: false,
   async redirects() {

@@ -4,6 +4,7 @@ import { createTokenInput } from "@/lib/server/api-tokens";
 import { createManuscriptInput } from "@/lib/server/manuscripts";
 import { changeRoleInput, inviteInput } from "@/lib/server/members";
 import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schemas";
+import { houseStyleSchema } from "@/lib/figures/house-style";
 import { analysisInput, calculatorInput, statisticsQuery } from "@/lib/server/analyses/schemas";
 import { exportQuery } from "@/lib/server/export/export-figure";
 import { thumbnailQuery } from "@/lib/server/export/thumbnails";
@@ -16,7 +17,7 @@ import { addPanelInput, createFigureInput, reorderInput, revisionInput, updateFi
 const unsubscribeQuery = z.object({ token: z.string().describe("the signed token from the mail's List-Unsubscribe address") });
 
 export interface ApiOperation {
-  method: "GET" | "POST" | "PATCH" | "DELETE";
+  method: "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
   path: string; // OpenAPI style: /api/manuscripts/{id}
   permission: Action | "public";
   summary: string;
@@ -176,6 +177,15 @@ export const API_OPERATIONS: ApiOperation[] = [
     permission: "model.list",
     summary: "Run a calculator (an estimate, not a calibration)",
     body: calculatorInput,
+    success: 200,
+  },
+  { method: "GET", path: "/api/manuscripts/{id}/house-style", permission: "manuscript.read", summary: "The house style figure exports use", success: 200 },
+  {
+    method: "PUT",
+    path: "/api/manuscripts/{id}/house-style",
+    permission: "figure.edit",
+    summary: "Set the house style: font, text sizes, line widths, panel letters",
+    body: houseStyleSchema,
     success: 200,
   },
   {

@@ -94,8 +94,8 @@ afterAll(async () => {
 });
 
 describe("figure exports", () => {
-  it("SVG at the physical width with the panel letters and our font", async () => {
-    const r = await download(`/x?format=svg`);
+  it("SVG with live text: the physical width, the panel letters, and the font it uses embedded", async () => {
+    const r = await download(`/x?format=svg&text=embedded`);
     expect(r.status).toBe(200);
     const svg = strFromU8(r.bytes);
     expect(svg).toMatch(/<svg[^>]*width="183mm"/);
@@ -103,10 +103,22 @@ describe("figure exports", () => {
     expect(svg).toMatch(/>a<\/text>/);
     expect(svg).toMatch(/>b<\/text>/);
     expect(r.headers.get("x-figure-hash")).toMatch(/^[0-9a-f]{64}$/);
+    // The embedded faces are TrueType files (sfnt version 0x00010000, OpenType spec "Font file" table directory).
+    const faces = [...svg.matchAll(/@font-face\{font-family:"([^"]+)";font-weight:(\w+);[^}]*base64,([A-Za-z0-9+/=]+)\)/g)];
+    expect(faces.map((f) => `${f[1]} ${f[2]}`).sort()).toEqual(["Inter bold", "Inter normal"]); // letters bold, labels regular
+    for (const f of faces) expect(Buffer.from(f[3]!, "base64").readUInt32BE(0)).toBe(0x00010000);
+  });
+
+  it("SVG by default has its text as outlines: no text elements, no font needed, same size", async () => {
+    const svg = strFromU8((await download(`/x?format=svg`)).bytes);
+    expect(svg).toMatch(/<svg[^>]*width="183mm"/);
+    expect(svg).not.toMatch(/<text\b/);
+    expect(svg).not.toMatch(/font-family/);
+    expect(svg.match(/<path\b/g)!.length).toBeGreaterThan(100); // glyphs, marks and axes
   });
 
   it("tick labels carry no thousands separators, as journals print them", async () => {
-    const svg = strFromU8((await download(`/x?format=svg`)).bytes);
+    const svg = strFromU8((await download(`/x?format=svg&text=embedded`)).bytes);
     expect(svg).toMatch(/>1000<\/text>/); // the τ axis runs from 1 to 2000 µs
     expect(svg).not.toMatch(/>-?\d{1,3}(,\d{3})+(\.\d+)?<\/text>/);
   });
@@ -125,11 +137,11 @@ describe("figure exports", () => {
   });
 
   it("a figure not signed off says so: a strip under the SVG, the PNG's Description, the PDF's Subject; the exporter may leave the mark out, on record", async () => {
-    const r = await download(`/x?format=svg`);
+    const r = await download(`/x?format=svg&text=embedded`);
     expect(r.headers.get("x-signed-off")).toBe("no");
     const svg = strFromU8(r.bytes);
     expect(svg).toMatch(/>Not signed off — draft for review · figure hash [0-9a-f]{12}<\/text><\/svg>$/);
-    const plain = await download(`/x?format=svg&mark=off`);
+    const plain = await download(`/x?format=svg&text=embedded&mark=off`);
     expect(strFromU8(plain.bytes)).not.toContain("Not signed off");
     // The strip adds 3 mm below the figure: the marked SVG is exactly 3 mm taller.
     const height = (s: string) => Number(/<svg[^>]*\sheight="([\d.]+)mm"/.exec(s)![1]);
@@ -175,7 +187,103 @@ describe("figure exports", () => {
 
   it("outsiders get 404; an unknown format names the field", async () => {
     expect((await download(`/x?format=svg`, "outsider")).status).toBe(404);
-    const bad = await download(`/x?format=tiff`);
+    const bad = await download(`/x?format=eps`);
     expect(bad.status).toBe(400);
+    expect(new TextDecoder().decode(bad.bytes)).toContain("format must be svg, pdf, png, tiff, source-data or bundle");
+  });
+});
+
+/** The IFD0 entries of a TIFF (TIFF 6.0 §2: header, then 12-byte entries tag/type/count/value); rationals read through their offset. */
+function tiffTags(bytes: Uint8Array): Map<number, number> {
+  const b = Buffer.from(bytes);
+  const le = b.toString("latin1", 0, 2) === "II";
+  const u16 = (o: number) => (le ? b.readUInt16LE(o) : b.readUInt16BE(o));
+  const u32 = (o: number) => (le ? b.readUInt32LE(o) : b.readUInt32BE(o));
+  expect(u16(2)).toBe(42);
+  const ifd = u32(4);
+  const tags = new Map<number, number>();
+  for (let i = 0; i < u16(ifd); i++) {
+    const e = ifd + 2 + 12 * i;
+    const type = u16(e + 2);
+    const value = type === 3 ? u16(e + 8) : type === 5 ? u32(u32(e + 8)) / u32(u32(e + 8) + 4) : u32(e + 8);
+    tags.set(u16(e), value);
+  }
+  return tags;
+}
+
+describe("raster files for print", () => {
+  it("PNG in RGB or greyscale, never with an alpha channel (IHDR colour type, PNG spec §11.2.2)", async () => {
+    const colourType = (bytes: Uint8Array) => bytes[25];
+    expect(colourType((await download(`/x?format=png&dpi=300`)).bytes)).toBe(2); // truecolour, no alpha
+    const grey = await download(`/x?format=png&dpi=300&colour=grey`);
+    expect(colourType(grey.bytes)).toBe(0); // greyscale
+    expect(grey.headers.get("content-disposition")).toBe('attachment; filename="figure-1.300dpi-grey.png"');
+    expect((await download(`/x?format=png&colour=cmyk`)).status).toBe(400);
+  });
+
+  it("TIFF with LZW compression at the asked resolution, RGB or greyscale (TIFF 6.0 tags 259, 262, 277, 282, 296)", async () => {
+    const rgb = await download(`/x?format=tiff&dpi=600`);
+    expect(rgb.headers.get("content-type")).toBe("image/tiff");
+    const t = tiffTags(rgb.bytes);
+    expect(t.get(259)).toBe(5); // Compression: LZW
+    expect(t.get(262)).toBe(2); // PhotometricInterpretation: RGB
+    expect(t.get(277)).toBe(3); // SamplesPerPixel: no alpha
+    expect(t.get(256)).toBe(Math.round((183 / 25.4) * 600)); // ImageWidth: 4323 px
+    expect(t.get(282)).toBeCloseTo(600, 6); // XResolution
+    expect(t.get(296)).toBe(2); // ResolutionUnit: inch
+    const g = tiffTags((await download(`/x?format=tiff&dpi=300&colour=grey`)).bytes);
+    expect([g.get(259), g.get(262), g.get(277), g.get(282)]).toEqual([5, 1, 1, 300]); // LZW, BlackIsZero, one sample, 300 dpi
+  });
+});
+
+describe("in the manuscript's house style", () => {
+  const arimo = { font: "Arimo", labelPt: 6, titlePt: 7, axisLinePt: 0.5, dataLinePt: 0.75, letterPt: 9, letterCase: "upper", letterWeight: "normal" };
+  let houseStyle: typeof import("@/app/api/manuscripts/[id]/house-style/route");
+  beforeAll(async () => {
+    houseStyle = await import("@/app/api/manuscripts/[id]/house-style/route");
+  });
+
+  it("starts at the templates' own sizes; a viewer can read it but not set it", async () => {
+    const r = await call(houseStyle.GET, { method: "GET", token: tokens.viewer, params: { id: DEMO_MANUSCRIPT_ID } });
+    expect(r.json.style).toEqual({
+      font: "Inter",
+      labelPt: 7,
+      titlePt: 8,
+      axisLinePt: 0.6,
+      dataLinePt: null,
+      letterPt: 8,
+      letterCase: "lower",
+      letterWeight: "bold",
+    });
+    const refused = await call(houseStyle.PUT, { method: "PUT", token: tokens.viewer, params: { id: DEMO_MANUSCRIPT_ID }, body: arimo });
+    expect(refused.status).toBe(403);
+  });
+
+  it("an author sets Arimo, 6/7 pt, 0.5 pt axes, 0.75 pt lines and upright capitals; every export follows", async () => {
+    const set = await call(houseStyle.PUT, { method: "PUT", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, body: arimo });
+    expect(set.status).toBe(200);
+    expect(set.json.summary).toBe("Arimo, labels 6 pt, titles 7 pt, axes 0.5 pt, data lines 0.75 pt, letters A 9 pt normal");
+    const svg = strFromU8((await download(`/x?format=svg&text=embedded`)).bytes);
+    expect(svg).toMatch(/<text[^>]*font-family="Arimo" font-weight="normal" font-size="9"[^>]*>A<\/text>/);
+    expect(svg).toMatch(/<text[^>]*font-family="Arimo" font-weight="normal" font-size="9"[^>]*>B<\/text>/);
+    expect(svg).not.toMatch(/>a<\/text>/);
+    expect(svg).toMatch(/font-family="Arimo"[^>]*font-size="6px"[^>]*>1000<\/text>/); // a tick label of the τ axis
+    expect(svg).toMatch(/font-size="7px"[^>]*>τ \(µs\)<\/text>/); // the axis title
+    expect(svg).not.toMatch(/font-size="7px"[^>]*>1000<\/text>/);
+    expect(svg).toMatch(/class="mark-rule role-axis-domain"[^>]*>[^]*?stroke-width="0.5"/);
+    expect(svg).toMatch(/class="mark-line role-mark[^"]*"[^>]*>[^]*?stroke-width="0.75"/);
+    expect(svg).toContain('@font-face{font-family:"Arimo";font-weight:normal');
+    const [entry] = await getDb().select().from(auditLog).where(eq(auditLog.action, "figure.export")).orderBy(desc(auditLog.seq)).limit(1);
+    expect(JSON.parse(String(entry!.data))).toMatchObject({ format: "svg", text: "embedded", houseStyle: set.json.summary });
+    const pdf = strFromU8((await download(`/x?format=pdf`)).bytes);
+    expect(pdf).toMatch(/\/BaseFont \/[A-Z]{6}\+Arimo/); // the embedded subset (PDF 1.7 §9.6.4 subset tag)
+  });
+
+  it("a style outside journal sizes is refused field by field and nothing changes", async () => {
+    const r = await call(houseStyle.PUT, { method: "PUT", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, body: { ...arimo, labelPt: 4 } });
+    expect(r.status).toBe(400);
+    expect(r.json.error.message).toContain("labelPt must be at least 5 pt");
+    const now = await call(houseStyle.GET, { method: "GET", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID } });
+    expect(now.json.style.labelPt).toBe(6);
   });
 });

@@ -7,6 +7,8 @@ import { badRequest, unprocessable } from "@/lib/errors";
 import { loadBoundData } from "../figures/bindings";
 import { reduceRowsForDisplay } from "../figures/display-data";
 import type { FigureReview } from "../review/review-context";
+import { applyHouseStyle, describeHouseStyle, panelLetter, type HouseStyle } from "@/lib/figures/house-style";
+import { houseStyleOf } from "../house-style";
 
 /** Past this the vector file becomes unwieldy for journals; long series are then reduced and the export says so. */
 const VECTOR_CAP_BYTES = 20 * 1024 * 1024;
@@ -16,10 +18,18 @@ export interface FigureRender {
   widthMm: number;
   heightMm: number;
   notes: string[];
+  /** The manuscript's house style the figure was drawn in, in words. */
+  houseStyle: string;
 }
 
-/** The whole figure as one composed SVG at print size, rendered in the budgeted worker with the full data. */
+/** Grid and panel letters as the house style sets them. */
+function layoutFor(review: FigureReview, style: HouseStyle) {
+  return { columns: review.figure.columns, letterFont: style.font, letterPt: style.letterPt, letterWeight: style.letterWeight };
+}
+
+/** The whole figure as one composed SVG at print size in the manuscript's house style, rendered in the budgeted worker with the full data. */
 export async function renderFigureSvg(review: FigureReview): Promise<FigureRender> {
+  const style = await houseStyleOf(review.figure.manuscriptId);
   const missing = review.panels.filter((p) => !p.revision).map((p) => p.letter);
   if (!review.panels.length) throw badRequest("The figure has no panels yet.");
   if (missing.length) throw badRequest(`Panels ${missing.join(", ")} have no revision yet; save a spec for each panel before exporting.`);
@@ -35,10 +45,11 @@ export async function renderFigureSvg(review: FigureReview): Promise<FigureRende
   const jobs = await Promise.all(
     review.panels.map(async (p) => {
       const rev = revs.find((r) => r.id === p.revision!.id)!;
-      return { letter: p.letter, spec: JSON.parse(rev.spec) as unknown, data: await loadBoundData(rev.bound), span: p.panel.colSpan };
+      const spec = applyHouseStyle(JSON.parse(rev.spec) as unknown, style);
+      return { letter: panelLetter(p.letter, style), spec, data: await loadBoundData(rev.bound), span: p.panel.colSpan };
     }),
   );
-  const layout = { columns: review.figure.columns };
+  const layout = layoutFor(review, style);
   const notes: string[] = [];
   try {
     let out = await renderFigureInWorker(jobs, layout, review.figure.widthMm);
@@ -51,7 +62,7 @@ export async function renderFigureSvg(review: FigureReview): Promise<FigureRende
     }
     if (out.heightMm > review.figure.maxHeightMm)
       notes.push(`The figure is ${out.heightMm.toFixed(1)} mm tall, above its maximum of ${review.figure.maxHeightMm} mm.`);
-    return { svg: out.svg, widthMm: out.widthMm, heightMm: out.heightMm, notes: [...notes, ...out.warnings] };
+    return { svg: out.svg, widthMm: out.widthMm, heightMm: out.heightMm, notes: [...notes, ...out.warnings], houseStyle: describeHouseStyle(style) };
   } catch (err) {
     if (err instanceof RenderError) throw unprocessable(`The figure could not be rendered (${err.code}): ${err.message}`);
     throw err;

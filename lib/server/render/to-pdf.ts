@@ -1,12 +1,12 @@
 /**
  * SVG → vector PDF with pdfkit and svg-to-pdfkit. The page is the figure's printed size in
- * points; text is set in the embedded Inter faces; images and external documents are never
+ * points; text is set in the embedded faces of the shipped families (Inter, Arimo); images and external documents are never
  * opened (svg-to-pdfkit would otherwise read an <image> path from disk).
  */
 import "server-only";
 import PDFDocument from "pdfkit";
 import SVGtoPDF from "svg-to-pdfkit";
-import { interFontPath } from "./fonts";
+import { FONT_FACES, FONT_FAMILIES, fontPath, shippedFamily, type FontFace, type FontFamily } from "./fonts";
 import { assertPrintableSvg, svgSizeMm } from "./svg-safety";
 import { PT_PER_MM, RenderError } from "./worker/render-error.mjs";
 
@@ -20,7 +20,8 @@ export interface PdfOptions {
   creationDate?: Date;
 }
 
-const FACES = { regular: "Inter", bold: "Inter-Bold", italic: "Inter-Italic", semibold: "Inter-SemiBold" } as const;
+/** pdfkit's name for one registered face: "Inter-bold", "Arimo-regular". */
+const faceName = (family: FontFamily, face: FontFace) => `${family}-${face}`;
 
 /** svg-to-pdfkit only knows bold or not: map numeric weights onto the faces we ship. */
 function normaliseWeights(svg: string): string {
@@ -54,7 +55,7 @@ export async function svgToPdf(svg: string, options: PdfOptions = {}): Promise<B
     doc.on("end", () => resolve(Buffer.concat(chunks)));
     doc.on("error", reject);
   });
-  for (const face of Object.keys(FACES) as Array<keyof typeof FACES>) doc.registerFont(FACES[face], interFontPath(face));
+  for (const family of FONT_FAMILIES) for (const face of FONT_FACES) doc.registerFont(faceName(family, face), fontPath(family, face));
   const warnings: string[] = [];
   try {
     SVGtoPDF(doc, rootInPoints(normaliseWeights(svg), widthPt, heightPt), 0, 0, {
@@ -62,7 +63,7 @@ export async function svgToPdf(svg: string, options: PdfOptions = {}): Promise<B
       height: heightPt,
       assumePt: true,
       preserveAspectRatio: "xMinYMin meet",
-      fontCallback: (_family, bold, italic) => (italic ? FACES.italic : bold ? FACES.bold : FACES.regular),
+      fontCallback: (family, bold, italic) => faceName(shippedFamily(family), italic ? "italic" : bold ? "bold" : "regular"),
       imageCallback: () => "",
       documentCallback: () => null,
       warningCallback: (m) => warnings.push(m),

@@ -1,10 +1,10 @@
 /**
- * SVG → PNG with resvg at print resolution, using only the shipped Inter TTFs (system fonts off,
+ * SVG → PNG with resvg at print resolution, using only the shipped TTFs (Inter, Arimo) (system fonts off,
  * so the pixels are the same on every machine), with a pHYs chunk carrying the resolution.
  */
 import "server-only";
 import { Resvg } from "@resvg/resvg-js";
-import { FONT_FAMILY, interFontFiles } from "./fonts";
+import { FONT_FAMILY, fontFiles } from "./fonts";
 import { assertPrintableSvg, svgSizeMm } from "./svg-safety";
 import { RenderError } from "./worker/render-error.mjs";
 
@@ -56,7 +56,7 @@ function chunk(type: string, data: Buffer): Buffer {
 const pixelsPerMetre = (dpi: number): number => Math.round(dpi / 0.0254);
 
 /** Returns the PNG with its pHYs chunk (pixels per metre, both axes) set to `dpi`, replacing any other, and the given tEXt chunks. */
-function setPngDpi(png: Buffer, dpi: number, text: Record<string, string> = {}): Buffer {
+export function setPngDpi(png: Buffer, dpi: number, text: Record<string, string> = {}): Buffer {
   if (!png.subarray(0, 8).equals(PNG_SIGNATURE)) throw new RenderError("render-failed", "not a PNG");
   const data = Buffer.alloc(9);
   data.writeUInt32BE(pixelsPerMetre(dpi), 0);
@@ -88,7 +88,7 @@ export function svgToPng(svg: string, options: PngOptions = {}): RenderedPng {
   if (width < 1 || width > 30_000) throw new RenderError("bad-size", `a ${width}-pixel-wide PNG is not made`);
   const resvg = new Resvg(svg, {
     fitTo: { mode: "width", value: width },
-    font: { fontFiles: interFontFiles(), loadSystemFonts: false, defaultFontFamily: FONT_FAMILY, sansSerifFamily: FONT_FAMILY },
+    font: { fontFiles: fontFiles(), loadSystemFonts: false, defaultFontFamily: FONT_FAMILY, sansSerifFamily: FONT_FAMILY },
     background: "white",
     shapeRendering: 2,
     textRendering: 1,

@@ -33,6 +33,7 @@ const WORDS: Record<string, (d: Record<string, any>) => string> = {
   "archive.restore": (d) => `restored ${d.what}`,
   "archive.delete": (d) => `deleted ${d.what} for good`,
   "figure.export": (d) => `exported ${d.format}`,
+  "manuscript.house_style": (d) => `changed the house style to ${d.after}`,
 };
 
 /** The manuscript's audit log in words, newest first. */

@@ -16,6 +16,10 @@ export interface FigureLayout {
   gapMm?: number;
   /** Band above each row that holds the panel letters, mm (default 3). */
   letterBandMm?: number;
+  /** Panel letters (the manuscript's house style): family (Inter or Arimo), size in pt (6–14), weight. */
+  letterFont?: string;
+  letterPt?: number;
+  letterWeight?: "bold" | "normal";
 }
 
 export interface ComposedFigure {

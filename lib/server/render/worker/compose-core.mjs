@@ -1,6 +1,7 @@
 /**
  * Places rendered panel SVGs on a grid as one figure: nested <svg> elements positioned in pt,
- * each panel's letter in bold 8 pt Inter above its top-left corner, the root sized in mm.
+ * each panel's letter above its top-left corner (bold 8 pt Inter unless the layout's house style
+ * says otherwise), the root sized in mm.
  * Plain JavaScript (typed by compose-core.d.mts) so the render worker can load it.
  */
 import { PT_PER_MM, RenderError, rootSize } from "./render-error.mjs";
@@ -8,6 +9,8 @@ import { PT_PER_MM, RenderError, rootSize } from "./render-error.mjs";
 const DEFAULT_GAP_MM = 2;
 const DEFAULT_LETTER_BAND_MM = 3;
 const LETTER_PT = 8;
+/** The faces the renderers ship; any other family falls back to Inter. */
+const FONTS = new Set(["Inter", "Arimo"]);
 
 const fmt = (v) => String(Math.round(v * 1000) / 1000);
 const escapeXml = (s) => String(s).replace(/[<>&"']/g, (c) => ({ "<": "&lt;", ">": "&gt;", "&": "&amp;", '"': "&quot;", "'": "&apos;" })[c]);
@@ -51,6 +54,9 @@ export function composeFigureCore(panels, layout, widthMm) {
   const gap = gapMm * PT_PER_MM;
   const band = (layout?.letterBandMm ?? DEFAULT_LETTER_BAND_MM) * PT_PER_MM;
   const totalW = widthMm * PT_PER_MM;
+  const letterFont = FONTS.has(layout?.letterFont) ? layout.letterFont : "Inter";
+  const letterPt = Number.isFinite(layout?.letterPt) ? Math.min(14, Math.max(6, layout.letterPt)) : LETTER_PT;
+  const letterWeight = layout?.letterWeight === "normal" ? "normal" : "bold";
   const cellW = (totalW - (columns - 1) * gap) / columns;
 
   const placed = [];
@@ -78,7 +84,7 @@ export function composeFigureCore(panels, layout, widthMm) {
   const parts = placed.map(({ panel, x, y, w, h, natural }) => {
     const id = `p${String(panel.letter).replace(/[^A-Za-z0-9]/g, "")}-`;
     const body = nestPanel(prefixIds(panel.svg, id), x, y + band, w, h, natural.width, natural.height);
-    const letter = `<text x="${fmt(x)}" y="${fmt(y + band - 1.5)}" font-family="Inter" font-weight="bold" font-size="${LETTER_PT}" fill="#000000">${escapeXml(panel.letter)}</text>`;
+    const letter = `<text x="${fmt(x)}" y="${fmt(y + band - 1.5)}" font-family="${letterFont}" font-weight="${letterWeight}" font-size="${fmt(letterPt)}" fill="#000000">${escapeXml(panel.letter)}</text>`;
     return `<g class="panel panel-${escapeXml(panel.letter)}">${letter}${body}</g>`;
   });
   const heightMm = totalH / PT_PER_MM;

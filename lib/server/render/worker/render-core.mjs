@@ -93,13 +93,17 @@ function scaleNode(node, kx, ky) {
   return out;
 }
 
+/** The faces the renderers ship (system fonts are never used). */
+const FONTS = new Set(["Inter", "Arimo"]);
+
 /**
- * Inter for all text; ARIA attributes off unless the spec asks for them (a print file has no
- * reader for them, and per-mark descriptions double the SVG of a dense panel).
+ * Inter for all text unless the spec's config names another shipped face (the house style sets
+ * it); ARIA attributes off unless the spec asks for them (a print file has no reader for them,
+ * and per-mark descriptions double the SVG of a dense panel).
  */
 function withPrintConfig(spec) {
   const config = spec.config ?? {};
-  return { ...spec, config: { aria: false, ...config, font: "Inter" } };
+  return { ...spec, config: { aria: false, ...config, font: FONTS.has(config.font) ? config.font : "Inter" } };
 }
 
 /** Names the Vega-Lite spec reads from bound data: `{ "name": … }` sources not defined in `datasets`. */
