@@ -47,6 +47,6 @@ export async function fetchJson<T>(url: string, init?: RequestInit): Promise<T> 
 }
 
 /** JSON to our API; errors carry the server's own message. */
-export function sendJson<T>(url: string, method: "POST" | "PATCH" | "DELETE", body?: unknown): Promise<T> {
+export function sendJson<T>(url: string, method: "POST" | "PUT" | "PATCH" | "DELETE", body?: unknown): Promise<T> {
   return fetchJson<T>(url, { method, body: body === undefined ? undefined : JSON.stringify(body) });
 }

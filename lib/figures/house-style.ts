@@ -10,8 +10,8 @@ import { z } from "zod";
 
 /** The faces shipped with the app (the server never uses system fonts). */
 export const HOUSE_FONTS = {
-  Inter: { label: "Inter" },
-  Arimo: { label: "Arimo (the metrics of Arial and Helvetica)" },
+  Inter: { label: "Inter", browser: "Inter, sans-serif" },
+  Arimo: { label: "Arimo (the metrics of Arial and Helvetica)", browser: "Arimo, Arial, Helvetica, sans-serif" },
 } as const;
 export type HouseFont = keyof typeof HOUSE_FONTS;
 
@@ -66,8 +66,8 @@ type Json = { [key: string]: unknown };
 const isObject = (v: unknown): v is Json => !!v && typeof v === "object" && !Array.isArray(v);
 
 /** The config keys the house style owns; a spec's own values for them are replaced. */
-function styleConfig(style: HouseStyle): Json {
-  const font = style.font;
+function styleConfig(style: HouseStyle, browser: boolean): Json {
+  const font = browser ? HOUSE_FONTS[style.font].browser : style.font;
   const text = { labelFont: font, titleFont: font, labelFontSize: style.labelPt, titleFontSize: style.titlePt };
   return {
     font,
@@ -99,11 +99,15 @@ function restyleLineMarks(node: unknown, width: number): unknown {
   return out;
 }
 
-/** The spec as the house style prints it: fonts, text sizes and line widths set in its top-level config. */
-export function applyHouseStyle<T>(spec: T, style: HouseStyle): T {
+/**
+ * The spec as the house style prints it: fonts, text sizes and line widths set in its top-level
+ * config. `browser` names the font with fallbacks of the same metrics for an on-screen preview
+ * (the server renderers take the bare family they ship).
+ */
+export function applyHouseStyle<T>(spec: T, style: HouseStyle, { browser = false } = {}): T {
   if (!isObject(spec)) return spec;
   const restyled = style.dataLinePt === null ? spec : (restyleLineMarks(spec, style.dataLinePt) as Json);
-  return { ...restyled, config: mergeConfig(spec.config, styleConfig(style)) } as T;
+  return { ...restyled, config: mergeConfig(spec.config, styleConfig(style, browser)) } as T;
 }
 
 /** The printed panel letter: "a" or "A". */

@@ -54,6 +54,7 @@ const PI_PAGES: { label: string; path: string; follow?: string }[] = [
   { label: "data", path: `/manuscripts/${DEMO_MANUSCRIPT}/data` },
   { label: "analyses", path: `/manuscripts/${DEMO_MANUSCRIPT}/analyses` },
   { label: "members", path: `/manuscripts/${DEMO_MANUSCRIPT}/members` },
+  { label: "house style", path: `/manuscripts/${DEMO_MANUSCRIPT}/house-style` },
   { label: "waiting on me", path: "/review" },
   { label: "calculators", path: "/calculators" },
   { label: "API tokens", path: "/settings/tokens" },

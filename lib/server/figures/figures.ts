@@ -4,6 +4,7 @@ import { getDb } from "@/db/client";
 import { figures, manuscriptMembers, panels, type Role } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
+import { houseStyleOf } from "../house-style";
 import { newId } from "../crypto";
 import { badRequest, notFound } from "@/lib/errors";
 import { createFigureInput, reorderInput, updateFigureInput } from "./schemas";
@@ -73,7 +74,7 @@ export async function getFigure(user: SessionUser, figureId: string) {
     .from(panels)
     .where(and(eq(panels.figureId, figureId), isNotNull(panels.archivedAt)))
     .orderBy(asc(panels.position));
-  return { ...presentFigure(review, role, await dataWarningCounts([review])), archivedPanels };
+  return { ...presentFigure(review, role, await dataWarningCounts([review])), archivedPanels, houseStyle: await houseStyleOf(manuscriptId) };
 }
 
 /** Data warnings (lib/server/figures/integrity) per current revision id, counted. */

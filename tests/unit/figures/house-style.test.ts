@@ -62,3 +62,11 @@ describe("house style", () => {
     expect(describeHouseStyle(DEFAULT_HOUSE_STYLE)).toBe("Inter, labels 7 pt, titles 8 pt, axes 0.6 pt, letters a 8 pt bold");
   });
 });
+
+describe("house style on screen", () => {
+  it("names the font with same-metric fallbacks for the browser preview, the bare family for the server", () => {
+    const style = { ...DEFAULT_HOUSE_STYLE, font: "Arimo" as const };
+    expect(applyHouseStyle({ mark: "point" }, style, { browser: true }).config).toMatchObject({ font: "Arimo, Arial, Helvetica, sans-serif" });
+    expect(applyHouseStyle({ mark: "point" }, style).config).toMatchObject({ font: "Arimo" });
+  });
+});

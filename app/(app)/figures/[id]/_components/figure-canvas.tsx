@@ -1,13 +1,14 @@
 "use client";
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
-import { useEffect, useRef, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import { fetchJson } from "@/components/api-client";
 import { queryKeys, type FigurePanel, type FigureView, type RevisionView } from "@/components/figures/api";
 import { GUTTER_MM, panelWidthMm } from "@/components/figures/format";
 import { PanelChartLazy } from "@/components/figures/panel-chart-lazy";
 import { OpenThreads, ReviewStateBadge } from "@/components/figures/review-state";
 import { PX_PER_MM } from "@/components/figures/vega-render";
+import { applyHouseStyle, HOUSE_FONTS, panelLetter } from "@/lib/figures/house-style";
 import { MmRuler } from "./mm-ruler";
 import { usePrintedAt } from "./use-printing";
 
@@ -128,7 +129,10 @@ function PanelTile({ panel, figure, zoom }: { panel: FigurePanel; figure: Figure
     staleTime: Infinity,
   });
   const widthMm = panelWidthMm(figure, panel.colSpan);
-  const letterPx = ((8 * 96) / 72) * zoom;
+  const style = figure.houseStyle;
+  // One restyled spec per revision and style, so the chart is not redrawn on every render.
+  const spec = useMemo(() => (revision.data ? applyHouseStyle(revision.data.spec, style, { browser: true }) : null), [revision.data, style]);
+  const letterPx = ((style.letterPt * 96) / 72) * zoom;
   // The link holds only the letter (its visible text is part of its name); its ::after covers the tile, so all of it stays clickable.
   return (
     <div
@@ -142,17 +146,21 @@ function PanelTile({ panel, figure, zoom }: { panel: FigurePanel; figure: Figure
           className="after:absolute after:inset-0 after:z-10 after:content-[''] focus-visible:outline-none! focus-visible:after:outline-2 focus-visible:after:outline-solid focus-visible:after:outline-offset-2 focus-visible:after:outline-accent"
           aria-label={`Panel ${panel.letter}${panel.title ? `: ${panel.title}` : ""}`}
         >
-          <b className="leading-none" style={{ fontSize: letterPx }} data-testid="panel-letter">
-            {panel.letter}
-          </b>
+          <span
+            className="leading-none"
+            style={{ fontSize: letterPx, fontWeight: style.letterWeight === "bold" ? 700 : 400, fontFamily: HOUSE_FONTS[style.font].browser }}
+            data-testid="panel-letter"
+          >
+            {panelLetter(panel.letter, style)}
+          </span>
         </Link>
         <span className="flex items-center gap-1.5 opacity-90 group-hover:opacity-100 print:hidden">
           <ReviewStateBadge state={panel.reviewState} />
           {panel.openThreads ? <OpenThreads count={panel.openThreads} /> : null}
         </span>
       </div>
-      {rev && revision.data ? (
-        <PanelChartLazy spec={revision.data.spec} revisionId={rev.id} widthMm={widthMm} zoom={zoom} label={`Panel ${panel.letter}, revision ${rev.number}`} />
+      {rev && spec ? (
+        <PanelChartLazy spec={spec} revisionId={rev.id} widthMm={widthMm} zoom={zoom} label={`Panel ${panel.letter}, revision ${rev.number}`} />
       ) : (
         <div className="flex items-center justify-center border border-dashed border-rule text-xs text-muted" style={{ height: 40 * PX_PER_MM * zoom }}>
           {rev ? "loading…" : "no revision yet — open the panel to build it"}

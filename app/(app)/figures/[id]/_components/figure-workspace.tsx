@@ -84,7 +84,7 @@ export function FigureWorkspace({ initial, members, manuscriptTitle }: { initial
             />
           </Side>
           <Side title="Export">
-            <ExportLinks figureId={figure.id} signedOff={figure.reviewState === "signed_off"} />
+            <ExportLinks figure={figure} />
           </Side>
           <Side title="Trace">
             <p className="text-sm">Raw file → analysis → revision, with every hash.</p>
