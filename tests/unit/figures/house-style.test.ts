@@ -66,7 +66,8 @@ describe("house style", () => {
 describe("house style on screen", () => {
   it("names the font with same-metric fallbacks for the browser preview, the bare family for the server", () => {
     const style = { ...DEFAULT_HOUSE_STYLE, font: "Arimo" as const };
-    expect(applyHouseStyle({ mark: "point" }, style, { browser: true }).config).toMatchObject({ font: "Arimo, Arial, Helvetica, sans-serif" });
-    expect(applyHouseStyle({ mark: "point" }, style).config).toMatchObject({ font: "Arimo" });
+    const point: { mark: string; config?: unknown } = { mark: "point" };
+    expect(applyHouseStyle(point, style, { browser: true }).config).toMatchObject({ font: "Arimo, Arial, Helvetica, sans-serif" });
+    expect(applyHouseStyle(point, style).config).toMatchObject({ font: "Arimo" });
   });
 });
