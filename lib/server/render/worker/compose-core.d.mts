@@ -20,6 +20,8 @@ export interface FigureLayout {
   letterFont?: string;
   letterPt?: number;
   letterWeight?: "bold" | "normal";
+  /** Line up the plotting areas: left edges down a column, top and bottom edges along a row (default true). */
+  alignAxes?: boolean;
 }
 
 export interface ComposedFigure {
@@ -34,3 +36,10 @@ export interface ComposedFigure {
 export declare function composeFigureCore(panels: PanelSvg[], layout: FigureLayout, widthMm: number): ComposedFigure;
 export declare function cellWidthMm(widthMm: number, columns: number, span?: number, gapMm?: number): number;
 export declare function prefixIds(svg: string, prefix: string): string;
+
+export interface GridCell {
+  row: number;
+  col: number;
+  span: number;
+}
+export declare function gridPlacement(panels: Array<{ span?: number }>, columns: number): GridCell[];

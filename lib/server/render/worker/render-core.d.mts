@@ -20,15 +20,31 @@ export interface RenderedSvg {
   heightMm: number;
   /** Vega-Lite and Vega warnings, deduplicated. */
   warnings: string[];
+  /** Distance of the plotting area from each edge of the drawing, pt; null when it has none. */
+  plot: PlotMargins | null;
 }
 
-export declare function renderSpecToSvgCore(spec: unknown, data: BoundData, size: PhysicalSize): Promise<RenderedSvg>;
+export interface PlotMargins {
+  left: number;
+  top: number;
+  right: number;
+  bottom: number;
+}
+
+/** Room added to the spec's padding, pt (moves the plotting area in). */
+export interface ExtraPadding {
+  left?: number;
+  top?: number;
+  bottom?: number;
+}
+
+export declare function renderSpecToSvgCore(spec: unknown, data: BoundData, size: PhysicalSize, extraPadding?: ExtraPadding): Promise<RenderedSvg>;
 
 export declare function renderOnce(
   vlSpec: unknown,
   data: BoundData,
   sinks?: { warnings?: string[]; refusals?: string[] },
-): Promise<{ svg: string; width: number; height: number; warnings: string[] }>;
+): Promise<{ svg: string; width: number; height: number; warnings: string[]; plot: PlotMargins | null }>;
 
 export declare function boundDataNames(vlSpec: unknown): string[];
 export declare function refusingLoader(refusals: string[]): unknown;

@@ -106,6 +106,26 @@ function withPrintConfig(spec) {
   return { ...spec, config: { aria: false, ...config, font: FONTS.has(config.font) ? config.font : "Inter" } };
 }
 
+/** Vega-Lite's padding when neither the spec nor its config sets one, pt. */
+const DEFAULT_PADDING = 5;
+
+/**
+ * Adds room on the left, top or bottom (pt) to the spec's padding, which moves the plotting area
+ * in by that much (used to line up axes across a figure's panels).
+ */
+function withExtraPadding(spec, extra) {
+  if (!extra || !(extra.left || extra.top || extra.bottom)) return spec;
+  const own = spec.padding ?? spec.config?.padding ?? DEFAULT_PADDING;
+  const side = (k) => (typeof own === "number" ? own : Number.isFinite(own?.[k]) ? own[k] : DEFAULT_PADDING);
+  const padding = {
+    left: side("left") + (extra.left ?? 0),
+    top: side("top") + (extra.top ?? 0),
+    right: side("right"),
+    bottom: side("bottom") + (extra.bottom ?? 0),
+  };
+  return { ...spec, padding };
+}
+
 /** Names the Vega-Lite spec reads from bound data: `{ "name": … }` sources not defined in `datasets`. */
 export function boundDataNames(vlSpec) {
   const out = new Set();
@@ -151,7 +171,7 @@ export async function renderOnce(vlSpec, data, { warnings = [], refusals = [] } 
     const svg = normaliseIds(await view.toSVG());
     if (refusals.length) throw refused(refusals);
     const size = rootSize(svg);
-    return { svg, width: size.width, height: size.height, warnings };
+    return { svg, width: size.width, height: size.height, warnings, plot: plotMargins(view, size) };
   } catch (err) {
     if (err instanceof RenderError) throw err;
     if (refusals.length) throw refused(refusals);
@@ -159,6 +179,40 @@ export async function renderOnce(vlSpec, data, { warnings = [], refusals = [] } 
   } finally {
     view?.finalize();
   }
+}
+
+/**
+ * Where the plotting area sits inside the rendered panel: its distance from each edge, pt. The
+ * plot is the union of the views' data rectangles (the root frame of a single view, each scope
+ * of a concat or facet), found in Vega's scenegraph. Null when there is none.
+ */
+function plotMargins(view, size) {
+  // The drawing is translated by the padding, then by the origin (room for axes and titles).
+  const [ox0, oy0] = view.origin();
+  const pad = view.padding();
+  const ox = ox0 + (pad?.left ?? 0);
+  const oy = oy0 + (pad?.top ?? 0);
+  let box = null;
+  const walk = (mark, x0, y0) => {
+    if (mark.marktype !== "group") return;
+    for (const item of mark.items ?? []) {
+      const x = x0 + (item.x ?? 0);
+      const y = y0 + (item.y ?? 0);
+      if ((mark.role === "frame" || mark.role === "scope") && item.width > 0 && item.height > 0) {
+        box = box
+          ? {
+              left: Math.min(box.left, x),
+              top: Math.min(box.top, y),
+              right: Math.max(box.right, x + item.width),
+              bottom: Math.max(box.bottom, y + item.height),
+            }
+          : { left: x, top: y, right: x + item.width, bottom: y + item.height };
+      }
+      for (const child of item.items ?? []) walk(child, x, y);
+    }
+  };
+  walk(view.scenegraph().root, ox, oy);
+  return box && { left: box.left, top: box.top, right: size.width - box.right, bottom: size.height - box.bottom };
 }
 
 function refused(refusals) {
@@ -214,13 +268,13 @@ function checkSize(widthMm, heightMm) {
  * facet, repeat) are resized by scaling their view sizes (up to three renders), and any
  * remaining difference is absorbed by the viewBox.
  */
-export async function renderSpecToSvgCore(spec, data, { widthMm, heightMm } = {}) {
+export async function renderSpecToSvgCore(spec, data, { widthMm, heightMm } = {}, extraPadding) {
   if (!spec || typeof spec !== "object" || Array.isArray(spec)) throw new RenderError("invalid-spec", "a spec must be a JSON object");
   checkSize(widthMm, heightMm);
   const targetW = widthMm * PT_PER_MM;
   const targetH = heightMm === undefined ? undefined : heightMm * PT_PER_MM;
   const warnings = [];
-  const base = withPrintConfig(spec);
+  const base = withExtraPadding(withPrintConfig(spec), extraPadding);
   let out;
   if (!COMPOSITE_KEYS.some((k) => k in spec)) {
     const sized = { ...base, width: targetW, autosize: { type: "fit", contains: "padding" } };
@@ -231,6 +285,7 @@ export async function renderSpecToSvgCore(spec, data, { widthMm, heightMm } = {}
   }
   const physicalHeightMm = heightMm ?? (out.height * widthMm) / out.width;
   return {
+    plot: out.plot,
     svg: setPhysicalSize(out.svg, out.width, out.height, widthMm, physicalHeightMm),
     widthPx: out.width,
     heightPx: out.height,

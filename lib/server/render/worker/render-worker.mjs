@@ -11,17 +11,36 @@
  * Messages out: { type: "ready" } once, then { id, ok: true, result } | { id, ok: false, error: { code, message } }
  */
 import { renderSpecToSvgCore } from "./render-core.mjs";
-import { cellWidthMm, composeFigureCore } from "./compose-core.mjs";
+import { alignmentPadding, isAligned } from "./align-core.mjs";
+import { cellWidthMm, composeFigureCore, gridPlacement } from "./compose-core.mjs";
 
 async function run(job) {
   if (job.kind === "panel") return renderSpecToSvgCore(job.spec, job.data, job.size);
   if (job.kind === "figure") {
     const columns = job.layout?.columns ?? 1;
-    const rendered = [];
-    for (const p of job.panels) {
+    const cells = gridPlacement(job.panels, columns);
+    const extra = job.panels.map(() => ({ left: 0, top: 0, bottom: 0 }));
+    const renderPanel = async (i) => {
+      const p = job.panels[i];
       const widthMm = cellWidthMm(job.widthMm, columns, p.span ?? 1, job.layout?.gapMm);
-      const r = await renderSpecToSvgCore(p.spec, p.data, { widthMm, heightMm: p.heightMm });
-      rendered.push({ letter: p.letter, span: p.span, svg: r.svg, widthPx: r.widthPx, heightPx: r.heightPx, warnings: r.warnings });
+      const r = await renderSpecToSvgCore(p.spec, p.data, { widthMm, heightMm: p.heightMm }, extra[i]);
+      return { letter: p.letter, span: p.span, svg: r.svg, widthPx: r.widthPx, heightPx: r.heightPx, warnings: r.warnings, plot: r.plot };
+    };
+    const rendered = [];
+    for (let i = 0; i < job.panels.length; i++) rendered.push(await renderPanel(i));
+    // Line the axes up: grow the margins that are short, re-render those panels (tick labels can
+    // change with the plot's size, hence a few passes).
+    for (let pass = 0; job.layout?.alignAxes !== false && pass < 3; pass++) {
+      const shift = alignmentPadding(
+        rendered.map((r) => ({ plot: r.plot, height: r.heightPx })),
+        cells,
+      );
+      if (isAligned(shift)) break;
+      for (let i = 0; i < rendered.length; i++) {
+        if (isAligned([shift[i]])) continue;
+        for (const k of ["left", "top", "bottom"]) extra[i][k] += shift[i][k];
+        rendered[i] = await renderPanel(i);
+      }
     }
     const figure = composeFigureCore(rendered, job.layout, job.widthMm);
     return { ...figure, warnings: rendered.flatMap((r) => r.warnings.map((w) => `${r.letter}: ${w}`)) };
