@@ -7,6 +7,7 @@ import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schem
 import { houseStyleSchema } from "@/lib/figures/house-style";
 import { analysisInput, calculatorInput, statisticsQuery } from "@/lib/server/analyses/schemas";
 import { exportQuery } from "@/lib/server/export/export-figure";
+import { traceQuery } from "@/lib/server/figures/trace";
 import { thumbnailQuery } from "@/lib/server/export/thumbnails";
 import { decisionInput, editCommentInput, newThreadInput, replyInput, resolveInput, signoffInput } from "@/lib/server/review/schemas";
 import { threadFollowInput } from "@/lib/server/review/thread-follows";
@@ -248,7 +249,14 @@ export const API_OPERATIONS: ApiOperation[] = [
     query: exportQuery,
     success: 200,
   },
-  { method: "GET", path: "/api/figures/{id}/trace", permission: "manuscript.read", summary: "Provenance chain with every hash", success: 200 },
+  {
+    method: "GET",
+    path: "/api/figures/{id}/trace",
+    permission: "manuscript.read",
+    summary: "Provenance chain with every hash, review decisions, sign-offs and exports; format=prov gives W3C PROV-JSON",
+    query: traceQuery,
+    success: 200,
+  },
   {
     method: "GET",
     path: "/api/figures/{id}/thumbnail",

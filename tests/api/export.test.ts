@@ -173,15 +173,15 @@ describe("figure exports", () => {
     expect(strFromU8(files["README.txt"]!)).toMatch(/Figure hash: [0-9a-f]{64}/);
   });
 
-  it("the bundle is an RO-Crate naming every file by hash and each analysis as a CreateAction", async () => {
+  it("the bundle is an RO-Crate 1.2 naming every file by hash and each analysis as a CreateAction", async () => {
     const files = unzipSync((await download(`/x?format=bundle`, "reviewer")).bytes);
     const crate = JSON.parse(strFromU8(files["ro-crate-metadata.json"]!));
-    expect(crate["@context"]).toBe("https://w3id.org/ro/crate/1.1/context");
+    expect(crate["@context"]).toBe("https://w3id.org/ro/crate/1.2/context");
     const graph: any[] = crate["@graph"];
     const rawFile = graph.find((e) => e["@type"] === "File" && String(e["@id"]).startsWith("raw/"));
     expect(files[rawFile["@id"]]).toBeTruthy();
     expect(rawFile.sha256).toBe(createHash("sha256").update(files[rawFile["@id"]]!).digest("hex")); // the bytes in the bundle
-    expect(graph.find((e) => e["@type"] === "CreateAction")).toMatchObject({ name: "hahn_echo fit" });
+    expect(graph.find((e) => e["@type"] === "CreateAction")).toMatchObject({ name: "hahn_echo fit of echo_K17-NV01.csv, version 1" });
     for (const f of ["figure.svg", "figure.pdf", "trace.json", "specs/panel-a.vl.json"]) expect(files[f], f).toBeTruthy();
   });
 

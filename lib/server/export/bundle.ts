@@ -1,100 +1,306 @@
 import "server-only";
 import fs from "node:fs/promises";
+import { inArray } from "drizzle-orm";
 import { strToU8 } from "fflate";
+import { getDb } from "@/db/client";
+import { analyses } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
+import { canonicalJson } from "@/lib/figures/canonical-spec";
 import { sha256Hex } from "../crypto";
-import { blobPath } from "../storage/blob-store";
-import { traceFigure } from "../figures/trace";
+import { getRevision } from "../figures/revisions";
+import { traceFigure, type FigureTrace } from "../figures/trace";
+import { svgToPdf } from "../render/to-pdf";
+import { printPng } from "../render/to-print-raster";
 import type { FigureReview } from "../review/review-context";
+import { blobPath } from "../storage/blob-store";
+import { DRAFT_MARK_TEXT } from "./draft-mark";
+import { fitReportText, type StoredFit } from "./fit-report";
+import { traceToProv, type RenderedFile } from "./prov";
+import { SOFTWARE } from "./software";
 import { sourceDataFiles } from "./source-data";
 
-type Trace = Awaited<ReturnType<typeof traceFigure>>;
-interface VersionRef {
-  versionId: string;
-  sha256: string;
-  fileName: string;
-  byteSize: number;
-  dataset: string;
-  number: number;
-}
+/** RO-Crate 1.2 (https://w3id.org/ro/crate/1.2): the JSON-LD context and the version the metadata conforms to. */
+export const RO_CRATE_CONTEXT = "https://w3id.org/ro/crate/1.2/context";
+export const RO_CRATE_CONFORMS_TO = "https://w3id.org/ro/crate/1.2";
+
+type Entity = Record<string, unknown> & { "@id": string; "@type": string };
+type Version = Extract<FigureTrace["panels"][number]["inputs"][number], { kind: "version" }>["version"];
+const ref = (id: string) => ({ "@id": id });
+const iso = (d: Date | string) => new Date(d).toISOString();
 
 /**
- * The reproducibility bundle as an RO-Crate (ro-crate-metadata.json, RO-Crate 1.1): the rendered
- * figure, every raw and derived file by hash, the specs, the source data and the trace, with each
- * analysis described as a CreateAction (W3C PROV-style: instrument = model, object = input, result = derived).
+ * The reproducibility bundle as an RO-Crate 1.2 (ro-crate-metadata.json): the figure drawn as SVG, PDF and
+ * 300 dpi PNG; every raw and derived file by hash; each panel's Vega-Lite spec and bindings; a report of
+ * each fit (JSON and text); the source data; the trace as JSON and as W3C PROV-JSON (prov.json). Every
+ * file carries contentSize, encodingFormat and sha256. Each fit, revision save and the drawing are
+ * CreateActions (instrument: the software and model at their versions; object: inputs; result: outputs;
+ * agent: a Person by name); review decisions are AssessActions, sign-offs EndorseActions.
+ *
+ * Deterministic: the same figure, drawn for the same person, gives the same files. Nothing in it reads
+ * the clock: dates are those of the recorded events, and the PDF's creation date is the moment the
+ * figure last changed. Paths come back sorted, so the zip lists them in one order.
  */
 export async function bundleFiles(user: SessionUser, review: FigureReview, rendered: { svg: string; pdf: Uint8Array }): Promise<Record<string, Uint8Array>> {
-  const trace: Trace = await traceFigure(user, review.figure.id);
-  const files: Record<string, Uint8Array> = {};
-  const entities: Array<Record<string, unknown>> = [];
-  const addFile = (path: string, bytes: Uint8Array, props: Record<string, unknown>) => {
-    files[path] = bytes;
-    entities.push({ "@id": path, "@type": "File", contentSize: String(bytes.byteLength), sha256: sha256Hex(bytes), ...props });
+  const trace = await traceFigure(user, review.figure.id, { exports: false });
+  const changedAt = lastChange(trace);
+  const files = new Map<string, Uint8Array>();
+  const entities = new Map<string, Entity>();
+  const put = (e: Entity) => {
+    if (!entities.has(e["@id"])) entities.set(e["@id"], e);
+    return ref(e["@id"]);
   };
-  addFile("figure.svg", strToU8(rendered.svg), { name: `Figure ${review.figure.number}`, encodingFormat: "image/svg+xml" });
-  addFile("figure.pdf", rendered.pdf, { name: `Figure ${review.figure.number} (PDF)`, encodingFormat: "application/pdf" });
-  const seen = new Set<string>();
-  const addVersion = async (v: VersionRef, folder: string) => {
-    const path = `${folder}/${v.sha256.slice(0, 12)}-${v.fileName.replace(/[^\w.-]+/g, "_")}`;
-    if (seen.has(path)) return path;
-    seen.add(path);
-    addFile(path, new Uint8Array(await fs.readFile(blobPath(v.sha256))), {
-      name: `${v.dataset}, version ${v.number}`,
-      encodingFormat: "text/plain",
-      identifier: v.versionId,
+  const addFile = (path: string, bytes: Uint8Array, encodingFormat: string, props: Record<string, unknown> = {}) => {
+    files.set(path, bytes);
+    return put({
+      "@id": path,
+      "@type": "File",
+      name: path.split("/").pop()!,
+      contentSize: String(bytes.byteLength),
+      encodingFormat,
+      sha256: sha256Hex(bytes),
+      ...props,
     });
-    return path;
   };
+  const personRef = (p: { id: string; name: string }) => put({ "@id": `#person-${p.id}`, "@type": "Person", name: p.name });
+  const prooflight = put({ "@id": "#prooflight", "@type": "SoftwareApplication", name: SOFTWARE.prooflight.name, version: SOFTWARE.prooflight.version });
+  const vega = put({ "@id": "#vega", "@type": "SoftwareApplication", name: SOFTWARE.vega.name, version: SOFTWARE.vega.version });
+  const vegaLite = put({ "@id": "#vega-lite", "@type": "SoftwareApplication", name: SOFTWARE.vegaLite.name, version: SOFTWARE.vegaLite.version });
+
+  const versionFile = async (v: Version) => {
+    const folder = v.derivedFromAnalysisId ? "derived" : "raw";
+    const path = `${folder}/${v.sha256.slice(0, 12)}-${v.fileName.replace(/[^\w.-]+/g, "_")}`;
+    if (files.has(path)) return ref(path);
+    return addFile(path, new Uint8Array(await fs.readFile(blobPath(v.sha256))), mediaTypeOf(v.fileName), {
+      name: `${v.dataset}, version ${v.number}`,
+      identifier: v.versionId,
+      dateCreated: iso(v.createdAt),
+      ...(v.derivedFromAnalysisId ? {} : { author: personRef(v.createdBy) }),
+    });
+  };
+
+  // Fits: the stored runs, for their reports.
+  const analysisIds = trace.panels.flatMap((p) => p.inputs.flatMap((i) => (i.kind === "analysis" ? [i.analysis.id] : [])));
+  const runs = new Map(
+    (analysisIds.length
+      ? await getDb()
+          .select()
+          .from(analyses)
+          .where(inArray(analyses.id, [...new Set(analysisIds)]))
+      : []
+    ).map((a) => [a.id, a]),
+  );
+
+  const specRefs: Array<{ "@id": string }> = [];
+  const dataRefs = new Map<string, { "@id": string }>();
   for (const p of trace.panels) {
     if (!p.revision) continue;
-    const specPath = `specs/panel-${p.letter}.vl.json`;
-    addFile(specPath, strToU8(JSON.stringify({ revision: p.revision, inputs: p.inputs }, null, 2)), {
-      name: `Panel ${p.letter} revision ${p.revision.number}`,
-      encodingFormat: "application/json",
+    const rev = await getRevision(user, p.revision.id);
+    const spec = addFile(`specs/panel-${p.letter}.vl.json`, strToU8(canonicalJson(rev.spec)), "application/json", {
+      name: `Vega-Lite spec of panel ${p.letter}, revision ${p.revision.number}`,
+      conformsTo: ref("https://vega.github.io/schema/vega-lite/v6.json"),
     });
+    const bindings = addFile(
+      `specs/panel-${p.letter}.bindings.json`,
+      strToU8(JSON.stringify({ panel: p.letter, revision: p.revision, bound: rev.bound }, null, 2) + "\n"),
+      "application/json",
+      { name: `Data bound to panel ${p.letter}, revision ${p.revision.number}` },
+    );
+    specRefs.push(spec, bindings);
+    const inputs = [];
     for (const input of p.inputs) {
       if (input.kind === "version") {
-        await addVersion(input.version, "raw");
+        const f = await versionFile(input.version);
+        dataRefs.set(f["@id"], f);
+        inputs.push(f);
         continue;
       }
-      const raw = await addVersion(input.input, "raw");
-      const derived = await addVersion(input.derived, "derived");
-      entities.push({
-        "@id": `#analysis-${input.analysis.id}`,
-        "@type": "CreateAction",
-        name: `${input.analysis.model} fit`,
-        instrument: { "@id": `#model-${input.analysis.model}` },
-        object: [{ "@id": raw }],
-        result: [{ "@id": derived }],
-        startTime: new Date(input.analysis.createdAt).toISOString(),
-        description: JSON.stringify(input.analysis.options),
+      const a = input.analysis;
+      const source = await versionFile(input.input);
+      const out = await versionFile(input.derived);
+      dataRefs.set(out["@id"], out);
+      inputs.push(out);
+      if (entities.has(`#fit-${a.id}`)) continue;
+      const run = runs.get(a.id)!;
+      const stored: StoredFit = { ...a, createdBy: a.createdBy, input: input.input, derived: input.derived, result: run.result };
+      const base = `fits/${a.model}-${a.id}`;
+      const reportJson = addFile(`${base}.json`, strToU8(JSON.stringify(stored, null, 2) + "\n"), "application/json", {
+        name: `Report of the ${a.model} fit (JSON)`,
       });
-      entities.push({
-        "@id": `#model-${input.analysis.model}`,
+      const reportText = addFile(`${base}.txt`, strToU8(fitReportText(stored)), "text/plain", { name: `Report of the ${a.model} fit` });
+      const model = put({
+        "@id": `#model-${a.model}-${a.modelVersion}`,
         "@type": "SoftwareApplication",
-        name: `Prooflight model ${input.analysis.model}`,
-        version: input.analysis.modelVersion,
+        name: `${a.model} fit model`,
+        identifier: a.model,
+        version: a.modelVersion,
+        isPartOf: prooflight,
+      });
+      put({
+        "@id": `#fit-${a.id}`,
+        "@type": "CreateAction",
+        name: `${a.model} fit of ${input.input.dataset}, version ${input.input.number}`,
+        instrument: [model, prooflight],
+        object: [source],
+        result: [out, reportJson, reportText],
+        agent: personRef(a.createdBy),
+        endTime: iso(a.createdAt),
+        description: `Options: ${JSON.stringify(a.options)}`,
       });
     }
+    put({
+      "@id": `#revision-${p.revision.id}`,
+      "@type": "CreativeWork",
+      name: `Panel ${p.letter}, revision ${p.revision.number}`,
+      identifier: p.revision.contentHash,
+      hasPart: [spec, bindings],
+    });
+    put({
+      "@id": `#save-${p.revision.id}`,
+      "@type": "CreateAction",
+      name: `Panel ${p.letter}, revision ${p.revision.number} saved`,
+      instrument: [prooflight],
+      object: inputs,
+      result: [spec, bindings],
+      agent: personRef({ id: p.revision.createdBy, name: p.revision.createdByName }),
+      endTime: iso(p.revision.createdAt),
+      ...(p.revision.message ? { description: p.revision.message } : {}),
+    });
   }
-  for (const [name, bytes] of Object.entries(await sourceDataFiles(review)))
-    addFile(`source-data/${name}`, bytes, { encodingFormat: name.endsWith(".csv") ? "text/csv" : "text/plain" });
-  addFile("trace.json", strToU8(JSON.stringify(trace, null, 2)), { name: "Provenance trace", encodingFormat: "application/json" });
+
+  // The figure drawn for the bundle; the PDF again with a fixed creation date so the bytes repeat.
+  const signedOff = review.state === "signed_off";
+  const status = signedOff ? "Signed off on this figure hash" : DRAFT_MARK_TEXT;
+  const title = `Figure ${review.figure.number}: ${review.figure.title}`;
+  const pdf = new Uint8Array(await svgToPdf(rendered.svg, { title, subject: `${status}; figure hash ${review.figureHash}`, creationDate: changedAt }));
+  const png = (await printPng(rendered.svg, { dpi: 300, colour: "rgb", description: `${status}; figure hash ${review.figureHash}` })).bytes;
+  const drawn: Array<[string, Uint8Array, string]> = [
+    ["figure.svg", strToU8(rendered.svg), "image/svg+xml"],
+    ["figure.pdf", pdf, "application/pdf"],
+    ["figure.png", png, "image/png"],
+  ];
+  const renderedFiles: RenderedFile[] = drawn.map(([path, bytes, encodingFormat]) => ({
+    path,
+    sha256: sha256Hex(bytes),
+    encodingFormat,
+    byteSize: bytes.byteLength,
+  }));
+  const drawnRefs = drawn.map(([path, bytes, type]) => addFile(path, bytes, type, { name: `${title} (${path.split(".").pop()!.toUpperCase()})` }));
+  const sourceRefs = Object.entries(await sourceDataFiles(review)).map(([name, bytes]) =>
+    addFile(`source-data/${name}`, bytes, name.endsWith(".csv") ? "text/csv" : "text/plain"),
+  );
+  put({
+    "@id": "#render",
+    "@type": "CreateAction",
+    name: `${title}, drawn for this bundle`,
+    instrument: [prooflight, vega, vegaLite],
+    object: [...specRefs, ...dataRefs.values()],
+    result: [...drawnRefs, ...sourceRefs],
+    agent: personRef(user),
+  });
+  const figureEntity = (hash: string) =>
+    put({
+      "@id": `#figure-${hash}`,
+      "@type": "CreativeWork",
+      name: `Figure ${review.figure.number} at hash ${hash.slice(0, 12)}${hash === review.figureHash ? "" : " (an earlier state)"}`,
+      identifier: hash,
+    });
+  figureEntity(review.figureHash);
+
+  for (const d of trace.decisions) {
+    const revision = put({
+      "@id": `#revision-${d.revisionId}`,
+      "@type": "CreativeWork",
+      name: `Panel ${d.panelLetter}, revision ${d.revisionNumber ?? "?"}`,
+      identifier: d.contentHash,
+    });
+    put({
+      "@id": `#decision-${d.id}`,
+      "@type": "AssessAction",
+      name: `Panel ${d.panelLetter}, revision ${d.revisionNumber ?? "?"}: ${d.decision === "approved" ? "approved" : "needs revision"}${d.stale ? " (stale)" : ""}`,
+      object: revision,
+      agent: personRef(d.by),
+      endTime: iso(d.createdAt),
+      ...(d.note ? { description: d.note } : {}),
+    });
+  }
+  for (const s of trace.signoffs) {
+    put({
+      "@id": `#signoff-${s.id}`,
+      "@type": "EndorseAction",
+      name: `Figure ${review.figure.number} signed off${s.withdrawn ? " (withdrawn)" : s.stale ? " (stale)" : ""}`,
+      object: figureEntity(s.figureHash),
+      agent: personRef(s.by),
+      endTime: iso(s.createdAt),
+      ...(s.reason ? { description: s.reason } : {}),
+    });
+    if (s.withdrawn)
+      put({
+        "@id": `#signoff-${s.id}-withdrawn`,
+        "@type": "AssessAction",
+        name: `Sign-off of Figure ${review.figure.number} withdrawn`,
+        object: ref(`#signoff-${s.id}`),
+        agent: personRef(s.withdrawn.by),
+        endTime: iso(s.withdrawn.at),
+        ...(s.withdrawn.reason ? { description: s.withdrawn.reason } : {}),
+      });
+  }
+
+  const { exports: _leftOut, ...bundleTrace } = trace;
+  addFile("trace.json", strToU8(JSON.stringify(bundleTrace, null, 2) + "\n"), "application/json", { name: "Trace: raw file → analysis → revision → figure" });
+  const prov = traceToProv(trace, { rendered: { files: renderedFiles, by: user } });
+  addFile("prov.json", strToU8(JSON.stringify(prov, null, 2) + "\n"), "application/json", {
+    name: "Trace as W3C PROV-JSON",
+    conformsTo: ref("https://www.w3.org/submissions/prov-json/"),
+  });
+
+  const fileIds = [...files.keys()].sort();
   const crate = {
-    "@context": "https://w3id.org/ro/crate/1.1/context",
+    "@context": RO_CRATE_CONTEXT,
     "@graph": [
-      { "@id": "ro-crate-metadata.json", "@type": "CreativeWork", conformsTo: { "@id": "https://w3id.org/ro/crate/1.1" }, about: { "@id": "./" } },
+      { "@id": "ro-crate-metadata.json", "@type": "CreativeWork", conformsTo: ref(RO_CRATE_CONFORMS_TO), about: ref("./") },
       {
         "@id": "./",
         "@type": "Dataset",
-        name: `Figure ${review.figure.number}: ${review.figure.title}`,
-        datePublished: new Date().toISOString(),
+        name: title,
+        description: `Reproducibility bundle of Figure ${review.figure.number} (${review.figure.title}) at figure hash ${review.figureHash}: the raw and derived data by hash, the specs, fit reports, the drawn figure, its source data and its provenance.`,
+        datePublished: iso(changedAt),
         identifier: review.figureHash,
-        hasPart: entities.filter((e) => e["@type"] === "File").map((e) => ({ "@id": e["@id"] })),
+        license: "Not stated by the application: ask the manuscript's PI how these files may be reused.",
+        hasPart: fileIds.map(ref),
       },
-      ...entities,
+      ...fileIds.map((id) => entities.get(id)!),
+      ...[...entities.values()].filter((e) => e["@type"] !== "File"),
     ],
   };
-  files["ro-crate-metadata.json"] = strToU8(JSON.stringify(crate, null, 2));
-  return files;
+  files.set("ro-crate-metadata.json", strToU8(JSON.stringify(crate, null, 2) + "\n"));
+  return Object.fromEntries([...files.entries()].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)));
+}
+
+/** The latest recorded event of the figure's trace: the bundle's publication date and the PDF's creation date. */
+function lastChange(trace: FigureTrace): Date {
+  const times: Array<Date | string> = [];
+  for (const p of trace.panels) {
+    if (p.revision) times.push(p.revision.createdAt);
+    for (const i of p.inputs) {
+      if (i.kind === "version") times.push(i.version.createdAt);
+      else times.push(i.analysis.createdAt, i.input.createdAt, i.derived.createdAt);
+    }
+  }
+  for (const d of trace.decisions) times.push(d.createdAt);
+  for (const s of trace.signoffs) times.push(s.createdAt, ...(s.withdrawn ? [s.withdrawn.at] : []));
+  return new Date(Math.max(0, ...times.map((t) => new Date(t).getTime())));
+}
+
+/** IANA media types of the files people upload (by extension); anything else is application/octet-stream. */
+function mediaTypeOf(fileName: string): string {
+  const ext = /\.([^.]+)$/.exec(fileName.toLowerCase())?.[1] ?? "";
+  const known: Record<string, string> = {
+    csv: "text/csv",
+    tsv: "text/tab-separated-values",
+    txt: "text/plain",
+    dat: "text/plain",
+    asc: "text/plain",
+    json: "application/json",
+  };
+  return known[ext] ?? "application/octet-stream";
 }
