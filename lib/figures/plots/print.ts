@@ -45,9 +45,24 @@ export interface PrintSettings {
   labelPt: number;
   /** Axis and legend titles, pt. */
   titlePt: number;
+  /** Tick numbers of the x and y axes: "plain" (the journal default) or a d3-format specifier from TICK_FORMATS. */
+  xFormat?: string;
+  yFormat?: string;
 }
 
-const DEFAULT_PRINT: PrintSettings = { widthMm: 89, heightMm: 62, labelPt: 7, titlePt: 8 };
+const DEFAULT_PRINT: PrintSettings = { widthMm: 89, heightMm: 62, labelPt: 7, titlePt: 8, xFormat: "plain", yFormat: "plain" };
+
+/** Tick-number styles (d3-format specifiers); "plain" keeps the config's numberFormat: no thousands separators, precision from the tick step. */
+export const TICK_FORMATS = [
+  { value: "plain", label: "plain (2700, 0.25)" },
+  { value: ".0f", label: "whole numbers (2700)" },
+  { value: ".1f", label: "one decimal (2700.0)" },
+  { value: ".2f", label: "two decimals (0.25)" },
+  { value: ".3f", label: "three decimals (0.250)" },
+  { value: ".0e", label: "powers of ten (3e+3)" },
+  { value: ".1e", label: "scientific, one decimal (2.7e+3)" },
+];
+const tickFormat = (f: string | undefined) => (f && f !== "plain" && TICK_FORMATS.some((t) => t.value === f) ? { format: f } : null);
 
 export type ScaleKind = "linear" | "log" | "symlog";
 export const SCALE_CHOICES = [
@@ -120,6 +135,8 @@ function printConfig(p: PrintSettings): Spec {
       padding: 0,
       rowPadding: 2,
     },
+    ...(tickFormat(p.xFormat) ? { axisX: tickFormat(p.xFormat) } : {}),
+    ...(tickFormat(p.yFormat) ? { axisY: tickFormat(p.yFormat) } : {}),
     header: { labelFont: "Inter", titleFont: "Inter", labelFontSize: p.labelPt, titleFontSize: p.titlePt },
     title: { font: "Inter", fontSize: p.titlePt, fontWeight: "bold", anchor: "start" },
     text: { font: "Inter", fontSize: p.labelPt },

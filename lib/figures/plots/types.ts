@@ -1,6 +1,6 @@
 /** What a builder template tells the UI about itself: enough to draw its options as a form. */
 import type { TopLevelSpec } from "vega-lite";
-import type { PrintSettings } from "./print";
+import { TICK_FORMATS, type PrintSettings } from "./print";
 
 interface FieldBase {
   key: string;
@@ -67,4 +67,6 @@ export const PRINT_OPTION_FIELDS: TemplateOptionField[] = [
   { key: "print.heightMm", label: "Height", kind: "number", default: 62, min: 15, max: 250, unit: "mm" },
   { key: "print.labelPt", label: "Label size", kind: "number", default: 7, min: 5, max: 12, unit: "pt" },
   { key: "print.titlePt", label: "Title size", kind: "number", default: 8, min: 5, max: 14, unit: "pt" },
+  { key: "print.xFormat", label: "x tick numbers", kind: "select", choices: TICK_FORMATS, default: "plain" },
+  { key: "print.yFormat", label: "y tick numbers", kind: "select", choices: TICK_FORMATS, default: "plain" },
 ];

@@ -27,7 +27,14 @@ describe("builder templates", () => {
       expect(t.options.some((o) => o.kind === "data-name" && o.required)).toBe(true);
       for (const o of t.options) if (o.kind === "column") expect(keys).toContain(o.dataKey);
     }
-    expect(PRINT_OPTION_FIELDS.map((f) => f.key)).toEqual(["print.widthMm", "print.heightMm", "print.labelPt", "print.titlePt"]);
+    expect(PRINT_OPTION_FIELDS.map((f) => f.key)).toEqual([
+      "print.widthMm",
+      "print.heightMm",
+      "print.labelPt",
+      "print.titlePt",
+      "print.xFormat",
+      "print.yFormat",
+    ]);
   });
 
   it("produce Vega-Lite v6 with Inter at 7 pt labels and 8 pt titles and the Okabe–Ito palette", () => {
@@ -43,6 +50,17 @@ describe("builder templates", () => {
       expect(spec.config.range.category).toEqual(["#0072B2", "#D55E00", "#009E73", "#E69F00", "#CC79A7", "#56B4E9", "#000000", "#F0E442"]);
     }
     expect(build("scatter-line", { print: { labelPt: 6, titlePt: 7 } }).config.axis).toMatchObject({ labelFontSize: 6, titleFontSize: 7 });
+  });
+
+  it("set tick numbers per axis: plain by default (numberFormat ~f, no thousands separators), a chosen d3 format otherwise", () => {
+    const plain = build("scatter-line", {});
+    expect(plain.config.numberFormat).toBe("~f");
+    expect(plain.config.axisX).toBeUndefined();
+    expect(plain.config.axisY).toBeUndefined();
+    const chosen = build("decay-curve", { print: { xFormat: ".0e", yFormat: ".2f" } });
+    expect(chosen.config.axisX).toEqual({ format: ".0e" });
+    expect(chosen.config.axisY).toEqual({ format: ".2f" });
+    expect(build("scatter-line", { print: { yFormat: "$,.2f" } }).config.axisY).toBeUndefined(); // not one of the offered styles
   });
 
   it("size single views to the printed size in pt", () => {

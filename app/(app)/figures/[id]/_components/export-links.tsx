@@ -2,7 +2,7 @@
 import Link from "next/link";
 import { useState } from "react";
 import type { FigureView } from "@/components/figures/api";
-import { Select } from "@/components/ui";
+import { Field, Select } from "@/components/ui";
 import { describeHouseStyle } from "@/lib/figures/house-style";
 
 const VECTOR = [
@@ -54,9 +54,8 @@ export function ExportLinks({ figure }: { figure: FigureView }) {
       </ul>
       <fieldset className="mt-3 space-y-2 border-t border-rule pt-2 text-sm">
         <legend className="sr-only">Raster files</legend>
-        <div className="grid grid-cols-2 gap-2">
-          <label className="text-xs">
-            Resolution
+        <div className="grid grid-cols-1 gap-2">
+          <Field label="Resolution">
             <Select value={dpi} onChange={(e) => setDpi(e.target.value)}>
               {DPI.map((d) => (
                 <option key={d.value} value={d.value}>
@@ -64,14 +63,13 @@ export function ExportLinks({ figure }: { figure: FigureView }) {
                 </option>
               ))}
             </Select>
-          </label>
-          <label className="text-xs">
-            Colour
+          </Field>
+          <Field label="Colour">
             <Select value={colour} onChange={(e) => setColour(e.target.value)}>
               <option value="rgb">RGB</option>
               <option value="grey">Greyscale</option>
             </Select>
-          </label>
+          </Field>
         </div>
         <p className="flex gap-4">
           <a href={href(`format=png&${raster}`)} className="underline" download>
