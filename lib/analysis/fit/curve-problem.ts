@@ -1,7 +1,8 @@
 /**
  * Turns a curve model y = f(x; p), data with per-point σ and a set of fixed parameters into a
  * weighted least-squares problem over the free parameters: rᵢ = (f(xᵢ; p) − yᵢ)/σᵢ.
- * The Jacobian is the model's analytic one when it has it, otherwise central differences.
+ * The Jacobian is the model's analytic one when it has it, otherwise central differences with a
+ * step scaled by each parameter's typical size (see typicalSize).
  */
 import type { LeastSquaresProblem } from "./levenberg-marquardt";
 
@@ -30,8 +31,22 @@ export interface CurveProblem extends LeastSquaresProblem {
   expand(free: ArrayLike<number>): Float64Array;
 }
 
-/** Relative central-difference step ≈ ε^(1/3), balancing truncation and rounding error. */
+/** Central-difference step ≈ ε^(1/3) of the parameter's typical size, balancing truncation and rounding error. */
 const CENTRAL_STEP = 6.0554544523933395e-6;
+
+/**
+ * The size on which a parameter's effect is judged for the difference step: the smaller of |p|
+ * and the width of its bounds. A step relative to |p| alone is far too coarse for a parameter
+ * that sits far from zero: a line centre at 2801 MHz would be stepped by 0.017 MHz, a fair part of
+ * a 0.8 MHz line, while its bounds (the sweep) say it moves on a scale of tens of MHz at most.
+ * Unbounded parameters keep the relative step (1 at zero).
+ */
+export function typicalSize(value: number, lower: number, upper: number): number {
+  const width = upper - lower;
+  const size = Math.abs(value);
+  if (Number.isFinite(width) && width > 0) return size > 0 ? Math.min(size, width) : width;
+  return size > 0 ? size : 1;
+}
 
 export function buildCurveProblem(
   model: CurveFunction,
@@ -102,7 +117,7 @@ export function buildCurveProblem(
     for (let k = 0; k < n; k++) {
       const j = freeIndex[k];
       const value = p[j];
-      const h = CENTRAL_STEP * (value !== 0 ? Math.abs(value) : 1);
+      const h = CENTRAL_STEP * typicalSize(value, lower[k], upper[k]);
       let hi = value + h;
       let lo = value - h;
       // Stay inside the box: a model may be undefined beyond its bounds.
