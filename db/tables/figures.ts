@@ -14,6 +14,8 @@ export const figures = sqliteTable(
     widthMm: real("width_mm").notNull().default(183),
     maxHeightMm: real("max_height_mm").notNull().default(170),
     columns: integer("columns").notNull().default(2),
+    /** One y-axis title per row: later panels of a row whose y title repeats the first's leave it out when drawn. */
+    shareYTitles: integer("share_y_titles", { mode: "boolean" }).notNull().default(false),
     requiredReviewers: text("required_reviewers", { mode: "json" }).$type<string[]>().notNull().default([]),
     createdBy: text("created_by")
       .notNull()

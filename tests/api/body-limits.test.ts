@@ -259,7 +259,7 @@ describe("PATCH with nothing to change", () => {
   it("PATCH /api/figures/{id} with {} is a 400 naming the fields", async () => {
     const r = await call(figure.PATCH, { method: "PATCH", token: tokens.author, params: { id: figureId }, body: {} });
     expect(r.status).toBe(400);
-    expect(r.json.error.message).toBe("(body): name at least one of title, widthMm, maxHeightMm, columns, requiredReviewers to change.");
+    expect(r.json.error.message).toBe("(body): name at least one of title, widthMm, maxHeightMm, columns, shareYTitles, requiredReviewers to change.");
   });
 
   it("PATCH /api/datasets/{id} with {} is a 400 naming the fields", async () => {

@@ -16,6 +16,7 @@ import { call, setupTestApp, uploadForm, type Who } from "./harness";
 
 let tokens: Record<Who, string>;
 let figureId: string;
+let echoVersionId: string;
 const VL = "https://vega.github.io/schema/vega-lite/v6.json";
 
 async function download(path: string, who: Who = "viewer") {
@@ -32,6 +33,7 @@ beforeAll(async () => {
   const v = (
     await call(upload.POST, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm(echo.fileName, echo.content) })
   ).json;
+  echoVersionId = v.id;
   const fit = (
     await call(analyses.POST, {
       method: "POST",
@@ -285,5 +287,57 @@ describe("in the manuscript's house style", () => {
     expect(r.json.error.message).toContain("labelPt must be at least 5 pt");
     const now = await call(houseStyle.GET, { method: "GET", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID } });
     expect(now.json.style.labelPt).toBe(6);
+  });
+});
+
+describe("one y-axis title per row", () => {
+  it("draws a y title repeated across a row once when the figure shares them, on every panel when it does not", async () => {
+    const figure = (
+      await call(figuresRoute.POST, {
+        method: "POST",
+        token: tokens.author,
+        body: { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Shared titles", widthMm: 183, columns: 2 },
+      })
+    ).json;
+    for (const _ of [1, 2]) {
+      const panel = (await call(panelsRoute.POST, { method: "POST", token: tokens.author, params: { id: figure.id }, body: {} })).json;
+      const r = await call(revisions.POST, {
+        method: "POST",
+        token: tokens.author,
+        params: { id: panel.id },
+        body: {
+          baseRevisionId: null,
+          bindings: { echo: { versionId: echoVersionId } },
+          spec: {
+            $schema: VL,
+            width: 200,
+            height: 140,
+            data: { name: "echo" },
+            mark: "point",
+            encoding: { x: { field: "tau", type: "quantitative", title: "τ (µs)" }, y: { field: "signal", type: "quantitative", title: "echo amplitude" } },
+          },
+        },
+      });
+      expect(r.status).toBe(201);
+    }
+    const { GET } = await import("@/app/api/figures/[id]/export/route");
+    const svgOf = async () => {
+      const res = await GET(new Request(`http://localhost/x?format=svg&text=embedded`, { headers: { authorization: `Bearer ${tokens.viewer}` } }), {
+        params: Promise.resolve({ id: figure.id }),
+      });
+      return await res.text();
+    };
+    const count = (svg: string) => svg.split(">echo amplitude</text>").length - 1;
+    expect(count(await svgOf())).toBe(2);
+    const patch = await call((await import("@/app/api/figures/[id]/route")).PATCH, {
+      method: "PATCH",
+      token: tokens.author,
+      params: { id: figure.id },
+      body: { shareYTitles: true },
+    });
+    expect(patch.json.shareYTitles).toBe(true);
+    const shared = await svgOf();
+    expect(count(shared)).toBe(1);
+    expect(shared.split(">τ (µs)</text>").length - 1).toBe(2); // x titles stay on both
   });
 });

@@ -10,9 +10,10 @@ export const createFigureInput = z.object({
   widthMm: z.number().min(30, "widthMm must be at least 30 mm").max(300, "widthMm must be at most 300 mm").optional(),
   maxHeightMm: z.number().min(30).max(300).optional(),
   columns: z.number().int().min(1).max(6).optional(),
+  shareYTitles: z.boolean({ message: "shareYTitles must be true or false" }).optional(),
 });
 
-const FIGURE_FIELDS = ["title", "widthMm", "maxHeightMm", "columns", "requiredReviewers"] as const;
+const FIGURE_FIELDS = ["title", "widthMm", "maxHeightMm", "columns", "shareYTitles", "requiredReviewers"] as const;
 
 /** A PATCH must change something: an empty update would reach the database as `SET` with nothing to set. */
 export const updateFigureInput = createFigureInput

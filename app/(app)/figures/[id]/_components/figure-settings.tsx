@@ -16,6 +16,7 @@ export function FigureSettings({ figure, members, editable }: { figure: FigureVi
   const [maxHeight, setMaxHeight] = useState(String(figure.maxHeightMm));
   const [columns, setColumns] = useState(String(figure.columns));
   const [reviewers, setReviewers] = useState<string[]>(figure.requiredReviewers);
+  const [shareYTitles, setShareYTitles] = useState(figure.shareYTitles);
   const save = useMutation({
     mutationFn: (patch: Record<string, unknown>) => sendJson<FigureView>(`/api/figures/${figure.id}`, "PATCH", patch),
     onSuccess: (f) => qc.setQueryData(queryKeys.figure(figure.id), f),
@@ -32,6 +33,8 @@ export function FigureSettings({ figure, members, editable }: { figure: FigureVi
         <dd className="tabular">{figure.maxHeightMm} mm</dd>
         <dt className="text-muted">Columns</dt>
         <dd>{figure.columns}</dd>
+        <dt className="text-muted">Y-axis titles</dt>
+        <dd>{figure.shareYTitles ? "one per row" : "on every panel"}</dd>
         <dt className="text-muted">Reviewers</dt>
         <dd>{figure.requiredReviewers.length ? figure.requiredReviewers.map(name).join(", ") : "any one approval"}</dd>
       </dl>
@@ -41,7 +44,7 @@ export function FigureSettings({ figure, members, editable }: { figure: FigureVi
   function submit(e: FormEvent) {
     e.preventDefault();
     const widthMm = widthMmOf(preset, customMm);
-    save.mutate({ title, widthMm, maxHeightMm: Number(maxHeight), columns: Number(columns), requiredReviewers: reviewers });
+    save.mutate({ title, widthMm, maxHeightMm: Number(maxHeight), columns: Number(columns), shareYTitles, requiredReviewers: reviewers });
   }
 
   return (
@@ -63,6 +66,13 @@ export function FigureSettings({ figure, members, editable }: { figure: FigureVi
           </Select>
         </Field>
       </div>
+      <label className="flex items-start gap-2 text-sm">
+        <input type="checkbox" className="mt-0.5 h-4 w-4 accent-accent" checked={shareYTitles} onChange={(e) => setShareYTitles(e.target.checked)} />
+        <span>
+          One y-axis title per row
+          <span className="block text-xs text-muted">Later panels of a row whose y title repeats the first panel&apos;s leave it out when drawn.</span>
+        </span>
+      </label>
       <fieldset className="text-sm">
         <legend className="mb-1 font-medium">Required reviewers</legend>
         <p className="mb-1 text-xs text-muted">With none chosen, one approval by anyone completes a panel.</p>

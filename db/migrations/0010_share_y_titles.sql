@@ -1,0 +1,1 @@
+ALTER TABLE `figures` ADD `share_y_titles` integer DEFAULT false NOT NULL;
