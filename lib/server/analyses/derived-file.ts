@@ -11,8 +11,15 @@ export interface DerivedFileInput {
   xUnit: string | null;
   yName: string;
   yUnit: string | null;
-  parameters: Array<{ name: string; value: number; stderr: number; unit: string }>;
+  /** The column whose values weighted the fit as per-point σ (y units); null for an unweighted fit. */
+  sigmaColumn: string | null;
+  /** stderr is NaN for a parameter the data do not determine; `fixed` ones were held, not fitted. */
+  parameters: Array<{ name: string; value: number; stderr: number; unit: string; fixed?: boolean }>;
+  /** Quantities computed from the parameters, errors propagated through the scaled covariance. */
+  derived?: Array<{ name: string; value: number; stderr: number; unit: string; formula: string }>;
   chi2red: number;
+  /** Points minus free parameters. */
+  dof: number;
   curve: SampledCurve;
   dataX: ArrayLike<number>;
   dataY: ArrayLike<number>;
@@ -21,18 +28,31 @@ export interface DerivedFileInput {
 
 const fmt = (v: number) => (Number.isFinite(v) ? String(v) : "");
 
+function valueWithError(p: { value: number; stderr: number; unit: string; fixed?: boolean }): string {
+  const unit = p.unit ? ` ${p.unit}` : "";
+  if (p.fixed) return `${fmt(p.value)}${unit} (held fixed, not fitted)`;
+  if (!Number.isFinite(p.stderr)) return `${fmt(p.value)}${unit} (not determined by the data: no standard error)`;
+  return `${fmt(p.value)} ± ${fmt(p.stderr)}${unit}`;
+}
+
 /**
  * The derived version of an analysis, long format so one table carries all three series:
  * the fitted curve on a fine grid, the data points it was fitted to, and the residuals (y − model).
- * The header block records what it came from, so the file is traceable on its own.
+ * The header block records what it came from and how its errors were obtained (weights, scaling
+ * by √χ²ᵣ), so the file is traceable and readable on its own.
  */
 export function derivedCsv(d: DerivedFileInput): string {
   const lines = [
     `# derived from version: ${d.sourceVersionId}`,
     `# source sha256: ${d.sourceSha256}`,
     `# model: ${d.modelId} (version ${d.modelVersion})`,
-    ...d.parameters.map((p) => `# parameter ${p.name}: ${fmt(p.value)} ± ${fmt(p.stderr)} ${p.unit}`.trimEnd()),
-    `# reduced chi-square: ${fmt(d.chi2red)}`,
+    d.sigmaColumn
+      ? `# weights: 1/σ² per point, σ from the column "${d.sigmaColumn}" (y units)`
+      : "# weights: none (unweighted least squares: every point counts equally, σ = 1)",
+    "# errors: ± is one standard error from the covariance scaled by √χ²ᵣ (reduced chi-square below), as SciPy curve_fit with absolute_sigma=False; not a confidence interval",
+    ...d.parameters.map((p) => `# parameter ${p.name}: ${valueWithError(p)}`),
+    ...(d.derived ?? []).map((q) => `# derived ${q.name}: ${valueWithError(q)} [${q.formula}]`),
+    `# reduced chi-square: ${fmt(d.chi2red)} (${d.dof} degrees of freedom)`,
     `series,${axisTitle(d.xName, d.xUnit)},${axisTitle(d.yName, d.yUnit)}`,
   ];
   for (let i = 0; i < d.curve.x.length; i++) lines.push(`curve,${fmt(d.curve.x[i])},${fmt(d.curve.y[i])}`);

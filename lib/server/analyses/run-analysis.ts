@@ -17,7 +17,8 @@ import { resolveUnit } from "@/lib/analysis/param-unit";
 const CURVE_POINTS = 400;
 const nullIfNaN = (v: number) => (Number.isFinite(v) ? v : null);
 
-function fitOrExplain(input: AnalysisInput, data: FitData): ModelFitResult {
+/** Runs the model on the selected columns with the options' start values, fixed parameters, bounds and iteration cap. */
+export function fitOrExplain(input: Pick<AnalysisInput, "model" | "options">, data: Pick<FitData, "x" | "y" | "sigma">): ModelFitResult {
   if (!getModel(input.model)) throw badRequest(`model: unknown model "${input.model}"; GET /api/analysis-models lists them.`);
   try {
     return fitModel(input.model, {
@@ -35,7 +36,8 @@ function fitOrExplain(input: AnalysisInput, data: FitData): ModelFitResult {
   }
 }
 
-function curveFor(modelId: string, fit: ModelFitResult, x: Float64Array) {
+/** The fitted curve on the grid a stored run samples it on (log-spaced when x spans more than two decades). */
+export function curveFor(modelId: string, fit: ModelFitResult, x: Float64Array) {
   let lo = Infinity,
     hi = -Infinity;
   for (const v of x) {
@@ -144,8 +146,11 @@ export async function runAnalysis(user: SessionUser, raw: AnalysisInput) {
     xUnit: data.xUnit,
     yName: input.options.y,
     yUnit: data.yUnit,
-    parameters: run.parameters.map((p) => ({ name: p.name, value: p.value ?? NaN, stderr: p.stderr ?? NaN, unit: p.unit })),
+    sigmaColumn: input.options.sigma ?? null,
+    parameters: run.parameters.map((p) => ({ name: p.name, value: p.value ?? NaN, stderr: p.stderr ?? NaN, unit: p.unit, fixed: p.fixed })),
+    derived: run.derived.map((q) => ({ name: q.name, value: q.value ?? NaN, stderr: q.stderr ?? NaN, unit: q.unit, formula: q.formula })),
     chi2red: fit.chi2red,
+    dof: fit.dof,
     curve: run.curve,
     dataX: data.x,
     dataY: data.y,
