@@ -42,10 +42,21 @@ export const NV_GAMMA = (NV_G_FACTOR * BOHR_MAGNETON) / PLANCK_CONSTANT;
 export const NV_ZERO_FIELD_SPLITTING = 2.87e9;
 /** Temperature coefficient dD/dT near room temperature in Hz/K. Acosta et al. 2010 (from memory). */
 export const NV_ZFS_TEMPERATURE_COEFFICIENT = -74e3;
-/** ¹⁴N hyperfine A∥ in Hz: −2.14(7) MHz (≈ −2.16 MHz in later work). Felton et al., PRB 79, 075203 (2009); Steiner et al., PRB 81, 035205 (2010) (from memory). */
+/**
+ * ¹⁴N ground-state hyperfine A∥ in Hz: −2.14(7) MHz. Felton et al., Phys. Rev. B 79, 075203 (2009),
+ * doi:10.1103/PhysRevB.79.075203, the value tabulated by Doherty et al., Phys. Rep. 528, 1 (2013),
+ * doi:10.1016/j.physrep.2013.02.001 (both from memory). Later, narrower-line measurements put it
+ * near −2.16 MHz (e.g. Steiner et al., PRB 81, 035205 (2010); from memory), inside that
+ * uncertainty. The one value used throughout: the calculators' line positions and the ¹⁴N fit
+ * models' descriptions both read it from here (a fit measures |A∥|, it never assumes it).
+ */
 export const NV_14N_HYPERFINE_PARALLEL = -2.14e6;
 /** ¹⁵N hyperfine A∥ in Hz: +3.03(3) MHz. Felton et al. 2009 (from memory). */
 export const NV_15N_HYPERFINE_PARALLEL = 3.03e6;
+/** |A∥| of ¹⁴N in MHz (2.14), the spacing of the triplet's lines, for text and calculators in MHz. */
+export const NV_14N_SPLITTING_MHZ = Math.abs(NV_14N_HYPERFINE_PARALLEL) / 1e6;
+/** |A∥| of ¹⁵N in MHz (3.03), the spacing of the doublet's lines. */
+export const NV_15N_SPLITTING_MHZ = Math.abs(NV_15N_HYPERFINE_PARALLEL) / 1e6;
 /** NV⁻ zero-phonon line photon energy in eV (≈ 637.4 nm). Davies & Hamer, Proc. R. Soc. A 348, 285 (1976) (from memory). */
 export const NV_MINUS_ZPL_ENERGY_EV = 1.945;
 /** NV⁰ zero-phonon line photon energy in eV (≈ 575.1 nm). Davies & Hamer 1976 (from memory). */

@@ -2,14 +2,21 @@
  * ODMR of the NV⁻ ground state with the field along the NV axis: f± = D ± γ_NV B.
  * Pure functions take and return SI (Hz, T); the calculators use MHz and mT.
  */
-import { NV_GAMMA, NV_ZERO_FIELD_SPLITTING, NV_14N_HYPERFINE_PARALLEL, NV_15N_HYPERFINE_PARALLEL } from "./constants";
+import {
+  NV_GAMMA,
+  NV_ZERO_FIELD_SPLITTING,
+  NV_14N_HYPERFINE_PARALLEL,
+  NV_15N_HYPERFINE_PARALLEL,
+  NV_14N_SPLITTING_MHZ,
+  NV_15N_SPLITTING_MHZ,
+} from "./constants";
 import { type Calculator, CalculatorInputError, withCaution } from "./calculator-types";
 import { MEGA, MILLI } from "./units";
 
 const SOURCE_ODMR =
   "f± = D ± γB with γ = gμB/h, g = 2.0028 (Loubser & van Wyk 1978, from memory); D = 2.870 GHz (Acosta et al., PRL 104, 070801 (2010), from memory)";
 const AXIAL = "Field along the NV axis (no transverse component), NV⁻ ground state, room temperature.";
-const HYPERFINE = "Line centres only: with ¹⁴N each line is a triplet spaced |A∥| ≈ 2.14 MHz, with ¹⁵N a doublet spaced 3.03 MHz.";
+const HYPERFINE = `Line centres only: with ¹⁴N each line is a triplet spaced |A∥| ≈ ${NV_14N_SPLITTING_MHZ} MHz, with ¹⁵N a doublet spaced ${NV_15N_SPLITTING_MHZ} MHz.`;
 /** |D − 2870 MHz| above which the pair calculator warns (common practice). */
 const D_DEVIATION_WARN_HZ = 2e6;
 
