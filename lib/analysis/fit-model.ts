@@ -54,7 +54,10 @@ export interface ModelFitResult extends Omit<CurveFitResult, "params"> {
   modelVersion: string;
   params: FittedParam[];
   derived: DerivedValue[];
-  /** The model's judgement of the derived values in words (e.g. whether g⁽²⁾(0) shows a single emitter). */
+  /**
+   * Judgements in words: the model's on its derived values (e.g. whether g⁽²⁾(0) shows a single
+   * emitter), and why parameters are reported as not determined when the data cannot support them.
+   */
   verdicts: string[];
   /** Fitted values by parameter name. */
   values: Record<string, number>;
@@ -62,6 +65,13 @@ export interface ModelFitResult extends Omit<CurveFitResult, "params"> {
 }
 
 const CORRELATION_WARNING = 0.95;
+/** An amplitude within this many standard errors of zero cannot be told from zero (≈ 95 % two-sided). */
+const AMPLITUDE_Z = 2;
+/**
+ * Weighted residuals this small against the largest weighted |y| are rounding error: the curve
+ * passes through every point, and errors scaled by √χ²ᵣ would come out as zero.
+ */
+const EXACT_FIT_RELATIVE = 1e-13;
 
 export function fitModel(modelId: string | FitModel, input: FitInput): ModelFitResult {
   const model = getModelOrThrow(modelId);
@@ -123,7 +133,9 @@ export function fitModel(modelId: string | FitModel, input: FitInput): ModelFitR
     solver: { ...input.solver, ...(input.maxIterations ? { maxIterations: input.maxIterations } : {}) },
   });
 
+  const notes = markUndetermined(model, result, names, input, bounds);
   warnings.push(...describeProblems(result, names));
+  warnings.push(...(model.checkFit?.(result.params, input.x) ?? []));
   const derived = (model.derived ?? []).map((d) => ({
     name: d.name,
     value: d.value(result.params),
@@ -148,17 +160,88 @@ export function fitModel(modelId: string | FitModel, input: FitInput): ModelFitR
     modelVersion: model.version,
     params,
     derived,
-    verdicts: model.verdict?.(derived) ?? [],
+    verdicts: [...notes, ...(model.verdict?.(derived) ?? [])],
     values: Object.fromEntries(params.map((p) => [p.name, p.value])),
     warnings,
   };
 }
 
-/** √(gᵀ·C·g): first-order error propagation (JCGM 100:2008 (GUM), eq. 13). */
+/**
+ * √(gᵀ·C·g): first-order error propagation (JCGM 100:2008 (GUM), eq. 13). Parameters the quantity
+ * does not depend on (gᵢ = 0) are left out, so an undetermined one elsewhere does not spoil it.
+ */
 function propagate(g: number[], c: number[][]): number {
   let v = 0;
-  for (let i = 0; i < g.length; i++) for (let j = 0; j < g.length; j++) v += g[i] * c[i][j] * g[j];
+  for (let i = 0; i < g.length; i++) {
+    if (g[i] === 0) continue;
+    for (let j = 0; j < g.length; j++) if (g[j] !== 0) v += g[i] * c[i][j] * g[j];
+  }
   return v >= 0 ? Math.sqrt(v) : NaN;
+}
+
+/** Reports parameter j as not determined: no standard error, no covariance, no correlation. */
+function forget(result: CurveFitResult, j: number): void {
+  result.undetermined[j] = true;
+  result.stderr[j] = NaN;
+  result.stderrUnscaled[j] = NaN;
+  for (let i = 0; i < result.params.length; i++) {
+    result.covariance[i][j] = result.covariance[j][i] = NaN;
+    result.correlation[i][j] = result.correlation[j][i] = NaN;
+  }
+}
+
+const show = (v: number): string => String(Number(v.toPrecision(3)));
+
+/**
+ * Marks the parameters whose standard error the data cannot support as not determined, beyond the
+ * rank-deficient ones the covariance already finds, and says why in sentences:
+ * - the curve passes through every point (χ² ≈ 0): errors scaled by √χ²ᵣ would all be zero;
+ * - an amplitude within AMPLITUDE_Z standard errors of zero: its shape parameters (the decay time
+ *   of an echo that is not there, the centre of an absent dip) are not seen by the data;
+ * - a standard error wider than the parameter's whole allowed range.
+ * SciPy's curve_fit reports such covariances as inf with an OptimizeWarning; here they are NaN.
+ */
+function markUndetermined(model: FitModel, result: CurveFitResult, names: string[], input: FitInput, bounds: Array<[number, number]>): string[] {
+  const free = names.map((_, j) => !result.fixed[j]);
+  if (!free.some(Boolean) || result.dof <= 0) return [];
+  const notes: string[] = [];
+
+  let largest = 0;
+  for (let i = 0; i < input.y.length; i++) largest = Math.max(largest, Math.abs(input.y[i] / (input.sigma ? input.sigma[i] : 1)));
+  if (Math.sqrt(result.chi2 / input.y.length) <= EXACT_FIT_RELATIVE * largest) {
+    names.forEach((_, j) => free[j] && forget(result, j));
+    notes.push(
+      "No scatter: the curve passes through every point to rounding error (χ²ᵣ ≈ 0), so the data give no estimate of the errors; standard errors are not reported.",
+    );
+    return notes;
+  }
+
+  for (const { amplitude, shapes } of model.amplitudes ?? []) {
+    const a = names.indexOf(amplitude);
+    if (a < 0 || !free[a]) continue;
+    const value = result.params[a];
+    const error = result.stderr[a];
+    if (Math.abs(value) >= AMPLITUDE_Z * error) continue;
+    const lost = shapes.map((s) => names.indexOf(s)).filter((j) => j >= 0 && free[j] && !result.undetermined[j]);
+    if (!lost.length) continue;
+    lost.forEach((j) => forget(result, j));
+    const told = Number.isFinite(error)
+      ? `${amplitude} = ${show(value)} ± ${show(error)} is within ${AMPLITUDE_Z} standard errors of zero`
+      : `${amplitude} is not determined`;
+    const list = lost.map((j) => names[j]);
+    const listed = list.length > 1 ? `${list.slice(0, -1).join(", ")} and ${list[list.length - 1]} are` : `${list[0]} is`;
+    notes.push(`No clear signal: ${told}, so ${listed} not determined by these data.`);
+  }
+
+  names.forEach((name, j) => {
+    if (!free[j] || result.undetermined[j]) return;
+    const [lo, hi] = bounds[j];
+    if (Number.isFinite(hi - lo) && result.stderr[j] > hi - lo) {
+      forget(result, j);
+      notes.push(`${name}: its standard error exceeds the whole range allowed for it, so it is not determined by these data.`);
+    }
+  });
+  return notes;
 }
 
 function validateData(input: FitInput): void {
@@ -178,6 +261,19 @@ function validateData(input: FitInput): void {
       throw new FitInputError(`sigma[${i}] must be a positive finite number`, "sigma");
     }
   }
+  // A curve cannot be told from a constant without two distinct x values, nor fitted to a y that
+  // never changes: every time constant or width would come out with a meaningless "± 0".
+  if (x.length > 1 && allEqual(x)) {
+    throw new FitInputError(`every x value is ${x[0]}: a curve needs at least two different x values`, "x");
+  }
+  if (y.length > 1 && allEqual(y)) {
+    throw new FitInputError(`every y value is ${y[0]}: there is no signal to fit`, "y");
+  }
+}
+
+function allEqual(values: ArrayLike<number>): boolean {
+  for (let i = 1; i < values.length; i++) if (values[i] !== values[0]) return false;
+  return true;
 }
 
 function describeProblems(result: CurveFitResult, names: string[]): string[] {

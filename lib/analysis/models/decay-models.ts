@@ -74,6 +74,7 @@ export const hahnEchoModel: FitModel = {
   bounds(x) {
     return [free, free, timeBounds(x), [0.5, 4]];
   },
+  amplitudes: [{ amplitude: "A", shapes: ["T2", "n"] }],
 };
 
 export const relaxationModel: FitModel = {
@@ -99,6 +100,7 @@ export const relaxationModel: FitModel = {
   bounds(x) {
     return [free, free, timeBounds(x)];
   },
+  amplitudes: [{ amplitude: "A", shapes: ["T1"] }],
 };
 
 export const relaxationStretchedModel: FitModel = {
@@ -123,6 +125,7 @@ export const relaxationStretchedModel: FitModel = {
   bounds(x) {
     return [free, free, timeBounds(x), [0.2, 3]];
   },
+  amplitudes: [{ amplitude: "A", shapes: ["T1", "n"] }],
 };
 
 function exponential(x: number, p: ArrayLike<number>): number {
@@ -172,4 +175,5 @@ export const exponentialModel: FitModel = {
     };
     return cost(candidates[0]) <= cost(candidates[1]) ? candidates[0] : candidates[1];
   },
+  amplitudes: [{ amplitude: "A", shapes: ["k"] }],
 };

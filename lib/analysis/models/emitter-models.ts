@@ -64,6 +64,7 @@ export const plSaturationModel: FitModel = {
       gradient: (q) => [0.5, q[2], q[1]],
     },
   ],
+  amplitudes: [{ amplitude: "Isat", shapes: ["Psat"] }],
 };
 
 function g2WithJacobian(t: number, q: ArrayLike<number>, out: Float64Array): number {
@@ -148,4 +149,8 @@ export const g2AntibunchingModel: FitModel = {
         ? [`Not conclusive: g⁽²⁾(0) is below 0.5 by only ${margin.toFixed(1)} standard errors (3 wanted; common practice).`]
         : [`Not a single emitter: g⁽²⁾(0) is not below 0.5 (${(-margin).toFixed(1)} standard errors above).`];
   },
+  amplitudes: [
+    { amplitude: "beta", shapes: ["a", "tau0", "tau1", "tau2"] },
+    { amplitude: "a", shapes: ["tau2"] },
+  ],
 };

@@ -1,8 +1,8 @@
 /**
  * ODMR spectra as Lorentzian dips on a baseline, y = B·(1 − Σₖ cₖ·Lₖ(f)) with the
  * peak-normalised Lorentzian L(f) = (w/2)²/((f − f₀)² + (w/2)²): f, f₀, w and the splitting
- * |A∥| are in the x column's unit (MHz in typical data; ¹⁴N |A∥| ≈ 2.16 MHz, ¹⁵N ≈ 3.03 MHz),
- * B in y units, the contrast c dimensionless (0 … 1).
+ * |A∥| are in the x column's unit (MHz in typical data; the expected ¹⁴N and ¹⁵N |A∥| come from
+ * lib/physics/constants), B in y units, the contrast c dimensionless (0 … 1).
  *
  * Models with k independent dips have ids odmr_lorentzian_1 … odmr_lorentzian_4, with
  * parameters B, f1, w1, c1, f2, w2, c2, … in ascending f order of the start values.
@@ -11,6 +11,7 @@ import { contrastAt, dipProfile, findDips, type Dip } from "./guess/dip-guess";
 import { matchLinePattern } from "./guess/line-pattern";
 import { median, xScale } from "./guess/signal-features";
 import type { FitModel, ModelParam } from "./types";
+import { NV_14N_SPLITTING_MHZ, NV_15N_SPLITTING_MHZ } from "@/lib/physics/constants";
 
 /** Peak-normalised Lorentzian with full width `width` at half maximum. */
 function lorentzian(f: number, centre: number, width: number): number {
@@ -49,7 +50,8 @@ function multiDipModel(id: string, title: string, kinds: string[], names: Array<
     params.push({ name: w, unit: "x", description: `full width at half depth of dip ${k + 1}` });
     params.push({ name: c, unit: "1", description: `contrast (fractional depth) of dip ${k + 1}` });
   });
-  const terms = names.map(([f, w, c]) => `${c}·L(f; ${f}, ${w})`).join(" + ");
+  // Every dip is subtracted from the baseline: 1 − c1·L1 − c2·L2 − …, as evaluate computes.
+  const terms = names.map(([f, w, c]) => `${c}·L(f; ${f}, ${w})`).join(" − ");
   const valueAndJacobian = (f: number, p: ArrayLike<number>, out: Float64Array): number => {
     const b = p[0];
     let sum = 0;
@@ -89,10 +91,11 @@ function multiDipModel(id: string, title: string, kinds: string[], names: Array<
       const b = dipBounds(x);
       return [[0, Infinity], ...names.flatMap(() => [b.position, b.width, b.depth])];
     },
+    amplitudes: names.map(([f, w, c]) => ({ amplitude: c, shapes: [f, w] })),
   };
 }
 
-function patternDipModel(id: string, title: string, nucleus: string, pattern: readonly number[]): FitModel {
+function patternDipModel(id: string, title: string, nucleus: string, splittingMHz: number, pattern: readonly number[]): FitModel {
   const lines = pattern.map((k) => (k === 0 ? "f₀" : `f₀ ${k < 0 ? "−" : "+"} ${Math.abs(k) === 1 ? "" : "½"}|A∥|`));
   const valueAndJacobian = (f: number, p: ArrayLike<number>, out: Float64Array): number => {
     const b = p[0];
@@ -127,7 +130,7 @@ function patternDipModel(id: string, title: string, nucleus: string, pattern: re
     params: [
       { name: "B", unit: "y", description: "baseline signal off resonance" },
       { name: "f0", unit: "x", description: "centre of the hyperfine group" },
-      { name: "Apar", unit: "x", description: `${nucleus} hyperfine splitting |A∥| between lines` },
+      { name: "Apar", unit: "x", description: `${nucleus} hyperfine splitting |A∥| (${splittingMHz} MHz when x is in MHz)` },
       { name: "w", unit: "x", description: "full width at half depth of each line" },
       { name: "c", unit: "1", description: "contrast (fractional depth) of each line" },
     ],
@@ -164,6 +167,7 @@ function patternDipModel(id: string, title: string, nucleus: string, pattern: re
       const { span } = xScale(x);
       return [[0, Infinity], b.position, [0, span], b.width, b.depth];
     },
+    amplitudes: [{ amplitude: "c", shapes: ["f0", "Apar", "w"] }],
   };
 }
 
@@ -183,6 +187,6 @@ export const odmrTwoResonancesModel: FitModel = multiDipModel(
   ],
 );
 
-export const odmr14nTripletModel: FitModel = patternDipModel("odmr_14n_triplet", "ODMR, ¹⁴N hyperfine triplet", "¹⁴N", [-1, 0, 1]);
+export const odmr14nTripletModel: FitModel = patternDipModel("odmr_14n_triplet", "ODMR, ¹⁴N hyperfine triplet", "¹⁴N", NV_14N_SPLITTING_MHZ, [-1, 0, 1]);
 
-export const odmr15nDoubletModel: FitModel = patternDipModel("odmr_15n_doublet", "ODMR, ¹⁵N hyperfine doublet", "¹⁵N", [-0.5, 0.5]);
+export const odmr15nDoubletModel: FitModel = patternDipModel("odmr_15n_doublet", "ODMR, ¹⁵N hyperfine doublet", "¹⁵N", NV_15N_SPLITTING_MHZ, [-0.5, 0.5]);

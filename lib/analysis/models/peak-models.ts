@@ -55,6 +55,7 @@ export const gaussianModel: FitModel = {
     return [g.baseline, g.height, g.centre, g.fwhm / FWHM_PER_SIGMA];
   },
   bounds: (x) => peakBounds(x, xScale(x).step / 100),
+  amplitudes: [{ amplitude: "A", shapes: ["x0", "sigma"] }],
 };
 
 function lorentzianWithJacobian(x: number, p: ArrayLike<number>, out: Float64Array): number {
@@ -92,6 +93,7 @@ export const lorentzianModel: FitModel = {
     return [g.baseline, g.height, g.centre, g.fwhm / 2];
   },
   bounds: (x) => peakBounds(x, xScale(x).step / 100),
+  amplitudes: [{ amplitude: "A", shapes: ["x0", "gamma"] }],
 };
 
 function pseudoVoigtWithJacobian(x: number, p: ArrayLike<number>, out: Float64Array): number {
@@ -137,6 +139,7 @@ export const pseudoVoigtModel: FitModel = {
     return [g.baseline, g.height, g.centre, g.fwhm, 0.5];
   },
   bounds: (x) => [...peakBounds(x, xScale(x).step / 100), [0, 1]],
+  amplitudes: [{ amplitude: "A", shapes: ["x0", "fwhm", "eta"] }],
 };
 
 function voigtWithJacobian(x: number, p: ArrayLike<number>, out: Float64Array): number {
@@ -182,4 +185,5 @@ export const voigtModel: FitModel = {
     const { span, step } = xScale(x);
     return [...peakBounds(x, step / 100), [0, 10 * span]];
   },
+  amplitudes: [{ amplitude: "area", shapes: ["x0", "sigma", "gamma"] }],
 };

@@ -6,15 +6,20 @@
  */
 import { guessOscillation } from "./guess/oscillation-guess";
 import { xScale } from "./guess/signal-features";
+import { nyquistFrequency, nyquistWarnings } from "./nyquist";
 import type { DerivedQuantity, FitModel } from "./types";
 
 const TWO_PI = 2 * Math.PI;
 const free: [number, number] = [-Infinity, Infinity];
 
+/** f is bounded by the Nyquist frequency 1/(2Δt): above it the samples cannot tell f from 1/Δt − f. */
 function rabiBounds(x: ArrayLike<number>): Array<[number, number]> {
-  const { span, step } = xScale(x);
-  return [free, [0, Infinity], [1e-6 * span, 1e3 * span], [0, 1 / step], [-TWO_PI, TWO_PI]];
+  const { span } = xScale(x);
+  return [free, [0, Infinity], [1e-6 * span, 1e3 * span], [0, nyquistFrequency(x)], [-TWO_PI, TWO_PI]];
 }
+
+const RABI_AMPLITUDES: FitModel["amplitudes"] = [{ amplitude: "A", shapes: ["tau", "f", "phi"] }];
+const rabiCheck: FitModel["checkFit"] = (p, x) => nyquistWarnings([["f", p[3]]], x);
 
 /** t_π = 1/(2f) and t_π/2 = 1/(4f), f being parameter 3; their errors follow from f's. */
 const PULSE_LENGTHS: DerivedQuantity[] = [
@@ -94,6 +99,8 @@ export const rabiModel: FitModel = {
   guess,
   bounds: rabiBounds,
   derived: PULSE_LENGTHS,
+  amplitudes: RABI_AMPLITUDES,
+  checkFit: rabiCheck,
 };
 
 export const rabiGaussianModel: FitModel = {
@@ -111,4 +118,6 @@ export const rabiGaussianModel: FitModel = {
   guess,
   bounds: rabiBounds,
   derived: PULSE_LENGTHS,
+  amplitudes: RABI_AMPLITUDES,
+  checkFit: rabiCheck,
 };

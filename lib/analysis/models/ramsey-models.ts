@@ -3,18 +3,21 @@
  * cosines at δ + m·|A∥| when the ¹⁴N hyperfine lines are resolved (Childress et al., Science 314,
  * 281 (2006); from memory). t is the free-precession time in the
  * x column's unit, so the detuning δ and the hyperfine splitting |A∥| come out in 1/x
- * (MHz when x is in µs; ¹⁴N |A∥| ≈ 2.16 MHz). Phases in radians.
+ * (MHz when x is in µs; the expected ¹⁴N |A∥| comes from lib/physics/constants). Phases in radians.
  */
 import { guessOscillation } from "./guess/oscillation-guess";
 import { xScale } from "./guess/signal-features";
+import { nyquistFrequency, nyquistWarnings } from "./nyquist";
 import type { FitModel } from "./types";
+import { NV_14N_SPLITTING_MHZ } from "@/lib/physics/constants";
 
 const TWO_PI = 2 * Math.PI;
 const free: [number, number] = [-Infinity, Infinity];
 
+/** δ is bounded by the Nyquist frequency 1/(2Δt): above it the samples cannot tell δ from 1/Δt − δ. */
 function ramseyBounds(x: ArrayLike<number>): Array<[number, number]> {
-  const { span, step } = xScale(x);
-  return [free, [0, Infinity], [1e-6 * span, 1e3 * span], [0, 1 / step], [-TWO_PI, TWO_PI]];
+  const { span } = xScale(x);
+  return [free, [0, Infinity], [1e-6 * span, 1e3 * span], [0, nyquistFrequency(x)], [-TWO_PI, TWO_PI]];
 }
 
 function ramseyWithJacobian(t: number, p: ArrayLike<number>, out: Float64Array): number {
@@ -58,6 +61,8 @@ export const ramseyModel: FitModel = {
     return [g.offset, g.amplitude, g.decayTime, g.frequency, g.phase];
   },
   bounds: ramseyBounds,
+  amplitudes: [{ amplitude: "A", shapes: ["T2star", "delta", "phi"] }],
+  checkFit: (p, x) => nyquistWarnings([["δ", p[3]]], x),
 };
 
 function ramsey14nWithJacobian(t: number, p: ArrayLike<number>, out: Float64Array): number {
@@ -92,7 +97,7 @@ export const ramsey14nModel: FitModel = {
     { name: "A", unit: "y", description: "amplitude of each of the three lines (≥ 0)" },
     { name: "T2star", unit: "x", description: "inhomogeneous dephasing time T₂*" },
     { name: "delta", unit: "1/x", description: "detuning δ of the drive from the mI = 0 line" },
-    { name: "Apar", unit: "1/x", description: "¹⁴N hyperfine splitting |A∥| (2.16 MHz when x is in µs)" },
+    { name: "Apar", unit: "1/x", description: `¹⁴N hyperfine splitting |A∥| (${NV_14N_SPLITTING_MHZ} MHz when x is in µs)` },
     { name: "phi", unit: "1", description: "common fringe phase φ (rad)" },
   ],
   evaluate(t, p) {
@@ -108,6 +113,17 @@ export const ramsey14nModel: FitModel = {
   },
   bounds(x) {
     const [s0, a, time, delta, phi] = ramseyBounds(x);
-    return [s0, a, time, delta, [0, delta[1]], phi];
+    return [s0, a, time, delta, [0, nyquistFrequency(x)], phi];
   },
+  amplitudes: [{ amplitude: "A", shapes: ["T2star", "delta", "Apar", "phi"] }],
+  // The three lines sit at δ − |A∥|, δ and δ + |A∥|; the outer one can pass the limit while δ and |A∥| stay below it.
+  checkFit: (p, x) =>
+    nyquistWarnings(
+      [
+        ["δ", p[3]],
+        ["δ + |A∥|", p[3] + p[4]],
+        ["δ − |A∥|", p[3] - p[4]],
+      ],
+      x,
+    ),
 };

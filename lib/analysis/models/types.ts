@@ -56,4 +56,16 @@ export interface FitModel {
   derived?: DerivedQuantity[];
   /** Plain sentences judging the result from the derived values (e.g. single emitter or not). */
   verdict?(derived: Array<{ name: string; value: number; stderr: number }>): string[];
+  /**
+   * Amplitudes and the parameters that only shape the term they scale (the echo's A and its T₂
+   * and n; a dip's contrast and its centre and width). When the fitted amplitude cannot be told
+   * from zero, the data say nothing about its shape parameters, which are then reported as not
+   * determined rather than with a misleading standard error.
+   */
+  amplitudes?: Array<{ amplitude: string; shapes: string[] }>;
+  /**
+   * Warnings about the fitted values that depend on how x was sampled (e.g. a frequency near the
+   * Nyquist limit 1/(2Δt), where its alias fits the samples as well).
+   */
+  checkFit?(p: ArrayLike<number>, x: ArrayLike<number>): string[];
 }

@@ -7,6 +7,7 @@
 import { periodogram, powerAt, strongestPeaks, type Periodogram } from "./periodogram";
 import { rankLinePatterns, type PatternMatch } from "./line-pattern";
 import { mean, sortByX } from "./signal-features";
+import { nyquistFrequency } from "../nyquist";
 
 export interface OscillationGuess {
   offset: number;
@@ -33,7 +34,10 @@ export function guessOscillation(x: ArrayLike<number>, y: ArrayLike<number>, pat
     s.y.map((v) => v - offset),
   );
   const minFrequency = 1 / span;
-  const candidates = pattern.length === 1 ? singleLineCandidates(pg, minFrequency) : patternCandidates(pg, pattern, minFrequency);
+  // Only frequencies the samples can resolve: above 1/(2Δt) the periodogram shows images, and a
+  // start there would lead the fit to the alias 1/Δt − f.
+  const maxFrequency = nyquistFrequency(s.x);
+  const candidates = pattern.length === 1 ? singleLineCandidates(pg, minFrequency, maxFrequency) : patternCandidates(pg, pattern, minFrequency, maxFrequency);
 
   const decayTimes = Array.from({ length: DECAY_STEPS }, (_, k) => (span / 30) * 300 ** (k / (DECAY_STEPS - 1)));
   const envelopes = decayTimes.map((time) => s.x.map((t) => Math.exp(-((t / time) ** 2))));
@@ -67,8 +71,8 @@ export function guessOscillation(x: ArrayLike<number>, y: ArrayLike<number>, pat
   };
 }
 
-function singleLineCandidates(pg: Periodogram, minFrequency: number): PatternMatch[] {
-  const peaks = strongestPeaks(pg, 3, minFrequency);
+function singleLineCandidates(pg: Periodogram, minFrequency: number, maxFrequency: number): PatternMatch[] {
+  const peaks = strongestPeaks(pg, 3, minFrequency, maxFrequency);
   if (peaks.length === 0) return [{ centre: 2 * minFrequency, spacing: 0 }];
   return peaks.map((centre) => ({ centre, spacing: 0 }));
 }
@@ -79,8 +83,8 @@ function singleLineCandidates(pg: Periodogram, minFrequency: number): PatternMat
  * triplet with δ < a, the lines a − δ and δ may merge into one peak near a/2, which adds the
  * hypothesis a = 2·p₁, δ = p₂ − 2·p₁.
  */
-function patternCandidates(pg: Periodogram, pattern: LinePattern, minFrequency: number): PatternMatch[] {
-  const peaks = strongestPeaks(pg, 6, minFrequency);
+function patternCandidates(pg: Periodogram, pattern: LinePattern, minFrequency: number, maxFrequency: number): PatternMatch[] {
+  const peaks = strongestPeaks(pg, 6, minFrequency, maxFrequency);
   const score = (centre: number, spacing: number): number => {
     const lines = pattern.map((k) => Math.abs(centre + k * spacing)).sort((a, b) => a - b);
     let sum = 0;

@@ -88,12 +88,16 @@ export function powerAt(pg: Periodogram, f: number): number {
   return pg.power[k] + (pg.power[k + 1] - pg.power[k]) * (position - k);
 }
 
-/** Frequencies (1/x) of the strongest local maxima above minFrequency, strongest first. */
-export function strongestPeaks(pg: Periodogram, count: number, minFrequency: number): number[] {
+/**
+ * Frequencies (1/x) of the strongest local maxima between minFrequency and maxFrequency, strongest
+ * first. The resampled transform reaches past the data's own Nyquist frequency, where linear
+ * interpolation leaves images of the lines below it; callers pass that limit as maxFrequency.
+ */
+export function strongestPeaks(pg: Periodogram, count: number, minFrequency: number, maxFrequency = Infinity): number[] {
   const peaks: Array<{ f: number; p: number }> = [];
   const { power, binWidth } = pg;
   for (let k = 1; k < power.length - 1; k++) {
-    if (k * binWidth < minFrequency) continue;
+    if (k * binWidth < minFrequency || k * binWidth > maxFrequency) continue;
     if (power[k] >= power[k - 1] && power[k] > power[k + 1]) {
       // Parabolic interpolation of the peak position between bins.
       const denom = power[k - 1] - 2 * power[k] + power[k + 1];
