@@ -73,14 +73,20 @@ export interface ParameterRow {
 /** The columns of those rows, for the checks that compare a spec's fields with the bound data. */
 export const PARAMETER_COLUMNS = ["name", "symbol", "value", "error", "unit", "model", "text"] as const;
 
-/** One row per fitted parameter of a run (fixed parameters carry no uncertainty). */
+/**
+ * One row per fitted parameter of a run (fixed parameters carry no uncertainty). A fitted parameter
+ * the data do not determine (stored without a standard error) says so in its text instead of
+ * passing for an exact number.
+ */
 export function parameterRows(model: string, parameters: StoredParameter[]): ParameterRow[] {
   return parameters.map((p) => {
     const error = p.fixed || p.stderr === null || !Number.isFinite(p.stderr) ? null : p.stderr;
     const unit = p.unit ?? "";
     const symbol = parameterSymbol(p.name);
+    const undetermined = !p.fixed && error === null;
     const number = p.value === null || !Number.isFinite(p.value) ? "—" : formatWithUncertainty(p.value, error);
-    return { name: p.name, symbol, value: p.value, error, unit, model, text: `${symbol} = ${number}${unit ? ` ${unit}` : ""}` };
+    const text = `${symbol} = ${number}${unit ? ` ${unit}` : ""}${undetermined ? " (not determined by the data)" : ""}`;
+    return { name: p.name, symbol, value: p.value, error, unit, model, text };
   });
 }
 
@@ -102,6 +108,7 @@ const HEADLINE = ["T2", "T2star", "T1", "f0", "x0", "tau", "tau0", "Psat", "fwhm
 
 /** The parameter "Show fitted value" offers first: a headline one when the run has it, else the first with an uncertainty. */
 export function headlineParameter(parameters: StoredParameter[]): string | null {
-  const named = HEADLINE.find((h) => parameters.some((p) => p.name === h));
+  const determined = (p: StoredParameter) => p.fixed || p.stderr !== null;
+  const named = HEADLINE.find((h) => parameters.some((p) => p.name === h && determined(p)));
   return named ?? parameters.find((p) => p.stderr !== null && !p.fixed)?.name ?? parameters[0]?.name ?? null;
 }

@@ -49,6 +49,21 @@ describe("parameterRows", () => {
     expect(rows[0]).toMatchObject({ name: "T2", symbol: "T₂", value: 38.73, error: 0.694, unit: "µs", model: "hahn_echo" });
     expect(rows[1].error).toBeNull();
   });
+
+  it("says a fitted parameter without a standard error is not determined by the data", () => {
+    const rows = parameterRows("relaxation", [
+      { name: "T1", value: 17.2, stderr: null, unit: "ms" },
+      { name: "A", value: 0.01, stderr: 0.02, unit: "" },
+    ]);
+    expect(rows[0]!.text).toBe("T₁ = 17.2 ms (not determined by the data)");
+    expect(rows[1]!.text).toBe("A = 0.010 ± 0.020"); // two digits of an uncertainty starting with 2
+    expect(
+      headlineParameter([
+        { name: "T1", value: 17.2, stderr: null, unit: "ms" },
+        { name: "A", value: 0.01, stderr: 0.02, unit: "" },
+      ]),
+    ).toBe("A");
+  });
 });
 
 describe("storedParameters", () => {
