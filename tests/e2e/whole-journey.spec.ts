@@ -78,12 +78,15 @@ test("upload, fit, build two panels, take a reviewer's change, re-approve, sign 
   // 4. Panel b: the same points on a linear time axis, saved, sent to review.
   await page.goto(figureUrl);
   await page.getByRole("link", { name: "Panel b: Echo, linear time", exact: true }).click();
-  // Both pickers searched by the sample name: the one version, then its one stored run.
-  for (const picker of ["Measured points", "Fitted curve"]) {
+  // Both pickers searched by the sample name: the one version, then its one stored run (beside "(none)").
+  for (const [picker, choice] of [
+    ["Measured points", /· version 1/],
+    ["Fitted curve", /^✓? ?hahn_echo fit · run /],
+  ] as const) {
     await builder.getByRole("combobox", { name: picker, exact: true }).fill(sample);
     const choices = builder.getByRole("listbox", { name: `${picker}: choices`, exact: true });
-    await expect(choices.getByRole("option")).toHaveCount(1);
-    await choices.getByRole("option").click();
+    await expect(choices.getByRole("option", { name: choice })).toHaveCount(1);
+    await choices.getByRole("option", { name: choice }).click();
   }
   await expect(builder.getByRole("combobox", { name: "Fitted curve", exact: true })).toHaveValue(/^hahn_echo fit · run /);
   await builder.getByLabel("Time axis", { exact: true }).selectOption({ label: "linear" });
