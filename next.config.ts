@@ -17,6 +17,7 @@ const nextConfig: NextConfig = {
     "vega-lite",
     "vega-interpreter",
     "sharp",
+    "exceljs",
   ],
   typedRoutes: false,
   async redirects() {

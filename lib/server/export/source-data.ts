@@ -2,10 +2,15 @@ import "server-only";
 import { strToU8, zipSync } from "fflate";
 import { inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { revisions, versions } from "@/db/schema";
+import { versions, type BoundInput } from "@/db/schema";
 import { axisTitle } from "@/lib/data/format";
 import { loadBoundData } from "../figures/bindings";
 import type { FigureReview } from "../review/review-context";
+
+/** Text a spreadsheet would take for a formula if typed in: it starts with =, +, -, @, a tab or a CR. */
+export function formulaLike(text: string): boolean {
+  return /^[=+\-@\t\r]/.test(text);
+}
 
 /**
  * Text a spreadsheet would run as a formula (=, +, -, @, tab or CR first) gets a leading
@@ -15,7 +20,7 @@ export function csvCell(v: unknown): string {
   if (v === null || v === undefined) return "";
   // Cells are JSON values: text, numbers, booleans (an object or list is written as its JSON).
   let s = typeof v === "string" ? v : typeof v === "number" || typeof v === "boolean" ? String(v) : JSON.stringify(v);
-  if (typeof v !== "number" && /^[=+\-@\t\r]/.test(s)) s = `'${s}`;
+  if (typeof v !== "number" && formulaLike(s)) s = `'${s}`;
   return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
@@ -34,6 +39,37 @@ async function unitsOf(versionIds: string[]): Promise<Map<string, Record<string,
   return new Map(rows.map((v) => [v.id, Object.fromEntries(v.columns.map((c) => [c.name, c.unit]))]));
 }
 
+/** One data name of a panel: what it binds, every row at full resolution, and its columns' units by name. */
+interface BoundTable {
+  name: string;
+  bound: BoundInput;
+  rows: Array<Record<string, number | string | null>>;
+  units: Record<string, string | null>;
+}
+
+/**
+ * The data behind each panel of a figure, in figure order: the current revision (null before the
+ * first) and, per data name, the rows it binds (never downsampled) with the units of their
+ * columns. One panel is loaded at a time, so a writer holds one panel's rows.
+ */
+export async function* panelSourceData(review: FigureReview): AsyncGenerator<{
+  letter: string;
+  revision: { number: number; contentHash: string; bound: Record<string, BoundInput> } | null;
+  tables: BoundTable[];
+}> {
+  for (const p of review.panels) {
+    const rev = p.revision;
+    if (!rev) {
+      yield { letter: p.letter, revision: null, tables: [] };
+      continue;
+    }
+    const data = await loadBoundData(rev.bound);
+    const units = await unitsOf(Object.values(rev.bound).map((b) => b.versionId));
+    const tables = Object.entries(data).map(([name, rows]) => ({ name, bound: rev.bound[name], rows, units: units.get(rev.bound[name].versionId) ?? {} }));
+    yield { letter: p.letter, revision: rev, tables };
+  }
+}
+
 /**
  * The per-figure source data journals ask for: one CSV per panel and data name, every point
  * (never downsampled), units in the column headers ("tau (µs)"), and a README naming each
@@ -42,21 +78,15 @@ async function unitsOf(versionIds: string[]): Promise<Map<string, Record<string,
 export async function sourceDataFiles(review: FigureReview): Promise<Record<string, Uint8Array>> {
   const files: Record<string, Uint8Array> = {};
   const readme = [`Source data for Figure ${review.figure.number}: ${review.figure.title}`, `Figure hash: ${review.figureHash}`, ""];
-  const revIds = review.panels.map((p) => p.revision?.id).filter((x): x is string => Boolean(x));
-  const revs = revIds.length ? await getDb().select().from(revisions).where(inArray(revisions.id, revIds)) : [];
-  for (const p of review.panels) {
-    const rev = revs.find((r) => r.id === p.revision?.id);
-    if (!rev) {
+  for await (const p of panelSourceData(review)) {
+    if (!p.revision) {
       readme.push(`Panel ${p.letter}: no revision yet.`);
       continue;
     }
-    const data = await loadBoundData(rev.bound);
-    const units = await unitsOf(Object.values(rev.bound).map((b) => b.versionId));
-    readme.push(`Panel ${p.letter} — revision ${rev.number}, content hash ${rev.contentHash}`);
-    for (const [name, rows] of Object.entries(data)) {
+    readme.push(`Panel ${p.letter} — revision ${p.revision.number}, content hash ${p.revision.contentHash}`);
+    for (const { name, bound: b, rows, units } of p.tables) {
       const file = `figure-${review.figure.number}-panel-${p.letter}-${name}.csv`;
-      const b = rev.bound[name];
-      files[file] = strToU8(rowsToCsv(rows, units.get(b.versionId) ?? {}));
+      files[file] = strToU8(rowsToCsv(rows, units));
       readme.push(`  ${file}: ${rows.length} rows from ${b.kind} ${b.id}${b.output ? ` (${b.output})` : ""}, source sha256 ${b.sha256}`);
     }
   }
