@@ -164,6 +164,15 @@ describe("figure exports", () => {
     expect(leftOut).toHaveLength(1);
   });
 
+  it("source data as a workbook: one sheet per panel, named for download", async () => {
+    const r = await download(`/x?format=xlsx`);
+    expect(r.status).toBe(200);
+    expect(r.headers.get("content-disposition")).toBe('attachment; filename="figure-1.source-data.xlsx"');
+    const files = unzipSync(r.bytes); // an .xlsx is a zip of SpreadsheetML parts (ECMA-376 Part 2)
+    expect(Object.keys(files)).toEqual(expect.arrayContaining(["xl/workbook.xml", "xl/worksheets/sheet1.xml", "xl/worksheets/sheet2.xml"]));
+    expect(strFromU8(files["xl/workbook.xml"]!)).toMatch(/name="Panel a"[^]*name="Panel b"/);
+  });
+
   it("source data: every point, one CSV per panel and data name, with a README of hashes", async () => {
     const r = await download(`/x?format=source-data`);
     const files = unzipSync(r.bytes);
@@ -191,7 +200,7 @@ describe("figure exports", () => {
     expect((await download(`/x?format=svg`, "outsider")).status).toBe(404);
     const bad = await download(`/x?format=eps`);
     expect(bad.status).toBe(400);
-    expect(new TextDecoder().decode(bad.bytes)).toContain("format must be svg, pdf, png, tiff, source-data or bundle");
+    expect(new TextDecoder().decode(bad.bytes)).toContain("format must be svg, pdf, png, tiff, xlsx, source-data or bundle");
   });
 });
 

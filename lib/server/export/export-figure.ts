@@ -13,8 +13,9 @@ import { bundleFiles } from "./bundle";
 import { DRAFT_MARK_TEXT, withDraftMark } from "./draft-mark";
 import { renderFigureSvg } from "./render-figure";
 import { sourceDataFiles, zip } from "./source-data";
+import { sourceDataWorkbook } from "./source-data-xlsx";
 
-const FORMATS = ["svg", "pdf", "png", "tiff", "source-data", "bundle"] as const;
+const FORMATS = ["svg", "pdf", "png", "tiff", "xlsx", "source-data", "bundle"] as const;
 
 export const exportQuery = z.object({
   format: z.enum(FORMATS, { message: `format must be ${FORMATS.slice(0, -1).join(", ")} or ${FORMATS.at(-1)}` }),
@@ -35,6 +36,7 @@ const TYPES = {
   pdf: "application/pdf",
   png: "image/png",
   tiff: "image/tiff",
+  xlsx: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet",
   "source-data": "application/zip",
   bundle: "application/zip",
 } as const;
@@ -59,6 +61,8 @@ export async function exportFigure(user: SessionUser, figureId: string, raw: z.i
   const draftMarked = !signedOff && mark === "on";
   if (format === "source-data") {
     body = zip(await sourceDataFiles(review));
+  } else if (format === "xlsx") {
+    body = await sourceDataWorkbook(review);
   } else {
     rendered = await renderFigureSvg(review);
     notes = rendered.notes;
@@ -94,7 +98,15 @@ export async function exportFigure(user: SessionUser, figureId: string, raw: z.i
     });
   });
   const raster = `${dpi}dpi${colour === "grey" ? "-grey" : ""}`;
-  const ext = { svg: "svg", pdf: "pdf", png: `${raster}.png`, tiff: `${raster}.tif`, "source-data": "source-data.zip", bundle: "bundle.zip" }[format];
+  const ext = {
+    svg: "svg",
+    pdf: "pdf",
+    png: `${raster}.png`,
+    tiff: `${raster}.tif`,
+    xlsx: "source-data.xlsx",
+    "source-data": "source-data.zip",
+    bundle: "bundle.zip",
+  }[format];
   return {
     body,
     notes,

@@ -11,7 +11,8 @@ const VECTOR = [
   { query: "format=pdf", label: "PDF (vector, fonts embedded)" },
 ];
 const DATA = [
-  { query: "format=source-data", label: "Source data (CSV, units in headers)" },
+  { query: "format=xlsx", label: "Source data workbook (Excel, a sheet per panel)" },
+  { query: "format=source-data", label: "Source data (CSV files, units in headers)" },
   { query: "format=bundle", label: "Reproducibility bundle" },
 ];
 const DPI = [
