@@ -27,7 +27,8 @@ const MANUSCRIPT_POLICY = {
 
 export type ManuscriptAction = keyof typeof MANUSCRIPT_POLICY;
 /** Actions that need only a signed-in user (they act on the caller's own things). */
-type UserAction = "self.read" | "self.tokens" | "self.mail" | "manuscript.list" | "manuscript.create" | "model.list";
+/** `bundle.verify`: check a reproducibility bundle from its own contents (it belongs to no manuscript here). */
+type UserAction = "self.read" | "self.tokens" | "self.mail" | "manuscript.list" | "manuscript.create" | "model.list" | "bundle.verify";
 export type Action = ManuscriptAction | UserAction;
 
 export function isManuscriptAction(action: Action): action is ManuscriptAction {

@@ -250,6 +250,15 @@ export const API_OPERATIONS: ApiOperation[] = [
     success: 200,
   },
   {
+    method: "POST",
+    path: "/api/bundles/verify",
+    permission: "bundle.verify",
+    summary:
+      "Check a reproducibility bundle from its own contents: every file's sha256, every raw file parsed again, every fit run again (1e-6 relative), the figure drawn again (identical SVG); answers { ok, rows: [{ item, check, match, detail }] }",
+    multipart: { file: "the bundle's .zip as exported (GET /api/figures/{id}/export?format=bundle); binary" },
+    success: 200,
+  },
+  {
     method: "GET",
     path: "/api/figures/{id}/trace",
     permission: "manuscript.read",

@@ -1,3 +1,5 @@
+import { createHash } from "node:crypto";
+import { strToU8, zipSync } from "fflate";
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { manuscriptMembers, users } from "@/db/schema";
@@ -140,7 +142,23 @@ const FIXTURES: Record<string, Fixture> = {
   "GET /api/review-queue": async () => ({}),
   "GET /api/manuscripts/{id}/activity": async () => ({ params: { id: DEMO_MANUSCRIPT_ID } }),
   "POST /api/calculators/{id}": async () => ({ params: { id: "odmr-field-from-pair" }, body: { inputs: { f_minus: 2750, f_plus: 2990 } } }),
+  // A bundle belongs to no manuscript here: a small crate of one listed file, checked by anyone signed in.
+  "POST /api/bundles/verify": async () => ({ rawBody: uploadForm("bundle.zip", tinyCrate()) }),
 };
+
+/** A zip with ro-crate-metadata.json listing one file by size and sha256 (computed here with node:crypto). */
+function tinyCrate(): Uint8Array {
+  const note = strToU8("checked from the bundle alone\n");
+  const crate = {
+    "@context": "https://w3id.org/ro/crate/1.2/context",
+    "@graph": [
+      { "@id": "ro-crate-metadata.json", "@type": "CreativeWork", about: { "@id": "./" } },
+      { "@id": "./", "@type": "Dataset", hasPart: [{ "@id": "note.txt" }] },
+      { "@id": "note.txt", "@type": "File", contentSize: String(note.byteLength), sha256: createHash("sha256").update(note).digest("hex") },
+    ],
+  };
+  return zipSync({ "ro-crate-metadata.json": strToU8(JSON.stringify(crate)), "note.txt": note });
+}
 
 const PI = { id: "demo-pi", email: "pi@lab.example.org", name: "Mira Halvorsen" };
 /** A fresh comment written by the caller when their role may comment (else by the PI), so edits and deletes act on one's own. */
@@ -214,7 +232,7 @@ async function archivedThing(kind: "dataset" | "analysis" | "panel" | "figure"):
  *     mail is public: the signed token in the link names the person).
  *   - outsider (signed in, member of another manuscript only): 404 on anything of the demo manuscript,
  *     including POST /api/analyses, whose manuscript comes from the body; their own things (/api/me,
- *     tokens, queue, models, calculators) work.
+ *     tokens, queue, models, calculators, checking a bundle) work.
  *   - viewer reads and exports; author also uploads, edits, fits and builds figures; reviewer reads,
  *     exports, comments and decides; PI does everything, and alone manages members and signs off.
  *   - archiving and restoring is for the PI and authors; deleting an archived thing for good, and
@@ -240,6 +258,7 @@ const EXPECTED: Record<string, Row> = {
   "GET /api/review-queue":                            [200, 200,   200,     200,   200,     401],
   "GET /api/analysis-models":                         [200, 200,   200,     200,   200,     401],
   "POST /api/calculators/{id}":                       [200, 200,   200,     200,   200,     401],
+  "POST /api/bundles/verify":                         [200, 200,   200,     200,   200,     401],
   "GET /api/manuscripts":                             [200, 200,   200,     200,   200,     401],
   "POST /api/manuscripts":                            [201, 201,   404,     201,   404,     401],
   "GET /api/manuscripts/{id}":                        [200, 200,   200,     200,   404,     401],

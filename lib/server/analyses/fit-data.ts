@@ -3,6 +3,7 @@ import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { datasets, versions } from "@/db/schema";
 import { decodeColumnar } from "@/lib/data/columnar";
+import type { ParsedTable } from "@/lib/data/parse";
 import { badRequest, notFound } from "@/lib/errors";
 import { columnsFor } from "../datasets/columns-cache";
 import type { FitOptions } from "./schemas";
@@ -27,11 +28,16 @@ export async function loadFitData(versionId: string, options: FitOptions): Promi
     .where(eq(versions.id, versionId));
   if (!row) throw notFound();
   const table = decodeColumnar(await columnsFor(row.v.sha256, row.v.fileName));
+  return { version: row.v, dataset: row.d, ...fitColumns(table, options, row.v.number) };
+}
+
+/** The fitted columns of a parsed table: x, y (and σ) as numbers, rows with a missing value, σ ≤ 0 or x outside xRange left out. */
+export function fitColumns(table: Pick<ParsedTable, "columns" | "data">, options: FitOptions, versionNumber: number): Omit<FitData, "version" | "dataset"> {
   const numeric = table.columns.filter((c) => c.type === "number").map((c) => c.name);
   const column = (name: string, field: string) => {
     const i = table.columns.findIndex((c) => c.name === name);
     if (i < 0 || table.columns[i].type !== "number")
-      throw badRequest(`options.${field}: no numeric column named "${name}" in version ${row.v.number} (numeric columns: ${numeric.join(", ")}).`);
+      throw badRequest(`options.${field}: no numeric column named "${name}" in version ${versionNumber} (numeric columns: ${numeric.join(", ")}).`);
     return { data: table.data[i] as Float64Array, unit: table.columns[i].unit };
   };
   const xs = column(options.x, "x");
@@ -45,8 +51,6 @@ export async function loadFitData(versionId: string, options: FitOptions): Promi
   }
   const pick = (a: Float64Array) => Float64Array.from(keep, (i) => a[i]);
   return {
-    version: row.v,
-    dataset: row.d,
     x: pick(xs.data),
     y: pick(ys.data),
     sigma: ss ? pick(ss.data) : undefined,

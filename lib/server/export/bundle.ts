@@ -1,13 +1,15 @@
 import "server-only";
 import fs from "node:fs/promises";
-import { inArray } from "drizzle-orm";
+import { eq, inArray } from "drizzle-orm";
 import { strToU8 } from "fflate";
 import { getDb } from "@/db/client";
-import { analyses } from "@/db/schema";
+import { analyses, versions } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
 import { canonicalJson } from "@/lib/figures/canonical-spec";
 import { sha256Hex } from "../crypto";
+import { loadBoundData } from "../figures/bindings";
 import { getRevision } from "../figures/revisions";
+import { houseStyleOf } from "../house-style";
 import { traceFigure, type FigureTrace } from "../figures/trace";
 import { svgToPdf } from "../render/to-pdf";
 import { printPng } from "../render/to-print-raster";
@@ -15,6 +17,7 @@ import type { FigureReview } from "../review/review-context";
 import { blobPath } from "../storage/blob-store";
 import { DRAFT_MARK_TEXT } from "./draft-mark";
 import { fitReportText, type StoredFit } from "./fit-report";
+import { BUNDLE_PATHS, type BundleParseRecord, type BundlePanelData, type BundleRender } from "./bundle-layout";
 import { traceToProv, type RenderedFile } from "./prov";
 import { SOFTWARE } from "./software";
 import { sourceDataFiles } from "./source-data";
@@ -66,10 +69,25 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
   const vega = put({ "@id": "#vega", "@type": "SoftwareApplication", name: SOFTWARE.vega.name, version: SOFTWARE.vega.version });
   const vegaLite = put({ "@id": "#vega-lite", "@type": "SoftwareApplication", name: SOFTWARE.vegaLite.name, version: SOFTWARE.vegaLite.version });
 
+  // What the application recorded when it parsed each data file, and the rows each panel was drawn from.
+  const parsed: Record<string, BundleParseRecord> = {};
   const versionFile = async (v: Version) => {
     const folder = v.derivedFromAnalysisId ? "derived" : "raw";
     const path = `${folder}/${v.sha256.slice(0, 12)}-${v.fileName.replace(/[^\w.-]+/g, "_")}`;
     if (files.has(path)) return ref(path);
+    const [stored] = await getDb().select().from(versions).where(eq(versions.id, v.versionId));
+    parsed[path] = {
+      versionId: v.versionId,
+      fileName: v.fileName,
+      format: stored.parseInfo.format,
+      encoding: stored.parseInfo.encoding,
+      delimiter: stored.parseInfo.delimiter,
+      decimal: stored.parseInfo.decimal,
+      warnings: stored.parseInfo.warnings,
+      rowCount: stored.rowCount,
+      columns: stored.columns,
+      summary: stored.summary,
+    };
     return addFile(path, new Uint8Array(await fs.readFile(blobPath(v.sha256))), mediaTypeOf(v.fileName), {
       name: `${v.dataset}, version ${v.number}`,
       identifier: v.versionId,
@@ -95,7 +113,7 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
   for (const p of trace.panels) {
     if (!p.revision) continue;
     const rev = await getRevision(user, p.revision.id);
-    const spec = addFile(`specs/panel-${p.letter}.vl.json`, strToU8(canonicalJson(rev.spec)), "application/json", {
+    const spec = addFile(BUNDLE_PATHS.spec(p.letter), strToU8(canonicalJson(rev.spec)), "application/json", {
       name: `Vega-Lite spec of panel ${p.letter}, revision ${p.revision.number}`,
       conformsTo: ref("https://vega.github.io/schema/vega-lite/v6.json"),
     });
@@ -106,12 +124,15 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
       { name: `Data bound to panel ${p.letter}, revision ${p.revision.number}` },
     );
     specRefs.push(spec, bindings);
+    const rows = await loadBoundData(rev.bound);
+    const bound: BundlePanelData["data"] = {};
     const inputs = [];
     for (const input of p.inputs) {
       if (input.kind === "version") {
         const f = await versionFile(input.version);
         dataRefs.set(f["@id"], f);
         inputs.push(f);
+        bound[input.name] = { file: f["@id"], rows: rows[input.name] };
         continue;
       }
       const a = input.analysis;
@@ -119,10 +140,11 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
       const out = await versionFile(input.derived);
       dataRefs.set(out["@id"], out);
       inputs.push(out);
+      const base = `fits/${a.model}-${a.id}`;
+      bound[input.name] = { file: out["@id"], fit: `${base}.json`, output: input.output ?? null, rows: rows[input.name] };
       if (entities.has(`#fit-${a.id}`)) continue;
       const run = runs.get(a.id)!;
       const stored: StoredFit = { ...a, createdBy: a.createdBy, input: input.input, derived: input.derived, result: run.result };
-      const base = `fits/${a.model}-${a.id}`;
       const reportJson = addFile(`${base}.json`, strToU8(JSON.stringify(stored, null, 2) + "\n"), "application/json", {
         name: `Report of the ${a.model} fit (JSON)`,
       });
@@ -147,6 +169,12 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
         description: `Options: ${JSON.stringify(a.options)}`,
       });
     }
+    const data: BundlePanelData = { panel: p.letter, revision: p.revision.number, contentHash: p.revision.contentHash, data: bound };
+    specRefs.push(
+      addFile(BUNDLE_PATHS.panelData(p.letter), strToU8(JSON.stringify(data) + "\n"), "application/json", {
+        name: `Rows drawn in panel ${p.letter}, revision ${p.revision.number}, full resolution`,
+      }),
+    );
     put({
       "@id": `#revision-${p.revision.id}`,
       "@type": "CreativeWork",
@@ -178,6 +206,24 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
     ["figure.pdf", pdf, "application/pdf"],
     ["figure.png", png, "image/png"],
   ];
+  // How the figure was drawn, so it can be drawn again from this bundle alone.
+  const style = await houseStyleOf(review.figure.manuscriptId);
+  const renderRecord: BundleRender = {
+    figureHash: review.figureHash,
+    widthMm: review.figure.widthMm,
+    columns: review.figure.columns,
+    shareYTitles: review.figure.shareYTitles,
+    houseStyle: style,
+    panels: review.panels.map((p) => ({ letter: p.letter, span: p.panel.colSpan, spec: BUNDLE_PATHS.spec(p.letter), data: BUNDLE_PATHS.panelData(p.letter) })),
+  };
+  specRefs.push(
+    addFile(BUNDLE_PATHS.render, strToU8(JSON.stringify(renderRecord, null, 2) + "\n"), "application/json", {
+      name: "How figure.svg was drawn: width, grid, house style, and each panel's spec and rows",
+    }),
+  );
+  addFile(BUNDLE_PATHS.parsed, strToU8(JSON.stringify(parsed, null, 2) + "\n"), "application/json", {
+    name: "Each data file as the application parsed it: format, columns, row count, column statistics",
+  });
   const renderedFiles: RenderedFile[] = drawn.map(([path, bytes, encodingFormat]) => ({
     path,
     sha256: sha256Hex(bytes),

@@ -2,13 +2,16 @@ import "server-only";
 import { getDb } from "@/db/client";
 import { revisions } from "@/db/schema";
 import { inArray } from "drizzle-orm";
-import { RenderError, renderFigureInWorker } from "../render/render-in-worker";
+import type { TableRow } from "@/lib/data/table-rows";
+import { RenderError, renderFigureInWorker, type FigureLayout, type FigurePanelJob, type RenderedFigure } from "../render/render-in-worker";
 import { badRequest, unprocessable } from "@/lib/errors";
 import { loadBoundData } from "../figures/bindings";
 import { reduceRowsForDisplay } from "../figures/display-data";
 import type { FigureReview } from "../review/review-context";
 import { applyHouseStyle, describeHouseStyle, panelLetter, type HouseStyle } from "@/lib/figures/house-style";
 import { houseStyleOf } from "../house-style";
+import { shareYTitles } from "@/lib/figures/shared-titles";
+import { gridPlacement } from "../render/worker/compose-core.mjs";
 
 /** Past this the vector file becomes unwieldy for journals; long series are then reduced and the export says so. */
 const VECTOR_CAP_BYTES = 20 * 1024 * 1024;
@@ -22,9 +25,41 @@ export interface FigureRender {
   houseStyle: string;
 }
 
+type PanelRows = Record<string, TableRow[]>;
+type PanelJob = FigurePanelJob & { data: PanelRows };
+
 /** Grid and panel letters as the house style sets them. */
-function layoutFor(review: FigureReview, style: HouseStyle) {
-  return { columns: review.figure.columns, letterFont: style.font, letterPt: style.letterPt, letterWeight: style.letterWeight };
+export function figureLayout(columns: number, style: HouseStyle): FigureLayout {
+  return { columns, letterFont: style.font, letterPt: style.letterPt, letterWeight: style.letterWeight };
+}
+
+/**
+ * The panels as the renderer draws them, in figure order: each stored spec in the house style, its letter
+ * in the house case, its bound rows; when the figure shares y titles, a row's repeated titles left out.
+ */
+export function figurePanelJobs(
+  panels: Array<{ letter: string; spec: unknown; data: PanelRows; span: number }>,
+  figure: { columns: number; shareYTitles: boolean },
+  style: HouseStyle,
+): PanelJob[] {
+  const jobs = panels.map((p) => ({ letter: panelLetter(p.letter, style), spec: applyHouseStyle(p.spec, style), data: p.data, span: p.span }));
+  if (!figure.shareYTitles) return jobs;
+  const rows = gridPlacement(jobs, figure.columns).map((c) => c.row);
+  return shareYTitles(
+    jobs.map((j) => j.spec),
+    rows,
+  ).map((spec, i) => ({ ...jobs[i], spec }));
+}
+
+/**
+ * Renders and composes the panels in the budgeted worker with the full data; when the vector file would
+ * pass its cap, long series are reduced for display and drawn again (`reduced`).
+ */
+export async function drawFigure(jobs: PanelJob[], layout: FigureLayout, widthMm: number): Promise<{ figure: RenderedFigure; reduced: boolean }> {
+  const figure = await renderFigureInWorker(jobs, layout, widthMm);
+  if (figure.svg.length <= VECTOR_CAP_BYTES) return { figure, reduced: false };
+  const reduced = jobs.map((j) => ({ ...j, data: Object.fromEntries(Object.entries(j.data).map(([k, rows]) => [k, reduceRowsForDisplay(rows).rows])) }));
+  return { figure: await renderFigureInWorker(reduced, layout, widthMm), reduced: true };
 }
 
 /** The whole figure as one composed SVG at print size in the manuscript's house style, rendered in the budgeted worker with the full data. */
@@ -42,20 +77,18 @@ export async function renderFigureSvg(review: FigureReview): Promise<FigureRende
         review.panels.map((p) => p.revision!.id),
       ),
     );
-  const jobs = await Promise.all(
+  const panels = await Promise.all(
     review.panels.map(async (p) => {
       const rev = revs.find((r) => r.id === p.revision!.id)!;
-      const spec = applyHouseStyle(JSON.parse(rev.spec) as unknown, style);
-      return { letter: panelLetter(p.letter, style), spec, data: await loadBoundData(rev.bound), span: p.panel.colSpan };
+      return { letter: p.letter, spec: JSON.parse(rev.spec) as unknown, data: await loadBoundData(rev.bound), span: p.panel.colSpan };
     }),
   );
-  const layout = layoutFor(review, style);
+  const jobs = figurePanelJobs(panels, review.figure, style);
+  const layout = figureLayout(review.figure.columns, style);
   const notes: string[] = [];
   try {
-    let out = await renderFigureInWorker(jobs, layout, review.figure.widthMm);
-    if (out.svg.length > VECTOR_CAP_BYTES) {
-      const reduced = jobs.map((j) => ({ ...j, data: Object.fromEntries(Object.entries(j.data).map(([k, rows]) => [k, reduceRowsForDisplay(rows).rows])) }));
-      out = await renderFigureInWorker(reduced, layout, review.figure.widthMm);
+    const { figure: out, reduced } = await drawFigure(jobs, layout, review.figure.widthMm);
+    if (reduced) {
       notes.push(
         `The full-resolution vector file would exceed ${VECTOR_CAP_BYTES / 1024 / 1024} MB; long series were reduced to the points that keep every extreme. Source data exports keep every point.`,
       );

@@ -3,6 +3,7 @@ import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, datasets, versions, type Binding, type BoundInput } from "@/db/schema";
 import { decodeColumnar } from "@/lib/data/columnar";
+import { tableRows } from "@/lib/data/table-rows";
 import { canonicalJson } from "@/lib/figures/canonical-spec";
 import { parameterRows, storedParameters } from "@/lib/figures/fit-value";
 import { sha256Hex } from "../crypto";
@@ -56,21 +57,7 @@ export async function loadBoundData(bound: Record<string, BoundInput>): Promise<
       continue;
     }
     const [v] = await getDb().select({ sha: versions.sha256, fileName: versions.fileName }).from(versions).where(eq(versions.id, b.versionId));
-    const t = decodeColumnar(await columnsFor(v.sha, v.fileName));
-    const names = t.columns.map((c) => c.name);
-    const rows: Array<Record<string, number | string | null>> = [];
-    const wanted = b.output ? SERIES[b.output] : null;
-    const seriesCol = wanted ? names.indexOf("series") : -1;
-    for (let r = 0; r < t.rowCount; r++) {
-      if (seriesCol >= 0 && t.data[seriesCol][r] !== wanted) continue;
-      const row: Record<string, number | string | null> = {};
-      names.forEach((n, i) => {
-        const val = t.data[i][r];
-        row[n] = typeof val === "number" && !Number.isFinite(val) ? null : val;
-      });
-      rows.push(row);
-    }
-    out[name] = rows;
+    out[name] = tableRows(decodeColumnar(await columnsFor(v.sha, v.fileName)), b.output ? SERIES[b.output] : null);
   }
   return out;
 }
