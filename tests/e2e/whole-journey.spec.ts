@@ -113,6 +113,7 @@ test("upload, fit, build two panels, take a reviewer's change, re-approve, sign 
 
   // 6. The author makes the change in the builder, which opens on the panel's current revision.
   await page.goto(panelAUrl);
+  await page.getByRole("tab", { name: "Builder", exact: true }).click();
   await expect(builder.getByLabel("Time axis", { exact: true })).toHaveValue("log");
   await builder.getByLabel("Signal axis name", { exact: true }).fill("echo amplitude");
   await expect(builder.getByTestId("builder-preview").locator("svg.marks")).toContainText("echo amplitude");
