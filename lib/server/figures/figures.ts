@@ -30,6 +30,7 @@ export async function createFigure(user: SessionUser, raw: z.infer<typeof create
       widthMm: input.widthMm ?? 183,
       maxHeightMm: input.maxHeightMm ?? 170,
       columns: input.columns ?? 2,
+      shareYTitles: input.shareYTitles ?? false,
       createdBy: user.id,
     });
     await appendAudit(tx, {
