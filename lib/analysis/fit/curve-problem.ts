@@ -99,12 +99,14 @@ export function buildCurveProblem(
   };
 
   const valueAndJacobian = model.valueAndJacobian;
+  const allFree = n === nAll;
   const residualsAndJacobian = (free: Float64Array, out: Float64Array, jac: Float64Array): void => {
     const p = expand(free);
     for (let i = 0; i < m; i++) {
       const w = weight[i];
       out[i] = (valueAndJacobian!(x[i], p, row) - y[i]) * w;
-      for (let k = 0; k < n; k++) jac[k * m + i] = row[freeIndex[k]] * w;
+      if (allFree) for (let k = 0, c = i; k < n; k++, c += m) jac[c] = row[k] * w;
+      else for (let k = 0, c = i; k < n; k++, c += m) jac[c] = row[freeIndex[k]] * w;
     }
   };
 

@@ -4,7 +4,7 @@
  */
 import { buildCurveProblem, type CurveData, type CurveFunction } from "./curve-problem";
 import { computeCovariance } from "./covariance";
-import { DEFAULT_SOLVER_OPTIONS, minimizeLeastSquares, type SolverOptions } from "./levenberg-marquardt";
+import { DEFAULT_SOLVER_OPTIONS, minimizeLeastSquares, releaseScratch, type SolverOptions } from "./levenberg-marquardt";
 
 export interface CurveFitOptions {
   /** Start values for every parameter (the fixed ones keep these values). */
@@ -76,6 +76,8 @@ export function fitCurve(model: CurveFunction, data: CurveData, options: CurveFi
     problem.jacobian(outcome.params, jacobian);
   }
   const { covariance: cov, undetermined: undeterminedFree } = computeCovariance(jacobian, m, n);
+  // computeCovariance has overwritten the Jacobian; its storage serves the next fit.
+  releaseScratch(jacobian);
 
   const chi2 = outcome.sumOfSquares;
   const dof = m - n;

@@ -4,7 +4,7 @@
  * sitting on a bound whose gradient pushes it outward is held for that iteration, and trial
  * points are projected back into the box. Deterministic; all work arrays are allocated once.
  */
-import { applyQTranspose, createQrWorkspace, euclideanNorm, qrFactorize } from "./qr-factorization";
+import { createQrWorkspace, euclideanNorm, normFromSquares, qrFactorize } from "./qr-factorization";
 import { computeTrustRegionStep, createStepWorkspace } from "./trust-region-step";
 
 const MACHINE_EPSILON = 2.220446049250313e-16;
@@ -76,6 +76,36 @@ const REASONS: Record<number, string> = {
   9: "model not finite at the start values",
 };
 
+/**
+ * Spare m×n and m-length work arrays kept between fits of the same size, so a run of fits does
+ * not allocate (and the collector does not sweep) a Jacobian per fit. Bounded in count and size.
+ */
+const spares: Float64Array[] = [];
+const MAX_SPARES = 4;
+const MAX_SPARE_LENGTH = 1 << 22;
+
+/** A zeroed work array of this length, from the spares when one fits. */
+function takeScratch(length: number): Float64Array {
+  for (let i = spares.length - 1; i >= 0; i--) {
+    if (spares[i].length === length) {
+      const found = spares[i];
+      spares.splice(i, 1);
+      return found.fill(0);
+    }
+  }
+  return new Float64Array(length);
+}
+
+/**
+ * Hands a work array back once nothing reads it any more (the caller of minimizeLeastSquares may
+ * do so with the outcome's Jacobian when it is done with it).
+ */
+export function releaseScratch(array: Float64Array | undefined): void {
+  if (!array || array.length > MAX_SPARE_LENGTH || spares.includes(array)) return;
+  if (spares.length >= MAX_SPARES) spares.shift();
+  spares.push(array);
+}
+
 function project(v: number, lo: number, hi: number): number {
   return v < lo ? lo : v > hi ? hi : v;
 }
@@ -88,15 +118,16 @@ export function minimizeLeastSquares(problem: LeastSquaresProblem, start: ArrayL
   const x = new Float64Array(n);
   for (let j = 0; j < n; j++) x[j] = project(start[j], lower[j], upper[j]);
   const fvec = new Float64Array(m);
-  const trialF = new Float64Array(m);
-  let fjac = new Float64Array(m * n);
+  const trialF = takeScratch(m);
+  let fjac = takeScratch(m * n);
   const combined = problem.residualsAndJacobian?.bind(problem);
-  let trialJac = combined ? new Float64Array(m * n) : fjac;
+  let trialJac = combined ? takeScratch(m * n) : fjac;
   // True while fjac holds the untouched Jacobian at x.
   let jacobianFresh = false;
   const qtf = new Float64Array(n);
   const diag = new Float64Array(n);
   const colNorm = new Float64Array(n);
+  const activeNorm = new Float64Array(n);
   const gradient = new Float64Array(n);
   const active = new Int32Array(n);
   const diagActive = new Float64Array(n);
@@ -111,16 +142,21 @@ export function minimizeLeastSquares(problem: LeastSquaresProblem, start: ArrayL
   jacobianFresh = Boolean(combined);
   let evaluations = 1;
   let fnorm = euclideanNorm(fvec, 0, m);
-  const finish = (code: number, iterations: number): SolverOutcome => ({
-    params: x,
-    residuals: fvec,
-    jacobian: jacobianFresh ? fjac : undefined,
-    sumOfSquares: fnorm * fnorm,
-    iterations,
-    evaluations,
-    converged: code !== 5 && code !== 9,
-    reason: REASONS[code],
-  });
+  const finish = (code: number, iterations: number): SolverOutcome => {
+    releaseScratch(trialF);
+    if (trialJac !== fjac) releaseScratch(trialJac);
+    if (!jacobianFresh) releaseScratch(fjac);
+    return {
+      params: x,
+      residuals: fvec,
+      jacobian: jacobianFresh ? fjac : undefined,
+      sumOfSquares: fnorm * fnorm,
+      iterations,
+      evaluations,
+      converged: code !== 5 && code !== 9,
+      reason: REASONS[code],
+    };
+  };
   if (!Number.isFinite(fnorm)) return finish(9, 0);
 
   let par = 0;
@@ -139,10 +175,16 @@ export function minimizeLeastSquares(problem: LeastSquaresProblem, start: ArrayL
     let nAct = 0;
     for (let j = 0; j < n; j++) {
       const cj = j * m;
+      // Jᵀf and the column norm in one sweep of the column.
       let g = 0;
-      for (let i = 0; i < m; i++) g += fjac[cj + i] * fvec[i];
+      let squares = 0;
+      for (let i = 0; i < m; i++) {
+        const v = fjac[cj + i];
+        g += v * fvec[i];
+        squares += v * v;
+      }
       gradient[j] = g;
-      colNorm[j] = euclideanNorm(fjac, cj, m);
+      colNorm[j] = normFromSquares(squares, fjac, cj, m);
       const blocked = (x[j] <= lower[j] && g > 0) || (x[j] >= upper[j] && g < 0);
       if (!blocked) active[nAct++] = j;
     }
@@ -160,9 +202,10 @@ export function minimizeLeastSquares(problem: LeastSquaresProblem, start: ArrayL
         if (src !== k * m) fjac.copyWithin(k * m, src, src + m);
       }
     }
-    qrFactorize(fjac, m, nAct, m, qr);
+    for (let k = 0; k < nAct; k++) activeNorm[k] = colNorm[active[k]];
+    // Qᵀf is formed in trialF during the factorization.
     trialF.set(fvec);
-    applyQTranspose(fjac, m, nAct, m, trialF);
+    qrFactorize(fjac, m, nAct, m, qr, activeNorm, trialF);
     for (let j = 0; j < nAct; j++) {
       fjac[j * m + j] = qr.rDiagonal[j];
       qtf[j] = trialF[j];

@@ -13,8 +13,17 @@ export function euclideanNorm(v: Float64Array, offset: number, length: number): 
   let sum = 0;
   const end = offset + length;
   for (let i = offset; i < end; i++) sum += v[i] * v[i];
+  return normFromSquares(sum, v, offset, length);
+}
+
+/**
+ * The Euclidean norm of `length` entries of `v` from `offset` given their sum of squares, summed
+ * in index order (as euclideanNorm does): the square root when that sum neither under- nor
+ * overflowed, else the scaled norm. Lets a caller fold the norm into a pass it makes anyway.
+ */
+export function normFromSquares(sum: number, v: Float64Array, offset: number, length: number): number {
   if (sum > SMALL_SQUARE && sum < LARGE_SQUARE) return Math.sqrt(sum);
-  return scaledNorm(v, offset, end);
+  return scaledNorm(v, offset, offset + length);
 }
 
 function scaledNorm(v: Float64Array, start: number, end: number): number {
@@ -38,6 +47,8 @@ export interface QrWorkspace {
   /** Euclidean norms of the original columns. */
   columnNorms: Float64Array;
   scratch: Float64Array;
+  /** Per column, the sum of squares below the current row, gathered during the previous step. */
+  tails: Float64Array;
 }
 
 export function createQrWorkspace(n: number): QrWorkspace {
@@ -46,6 +57,7 @@ export function createQrWorkspace(n: number): QrWorkspace {
     rDiagonal: new Float64Array(n),
     columnNorms: new Float64Array(n),
     scratch: new Float64Array(n),
+    tails: new Float64Array(n),
   };
 }
 
@@ -54,17 +66,28 @@ export function createQrWorkspace(n: number): QrWorkspace {
  * its diagonal, which is in `ws.rDiagonal`), and the lower trapezoid holds the Householder
  * vectors defining Q. Column pivoting picks the largest remaining column each step, which
  * reveals rank and keeps the small-parameter directions accurate.
+ *
+ * `norms`, when given, are the Euclidean norms of the n columns as euclideanNorm computes them
+ * (a caller that has them saves a pass). `rhs`, when given (length m), is overwritten with Qᵀ·rhs
+ * by each reflector as it is formed (the same operations, in the same order, as applying Qᵀ
+ * after the factorization).
+ *
+ * The arithmetic is MINPACK's, operation for operation; only the sweeps are fused: a reflector
+ * is scaled while its first dot products are taken, it is applied to two columns per sweep, and
+ * the sums of squares that the next step's norms need are gathered while a column is updated.
  */
-export function qrFactorize(a: Float64Array, m: number, n: number, lda: number, ws: QrWorkspace): void {
-  const { permutation, rDiagonal, columnNorms, scratch } = ws;
+export function qrFactorize(a: Float64Array, m: number, n: number, lda: number, ws: QrWorkspace, norms?: ArrayLike<number>, rhs?: Float64Array): void {
+  const { permutation, rDiagonal, columnNorms, scratch, tails } = ws;
   for (let j = 0; j < n; j++) {
-    const norm = euclideanNorm(a, j * lda, m);
+    const norm = norms ? norms[j] : euclideanNorm(a, j * lda, m);
     columnNorms[j] = norm;
     rDiagonal[j] = norm;
     scratch[j] = norm;
     permutation[j] = j;
   }
   const steps = Math.min(m, n);
+  // True when tails[k] holds the sum of squares of column k from row j down (gathered by step j − 1).
+  let tailsFresh = false;
   for (let j = 0; j < steps; j++) {
     let kmax = j;
     for (let k = j; k < n; k++) if (rDiagonal[k] > rDiagonal[kmax]) kmax = k;
@@ -75,32 +98,149 @@ export function qrFactorize(a: Float64Array, m: number, n: number, lda: number, 
       const p = permutation[j];
       permutation[j] = permutation[kmax];
       permutation[kmax] = p;
+      const t = tails[j];
+      tails[j] = tails[kmax];
+      tails[kmax] = t;
     }
     const cj = j * lda;
-    let ajnorm = euclideanNorm(a, cj + j, m - j);
+    let ajnorm: number;
+    if (j === 0) ajnorm = columnNorms[permutation[0]];
+    else if (tailsFresh) ajnorm = normFromSquares(tails[j], a, cj + j, m - j);
+    else ajnorm = euclideanNorm(a, cj + j, m - j);
+    tailsFresh = false;
     if (ajnorm !== 0) {
       if (a[cj + j] < 0) ajnorm = -ajnorm;
-      for (let i = j; i < m; i++) a[cj + i] /= ajnorm;
+      a[cj + j] /= ajnorm;
       a[cj + j] += 1;
-      for (let k = j + 1; k < n; k++) {
-        const ck = k * lda;
-        let sum = 0;
-        for (let i = j; i < m; i++) sum += a[cj + i] * a[ck + i];
-        const t = sum / a[cj + j];
-        for (let i = j; i < m; i++) a[ck + i] -= t * a[cj + i];
-        if (rDiagonal[k] !== 0) {
-          const ratio = a[ck + j] / rDiagonal[k];
-          rDiagonal[k] *= Math.sqrt(Math.max(0, 1 - ratio * ratio));
-          const rel = rDiagonal[k] / scratch[k];
-          // Downdated norms lose accuracy through cancellation; recompute when that happens.
-          if (0.05 * rel * rel <= MACHINE_EPSILON) {
-            rDiagonal[k] = euclideanNorm(a, ck + j + 1, m - j - 1);
-            scratch[k] = rDiagonal[k];
-          }
-        }
+      const ajj = a[cj + j];
+      // The rest of the reflector is divided by ajnorm in the first sweep that reads it.
+      let divisor = ajnorm;
+      let k = j + 1;
+      for (; k + 1 < n; k += 2) {
+        reflectPair(a, cj, j, m, ajj, divisor, a, k * lda, a, (k + 1) * lda, tails, k);
+        divisor = 0;
+        downdateNorm(a, m, lda, j, k, rDiagonal, scratch, tails);
+        downdateNorm(a, m, lda, j, k + 1, rDiagonal, scratch, tails);
       }
+      if (k < n && rhs) {
+        reflectPair(a, cj, j, m, ajj, divisor, a, k * lda, rhs, 0, tails, k);
+        divisor = 0;
+        downdateNorm(a, m, lda, j, k, rDiagonal, scratch, tails);
+      } else if (k < n) {
+        tails[k] = reflectOne(a, cj, j, m, ajj, divisor, a, k * lda);
+        divisor = 0;
+        downdateNorm(a, m, lda, j, k, rDiagonal, scratch, tails);
+      } else if (rhs) {
+        reflectOne(a, cj, j, m, ajj, divisor, rhs, 0);
+        divisor = 0;
+      }
+      if (divisor !== 0) for (let i = j + 1; i < m; i++) a[cj + i] /= divisor;
+      tailsFresh = true;
     }
     rDiagonal[j] = -ajnorm;
+  }
+}
+
+/**
+ * Applies the reflector of step j (column at cj of `a`, leading entry ajj) to the targets at
+ * x[cx…] and y[cy…], rows j…m−1: t = (v·target)/ajj, target −= t·v. With divisor ≠ 0 the
+ * reflector's rows below j are first divided by it. Writes the sums of squares of the updated
+ * targets below row j into tails[k] and tails[k + 1] (the second only when y is a column of a).
+ */
+function reflectPair(
+  a: Float64Array,
+  cj: number,
+  j: number,
+  m: number,
+  ajj: number,
+  divisor: number,
+  x: Float64Array,
+  cx: number,
+  y: Float64Array,
+  cy: number,
+  tails: Float64Array,
+  k: number,
+): void {
+  let sx = ajj * x[cx + j];
+  let sy = ajj * y[cy + j];
+  if (divisor !== 0) {
+    for (let i = j + 1; i < m; i++) {
+      const v = a[cj + i] / divisor;
+      a[cj + i] = v;
+      sx += v * x[cx + i];
+      sy += v * y[cy + i];
+    }
+  } else {
+    for (let i = j + 1; i < m; i++) {
+      const v = a[cj + i];
+      sx += v * x[cx + i];
+      sy += v * y[cy + i];
+    }
+  }
+  const tx = sx / ajj;
+  const ty = sy / ajj;
+  x[cx + j] -= tx * ajj;
+  y[cy + j] -= ty * ajj;
+  let qx = 0;
+  let qy = 0;
+  for (let i = j + 1; i < m; i++) {
+    const v = a[cj + i];
+    const nx = x[cx + i] - tx * v;
+    const ny = y[cy + i] - ty * v;
+    x[cx + i] = nx;
+    y[cy + i] = ny;
+    qx += nx * nx;
+    qy += ny * ny;
+  }
+  tails[k] = qx;
+  if (y === a) tails[k + 1] = qy;
+}
+
+/** reflectPair for one target; returns the sum of squares of the updated target below row j. */
+function reflectOne(a: Float64Array, cj: number, j: number, m: number, ajj: number, divisor: number, x: Float64Array, cx: number): number {
+  let sx = ajj * x[cx + j];
+  if (divisor !== 0) {
+    for (let i = j + 1; i < m; i++) {
+      const v = a[cj + i] / divisor;
+      a[cj + i] = v;
+      sx += v * x[cx + i];
+    }
+  } else {
+    for (let i = j + 1; i < m; i++) sx += a[cj + i] * x[cx + i];
+  }
+  const tx = sx / ajj;
+  x[cx + j] -= tx * ajj;
+  let qx = 0;
+  for (let i = j + 1; i < m; i++) {
+    const nx = x[cx + i] - tx * a[cj + i];
+    x[cx + i] = nx;
+    qx += nx * nx;
+  }
+  return qx;
+}
+
+/**
+ * Updates the norm of column k below row j after step j; recomputes it (from the sum of squares
+ * gathered in tails[k]) when cancellation has eaten its accuracy.
+ */
+function downdateNorm(
+  a: Float64Array,
+  m: number,
+  lda: number,
+  j: number,
+  k: number,
+  rDiagonal: Float64Array,
+  scratch: Float64Array,
+  tails: Float64Array,
+): void {
+  if (rDiagonal[k] === 0) return;
+  const ck = k * lda;
+  const ratio = a[ck + j] / rDiagonal[k];
+  rDiagonal[k] *= Math.sqrt(Math.max(0, 1 - ratio * ratio));
+  const rel = rDiagonal[k] / scratch[k];
+  if (0.05 * rel * rel <= MACHINE_EPSILON) {
+    rDiagonal[k] = normFromSquares(tails[k], a, ck + j + 1, m - j - 1);
+    scratch[k] = rDiagonal[k];
   }
 }
 
@@ -111,22 +251,5 @@ function swapColumns(a: Float64Array, m: number, lda: number, j: number, k: numb
     const t = a[cj + i];
     a[cj + i] = a[ck + i];
     a[ck + i] = t;
-  }
-}
-
-/**
- * Overwrites `v` (length m) with Qᵀ·v using the Householder vectors left in `a` by
- * qrFactorize. The Householder vector of step j is stored with a[j,j] as its leading entry.
- */
-export function applyQTranspose(a: Float64Array, m: number, n: number, lda: number, v: Float64Array): void {
-  const steps = Math.min(m, n);
-  for (let j = 0; j < steps; j++) {
-    const cj = j * lda;
-    const ajj = a[cj + j];
-    if (ajj === 0) continue;
-    let sum = 0;
-    for (let i = j; i < m; i++) sum += a[cj + i] * v[i];
-    const t = -sum / ajj;
-    for (let i = j; i < m; i++) v[i] += t * a[cj + i];
   }
 }

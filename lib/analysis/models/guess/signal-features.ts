@@ -20,14 +20,67 @@ export function mean(values: ArrayLike<number>, from = 0, to = values.length): n
   return to > from ? sum / (to - from) : Number.NaN;
 }
 
-/** Linear-interpolated quantile, q in [0, 1]. */
+/**
+ * Linear-interpolated quantile, q in [0, 1]: the two order statistics it needs are found by
+ * selection in linear time, not by sorting (NaN entries fall back to the sort, which puts them last).
+ */
 export function quantile(values: ArrayLike<number>, q: number): number {
-  const sorted = Float64Array.from(values).sort();
-  if (sorted.length === 0) return Number.NaN;
-  const position = q * (sorted.length - 1);
+  const work = Float64Array.from(values);
+  const n = work.length;
+  if (n === 0) return Number.NaN;
+  const position = q * (n - 1);
   const lo = Math.floor(position);
-  const hi = Math.min(lo + 1, sorted.length - 1);
-  return sorted[lo] + (sorted[hi] - sorted[lo]) * (position - lo);
+  const hi = Math.min(lo + 1, n - 1);
+  let finite = true;
+  for (let i = 0; i < n && finite; i++) finite = work[i] === work[i];
+  if (!finite) {
+    work.sort();
+    return work[lo] + (work[hi] - work[lo]) * (position - lo);
+  }
+  const below = selectInPlace(work, lo);
+  let above = below;
+  if (hi !== lo) {
+    above = work[hi];
+    for (let i = hi + 1; i < n; i++) if (work[i] < above) above = work[i];
+  }
+  return below + (above - below) * (position - lo);
+}
+
+/**
+ * Rearranges `a` so that a[k] is the k-th smallest value, with nothing larger before it and
+ * nothing smaller after it (Hoare's selection with a median-of-three pivot); returns a[k].
+ */
+function selectInPlace(a: Float64Array, k: number): number {
+  let left = 0;
+  let right = a.length - 1;
+  while (right > left) {
+    const mid = (left + right) >>> 1;
+    if (a[mid] < a[left]) swap(a, mid, left);
+    if (a[right] < a[left]) swap(a, right, left);
+    if (a[right] < a[mid]) swap(a, right, mid);
+    const pivot = a[mid];
+    let i = left;
+    let j = right;
+    while (i <= j) {
+      while (a[i] < pivot) i++;
+      while (a[j] > pivot) j--;
+      if (i <= j) {
+        swap(a, i, j);
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) right = j;
+    else if (k >= i) left = i;
+    else break;
+  }
+  return a[k];
+}
+
+function swap(a: Float64Array, i: number, j: number): void {
+  const t = a[i];
+  a[i] = a[j];
+  a[j] = t;
 }
 
 export function median(values: ArrayLike<number>): number {
