@@ -21,4 +21,6 @@ export interface StoredResult {
   converged?: boolean;
   reason?: string;
   warnings?: string[];
+  /** Absent on runs stored before fits were judged. */
+  quality?: FitResult["quality"];
 }

@@ -58,7 +58,7 @@ export function BatchResults({ outcomes, model, groupTag }: { outcomes: BatchOut
                   })}
                   <td className="px-2.5 py-2 tabular-nums">{formatNumber(run.chi2red, 3)}</td>
                   <td className="whitespace-nowrap px-2.5 py-2">
-                    <Converged ok={run.converged} />
+                    <Converged ok={run.converged} quality={run.quality} />
                   </td>
                 </>
               ) : (

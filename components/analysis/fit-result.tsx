@@ -20,21 +20,77 @@ function Warnings({ items, label = "Fit warnings" }: { items: string[]; label?: 
   );
 }
 
-export function Converged({ ok, reason }: { ok: boolean | undefined; reason?: string }) {
-  return ok ? (
-    <span className="text-good">
+type QualityLevel = "good" | "questionable" | "not supported";
+
+/** The fit's overall level in a colour, a shape and words (lib/analysis/fit-quality). */
+const QUALITY: Record<QualityLevel, { tone: string; mark: string; words: string }> = {
+  good: { tone: "text-good", mark: "✓", words: "good fit" },
+  questionable: { tone: "text-warn", mark: "⚠", words: "questionable fit" },
+  "not supported": { tone: "text-bad", mark: "✕", words: "fit not supported by the data" },
+};
+
+/**
+ * The solver's outcome and, beside it, whether the fit describes the data: the tick is green only
+ * when the fit was judged good; a run stored before fits were judged says so.
+ */
+export function Converged({ ok, reason, quality }: { ok: boolean | undefined; reason?: string; quality?: { level: QualityLevel; summary?: string } | null }) {
+  if (!ok) {
+    return (
+      <span className="text-bad">
+        <span aria-hidden className="font-bold">
+          ✕{" "}
+        </span>
+        did not converge{reason ? <span className="text-muted"> ({reason})</span> : null}
+      </span>
+    );
+  }
+  const q = quality ? QUALITY[quality.level] : undefined;
+  return (
+    <span className={q?.tone ?? "text-muted"} title={quality?.summary}>
       <span aria-hidden className="font-bold">
         ✓{" "}
       </span>
       converged{reason ? <span className="text-muted"> ({reason})</span> : null}
-    </span>
-  ) : (
-    <span className="text-bad">
-      <span aria-hidden className="font-bold">
-        ✕{" "}
+      <span data-testid="fit-quality-level">
+        {" · "}
+        {q ? (
+          <>
+            <span aria-hidden className="font-bold">
+              {q.mark}{" "}
+            </span>
+            {q.words}
+          </>
+        ) : (
+          "quality not judged"
+        )}
       </span>
-      did not converge{reason ? <span className="text-muted"> ({reason})</span> : null}
     </span>
+  );
+}
+
+/** Why the fit got its level: one line per finding, the serious ones first. */
+function QualityFindings({ quality }: { quality: NonNullable<FitResult["quality"]> }) {
+  if (!quality.findings.length) return null;
+  const ordered = [...quality.findings].sort((a, b) => (a.level === b.level ? 0 : a.level === "not supported" ? -1 : 1));
+  return (
+    <div className="space-y-1 text-sm" data-testid="fit-quality">
+      <p className={`font-medium ${QUALITY[quality.level].tone}`}>
+        <span aria-hidden className="font-bold">
+          {QUALITY[quality.level].mark}{" "}
+        </span>
+        {quality.summary.charAt(0).toUpperCase() + quality.summary.slice(1)}.
+      </p>
+      <ul aria-label="Fit quality findings" className="space-y-1">
+        {ordered.map((f) => (
+          <li key={f.message} className={`flex items-start gap-2 ${QUALITY[f.level].tone}`}>
+            <span aria-hidden className="font-bold">
+              {QUALITY[f.level].mark}
+            </span>
+            <span>{f.message}</span>
+          </li>
+        ))}
+      </ul>
+    </div>
   );
 }
 
@@ -101,6 +157,7 @@ export function FitResultView({ result, modelTitle, xName, yName }: { result: Fi
           </table>
         </div>
         {result.derived?.length ? <DerivedTable items={result.derived} /> : null}
+        {result.quality ? <QualityFindings quality={result.quality} /> : null}
         {result.verdicts?.map((v) => (
           <p key={v} className={`text-sm font-medium ${v.startsWith("Single emitter") ? "text-good" : "text-warn"}`} data-testid="fit-verdict">
             {v}
@@ -113,6 +170,22 @@ export function FitResultView({ result, modelTitle, xName, yName }: { result: Fi
           </dd>
           <dt className="text-muted">R²</dt>
           <dd className="tabular-nums">{formatNumber(result.r2, 5)}</dd>
+          {result.quality?.chi2Interval ? (
+            <>
+              <dt className="text-muted">χ²ᵣ expected (99 %)</dt>
+              <dd className="tabular-nums" data-testid="chi2-interval">
+                {formatNumber(result.quality.chi2Interval[0], 3)}–{formatNumber(result.quality.chi2Interval[1], 3)}
+              </dd>
+            </>
+          ) : null}
+          <dt className="text-muted">Runs test</dt>
+          <dd className="tabular-nums" data-testid="runs-test">
+            {result.quality?.runs ? `z = ${formatNumber(result.quality.runs.z, 3)}, p = ${formatNumber(result.quality.runs.p, 2)}` : "too few points"}
+          </dd>
+          <dt className="text-muted">Durbin–Watson d</dt>
+          <dd className="tabular-nums" data-testid="durbin-watson">
+            {result.quality?.durbinWatson ? formatNumber(result.quality.durbinWatson.d, 3) : "too few points"}
+          </dd>
           <dt className="text-muted">Points · dof</dt>
           <dd className="tabular-nums">
             {result.points} · {result.dof}
@@ -121,7 +194,7 @@ export function FitResultView({ result, modelTitle, xName, yName }: { result: Fi
           <dd className="tabular-nums">{result.iterations}</dd>
           <dt className="text-muted">Solver</dt>
           <dd>
-            <Converged ok={result.converged} reason={result.reason} />
+            <Converged ok={result.converged} reason={result.reason} quality={result.quality} />
           </dd>
         </dl>
         <p className="text-xs text-muted">

@@ -102,7 +102,7 @@ export function StoredRuns({
                 </td>
                 <td className="px-3 py-2 tabular-nums">{formatNumber(result.chi2red, 3)}</td>
                 <td className="whitespace-nowrap px-3 py-2">
-                  <Converged ok={result.converged} />
+                  <Converged ok={result.converged} quality={result.quality} />
                 </td>
                 <td className="whitespace-nowrap px-3 py-2">{r.derivedVersionId ? <DerivedLink versionId={r.derivedVersionId} /> : "—"}</td>
                 {mayArchive ? (

@@ -7,6 +7,7 @@
 import { fitCurve, type CurveFitResult } from "./fit/fit-curve";
 import type { SolverOptions } from "./fit/levenberg-marquardt";
 import { FitInputError } from "./fit-input-error";
+import { judgeFit, type FitQuality } from "./fit-quality";
 import { getModelOrThrow } from "./model-lookup";
 import type { FitModel, UnitRole } from "./models/types";
 
@@ -22,6 +23,8 @@ export interface FitInput {
   /** Bounds by parameter name, replacing the model's defaults. */
   bounds?: Record<string, [number, number]>;
   maxIterations?: number;
+  /** Unit of the x column (e.g. "MHz", "µs"): lets the fit be checked against physical ranges. */
+  xUnit?: string | null;
   /** Solver tolerances, for reference tests; the defaults suit measured data. */
   solver?: Partial<Omit<SolverOptions, "maxIterations">>;
 }
@@ -62,6 +65,8 @@ export interface ModelFitResult extends Omit<CurveFitResult, "params"> {
   /** Fitted values by parameter name. */
   values: Record<string, number>;
   warnings: string[];
+  /** Whether the fit describes the data, beyond the solver having converged (lib/analysis/fit-quality). */
+  quality: FitQuality;
 }
 
 const CORRELATION_WARNING = 0.95;
@@ -163,6 +168,7 @@ export function fitModel(modelId: string | FitModel, input: FitInput): ModelFitR
     verdicts: [...notes, ...(model.verdict?.(derived) ?? [])],
     values: Object.fromEntries(params.map((p) => [p.name, p.value])),
     warnings,
+    quality: judgeFit({ model, x: input.x, y: input.y, sigma: input.sigma, xUnit: input.xUnit, result, bounds }),
   };
 }
 

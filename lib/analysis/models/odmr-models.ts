@@ -10,7 +10,8 @@
 import { contrastAt, dipProfile, findDips, type Dip } from "./guess/dip-guess";
 import { matchLinePattern } from "./guess/line-pattern";
 import { median, xScale } from "./guess/signal-features";
-import type { FitModel, ModelParam } from "./types";
+import { N14_SPLITTING_RANGE, N15_SPLITTING_RANGE } from "./physical-ranges";
+import type { FitModel, ModelParam, ModelSuggestion, PhysicalRange } from "./types";
 import { NV_14N_SPLITTING_MHZ, NV_15N_SPLITTING_MHZ } from "@/lib/physics/constants";
 
 /** Peak-normalised Lorentzian with full width `width` at half maximum. */
@@ -40,6 +41,49 @@ function dipsOrDefault(x: ArrayLike<number>, y: ArrayLike<number>, count: number
 function dipBounds(x: ArrayLike<number>): { position: [number, number]; width: [number, number]; depth: [number, number] } {
   const { min, max, span, step } = xScale(x);
   return { position: [min, max], width: [step / 10, span], depth: [0, 1] };
+}
+
+/** A valley between dips wider than this many typical line widths (and than 1/20 of the sweep) separates two groups. */
+const GROUP_GAP_WIDTHS = 10;
+/** A group counts when its deepest dip is at least this fraction of the deepest dip of the spectrum. */
+const GROUP_DEPTH_FRACTION = 1 / 3;
+
+/**
+ * Groups of dips in the spectrum (centre as the mean position of their dips, in x units): dips
+ * closer than GROUP_GAP_WIDTHS typical widths belong to one group, as the hyperfine lines of one
+ * resonance do; shallow groups (noise) are left out.
+ */
+function dipGroups(x: ArrayLike<number>, y: ArrayLike<number>): Array<{ centre: number; depth: number; dips: number }> {
+  const profile = dipProfile(x, y);
+  const dips = findDips(profile, 8).sort((a, b) => a.position - b.position);
+  if (dips.length === 0) return [];
+  const widths = dips.map((d) => d.width).filter(Number.isFinite);
+  const gap = Math.max(GROUP_GAP_WIDTHS * (widths.length > 0 ? median(widths) : profile.step), xScale(x).span / 20);
+  const groups: Array<typeof dips> = [[dips[0]]];
+  for (let k = 1; k < dips.length; k++) {
+    if (dips[k].position - dips[k - 1].position > gap) groups.push([]);
+    groups[groups.length - 1].push(dips[k]);
+  }
+  const deepest = Math.max(...dips.map((d) => d.depth));
+  return groups
+    .map((g) => ({ centre: g.reduce((s, d) => s + d.position, 0) / g.length, depth: Math.max(...g.map((d) => d.depth)), dips: g.length }))
+    .filter((g) => g.depth >= GROUP_DEPTH_FRACTION * deepest);
+}
+
+const showPosition = (v: number): string => String(Number(v.toPrecision(5)));
+
+/**
+ * For models of one resonance: when the spectrum shows two to four separate groups of dips (f₋ and
+ * f₊ of one NV, or several orientations), names the model with one line per group. No model here
+ * fits hyperfine lines in each of two groups; the per-group line then takes the group's width.
+ */
+function suggestForGroups(x: ArrayLike<number>, y: ArrayLike<number>): ModelSuggestion | undefined {
+  const groups = dipGroups(x, y);
+  if (groups.length < 2 || groups.length > 4) return undefined;
+  const near = groups.map((g) => showPosition(g.centre));
+  const listed = `${near.slice(0, -1).join(", ")} and ${near[near.length - 1]}`;
+  const reason = `the data show ${groups.length} separate groups of dips (near ${listed}) but this model describes one resonance`;
+  return groups.length === 2 ? { modelId: "odmr_two_resonances", reason } : { modelId: `odmr_lorentzian_${groups.length}`, reason };
 }
 
 function multiDipModel(id: string, title: string, kinds: string[], names: Array<[string, string, string]>): FitModel {
@@ -92,10 +136,11 @@ function multiDipModel(id: string, title: string, kinds: string[], names: Array<
       return [[0, Infinity], ...names.flatMap(() => [b.position, b.width, b.depth])];
     },
     amplitudes: names.map(([f, w, c]) => ({ amplitude: c, shapes: [f, w] })),
+    ...(count === 1 ? { suggest: suggestForGroups } : {}),
   };
 }
 
-function patternDipModel(id: string, title: string, nucleus: string, splittingMHz: number, pattern: readonly number[]): FitModel {
+function patternDipModel(id: string, title: string, nucleus: string, splittingMHz: number, pattern: readonly number[], plausible: PhysicalRange): FitModel {
   const lines = pattern.map((k) => (k === 0 ? "f₀" : `f₀ ${k < 0 ? "−" : "+"} ${Math.abs(k) === 1 ? "" : "½"}|A∥|`));
   const valueAndJacobian = (f: number, p: ArrayLike<number>, out: Float64Array): number => {
     const b = p[0];
@@ -168,6 +213,8 @@ function patternDipModel(id: string, title: string, nucleus: string, splittingMH
       return [[0, Infinity], b.position, [0, span], b.width, b.depth];
     },
     amplitudes: [{ amplitude: "c", shapes: ["f0", "Apar", "w"] }],
+    physicalRanges: [plausible],
+    suggest: suggestForGroups,
   };
 }
 
@@ -187,6 +234,20 @@ export const odmrTwoResonancesModel: FitModel = multiDipModel(
   ],
 );
 
-export const odmr14nTripletModel: FitModel = patternDipModel("odmr_14n_triplet", "ODMR, ¹⁴N hyperfine triplet", "¹⁴N", NV_14N_SPLITTING_MHZ, [-1, 0, 1]);
+export const odmr14nTripletModel: FitModel = patternDipModel(
+  "odmr_14n_triplet",
+  "ODMR, ¹⁴N hyperfine triplet",
+  "¹⁴N",
+  NV_14N_SPLITTING_MHZ,
+  [-1, 0, 1],
+  N14_SPLITTING_RANGE,
+);
 
-export const odmr15nDoubletModel: FitModel = patternDipModel("odmr_15n_doublet", "ODMR, ¹⁵N hyperfine doublet", "¹⁵N", NV_15N_SPLITTING_MHZ, [-0.5, 0.5]);
+export const odmr15nDoubletModel: FitModel = patternDipModel(
+  "odmr_15n_doublet",
+  "ODMR, ¹⁵N hyperfine doublet",
+  "¹⁵N",
+  NV_15N_SPLITTING_MHZ,
+  [-0.5, 0.5],
+  N15_SPLITTING_RANGE,
+);

@@ -8,6 +8,7 @@
 import { guessOscillation } from "./guess/oscillation-guess";
 import { xScale } from "./guess/signal-features";
 import { nyquistFrequency, nyquistWarnings } from "./nyquist";
+import { N14_SPLITTING_RANGE } from "./physical-ranges";
 import type { FitModel } from "./types";
 import { NV_14N_SPLITTING_MHZ } from "@/lib/physics/constants";
 
@@ -116,6 +117,7 @@ export const ramsey14nModel: FitModel = {
     return [s0, a, time, delta, [0, nyquistFrequency(x)], phi];
   },
   amplitudes: [{ amplitude: "A", shapes: ["T2star", "delta", "Apar", "phi"] }],
+  physicalRanges: [N14_SPLITTING_RANGE],
   // The three lines sit at δ − |A∥|, δ and δ + |A∥|; the outer one can pass the limit while δ and |A∥| stay below it.
   checkFit: (p, x) =>
     nyquistWarnings(

@@ -27,6 +27,30 @@ export interface DerivedQuantity {
 }
 
 /**
+ * The range a parameter takes in a physical system, for judging a fit: a value outside it means the
+ * model converged onto something other than what it describes (e.g. a ¹⁴N "splitting" of 235 MHz
+ * that is really the distance between f₋ and f₊). Frequencies are stated in MHz and compared after
+ * converting the parameter's unit (from the x column: Hz, kHz, MHz, GHz, or 1/s … 1/ns); the check
+ * is left out when the unit is not known.
+ */
+export interface PhysicalRange {
+  name: string;
+  /** Lowest and highest plausible |value| (or value, when not `absolute`), in `unit`. */
+  range: [number, number];
+  unit: "MHz" | "1";
+  /** Compare |value|: a splitting whose sign the data do not show. */
+  absolute?: boolean;
+  /** What the parameter is physically, as a phrase ("the ¹⁴N hyperfine splitting |A∥|"). */
+  what: string;
+}
+
+/** Another model that fits the shape of the data better, and why, in words. */
+export interface ModelSuggestion {
+  modelId: string;
+  reason: string;
+}
+
+/**
  * A curve model y = f(x; p). Everything is in the data's own units: the model never assumes
  * that x is in µs or MHz, so start values come from the data (extrema, periodograms,
  * log-linear regressions), not from physical constants.
@@ -68,4 +92,8 @@ export interface FitModel {
    * Nyquist limit 1/(2Δt), where its alias fits the samples as well).
    */
   checkFit?(p: ArrayLike<number>, x: ArrayLike<number>): string[];
+  /** Where the parameters lie in the system the model describes (checked after the fit). */
+  physicalRanges?: PhysicalRange[];
+  /** Looks at the shape of the data (e.g. how many groups of dips) and names a model that matches it better. */
+  suggest?(x: ArrayLike<number>, y: ArrayLike<number>): ModelSuggestion | undefined;
 }

@@ -18,13 +18,17 @@ const CURVE_POINTS = 400;
 const nullIfNaN = (v: number) => (Number.isFinite(v) ? v : null);
 
 /** Runs the model on the selected columns with the options' start values, fixed parameters, bounds and iteration cap. */
-export function fitOrExplain(input: Pick<AnalysisInput, "model" | "options">, data: Pick<FitData, "x" | "y" | "sigma">): ModelFitResult {
+export function fitOrExplain(
+  input: Pick<AnalysisInput, "model" | "options">,
+  data: Pick<FitData, "x" | "y" | "sigma"> & { xUnit?: string | null },
+): ModelFitResult {
   if (!getModel(input.model)) throw badRequest(`model: unknown model "${input.model}"; GET /api/analysis-models lists them.`);
   try {
     return fitModel(input.model, {
       x: data.x,
       y: data.y,
       sigma: data.sigma,
+      xUnit: data.xUnit,
       start: input.options.start,
       fixed: input.options.fixed,
       bounds: input.options.bounds,
@@ -93,6 +97,8 @@ function describeRun(input: AnalysisInput, data: FitData, fit: ModelFitResult, c
     bic: nullIfNaN(fit.bic),
     converged: fit.converged,
     reason: fit.reason,
+    // Whether the fit describes the data (residual structure, χ²ᵣ, bounds, physical ranges, shape), in one level and words.
+    quality: fit.quality,
     iterations: fit.iterations,
     warnings: [...fit.warnings, ...(data.dropped ? [`${data.dropped} rows left out (missing values or outside the x range)`] : [])],
     covariance: fit.covariance.map((r) => r.map(nullIfNaN)),
