@@ -118,7 +118,7 @@ test("upload, fit, build two panels, take a reviewer's change, re-approve, sign 
   await builder.getByLabel("Signal axis name", { exact: true }).fill("echo amplitude");
   await expect(builder.getByTestId("builder-preview").locator("svg.marks")).toContainText("echo amplitude");
   await saveA.getByRole("textbox", { name: "What changed (revision note)", exact: true }).fill("Signal axis named as asked");
-  await saveA.getByRole("button", { name: "Save revision 2", exact: true }).click();
+  await saveA.getByRole("button", { name: "Save as revision 2", exact: true }).click();
   await expect(page.getByRole("region", { name: "Current revision", exact: true })).toContainText("Revision 2");
   await shoot(page, "journey-panel-a-revised");
 
