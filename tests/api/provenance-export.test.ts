@@ -67,7 +67,10 @@ beforeAll(async () => {
   ).json.id;
   analysisId = (await post(analyses.POST, "author", {}, { versionId, model: "hahn_echo", options: { x: "tau", y: "signal", sigma: "sigma" } })).json.id;
   figureId = (await post(figuresRoute.POST, "author", {}, { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Coherence", widthMm: 183, columns: 2 })).json.id;
-  const enc = { x: { field: "tau", type: "quantitative", scale: { type: "log" } }, y: { field: "signal", type: "quantitative" } };
+  const enc = {
+    x: { field: "tau", type: "quantitative", title: "τ (µs)", scale: { type: "log" } },
+    y: { field: "signal", type: "quantitative", title: "signal (norm.)" },
+  };
   const panels: string[] = [];
   for (const spec of [
     {
@@ -290,6 +293,8 @@ describe("the bundle as an RO-Crate 1.2", () => {
     const trace = JSON.parse(strFromU8(files["trace.json"]!));
     expect(sha256(files["specs/panel-a.vl.json"]!)).toBe(trace.panels[0].revision.specSha256);
     expect(strFromU8(files[`fits/hahn_echo-${analysisId}.txt`]!)).toMatch(/^Model: hahn_echo, version 1\.0\.0$/m);
+    // The readable report judges the fit, not only whether the solver converged.
+    expect(strFromU8(files[`fits/hahn_echo-${analysisId}.txt`]!)).toMatch(/^Quality: (good|questionable|not supported) — .+$/m);
     expect(strFromU8(files["figure.png"]!.slice(1, 4))).toBe("PNG");
     expect(strFromU8(files["figure.pdf"]!.slice(0, 5))).toBe("%PDF-");
   });

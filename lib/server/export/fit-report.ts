@@ -59,6 +59,13 @@ export function fitReportText(f: StoredFit): string {
     `χ² = ${formatNumber(num(r.chi2))}; reduced χ² = ${formatNumber(num(r.chi2red))}; R² = ${formatNumber(num(r.r2))}`,
     `Converged: ${r.converged === true ? "yes" : "no"}${typeof r.reason === "string" && r.reason ? ` (${r.reason})` : ""}`,
   );
+  const quality = r.quality as { level?: unknown; summary?: unknown; findings?: Array<{ message?: unknown }> } | undefined;
+  lines.push(
+    quality && typeof quality.summary === "string"
+      ? `Quality: ${String(quality.level)} — ${quality.summary}`
+      : "Quality: not judged (a run stored before fits were judged)",
+  );
+  for (const f of Array.isArray(quality?.findings) ? quality.findings : []) if (typeof f?.message === "string") lines.push(`  ${f.message}`);
   const warnings = Array.isArray(r.warnings) ? (r.warnings as unknown[]).map(String) : [];
   if (warnings.length) lines.push("", "Warnings:", ...warnings.map((w) => `  ${w}`));
   return lines.join("\n") + "\n";
