@@ -135,6 +135,7 @@ test("upload, fit, build two panels, take a reviewer's change, re-approve, sign 
   await expect(pi.getByText(/^Signed off hash [0-9a-f]{12}/)).toBeVisible();
   await pi.reload();
   await expect(pi.getByText("Signed off on this figure hash: exports carry no draft mark.")).toBeVisible();
+  for (const letter of ["a", "b"]) await expect(pi.getByTestId(`panel-tile-${letter}`).locator("svg.marks")).toBeVisible();
   await shoot(pi, "journey-signed-off");
 
   // 9. The export: no draft mark, the reviewer's axis name, the figure's own size.
