@@ -76,7 +76,7 @@ export function fitCurve(model: CurveFunction, data: CurveData, options: CurveFi
     problem.jacobian(outcome.params, jacobian);
   }
   const { covariance: cov, undetermined: undeterminedFree } = computeCovariance(jacobian, m, n);
-  // computeCovariance has overwritten the Jacobian; its storage serves the next fit.
+  // computeCovariance has overwritten the Jacobian; its storage (and, below, the residuals') serves the next fit.
   releaseScratch(jacobian);
 
   const chi2 = outcome.sumOfSquares;
@@ -110,6 +110,7 @@ export function fitCurve(model: CurveFunction, data: CurveData, options: CurveFi
     sumW += w;
     sumWY += w * data.y[i];
   }
+  releaseScratch(outcome.residuals);
   const meanY = sumWY / sumW;
   let total = 0;
   for (let i = 0; i < m; i++) {

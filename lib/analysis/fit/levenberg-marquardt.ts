@@ -117,7 +117,7 @@ export function minimizeLeastSquares(problem: LeastSquaresProblem, start: ArrayL
 
   const x = new Float64Array(n);
   for (let j = 0; j < n; j++) x[j] = project(start[j], lower[j], upper[j]);
-  const fvec = new Float64Array(m);
+  const fvec = takeScratch(m);
   const trialF = takeScratch(m);
   let fjac = takeScratch(m * n);
   const combined = problem.residualsAndJacobian?.bind(problem);

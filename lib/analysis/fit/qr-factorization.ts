@@ -42,13 +42,17 @@ function scaledNorm(v: Float64Array, start: number, end: number): number {
 export interface QrWorkspace {
   /** Column permutation: column j of R corresponds to original column permutation[j]. */
   permutation: Int32Array;
-  /** Diagonal of R (the stored matrix holds the Householder vectors there). */
+  /** Diagonal of R (the stored matrix holds the reflectors' leading entries there). */
   rDiagonal: Float64Array;
   /** Euclidean norms of the original columns. */
   columnNorms: Float64Array;
   scratch: Float64Array;
   /** Per column, the sum of squares below the current row, gathered during the previous step. */
   tails: Float64Array;
+  /** Where each pivoted column is stored while factorizing (columns are not moved until the end). */
+  offsets: Int32Array;
+  /** The upper triangle in pivoted order, while it is put in place. */
+  top: Float64Array;
 }
 
 export function createQrWorkspace(n: number): QrWorkspace {
@@ -58,13 +62,15 @@ export function createQrWorkspace(n: number): QrWorkspace {
     columnNorms: new Float64Array(n),
     scratch: new Float64Array(n),
     tails: new Float64Array(n),
+    offsets: new Int32Array(n),
+    top: new Float64Array(n * n),
   };
 }
 
 /**
  * Factorizes A·P = Q·R in place. On return the strict upper triangle of `a` holds R (without
- * its diagonal, which is in `ws.rDiagonal`), and the lower trapezoid holds the Householder
- * vectors defining Q. Column pivoting picks the largest remaining column each step, which
+ * its diagonal, which is in `ws.rDiagonal`) in pivoted column order; the rest of `a` is work space
+ * (Q is not kept: pass `rhs` to have Qᵀ applied to a vector). Column pivoting picks the largest remaining column each step, which
  * reveals rank and keeps the small-parameter directions accurate.
  *
  * `norms`, when given, are the Euclidean norms of the n columns as euclideanNorm computes them
@@ -73,17 +79,19 @@ export function createQrWorkspace(n: number): QrWorkspace {
  * after the factorization).
  *
  * The arithmetic is MINPACK's, operation for operation; only the sweeps are fused: a reflector
- * is scaled while its first dot products are taken, it is applied to two columns per sweep, and
- * the sums of squares that the next step's norms need are gathered while a column is updated.
+ * is scaled while its first dot products are taken, it is applied to two columns per sweep, the
+ * sums of squares that the next step's norms need are gathered while a column is updated, and
+ * pivoting moves column offsets instead of columns (only the triangle is put in order at the end).
  */
 export function qrFactorize(a: Float64Array, m: number, n: number, lda: number, ws: QrWorkspace, norms?: ArrayLike<number>, rhs?: Float64Array): void {
-  const { permutation, rDiagonal, columnNorms, scratch, tails } = ws;
+  const { permutation, rDiagonal, columnNorms, scratch, tails, offsets, top } = ws;
   for (let j = 0; j < n; j++) {
     const norm = norms ? norms[j] : euclideanNorm(a, j * lda, m);
     columnNorms[j] = norm;
     rDiagonal[j] = norm;
     scratch[j] = norm;
     permutation[j] = j;
+    offsets[j] = j * lda;
   }
   const steps = Math.min(m, n);
   // True when tails[k] holds the sum of squares of column k from row j down (gathered by step j − 1).
@@ -92,7 +100,9 @@ export function qrFactorize(a: Float64Array, m: number, n: number, lda: number, 
     let kmax = j;
     for (let k = j; k < n; k++) if (rDiagonal[k] > rDiagonal[kmax]) kmax = k;
     if (kmax !== j) {
-      swapColumns(a, m, lda, j, kmax);
+      const o = offsets[j];
+      offsets[j] = offsets[kmax];
+      offsets[kmax] = o;
       rDiagonal[kmax] = rDiagonal[j];
       scratch[kmax] = scratch[j];
       const p = permutation[j];
@@ -102,7 +112,7 @@ export function qrFactorize(a: Float64Array, m: number, n: number, lda: number, 
       tails[j] = tails[kmax];
       tails[kmax] = t;
     }
-    const cj = j * lda;
+    const cj = offsets[j];
     let ajnorm: number;
     if (j === 0) ajnorm = columnNorms[permutation[0]];
     else if (tailsFresh) ajnorm = normFromSquares(tails[j], a, cj + j, m - j);
@@ -117,19 +127,19 @@ export function qrFactorize(a: Float64Array, m: number, n: number, lda: number, 
       let divisor = ajnorm;
       let k = j + 1;
       for (; k + 1 < n; k += 2) {
-        reflectPair(a, cj, j, m, ajj, divisor, a, k * lda, a, (k + 1) * lda, tails, k);
+        reflectPair(a, cj, j, m, ajj, divisor, a, offsets[k], a, offsets[k + 1], tails, k);
         divisor = 0;
-        downdateNorm(a, m, lda, j, k, rDiagonal, scratch, tails);
-        downdateNorm(a, m, lda, j, k + 1, rDiagonal, scratch, tails);
+        downdateNorm(a, m, offsets[k], j, k, rDiagonal, scratch, tails);
+        downdateNorm(a, m, offsets[k + 1], j, k + 1, rDiagonal, scratch, tails);
       }
       if (k < n && rhs) {
-        reflectPair(a, cj, j, m, ajj, divisor, a, k * lda, rhs, 0, tails, k);
+        reflectPair(a, cj, j, m, ajj, divisor, a, offsets[k], rhs, 0, tails, k);
         divisor = 0;
-        downdateNorm(a, m, lda, j, k, rDiagonal, scratch, tails);
+        downdateNorm(a, m, offsets[k], j, k, rDiagonal, scratch, tails);
       } else if (k < n) {
-        tails[k] = reflectOne(a, cj, j, m, ajj, divisor, a, k * lda);
+        tails[k] = reflectOne(a, cj, j, m, ajj, divisor, a, offsets[k]);
         divisor = 0;
-        downdateNorm(a, m, lda, j, k, rDiagonal, scratch, tails);
+        downdateNorm(a, m, offsets[k], j, k, rDiagonal, scratch, tails);
       } else if (rhs) {
         reflectOne(a, cj, j, m, ajj, divisor, rhs, 0);
         divisor = 0;
@@ -138,6 +148,16 @@ export function qrFactorize(a: Float64Array, m: number, n: number, lda: number, 
       tailsFresh = true;
     }
     rDiagonal[j] = -ajnorm;
+  }
+  // Rows 0…j of each pivoted column j (R above the diagonal, the reflector's leading entry on it)
+  // into column j of a, as if the columns had been swapped as they were chosen.
+  for (let j = 0; j < n; j++) {
+    const rows = Math.min(j + 1, m);
+    for (let i = 0; i < rows; i++) top[j * n + i] = a[offsets[j] + i];
+  }
+  for (let j = 0; j < n; j++) {
+    const rows = Math.min(j + 1, m);
+    for (let i = 0; i < rows; i++) a[j * lda + i] = top[j * n + i];
   }
 }
 
@@ -223,33 +243,13 @@ function reflectOne(a: Float64Array, cj: number, j: number, m: number, ajj: numb
  * Updates the norm of column k below row j after step j; recomputes it (from the sum of squares
  * gathered in tails[k]) when cancellation has eaten its accuracy.
  */
-function downdateNorm(
-  a: Float64Array,
-  m: number,
-  lda: number,
-  j: number,
-  k: number,
-  rDiagonal: Float64Array,
-  scratch: Float64Array,
-  tails: Float64Array,
-): void {
+function downdateNorm(a: Float64Array, m: number, ck: number, j: number, k: number, rDiagonal: Float64Array, scratch: Float64Array, tails: Float64Array): void {
   if (rDiagonal[k] === 0) return;
-  const ck = k * lda;
   const ratio = a[ck + j] / rDiagonal[k];
   rDiagonal[k] *= Math.sqrt(Math.max(0, 1 - ratio * ratio));
   const rel = rDiagonal[k] / scratch[k];
   if (0.05 * rel * rel <= MACHINE_EPSILON) {
     rDiagonal[k] = normFromSquares(tails[k], a, ck + j + 1, m - j - 1);
     scratch[k] = rDiagonal[k];
-  }
-}
-
-function swapColumns(a: Float64Array, m: number, lda: number, j: number, k: number): void {
-  const cj = j * lda;
-  const ck = k * lda;
-  for (let i = 0; i < m; i++) {
-    const t = a[cj + i];
-    a[cj + i] = a[ck + i];
-    a[ck + i] = t;
   }
 }

@@ -46,6 +46,8 @@ export function findDips(profile: DipProfile, maxCount: number): Dip[] {
   const reach = smoothingHalfWidth(m);
   const candidates: number[] = [];
   for (let i = 0; i < m; i++) {
+    // Most points lose to a next neighbour already; only the rest need the whole neighbourhood.
+    if (reach > 0 && ((i > 0 && contrast[i - 1] >= contrast[i]) || (i + 1 < m && contrast[i + 1] > contrast[i]))) continue;
     let isMax = true;
     for (let k = Math.max(0, i - reach); k <= Math.min(m - 1, i + reach) && isMax; k++) {
       if (contrast[k] > contrast[i] || (contrast[k] === contrast[i] && k < i)) isMax = false;
