@@ -7,6 +7,7 @@ import { Button, Field, Notice } from "@/components/ui";
 import { formatDate, shortHash } from "@/lib/data/format";
 import type { ManuscriptView } from "./review-api";
 import { StateBadge } from "./state-badge";
+import { PrintCheckList } from "@/components/figures/print-check-list";
 import { OpenIssuesList, WithdrawSignoff, type OpenIssue } from "./signoff-extras";
 
 export interface SignoffBoxProps {
@@ -35,6 +36,12 @@ function postSignoff(figureId: string, body: { figureHash: string; reason?: stri
 function openIssuesOf(err: ApiError | null): string[] | null {
   const open = (err?.details as { open?: unknown } | undefined)?.open;
   return Array.isArray(open) ? (open as string[]) : null;
+}
+
+/** The print-check failures a refused sign-off carries in its details. */
+function printFailuresOf(err: ApiError | null): string[] {
+  const lines = (err?.details as { printCheck?: unknown } | undefined)?.printCheck;
+  return Array.isArray(lines) ? (lines as string[]) : [];
 }
 
 /** The open issues, panel by panel, a refused sign-off carries in its details. */
@@ -195,6 +202,13 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
                 ))}
               </ul>
             ) : null}
+            {printFailuresOf(err).length ? (
+              <ul className="ml-5 mt-1 list-disc text-ink" aria-label="Print check failures">
+                {printFailuresOf(err).map((o) => (
+                  <li key={o}>{o}</li>
+                ))}
+              </ul>
+            ) : null}
           </div>
           <Field label="Reason for signing off with open issues">
             <textarea
@@ -227,6 +241,9 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
           {reviewState !== "approved" ? (
             <p className="mb-2 text-xs text-muted">Not every panel is approved on its current revision; signing off now asks for a reason.</p>
           ) : null}
+          <div className="mb-2">
+            <PrintCheckList figureId={figureId} figureHash={figureHash} failuresOnly />
+          </div>
           <Button type="button" onClick={() => sign.mutate(false)} disabled={sign.isPending}>
             {sign.isPending ? "Signing off…" : "Sign off this figure"}
           </Button>

@@ -268,6 +268,14 @@ export const API_OPERATIONS: ApiOperation[] = [
   },
   {
     method: "GET",
+    path: "/api/figures/{id}/print-check",
+    permission: "manuscript.read",
+    summary:
+      "Print check of the figure as drawn at its width: text ≥ 5 pt, width and maximum height, axis units, data colours apart under deuteranopia/protanopia/tritanopia (Machado 2009, ΔE00 ≥ 10), error bars defined, n for grouped data, raster ≥ 300 dpi, latest data versions; answers { ok, figureHash, items: [{ id, label, ok, problems, detail }] }",
+    success: 200,
+  },
+  {
+    method: "GET",
     path: "/api/figures/{id}/thumbnail",
     permission: "manuscript.read",
     summary: "The figure as a small PNG, drawn on first request and cached by figure hash (ETag); a placeholder when it has no panels",

@@ -28,7 +28,8 @@ const SPEC = {
   $schema: "https://vega.github.io/schema/vega-lite/v6.json",
   data: { name: "echo" },
   mark: "point",
-  encoding: { x: { field: "tau", type: "quantitative" }, y: { field: "signal", type: "quantitative" } },
+  // Titled with units, so the print check lets the PI sign off a clean figure without a reason.
+  encoding: { x: { field: "tau", type: "quantitative", title: "τ (µs)" }, y: { field: "signal", type: "quantitative", title: "signal (norm.)" } },
 };
 const post = (h: any, who: Who, params: Record<string, string>, body: unknown) => call(h, { method: "POST", token: tokens[who], params, body });
 

@@ -3,7 +3,7 @@ export const T1_SPEC = {
   $schema: "https://vega.github.io/schema/vega-lite/v6.json",
   data: { name: "t1" },
   mark: "point",
-  encoding: { x: { field: "wait", type: "quantitative" }, y: { field: "p", type: "quantitative" } },
+  encoding: { x: { field: "wait", type: "quantitative", title: "wait (ms)" }, y: { field: "p", type: "quantitative", title: "PL (norm.)" } },
 };
 
 export const T1_CSV =

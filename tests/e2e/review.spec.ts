@@ -6,7 +6,8 @@ const SPEC = {
   $schema: "https://vega.github.io/schema/vega-lite/v6.json",
   data: { name: "echo" },
   mark: "point",
-  encoding: { x: { field: "tau", type: "quantitative" }, y: { field: "signal", type: "quantitative" } },
+  // Titled with units, so the print check lets the PI sign off figure A without a reason.
+  encoding: { x: { field: "tau", type: "quantitative", title: "τ (µs)" }, y: { field: "signal", type: "quantitative", title: "signal (norm.)" } },
 };
 const HOSTILE = '<img src=x onerror="window.__xss=1">';
 const doc = (text: string) => ({ type: "doc", content: [{ type: "paragraph", content: [{ type: "text", text }] }] });

@@ -120,12 +120,15 @@ async function reviewTrail(figureId: string, people: PeopleNames) {
       stale: d.stale,
     }))
     .sort((a, b) => a.createdAt.getTime() - b.createdAt.getTime() || a.id.localeCompare(b.id));
+  const signedOver = await printCheckSignedOver(figureId);
   const signoffs = [];
   for (const s of [...review.signoffs].sort((a, b) => a.createdAt.getTime() - b.createdAt.getTime() || a.id.localeCompare(b.id))) {
     signoffs.push({
       id: s.id,
       figureHash: s.figureHash,
       reason: s.reason,
+      /** Print-check failures the PI signed over with this reason (from the sign-off's audit entry). */
+      printCheck: signedOver.get(s.id) ?? [],
       by: await people.person(s.userId),
       createdAt: s.createdAt,
       stale: s.stale,
@@ -133,6 +136,20 @@ async function reviewTrail(figureId: string, people: PeopleNames) {
     });
   }
   return { decisions, signoffs };
+}
+
+/** The print-check failures each sign-off was recorded over, by sign-off id, from the audit log. */
+async function printCheckSignedOver(figureId: string): Promise<Map<string, string[]>> {
+  const rows = await getDb()
+    .select({ data: auditLog.data })
+    .from(auditLog)
+    .where(and(eq(auditLog.action, "figure.signoff"), eq(auditLog.target, `figure:${figureId}`)));
+  const out = new Map<string, string[]>();
+  for (const r of rows) {
+    const d = JSON.parse(String(r.data)) as { signoffId?: string; printCheck?: string[] };
+    if (d.signoffId && Array.isArray(d.printCheck)) out.set(d.signoffId, d.printCheck);
+  }
+  return out;
 }
 
 /** The files exported from the figure, as the audit log recorded them (format, figure hash, size, who, when). */

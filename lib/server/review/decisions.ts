@@ -12,6 +12,8 @@ import { loadReviewContext } from "./review-context";
 import { decisionInput, signoffInput } from "./schemas";
 import { noticeDecision, noticeSignoff } from "./review-notices";
 import { openIssuesOf } from "./review-edges";
+import { printCheckOf } from "../figures/print-check";
+import { printCheckFailures } from "@/lib/figures/print-check";
 
 /**
  * A review decision on a revision's content hash. Reviewers, the PI and authors other than the
@@ -49,7 +51,10 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
   return { id, panelId, revisionId: input.revisionId, decision: input.decision };
 }
 
-/** PI sign-off of the figure's current hash; with open issues only with a recorded reason. */
+/**
+ * PI sign-off of the figure's current hash; with open issues or print-check failures only with a recorded
+ * reason, and the failures signed over go into the audit entry (and so the trace) beside it.
+ */
 export async function signOffFigure(user: SessionUser, figureId: string, raw: z.infer<typeof signoffInput>) {
   const manuscriptId = await manuscriptOfFigure(figureId);
   await authorize(user, "figure.signoff", manuscriptId);
@@ -60,7 +65,11 @@ export async function signOffFigure(user: SessionUser, figureId: string, raw: z.
     throw conflict("The figure changed since you looked at it; review the current figure and sign off its new hash.", { figureHash: review.figureHash });
   if (!review.panels.length || review.panels.some((p) => !p.revision)) throw badRequest("Every panel needs a revision before the figure can be signed off.");
   const { lines: open, issues } = await openIssuesOf(review);
-  if (open.length && !input.reason) throw badRequest(`reason: open issues (${open.join("; ")}); signing off anyway needs a recorded reason.`, { open, issues });
+  const printCheck = printCheckFailures(await printCheckOf(review));
+  if ((open.length || printCheck.length) && !input.reason) {
+    const what = [open.length ? `open issues (${open.join("; ")})` : null, printCheck.length ? `print check failures (${printCheck.join("; ")})` : null];
+    throw badRequest(`reason: ${what.filter(Boolean).join("; ")}; signing off anyway needs a recorded reason.`, { open, issues, printCheck });
+  }
   const id = newId();
   await getDb().transaction(async (tx) => {
     await tx.insert(signoffs).values({ id, figureId, figureHash: input.figureHash, reason: input.reason ?? "", userId: user.id });
@@ -69,9 +78,9 @@ export async function signOffFigure(user: SessionUser, figureId: string, raw: z.
       manuscriptId,
       action: "figure.signoff",
       target: `figure:${figureId}`,
-      data: { figureHash: input.figureHash, reason: input.reason ?? "", open },
+      data: { signoffId: id, figureHash: input.figureHash, reason: input.reason ?? "", open, printCheck },
     });
     await noticeSignoff(tx, user, figureId, input.reason ?? "");
   });
-  return { id, figureId, figureHash: input.figureHash, openIssues: open };
+  return { id, figureId, figureHash: input.figureHash, openIssues: open, printCheck };
 }

@@ -4,6 +4,7 @@ import { useState, type ReactNode } from "react";
 import { roleAllows } from "@/lib/authz/policy";
 import { fetchJson } from "@/components/api-client";
 import { queryKeys, type FigureView, type MemberView } from "@/components/figures/api";
+import { PrintCheckList } from "@/components/figures/print-check-list";
 import { OpenThreads, ReviewStateBadge } from "@/components/figures/review-state";
 import { SignoffBox } from "@/components/review/signoff-box";
 import { formatDate } from "@/lib/data/format";
@@ -82,6 +83,9 @@ export function FigureWorkspace({ initial, members, manuscriptTitle }: { initial
               canSignOff={roleAllows(figure.role, "figure.signoff")}
               signoffs={figure.signoffs}
             />
+          </Side>
+          <Side title="Print check">
+            <PrintCheckList figureId={figure.id} figureHash={figure.figureHash} />
           </Side>
           <Side title="Export">
             <ExportLinks figure={figure} />

@@ -150,6 +150,7 @@ function ReviewTrail({ trace }: { trace: TraceView }) {
               <span className="text-warn"> — stale: the figure has changed since</span>
             ) : null}
             {s.reason ? <span className="block text-muted">“{s.reason}”</span> : null}
+            {s.printCheck.length ? <span className="block text-warn">Signed over the print check: {s.printCheck.join("; ")}</span> : null}
           </>
         ),
       },
