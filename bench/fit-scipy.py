@@ -2,7 +2,7 @@
 The SciPy anchor of `npm run bench -- fit`: fits the same data from the same start values with
 the same σ by scipy.optimize.curve_fit (method "lm", MINPACK lmder with the analytic Jacobian) at
 the fitter's own tolerances, and times the fits inside this process so start-up is not counted.
-Reads {"cases": [...]} as JSON on stdin; writes one JSON object on stdout.
+Driven over stdin/stdout by bench/fit.ts, one JSON line each way (see main).
 """
 import json
 import sys
@@ -58,7 +58,7 @@ MODELS = {
 }
 
 
-def run_case(case):
+def make_fit(case):
     model, jacobian = MODELS[case["model"]]
     tol = case["tolerances"]
     datasets = [
@@ -74,27 +74,35 @@ def run_case(case):
         )
         return popt
 
-    params = [fit(i).tolist() for i in range(len(datasets))]
-    for i in range(case["warmup"]):
-        fit(i)
-    fits = case["fits"]
-    times = []
-    clock = time.perf_counter
-    start = clock()
-    for i in range(fits):
-        t0 = clock()
-        fit(i)
-        times.append(clock() - t0)
-    seconds = clock() - start
-    times.sort()
-    return {"fitsPerSecond": fits / seconds, "medianMs": 1e3 * times[fits // 2], "fits": fits, "params": params}
+    return fit, len(datasets)
 
 
 def main():
-    request = json.load(sys.stdin)
-    result = {"scipy": scipy.__version__, "numpy": np.__version__, "python": sys.version.split()[0]}
-    result["cases"] = {case["name"]: run_case(case) for case in request["cases"]}
-    json.dump(result, sys.stdout)
+    """
+    First line: {"cases": [...]}; answers with the versions and every case's optima per dataset.
+    Then each line "<case index> <fits>" runs that many fits (after a warm-up the first time) and
+    answers with their times in milliseconds, so the caller can alternate rounds with its own.
+    """
+    request = json.loads(sys.stdin.readline())
+    fits = [make_fit(case) for case in request["cases"]]
+    hello = {"scipy": scipy.__version__, "numpy": np.__version__, "python": sys.version.split()[0]}
+    hello["params"] = [[fit(i).tolist() for i in range(count)] for fit, count in fits]
+    for case, (fit, _) in zip(request["cases"], fits):
+        for i in range(case["warmup"]):
+            fit(i)
+    print(json.dumps(hello), flush=True)
+    clock = time.perf_counter
+    next_index = [0] * len(fits)
+    for line in sys.stdin:
+        case_index, count = (int(v) for v in line.split())
+        fit = fits[case_index][0]
+        times = []
+        for _ in range(count):
+            t0 = clock()
+            fit(next_index[case_index])
+            times.append(1e3 * (clock() - t0))
+            next_index[case_index] += 1
+        print(json.dumps(times), flush=True)
 
 
 if __name__ == "__main__":

@@ -6,12 +6,12 @@
  * The SciPy anchor: when python3 with SciPy is on the path, bench/fit-scipy.py fits the same
  * data from the same start values with the same σ and tolerances by scipy.optimize.curve_fit
  * (method "lm", analytic Jacobian) in the same run, timing inside Python so its start-up is not
- * counted. The table gives the ratio of fits per second and the largest relative difference of
- * the optima. `ratio` compares median fit times (fits per second at the median), which other work
- * on a shared machine skews far less than the wall-clock throughput (`throughputRatio`, also
- * given). Our timing includes the guess and the checks of fitModel; SciPy's does not.
+ * counted. Our fits and SciPy's alternate in rounds so that other work on a shared machine weighs
+ * on both alike; `ratio` compares the median fit times (fits per second at the median). The table
+ * also gives the largest relative difference of the optima. Our timing includes the guess and the
+ * checks of fitModel; SciPy's does not.
  */
-import { spawnSync } from "node:child_process";
+import { spawn, spawnSync, type ChildProcessWithoutNullStreams } from "node:child_process";
 import path from "node:path";
 import { fitModel } from "@/lib/analysis";
 import { DEFAULT_SOLVER_OPTIONS } from "@/lib/analysis/fit/levenberg-marquardt";
@@ -86,62 +86,127 @@ interface AnchorCase {
   datasets: Array<Dataset & { start: number[] }>;
   /** Our optimum per dataset, to compare with SciPy's. */
   optima: number[][];
-  fits: number;
   warmup: number;
 }
 
 /** The start values fitModel uses (the model's guess within its bounds) and the optimum it reaches. */
-function anchorCase(name: string, model: string, datasets: Dataset[], fits: number, warmup: number): AnchorCase {
+function anchorCase(name: string, model: string, datasets: Dataset[], warmup: number): AnchorCase {
   const results = datasets.map((d) => fitModel(model, d));
   return {
     name,
     model,
     datasets: datasets.map((d, i) => ({ ...d, start: results[i].params.map((p) => p.start) })),
     optima: results.map((r) => r.params.map((p) => p.value)),
-    fits,
     warmup,
   };
 }
 
-interface ScipyCase {
-  fitsPerSecond: number;
-  medianMs: number;
-  fits: number;
-  params: number[][];
-}
-
-interface ScipyRun {
+interface ScipyHello {
   scipy: string;
   numpy: string;
   python: string;
-  cases: Record<string, ScipyCase>;
+  /** Per case, per dataset, SciPy's optimum. */
+  params: number[][][];
 }
 
-/** Runs bench/fit-scipy.py on the cases; undefined (with a note) when python3 or SciPy is missing. */
-function runScipy(cases: AnchorCase[]): ScipyRun | undefined {
+/** bench/fit-scipy.py as a child answering one JSON line per request line. */
+class ScipyChild {
+  private readonly child: ChildProcessWithoutNullStreams;
+  private readonly lines: string[] = [];
+  private waiting: { resolve: (line: string) => void; reject: (error: Error) => void } | undefined;
+  private failure = "";
+  private exited = false;
+
+  constructor() {
+    this.child = spawn("python3", [path.join(process.cwd(), "bench", "fit-scipy.py")]);
+    let buffered = "";
+    this.child.stdout.setEncoding("utf8");
+    this.child.stdout.on("data", (chunk: string) => {
+      buffered += chunk;
+      for (let end = buffered.indexOf("\n"); end >= 0; end = buffered.indexOf("\n")) {
+        const line = buffered.slice(0, end);
+        buffered = buffered.slice(end + 1);
+        const waiting = this.waiting;
+        this.waiting = undefined;
+        if (waiting) waiting.resolve(line);
+        else this.lines.push(line);
+      }
+    });
+    this.child.stderr.on("data", (chunk: Buffer) => (this.failure += chunk.toString()));
+    this.child.on("exit", (code) => {
+      this.exited = true;
+      this.waiting?.reject(new Error(`SciPy anchor exited (${code}): ${this.failure}`));
+    });
+  }
+
+  async ask(line: string): Promise<string> {
+    if (this.exited) throw new Error(`SciPy anchor exited: ${this.failure}`);
+    this.child.stdin.write(`${line}\n`);
+    const queued = this.lines.shift();
+    if (queued !== undefined) return queued;
+    return new Promise((resolve, reject) => (this.waiting = { resolve, reject }));
+  }
+
+  close(): void {
+    this.child.stdin.end();
+  }
+}
+
+const ROUNDS = 10;
+
+function median(values: number[]): number {
+  const sorted = [...values].sort((a, b) => a - b);
+  return sorted[Math.floor(sorted.length / 2)];
+}
+
+interface AnchorRun {
+  hello: ScipyHello;
+  /** Per case, the time of each of our fits and of each of SciPy's, in ms. */
+  ours: number[][];
+  theirs: number[][];
+}
+
+/**
+ * Our fits and SciPy's in alternating rounds, so that whatever else runs on the machine weighs on
+ * both alike. Undefined (with a note) when python3 or SciPy is missing.
+ */
+async function runAnchor(cases: AnchorCase[], fitsPerRound: number[]): Promise<AnchorRun | undefined> {
   const probe = spawnSync("python3", ["-c", "import scipy, numpy"], { encoding: "utf8" });
   if (probe.error || probe.status !== 0) {
     console.log("   note: python3 with SciPy not found; the SciPy anchor is skipped.");
     return undefined;
   }
   const { maxIterations, ftol, xtol, gtol } = DEFAULT_SOLVER_OPTIONS;
-  const request = {
-    cases: cases.map(({ name, model, datasets, fits, warmup }) => ({
-      name,
-      model,
-      datasets,
-      fits,
-      warmup,
-      tolerances: { ftol, xtol, gtol, maxEvaluations: 20 * maxIterations + 100 },
-    })),
-  };
-  const run = spawnSync("python3", [path.join(process.cwd(), "bench", "fit-scipy.py")], {
-    input: JSON.stringify(request),
-    encoding: "utf8",
-    maxBuffer: 64 * 2 ** 20,
-  });
-  if (run.error || run.status !== 0) throw new Error(`SciPy anchor failed: ${run.error?.message ?? run.stderr}`);
-  return JSON.parse(run.stdout) as ScipyRun;
+  const child = new ScipyChild();
+  try {
+    const request = {
+      cases: cases.map(({ name, model, datasets, warmup }) => ({
+        name,
+        model,
+        datasets,
+        warmup,
+        tolerances: { ftol, xtol, gtol, maxEvaluations: 20 * maxIterations + 100 },
+      })),
+    };
+    const hello = JSON.parse(await child.ask(JSON.stringify(request))) as ScipyHello;
+    const ours = cases.map((): number[] => []);
+    const theirs = cases.map((): number[] => []);
+    for (let round = 0; round < ROUNDS; round++) {
+      for (let c = 0; c < cases.length; c++) {
+        const { model, datasets } = cases[c];
+        for (let i = 0; i < fitsPerRound[c]; i++) {
+          const { x, y, sigma } = datasets[(round * fitsPerRound[c] + i) % datasets.length];
+          const t0 = performance.now();
+          fitModel(model, { x, y, sigma });
+          ours[c].push(performance.now() - t0);
+        }
+        theirs[c].push(...(JSON.parse(await child.ask(`${c} ${fitsPerRound[c]}`)) as number[]));
+      }
+    }
+    return { hello, ours, theirs };
+  } finally {
+    child.close();
+  }
 }
 
 /** Largest |ours − SciPy's| / max(|SciPy's|, 1e-300) over all parameters of all datasets. */
@@ -170,24 +235,20 @@ export async function benchFit(): Promise<Record<string, unknown>> {
   for (const data of batch) if (fitModel("hahn_echo", data).converged) batchConverged++;
   const batchSeconds = (performance.now() - batchStart) / 1000;
 
-  const cases = [
-    anchorCase("hahn_echo, 500 points", "hahn_echo", echo, 1000, 100),
-    anchorCase("odmr_14n_triplet, 2000 points", "odmr_14n_triplet", triplet, 200, 20),
-  ];
-  const scipy = runScipy(cases);
-  const ours: Record<string, Timing> = { "hahn_echo, 500 points": hahnEcho500, "odmr_14n_triplet, 2000 points": odmrTriplet2000 };
-  const anchor = scipy
+  const cases = [anchorCase("hahn_echo, 500 points", "hahn_echo", echo, 100), anchorCase("odmr_14n_triplet, 2000 points", "odmr_14n_triplet", triplet, 20)];
+  const run = await runAnchor(cases, [100, 20]);
+  const anchor = run
     ? Object.fromEntries(
-        cases.map((c) => {
-          const theirs = scipy.cases[c.name];
-          const difference = largestRelativeDifference(c.optima, theirs.params);
+        cases.map((c, k) => {
+          const difference = largestRelativeDifference(c.optima, run.hello.params[k]);
+          const ours = median(run.ours[k]);
+          const theirs = median(run.theirs[k]);
           return [
             c.name,
             {
-              scipyFitsPerSecond: Math.round(theirs.fitsPerSecond),
-              scipyMedianMs: Number(theirs.medianMs.toFixed(3)),
-              ratio: Number((theirs.medianMs / ours[c.name].medianMs).toFixed(2)),
-              throughputRatio: Number((ours[c.name].fitsPerSecond / theirs.fitsPerSecond).toFixed(2)),
+              fitsPerSecondAtMedian: Math.round(1000 / ours),
+              scipyFitsPerSecondAtMedian: Math.round(1000 / theirs),
+              ratio: Number((theirs / ours).toFixed(2)),
               goalRatio: 1.5,
               largestRelativeDifference: Number(difference.toPrecision(2)),
               optimaAgree: difference <= AGREEMENT,
@@ -197,10 +258,9 @@ export async function benchFit(): Promise<Record<string, unknown>> {
       )
     : undefined;
 
-  const row = (name: string, timing: Timing) => ({ ...timing, ...(anchor?.[name] ?? {}) });
   const table = {
-    "hahn_echo, 500 points": row("hahn_echo, 500 points", hahnEcho500),
-    "odmr_14n_triplet, 2000 points": row("odmr_14n_triplet, 2000 points", odmrTriplet2000),
+    "hahn_echo, 500 points": hahnEcho500,
+    "odmr_14n_triplet, 2000 points": odmrTriplet2000,
     "batch of 1000 hahn_echo fits": {
       fitsPerSecond: Math.round(1000 / batchSeconds),
       totalSeconds: Number(batchSeconds.toFixed(3)),
@@ -209,13 +269,15 @@ export async function benchFit(): Promise<Record<string, unknown>> {
     },
   };
   console.table(table);
-  if (scipy && anchor) {
+  if (run && anchor) {
+    const { hello } = run;
     console.log(
-      `   SciPy ${scipy.scipy} (NumPy ${scipy.numpy}, Python ${scipy.python}): curve_fit method "lm", analytic Jacobian, same data, start, σ and tolerances.`,
+      `   SciPy anchor, ${ROUNDS} rounds alternating with ours: SciPy ${hello.scipy} (NumPy ${hello.numpy}, Python ${hello.python}) curve_fit method "lm", analytic Jacobian, same data, start, σ and tolerances.`,
     );
+    console.table(anchor);
     for (const [name, a] of Object.entries(anchor)) {
       console.log(
-        `   ${name}: ${a.ratio}× SciPy's fits per second at the median fit time (goal ${a.goalRatio}×; ${a.throughputRatio}× by wall-clock throughput); optima ${a.optimaAgree ? "agree" : "DIFFER"}, largest relative difference ${a.largestRelativeDifference} (limit ${AGREEMENT})`,
+        `   ${name}: ${a.fitsPerSecondAtMedian} against SciPy's ${a.scipyFitsPerSecondAtMedian} fits per second at the median fit time: ${a.ratio}× (goal ${a.goalRatio}×); optima ${a.optimaAgree ? "agree" : "DIFFER"}, largest relative difference ${a.largestRelativeDifference} (limit ${AGREEMENT})`,
       );
     }
   }
@@ -224,6 +286,9 @@ export async function benchFit(): Promise<Record<string, unknown>> {
     hahnEcho500,
     odmrTriplet2000,
     echoBatch1000: { totalSeconds: Number(batchSeconds.toFixed(3)), converged: batchConverged },
-    scipyAnchor: scipy && anchor ? { scipy: scipy.scipy, numpy: scipy.numpy, python: scipy.python, cases: anchor } : "skipped: python3 with SciPy not found",
+    scipyAnchor:
+      run && anchor
+        ? { scipy: run.hello.scipy, numpy: run.hello.numpy, python: run.hello.python, rounds: ROUNDS, cases: anchor }
+        : "skipped: python3 with SciPy not found",
   };
 }
