@@ -139,11 +139,18 @@ test("upload, fit, build two panels, take a reviewer's change, re-approve, sign 
   await shoot(pi, "journey-signed-off");
 
   // 9. The export: no draft mark, the reviewer's axis name, the figure's own size.
-  const [download] = await Promise.all([pi.waitForEvent("download"), pi.getByRole("link", { name: "SVG, editable text with the fonts embedded", exact: true }).click()]);
+  const [download] = await Promise.all([
+    pi.waitForEvent("download"),
+    pi.getByRole("link", { name: "SVG, editable text with the fonts embedded", exact: true }).click(),
+  ]);
   const svg = Buffer.concat(await (await download.createReadStream()).toArray()).toString("utf8");
   expect(svg).toMatch(/^<svg[^>]*width="183mm"/);
   expect(svg).toContain(">echo amplitude");
   expect(svg).not.toContain("Not signed off");
   const [pdf] = await Promise.all([pi.waitForEvent("download"), pi.getByRole("link", { name: "PDF (vector, fonts embedded)", exact: true }).click()]);
-  expect(Buffer.concat(await (await pdf.createReadStream()).toArray()).subarray(0, 5).toString("latin1")).toBe("%PDF-");
+  expect(
+    Buffer.concat(await (await pdf.createReadStream()).toArray())
+      .subarray(0, 5)
+      .toString("latin1"),
+  ).toBe("%PDF-");
 });
