@@ -91,6 +91,31 @@ export function Notice({ ok, children }: { ok: boolean; children: ReactNode }) {
   );
 }
 
+/** What became of a save: the server's own message when refused, `saved` once it went through (nothing while pending). */
+export function SaveOutcome({
+  save,
+  saved = "Saved.",
+}: {
+  save: { isError: boolean; isSuccess: boolean; isPending: boolean; error: Error | null };
+  saved?: string;
+}) {
+  if (save.isError)
+    return (
+      <p role="alert" className="text-sm text-bad">
+        <span aria-hidden>✕ </span>
+        {save.error?.message}
+      </p>
+    );
+  if (save.isSuccess && !save.isPending)
+    return (
+      <p role="status" className="text-sm text-good">
+        <span aria-hidden>✓ </span>
+        {saved}
+      </p>
+    );
+  return null;
+}
+
 const ROLE_SHAPES: Record<Role, string> = { pi: "◆", author: "■", reviewer: "▲", viewer: "○" };
 
 export function RoleBadge({ role }: { role: Role }) {

@@ -2,7 +2,7 @@
 import { useMutation } from "@tanstack/react-query";
 import { useState, type FormEvent } from "react";
 import { sendJson } from "@/components/api-client";
-import { Button, Field, Select, TextInput } from "@/components/ui";
+import { Button, Field, SaveOutcome, Select, TextInput } from "@/components/ui";
 import { describeHouseStyle, HOUSE_FONTS, type HouseFont, type HouseStyle } from "@/lib/figures/house-style";
 
 interface Saved {
@@ -96,17 +96,7 @@ export function HouseStyleForm({
       ) : (
         <p className="text-sm text-muted">Authors and the PI set the house style.</p>
       )}
-      {save.isError ? (
-        <p role="alert" className="text-sm text-bad">
-          <span aria-hidden>✕ </span>
-          {save.error.message}
-        </p>
-      ) : null}
-      {save.isSuccess && !save.isPending ? (
-        <p role="status" className="text-sm text-good">
-          <span aria-hidden>✓ </span>Saved. Every export of this manuscript&apos;s figures now uses it.
-        </p>
-      ) : null}
+      <SaveOutcome save={save} saved="Saved. Every export of this manuscript's figures now uses it." />
     </form>
   );
 }

@@ -44,15 +44,7 @@ export function ExportLinks({ figure }: { figure: FigureView }) {
           <span>Mark exports “Not signed off — draft for review” (the figure is not signed off on its current hash)</span>
         </label>
       )}
-      <ul className="space-y-1 text-sm">
-        {VECTOR.map((x) => (
-          <li key={x.query}>
-            <a href={href(x.query)} className="underline" download>
-              {x.label}
-            </a>
-          </li>
-        ))}
-      </ul>
+      <DownloadList items={VECTOR} href={href} />
       <fieldset className="mt-3 space-y-2 border-t border-rule pt-2 text-sm">
         <legend className="sr-only">Raster files</legend>
         <div className="grid grid-cols-1 gap-2">
@@ -82,15 +74,7 @@ export function ExportLinks({ figure }: { figure: FigureView }) {
           <span className="text-xs text-muted">on white, no transparency</span>
         </p>
       </fieldset>
-      <ul className="mt-3 space-y-1 border-t border-rule pt-2 text-sm">
-        {DATA.map((x) => (
-          <li key={x.query}>
-            <a href={href(x.query)} className="underline" download>
-              {x.label}
-            </a>
-          </li>
-        ))}
-      </ul>
+      <DownloadList items={DATA} href={href} className="mt-3 border-t border-rule pt-2" />
       <p className="mt-3 text-xs text-muted">
         House style: {describeHouseStyle(figure.houseStyle)} ·{" "}
         <Link href={`/manuscripts/${figure.manuscriptId}/house-style`} className="underline">
@@ -99,5 +83,27 @@ export function ExportLinks({ figure }: { figure: FigureView }) {
       </p>
       <p className="mt-1 text-xs text-muted">EPS is not offered: no maintained JavaScript library writes it; the PDF and SVG carry the same vector figure.</p>
     </>
+  );
+}
+
+function DownloadList({
+  items,
+  href,
+  className = "",
+}: {
+  items: Array<{ query: string; label: string }>;
+  href: (query: string) => string;
+  className?: string;
+}) {
+  return (
+    <ul className={`space-y-1 text-sm ${className}`}>
+      {items.map((x) => (
+        <li key={x.query}>
+          <a href={href(x.query)} className="underline" download>
+            {x.label}
+          </a>
+        </li>
+      ))}
+    </ul>
   );
 }

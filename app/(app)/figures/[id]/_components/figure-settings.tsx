@@ -4,7 +4,7 @@ import { useState, type FormEvent } from "react";
 import { sendJson } from "@/components/api-client";
 import { queryKeys, type FigureView, type MemberView } from "@/components/figures/api";
 import { CustomWidthField, presetFor, WidthPresetField, widthMmOf } from "@/components/figures/figure-width-field";
-import { Button, Field, Select, TextInput } from "@/components/ui";
+import { Button, Field, SaveOutcome, Select, TextInput } from "@/components/ui";
 import { roleAllows } from "@/lib/authz/policy";
 
 /** Title, width, maximum height, columns and required reviewers (PI and authors change them). */
@@ -91,17 +91,7 @@ export function FigureSettings({ figure, members, editable }: { figure: FigureVi
       <Button type="submit" disabled={save.isPending}>
         {save.isPending ? "Saving…" : "Save settings"}
       </Button>
-      {save.isError ? (
-        <p role="alert" className="text-sm text-bad">
-          <span aria-hidden>✕ </span>
-          {save.error.message}
-        </p>
-      ) : null}
-      {save.isSuccess && !save.isPending ? (
-        <p role="status" className="text-sm text-good">
-          <span aria-hidden>✓ </span>Saved.
-        </p>
-      ) : null}
+      <SaveOutcome save={save} />
     </form>
   );
 }
