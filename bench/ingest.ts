@@ -9,7 +9,9 @@
  *   in memory; a tiny upload first loads the route (not timed). Wall time is client side, from
  *   the request to the parsed 201 response.
  * - Memory: VmRSS of the next-server process every 20 ms during the uploads; its VmHWM (peak) is
- *   reset just before them (/proc/<pid>/clear_refs ← 5), so the high-water mark is exact.
+ *   reset just before them (/proc/<pid>/clear_refs ← 5), so the high-water mark is exact. The goal
+ *   is on what the uploads add to the idle server (peak above idle ≤ 3 × the file). The file is
+ *   parsed in the ingest child, a separate process: its own peak (VmHWM) is printed beside it.
  * - Rows: GET /api/versions/{id}/rows?offset=900000&limit=1000, 3 warm-ups then 50 timed.
  *
  * Ports: 3400 (app) and 2828 (mail sink). The server's life (build if stale, throw-away database,
@@ -21,7 +23,7 @@ import path from "node:path";
 import { Readable } from "node:stream";
 import { withBenchServer } from "./bench-server";
 import { benchParse, makeNumericCsv } from "./ingest-parse";
-import { RssSampler, statusKb } from "./proc-stats";
+import { processGroup, RssSampler, statusKb } from "./proc-stats";
 import { median, percentile, printTable, round } from "./report";
 
 const APP_PORT = 3400;
@@ -35,7 +37,7 @@ const ROW_WARMUPS = 3;
 const ROW_REQUESTS = 50;
 const SAMPLE_MS = 20;
 
-const GOALS = { rssFactor: 5, rowsMedianMs: 30 };
+const GOALS = { rssFactor: 5, aboveIdleFactor: 3, rowsMedianMs: 30 };
 
 // ---------------------------------------------------------------------------------------------
 // HTTP
@@ -89,6 +91,22 @@ async function timedGet(token: string, url: string): Promise<{ ms: number; body:
   return { ms, body: JSON.parse(text) };
 }
 
+function cmdlineOf(pid: number): string {
+  try {
+    return fs.readFileSync(`/proc/${pid}/cmdline`, "utf8");
+  } catch {
+    return ""; // gone since the listing
+  }
+}
+
+/** The ingest children of the server (forked with ingest-child.ts) and the largest VmHWM among them, kB. */
+function ingestChildPeakKb(serverPid: number, groupPid: number): number | null {
+  const peaks = processGroup(groupPid)
+    .filter((p) => p.ppid === serverPid && cmdlineOf(p.pid).includes("ingest-child"))
+    .map((p) => statusKb(p.pid, "VmHWM") ?? 0);
+  return peaks.length ? Math.max(...peaks) : null;
+}
+
 // ---------------------------------------------------------------------------------------------
 
 /** Copies of the CSV with the last digit of the file changed (k = 0, 1, 2 → three distinct digits). */
@@ -140,7 +158,15 @@ export async function benchIngest(): Promise<Record<string, unknown>> {
       const hwmReset = resetHwm(); // when not permitted, VmHWM includes start-up and the sampler is the measure
       const sampler = new RssSampler(srv.pid, SAMPLE_MS);
       sampler.start();
-      const uploads: Array<{ ms: number; MBps: number; peakRssKb: number | null; rssAfterKb: number | null; versionId: string; rowCount: number }> = [];
+      const uploads: Array<{
+        ms: number;
+        MBps: number;
+        peakRssKb: number | null;
+        rssAfterKb: number | null;
+        childPeakRssKb: number | null;
+        versionId: string;
+        rowCount: number;
+      }> = [];
       for (const [k, file] of files.entries()) {
         if (hwmReset) resetHwm();
         const r = await upload(token, file, path.basename(file), `bench upload ${k + 1}`);
@@ -152,6 +178,7 @@ export async function benchIngest(): Promise<Record<string, unknown>> {
           MBps: round(fileMB / (r.ms / 1000)),
           peakRssKb: hwmReset ? statusKb(srv.pid, "VmHWM") : null,
           rssAfterKb: statusKb(srv.pid, "VmRSS"),
+          childPeakRssKb: ingestChildPeakKb(srv.pid, groupPid),
           versionId: r.version.id,
           rowCount: r.version.rowCount,
         });
@@ -179,6 +206,9 @@ export async function benchIngest(): Promise<Record<string, unknown>> {
       const rssRatio = (peakRssKb * 1024) / fileBytes;
       const rowsMedian = median(rowTimes);
       const rowsP95 = percentile(rowTimes, 95);
+      // The idle server alone is about 6 × this file, so the total (peakRss) cannot be met as
+      // written; the goal that counts is on what the uploads add to it (peakAboveIdle).
+      const aboveIdleRatio = ((peakRssKb - idleRssKb) * 1024) / fileBytes;
       const goals = {
         e2eVsPapaBare: {
           goal: `≥ ${parse.papaparse_bare_MBps!.toFixed(1)} MB/s (PapaParse bare)`,
@@ -190,14 +220,15 @@ export async function benchIngest(): Promise<Record<string, unknown>> {
           value: round(rssRatio, 2),
           pass: rssRatio < GOALS.rssFactor,
         },
+        peakAboveIdle: {
+          goal: `≤ ${GOALS.aboveIdleFactor} × file above idle`,
+          value: round(aboveIdleRatio, 2),
+          pass: aboveIdleRatio <= GOALS.aboveIdleFactor,
+        },
         rowsMedian: { goal: `< ${GOALS.rowsMedianMs} ms`, value: round(rowsMedian, 2), pass: rowsMedian < GOALS.rowsMedianMs },
       };
-      // The idle server alone is about 6 × this file, so the goal above cannot be met as written;
-      // this reading (what the uploads add) is printed beside it, marked as a proposal.
-      const aboveIdleRatio = ((peakRssKb - idleRssKb) * 1024) / fileBytes;
-      const proposed = {
-        peakAboveIdle: { goal: `< ${GOALS.rssFactor} × file above idle (proposed)`, value: round(aboveIdleRatio, 2), pass: aboveIdleRatio < GOALS.rssFactor },
-      };
+      const childPeaks = uploads.map((u) => u.childPeakRssKb).filter((kb): kb is number => kb !== null);
+      const childPeakKb = childPeaks.length ? Math.max(...childPeaks) : null;
 
       console.log();
       printTable([
@@ -222,12 +253,8 @@ export async function benchIngest(): Promise<Record<string, unknown>> {
           mark(goals.peakRss.pass),
         ],
         ["  sampled max VmRSS (20 ms)", `${MiB(sampler.peakKb)} (${sampler.samples} samples)`, "", ""],
-        [
-          "  peak above idle",
-          `${MiB(peakRssKb - idleRssKb)} = ${aboveIdleRatio.toFixed(2)} × file`,
-          proposed.peakAboveIdle.goal,
-          mark(proposed.peakAboveIdle.pass),
-        ],
+        ["  peak above idle", `${MiB(peakRssKb - idleRssKb)} = ${aboveIdleRatio.toFixed(2)} × file`, goals.peakAboveIdle.goal, mark(goals.peakAboveIdle.pass)],
+        ["ingest child peak RSS (separate process, VmHWM)", childPeakKb === null ? "no ingest child seen" : MiB(childPeakKb), "", ""],
         ["  RSS after uploads", MiB(afterUploadsRssKb), "", ""],
         ["  VmHWM at end (process lifetime)", `${MiB(lifetimeHwmKb)} (start-up ${MiB(startupHwmKb)})`, "", ""],
         [
@@ -265,6 +292,7 @@ export async function benchIngest(): Promise<Record<string, unknown>> {
           afterUploadsRssKb,
           startupHwmKb,
           lifetimeHwmKb,
+          ingestChildPeakRssKb: childPeakKb,
         },
         rows: {
           url: "/api/versions/{id}/rows?offset=900000&limit=1000",
@@ -276,7 +304,6 @@ export async function benchIngest(): Promise<Record<string, unknown>> {
           maxMs: round(Math.max(...rowTimes), 2),
         },
         goals,
-        proposedGoals: proposed,
         serverReadyMs: Math.round(startMs),
         build,
       };

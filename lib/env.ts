@@ -26,6 +26,10 @@ const schema = z.object({
   TRUSTED_PROXIES: z.string().default(""),
   /** A stalled upload is aborted after this many milliseconds without a byte. */
   UPLOAD_IDLE_TIMEOUT_MS: z.coerce.number().int().positive().default(60_000),
+  /** The ingest child's heap cap, MB: an upload that needs more to parse is refused with 413. */
+  INGEST_HEAP_MB: z.coerce.number().int().min(16).default(1024),
+  /** The ingest child's wall-clock budget for one file, ms: a longer parse is refused with 422. */
+  INGEST_TIMEOUT_MS: z.coerce.number().int().positive().default(120_000),
   UPLOADS_PER_USER: z.coerce.number().int().positive().default(2),
   UPLOADS_IN_TOTAL: z.coerce.number().int().positive().default(4),
   JSON_BODY_MAX_BYTES: z.coerce
@@ -75,6 +79,8 @@ function load() {
       .map((a) => a.trim())
       .filter(Boolean),
     uploadIdleTimeoutMs: e.UPLOAD_IDLE_TIMEOUT_MS,
+    ingestHeapMb: e.INGEST_HEAP_MB,
+    ingestTimeoutMs: e.INGEST_TIMEOUT_MS,
     uploadsPerUser: e.UPLOADS_PER_USER,
     uploadsInTotal: e.UPLOADS_IN_TOTAL,
     jsonBodyMaxBytes: e.JSON_BODY_MAX_BYTES,

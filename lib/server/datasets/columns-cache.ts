@@ -1,7 +1,6 @@
 import "server-only";
-import { encodeColumnar } from "@/lib/data/columnar";
-import { parseTable } from "@/lib/data/parse";
-import { blobPath, readCache, readFileBytes, writeCache } from "../storage/blob-store";
+import { blobPath, commitCache, readCache, removeTemp, tempPath } from "../storage/blob-store";
+import { ingestInChild, type IngestJob } from "./ingest-in-child";
 
 const MAX_BYTES = 96 * 1024 * 1024;
 const lru = new Map<string, Uint8Array>();
@@ -20,9 +19,10 @@ function remember(sha: string, blob: Uint8Array) {
 
 /**
  * The parsed numbers of a stored file, as a columnar blob. Derived data: kept in memory (LRU),
- * on disk under uploads/cache, and rebuilt from the raw bytes when missing.
+ * on disk under uploads/cache, and rebuilt from the raw bytes when missing (in the ingest child,
+ * as at upload, so a rebuild does not hold the file and its parse in this process either).
  */
-export async function columnsFor(sha256: string, fileName: string, parseOptions: Record<string, unknown> = {}): Promise<Uint8Array> {
+export async function columnsFor(sha256: string, fileName: string, parseOptions: IngestJob["options"] = {}): Promise<Uint8Array> {
   const hit = lru.get(sha256);
   if (hit) {
     lru.delete(sha256);
@@ -31,9 +31,15 @@ export async function columnsFor(sha256: string, fileName: string, parseOptions:
   }
   let blob = await readCache(sha256);
   if (!blob) {
-    const raw = await readFileBytes(blobPath(sha256));
-    blob = encodeColumnar(parseTable(raw, { fileName, ...parseOptions }));
-    await writeCache(sha256, blob);
+    const output = tempPath();
+    try {
+      await ingestInChild({ input: blobPath(sha256), output, fileName, options: parseOptions });
+      await commitCache(output, sha256);
+    } finally {
+      await removeTemp(output);
+    }
+    blob = await readCache(sha256);
+    if (!blob) throw new Error(`the columnar cache of ${sha256} was rebuilt but cannot be read`);
   }
   remember(sha256, blob);
   return blob;

@@ -1,20 +1,18 @@
 import "server-only";
 import { and, desc, eq, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { datasets, versions, type ParseInfo, type StoredSummary } from "@/db/schema";
+import { datasets, versions } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
-import { encodeColumnar } from "@/lib/data/columnar";
-import { parseTable, type ParsedTable } from "@/lib/data/parse";
-import { summarizeColumn } from "@/lib/data/summary";
 import { env } from "@/lib/env";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
 import { badRequest, notFound } from "@/lib/errors";
 import { consumeRate, type RateRule } from "../limits/rate-limit";
-import { commitBlob, readFileBytes, removeTemp, writeCache, writeStreamToTemp } from "../storage/blob-store";
+import { commitBlob, commitCache, removeTemp, tempPath, writeStreamToTemp } from "../storage/blob-store";
 import { readMultipartUpload, type UploadedFile } from "../storage/multipart";
 import { acquireUploadSlot } from "../storage/upload-slots";
 import { metadataInput, uploadFields, type MetadataInput, type UploadFields } from "./schemas";
+import { ingestInChild, type IngestedTable } from "./ingest-in-child";
 import { toVersionDto } from "./version-dto";
 
 function parseMetadata(raw: string | undefined): MetadataInput {
@@ -28,15 +26,6 @@ function parseMetadata(raw: string | undefined): MetadataInput {
   const r = metadataInput.safeParse(json);
   if (!r.success) throw badRequest(`metadata: ${r.error.issues.map((i) => `${i.path.join(".") || "(object)"}: ${i.message}`).join("; ")}`);
   return r.data;
-}
-
-function summarise(t: ParsedTable): StoredSummary[] {
-  return t.columns.flatMap((c, i) => {
-    if (c.type !== "number") return [];
-    const s = summarizeColumn(t.data[i] as Float64Array);
-    const fin = (v: number) => (Number.isFinite(v) ? v : null);
-    return [{ column: c.name, unit: c.unit, count: s.count, missing: s.missing, min: fin(s.min), max: fin(s.max), mean: fin(s.mean), sd: fin(s.sd) }];
-  });
 }
 
 /** Uploads a user may start per hour (attempts count, refused ones too). */
@@ -67,9 +56,11 @@ async function checkFields(manuscriptId: string, fields: Record<string, string>)
 
 /**
  * Upload slot (per user and in total, 429) → hourly rate (429) → fields sent before the file checked
- * before the file is read → temporary file (hashed while streaming) → all fields checked → parse
- * (exact errors, nothing stored on failure) → atomic rename under the hash → one transaction for the
- * rows and the audit entry. The slot is held until the upload is stored or refused.
+ * before the file is read → temporary file (hashed while streaming) → all fields checked → parse,
+ * summaries and columnar cache in the budgeted ingest child (exact errors, nothing stored on
+ * failure; the file never enters this process's memory) → atomic renames of the file under its hash
+ * and of the cache → one transaction for the rows and the audit entry. The slot is held until the
+ * upload is stored or refused.
  */
 export async function uploadDataset(user: SessionUser, manuscriptId: string, req: Request) {
   const release = acquireUploadSlot(user.id);
@@ -94,18 +85,24 @@ export async function importDatasetFromBytes(user: SessionUser, manuscriptId: st
 }
 
 async function ingestFile(user: SessionUser, manuscriptId: string, file: UploadedFile, fields: Record<string, string>) {
+  const cacheTmp = tempPath();
   try {
     // Before the blob is committed or the cache written: fields may also come after the file part.
     const { f, metadata } = await checkFields(manuscriptId, fields);
     const delimiter = f.delimiter === "tab" ? "\t" : f.delimiter;
-    const table = parseTable(await readFileBytes(file.tmp), { fileName: file.fileName, delimiter, decimal: f.decimal, format: f.format });
-    const columnar = encodeColumnar(table);
+    const table = await ingestInChild({
+      input: file.tmp,
+      output: cacheTmp,
+      fileName: file.fileName,
+      options: { delimiter, decimal: f.decimal, format: f.format },
+    });
     await commitBlob(file.tmp, file.sha256);
-    // Not kept in memory here: a large upload would otherwise stay resident until evicted; the first read loads it.
-    await writeCache(file.sha256, columnar);
+    // Not read into memory here: a large upload would otherwise stay resident until evicted; the first read loads it.
+    await commitCache(cacheTmp, file.sha256);
     return await recordVersion(user, manuscriptId, file, table, f.datasetId, f.name, metadata);
   } finally {
     await removeTemp(file.tmp);
+    await removeTemp(cacheTmp);
   }
 }
 
@@ -113,19 +110,11 @@ async function recordVersion(
   user: SessionUser,
   manuscriptId: string,
   file: UploadedFile,
-  table: ParsedTable,
+  table: IngestedTable,
   datasetId: string | undefined,
   name: string | undefined,
   metadata: MetadataInput,
 ) {
-  const parseInfo: ParseInfo = {
-    format: table.format,
-    encoding: table.encoding,
-    delimiter: table.delimiter,
-    decimal: table.decimal,
-    warnings: table.warnings,
-    headerMetadata: table.metadata,
-  };
   return getDb().transaction(async (tx) => {
     let dsId = datasetId;
     if (dsId) {
@@ -165,9 +154,9 @@ async function recordVersion(
         byteSize: file.byteSize,
         fileName: file.fileName,
         rowCount: table.rowCount,
-        columns: table.columns.map((c) => ({ name: c.name, unit: c.unit, type: c.type, header: c.sourceHeader })),
-        parseInfo,
-        summary: summarise(table),
+        columns: table.columns,
+        parseInfo: table.parseInfo,
+        summary: table.summary,
         createdBy: user.id,
       })
       .returning();

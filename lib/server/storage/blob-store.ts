@@ -19,7 +19,8 @@ function cachePath(sha256: string): string {
   return path.join(env().uploadsDir, "cache", `${sha256}.columns`);
 }
 
-function tempPath(): string {
+/** A fresh part file name under uploads/tmp (removed by the start-up sweep if a crash leaves it). */
+export function tempPath(): string {
   const dir = path.join(env().uploadsDir, "tmp");
   fs.mkdirSync(dir, { recursive: true });
   return path.join(dir, `${Date.now()}-${randomBytes(8).toString("hex")}.part`);
@@ -81,12 +82,10 @@ export async function commitBlob(tmp: string, sha256: string): Promise<void> {
   await fsp.chmod(dest, 0o444);
 }
 
-/** Writes a derived file (rebuildable) atomically. */
-export async function writeCache(sha256: string, bytes: Uint8Array): Promise<void> {
+/** Moves a derived file (rebuildable), written complete under uploads/tmp, into the cache: one atomic rename. */
+export async function commitCache(tmp: string, sha256: string): Promise<void> {
   const dest = cachePath(sha256);
   await fsp.mkdir(path.dirname(dest), { recursive: true });
-  const tmp = `${dest}.${randomBytes(4).toString("hex")}.tmp`;
-  await fsp.writeFile(tmp, bytes);
   await fsp.rename(tmp, dest);
 }
 
