@@ -108,7 +108,8 @@ export const API_OPERATIONS: ApiOperation[] = [
     path: "/api/manuscripts/{id}/datasets",
     permission: "dataset.upload",
     success: 201,
-    summary: "Upload a file: a new dataset, or a new version with datasetId (identical bytes to the current version answer 200 with it)",
+    summary:
+      "Upload a file: a new dataset, or a new version with datasetId (identical bytes to the current version answer 200 with it). Parse errors name file, line and column (400/415/422); a file whose parse needs more memory than INGEST_HEAP_MB answers 413 (code ingest_memory_budget), one that takes longer than INGEST_TIMEOUT_MS 422 (code ingest_time_budget)",
     multipart: {
       file: "the instrument file (CSV, TSV, text with # header, JSON, 2-D map); binary",
       name: "dataset name (default: the file name)",
