@@ -7,7 +7,7 @@
 import { xScale } from "./guess/signal-features";
 
 /** Fraction of the Nyquist frequency above which a fitted frequency is reported as close to it. */
-export const NYQUIST_MARGIN = 0.9;
+const NYQUIST_MARGIN = 0.9;
 
 /** 1/(2Δt) in 1/x, Δt being the mean spacing of the samples. */
 export function nyquistFrequency(x: ArrayLike<number>): number {

@@ -23,8 +23,8 @@ import { SOFTWARE } from "./software";
 import { sourceDataFiles } from "./source-data";
 
 /** RO-Crate 1.2 (https://w3id.org/ro/crate/1.2): the JSON-LD context and the version the metadata conforms to. */
-export const RO_CRATE_CONTEXT = "https://w3id.org/ro/crate/1.2/context";
-export const RO_CRATE_CONFORMS_TO = "https://w3id.org/ro/crate/1.2";
+const RO_CRATE_CONTEXT = "https://w3id.org/ro/crate/1.2/context";
+const RO_CRATE_CONFORMS_TO = "https://w3id.org/ro/crate/1.2";
 
 type Entity = Record<string, unknown> & { "@id": string; "@type": string };
 type Version = Extract<FigureTrace["panels"][number]["inputs"][number], { kind: "version" }>["version"];

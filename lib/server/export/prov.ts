@@ -44,12 +44,12 @@ export interface ProvOptions {
 const qn = (name: string) => ({ $: name, type: "prov:QUALIFIED_NAME" });
 const iso = (d: Date | string) => new Date(d).toISOString();
 
-export const PROV_PREFIXES = {
+const PROV_PREFIXES = {
   pl: "urn:prooflight:",
   nih: "nih:sha-256;",
 } as const;
 
-export const provIds = {
+const provIds = {
   file: (sha256: string) => `nih:${sha256}`,
   version: (id: string) => `pl:version/${id}`,
   spec: (sha256: string) => `pl:spec/${sha256}`,

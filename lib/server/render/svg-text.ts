@@ -16,7 +16,7 @@ export type SvgText = "outlines" | "embedded";
 const fmt = (v: number) => String(Math.round(v * 1000) / 1000);
 
 /** Glyphs as paths; the root keeps the figure's size in mm. */
-export function svgTextAsOutlines(svg: string): string {
+function svgTextAsOutlines(svg: string): string {
   assertPrintableSvg(svg);
   const { widthMm, heightMm } = svgSizeMm(svg);
   const out = new Resvg(svg, {
@@ -46,7 +46,7 @@ function facesUsed(svg: string): Array<{ family: FontFamily; face: FontFace }> {
 }
 
 /** Text kept as text, with the faces it uses embedded (one @font-face per family and face). */
-export function svgWithEmbeddedFonts(svg: string): string {
+function svgWithEmbeddedFonts(svg: string): string {
   assertPrintableSvg(svg);
   const faces = facesUsed(svg);
   if (!faces.length) return svg;

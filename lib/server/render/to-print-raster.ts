@@ -10,7 +10,7 @@ import "server-only";
 import sharp from "sharp";
 import { setPngDpi, svgToPng } from "./to-png";
 
-export type RasterColour = "rgb" | "grey";
+type RasterColour = "rgb" | "grey";
 
 export interface PrintRasterOptions {
   dpi: number;
