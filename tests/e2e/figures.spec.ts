@@ -261,7 +261,7 @@ test("the author builds a Hahn-echo panel with its fit, revises it twice and com
   await pi.reload();
 
   // Every panel has a revision now, so the vector PDF downloads from the figure page.
-  const pdfHref = await pi.getByRole("link", { name: "PDF (vector)" }).getAttribute("href");
+  const pdfHref = await pi.getByRole("link", { name: "PDF (vector, fonts embedded)", exact: true }).getAttribute("href");
   const pdf = await pi.request.get(pdfHref!);
   expect(pdf.status()).toBe(200);
   expect(pdf.headers()["content-type"]).toBe("application/pdf");
