@@ -40,7 +40,10 @@ const relay = new SMTPServer({
       received.push({ messageId: /^Message-ID:\s*(\S+)/im.exec(head)![1]!, to: session.envelope.rcptTo[0]!.address });
       if (killOnFirst) {
         killOnFirst = false;
-        child!.kill("SIGKILL"); // the relay has the message; the sender dies before it hears "250"
+        // The relay has the message; the sender dies before it hears "250". The whole process group
+        // goes: tsx runs the command in a child of its own, which would otherwise live on and finish
+        // the run itself.
+        process.kill(-child!.pid!, "SIGKILL");
         return;
       }
       callback();
@@ -53,6 +56,7 @@ async function runDigestCommand(port: number): Promise<{ code: number | null; si
   child = spawn(tsx, ["--conditions=react-server", "scripts/digest.ts", "--at", DIGEST_AT], {
     env: { ...process.env, SMTP_URL: `smtp://127.0.0.1:${port}` },
     stdio: ["ignore", "pipe", "pipe"],
+    detached: true, // its own process group, so a kill reaches the command and not only the tsx wrapper
   });
   let out = "";
   child.stdout!.on("data", (d: Buffer) => (out += d.toString()));
