@@ -86,8 +86,7 @@ export function judgeFit({ model, x, y, sigma, xUnit, result, bounds }: JudgeInp
   }
 
   // Residual structure, in order of x, weighted by σ when given.
-  const order = xOrder(x);
-  const weighted = order.map((i) => result.residuals[i] / (sigma ? sigma[i] : 1));
+  const weighted = weightedInXOrder(x, result.residuals, sigma);
   const runs = result.dof > 0 ? runsTest(weighted, RUNS_MINIMUM) : undefined;
   const dw = result.dof > 0 ? durbinWatson(weighted, DURBIN_WATSON_MINIMUM) : undefined;
   if (runs && runs.p < RESIDUAL_P) {
@@ -109,7 +108,7 @@ export function judgeFit({ model, x, y, sigma, xUnit, result, bounds }: JudgeInp
   // χ²ᵣ against its distribution, only when σ are given (otherwise χ²ᵣ is the scatter itself).
   let chi2Interval: [number, number] | undefined;
   if (sigma && result.dof > 0 && Number.isFinite(result.chi2red)) {
-    chi2Interval = reducedChiSquareInterval(result.dof, CHI2_LEVEL);
+    chi2Interval = chi2IntervalFor(result.dof);
     const [lo, hi] = chi2Interval;
     const where = `the ${Math.round(CHI2_LEVEL * 100)} % interval ${show(lo)}–${show(hi)} for ${result.dof} degrees of freedom`;
     if (result.chi2red > hi) {
@@ -200,11 +199,27 @@ const SUMMARY: Record<FitQualityLevel, string> = {
 
 const showP = (p: number): string => (p < 1e-4 ? p.toExponential(1) : String(Number(p.toPrecision(2))));
 
-/** Indices of x in ascending order (stable; the identity when x is already sorted). */
-function xOrder(x: ArrayLike<number>): number[] {
+/** Residuals divided by σ (when given), in ascending order of x (stable). */
+function weightedInXOrder(x: ArrayLike<number>, residuals: ArrayLike<number>, sigma: ArrayLike<number> | undefined): number[] {
+  let sorted = true;
+  for (let i = 1; i < x.length && sorted; i++) if (x[i] < x[i - 1]) sorted = false;
   const order = Array.from({ length: x.length }, (_, i) => i);
-  for (let i = 1; i < x.length; i++) if (x[i] < x[i - 1]) return order.sort((a, b) => x[a] - x[b] || a - b);
-  return order;
+  if (!sorted) order.sort((a, b) => x[a] - x[b] || a - b);
+  const out = new Array<number>(order.length);
+  for (let k = 0; k < order.length; k++) out[k] = residuals[order[k]] / (sigma ? sigma[order[k]] : 1);
+  return out;
+}
+
+/** The χ²ᵣ interval depends on the degrees of freedom alone, and a batch fits many alike. */
+const chi2Intervals = new Map<number, [number, number]>();
+function chi2IntervalFor(dof: number): [number, number] {
+  let interval = chi2Intervals.get(dof);
+  if (!interval) {
+    interval = reducedChiSquareInterval(dof, CHI2_LEVEL);
+    if (chi2Intervals.size > 1000) chi2Intervals.clear();
+    chi2Intervals.set(dof, interval);
+  }
+  return [interval[0], interval[1]];
 }
 
 function nearBound(value: number, [lo, hi]: [number, number]): boolean {

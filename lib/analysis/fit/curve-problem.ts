@@ -13,7 +13,18 @@ export interface CurveFunction {
   jacobian?: (x: number, p: ArrayLike<number>, out: Float64Array) => void;
   /** Optional: f(x) with ∂f/∂pⱼ written into out, in one pass (saves a sweep per step). */
   valueAndJacobian?: (x: number, p: ArrayLike<number>, out: Float64Array) => number;
+  /**
+   * Optional, the fastest path: set up once per dataset (e.g. logarithms of x), returns a sweep
+   * over all points (see CurveSweep).
+   */
+  prepareSweep?: (x: Float64Array, y: Float64Array, weight: Float64Array) => CurveSweep;
 }
+
+/**
+ * Weighted residuals (f(xᵢ; p) − yᵢ)·wᵢ into residuals[i] and wᵢ·∂f/∂pⱼ into jac[j·m + i], for
+ * all i and every parameter j (fixed ones too), in one pass over the data.
+ */
+export type CurveSweep = (p: ArrayLike<number>, residuals: Float64Array, jac: Float64Array) => void;
 
 export interface CurveData {
   x: ArrayLike<number>;
@@ -62,11 +73,11 @@ export function buildCurveProblem(
   for (let j = 0; j < nAll; j++) if (!fixed[j]) freeList.push(j);
   const n = freeList.length;
   const freeIndex = Int32Array.from(freeList);
-  const x = Float64Array.from(data.x);
-  const y = Float64Array.from(data.y);
+  const x = new Float64Array(data.x);
+  const y = new Float64Array(data.y);
   const weight = new Float64Array(m);
   for (let i = 0; i < m; i++) weight[i] = data.sigma ? 1 / data.sigma[i] : 1;
-  const full = Float64Array.from(startFull);
+  const full = new Float64Array(startFull);
   const lower = new Float64Array(n);
   const upper = new Float64Array(n);
   for (let k = 0; k < n; k++) {
@@ -110,6 +121,17 @@ export function buildCurveProblem(
     }
   };
 
+  // The whole-dataset sweep writes weighted residuals and columns at once. With fixed parameters
+  // it fills a full-width scratch and the free columns are copied out.
+  const sweep = model.prepareSweep?.(x, y, weight);
+  const sweepJac = sweep && !allFree ? new Float64Array(m * nAll) : undefined;
+  const sweptResidualsAndJacobian = (free: Float64Array, out: Float64Array, jac: Float64Array): void => {
+    const p = expand(free);
+    if (!sweepJac) return sweep!(p, out, jac);
+    sweep!(p, out, sweepJac);
+    for (let k = 0; k < n; k++) jac.set(sweepJac.subarray(freeIndex[k] * m, freeIndex[k] * m + m), k * m);
+  };
+
   let plus: Float64Array | undefined;
   let minus: Float64Array | undefined;
   const finiteDifferenceJacobian = (free: Float64Array, out: Float64Array): void => {
@@ -150,6 +172,6 @@ export function buildCurveProblem(
     expand,
     residuals,
     jacobian: model.jacobian ? analyticJacobian : finiteDifferenceJacobian,
-    ...(valueAndJacobian ? { residualsAndJacobian } : {}),
+    ...(sweep ? { residualsAndJacobian: sweptResidualsAndJacobian } : valueAndJacobian ? { residualsAndJacobian } : {}),
   };
 }

@@ -4,8 +4,8 @@
  * sitting on a bound whose gradient pushes it outward is held for that iteration, and trial
  * points are projected back into the box. Deterministic; all work arrays are allocated once.
  */
-import { createQrWorkspace, euclideanNorm, normFromSquares, qrFactorize } from "./qr-factorization";
-import { computeTrustRegionStep, createStepWorkspace } from "./trust-region-step";
+import { createQrWorkspace, euclideanNorm, normFromSquares, qrFactorize, type QrWorkspace } from "./qr-factorization";
+import { computeTrustRegionStep, createStepWorkspace, type StepWorkspace } from "./trust-region-step";
 
 const MACHINE_EPSILON = 2.220446049250313e-16;
 
@@ -106,6 +106,62 @@ export function releaseScratch(array: Float64Array | undefined): void {
   spares.push(array);
 }
 
+/** The solver's small per-parameter arrays, kept between fits with the same number of parameters. */
+interface SolverWorkspace {
+  n: number;
+  qtf: Float64Array;
+  diag: Float64Array;
+  colNorm: Float64Array;
+  activeNorm: Float64Array;
+  gradient: Float64Array;
+  active: Int32Array;
+  diagActive: Float64Array;
+  stepActive: Float64Array;
+  trial: Float64Array;
+  work: Float64Array;
+  qr: QrWorkspace;
+  step: StepWorkspace;
+}
+
+const spareWorkspaces = new Map<number, SolverWorkspace>();
+
+/** A zeroed workspace for n parameters; taken out of the spares while in use, so a nested fit gets its own. */
+function takeWorkspace(n: number): SolverWorkspace {
+  const spare = spareWorkspaces.get(n);
+  if (!spare) {
+    const f = () => new Float64Array(n);
+    return {
+      n,
+      qtf: f(),
+      diag: f(),
+      colNorm: f(),
+      activeNorm: f(),
+      gradient: f(),
+      active: new Int32Array(n),
+      diagActive: f(),
+      stepActive: f(),
+      trial: f(),
+      work: f(),
+      qr: createQrWorkspace(n),
+      step: createStepWorkspace(n),
+    };
+  }
+  spareWorkspaces.delete(n);
+  const { n: _, ...arrays } = spare;
+  for (const value of Object.values(arrays)) zeroAll(value);
+  return spare;
+}
+
+function zeroAll(value: Float64Array | Int32Array | QrWorkspace | StepWorkspace): void {
+  if (value instanceof Float64Array || value instanceof Int32Array) value.fill(0);
+  else for (const array of Object.values(value) as Array<Float64Array | Int32Array>) array.fill(0);
+}
+
+function releaseWorkspace(ws: SolverWorkspace): void {
+  if (spareWorkspaces.size >= 16) spareWorkspaces.clear();
+  spareWorkspaces.set(ws.n, ws);
+}
+
 function project(v: number, lo: number, hi: number): number {
   return v < lo ? lo : v > hi ? hi : v;
 }
@@ -124,18 +180,8 @@ export function minimizeLeastSquares(problem: LeastSquaresProblem, start: ArrayL
   let trialJac = combined ? takeScratch(m * n) : fjac;
   // True while fjac holds the untouched Jacobian at x.
   let jacobianFresh = false;
-  const qtf = new Float64Array(n);
-  const diag = new Float64Array(n);
-  const colNorm = new Float64Array(n);
-  const activeNorm = new Float64Array(n);
-  const gradient = new Float64Array(n);
-  const active = new Int32Array(n);
-  const diagActive = new Float64Array(n);
-  const stepActive = new Float64Array(n);
-  const trial = new Float64Array(n);
-  const work = new Float64Array(n);
-  const qr = createQrWorkspace(n);
-  const stepWs = createStepWorkspace(n);
+  const ws = takeWorkspace(n);
+  const { qtf, diag, colNorm, activeNorm, gradient, active, diagActive, stepActive, trial, work, qr, step: stepWs } = ws;
 
   if (combined) combined(x, fvec, fjac);
   else problem.residuals(x, fvec);
@@ -143,6 +189,7 @@ export function minimizeLeastSquares(problem: LeastSquaresProblem, start: ArrayL
   let evaluations = 1;
   let fnorm = euclideanNorm(fvec, 0, m);
   const finish = (code: number, iterations: number): SolverOutcome => {
+    releaseWorkspace(ws);
     releaseScratch(trialF);
     if (trialJac !== fjac) releaseScratch(trialJac);
     if (!jacobianFresh) releaseScratch(fjac);

@@ -7,6 +7,7 @@
  * Models with k independent dips have ids odmr_lorentzian_1 … odmr_lorentzian_4, with
  * parameters B, f1, w1, c1, f2, w2, c2, … in ascending f order of the start values.
  */
+import type { CurveSweep } from "../fit/curve-problem";
 import { contrastAt, dipProfile, findDips, type Dip } from "./guess/dip-guess";
 import { matchLinePattern } from "./guess/line-pattern";
 import { median, xScale } from "./guess/signal-features";
@@ -166,6 +167,42 @@ function patternDipModel(id: string, title: string, nucleus: string, splittingMH
     out[4] = -b * sum;
     return b * (1 - c * sum);
   };
+  // valueAndJacobian over a whole dataset, weighted, in one pass.
+  const prepareSweep = (x: Float64Array, y: Float64Array, weight: Float64Array): CurveSweep => {
+    const m = x.length;
+    return (p, residuals, jac) => {
+      const b = p[0];
+      const centre = p[1];
+      const split = p[2];
+      const width = p[3];
+      const c = p[4];
+      const halfWidth = width / 2;
+      const bc = b * c;
+      for (let i = 0; i < m; i++) {
+        let sum = 0;
+        let dCentre = 0;
+        let dSplit = 0;
+        let dWidth = 0;
+        for (let l = 0; l < pattern.length; l++) {
+          const k = pattern[l];
+          const q = (x[i] - centre - k * split) / halfWidth;
+          const line = 1 / (1 + q * q);
+          const slope = (4 * q * line * line) / width;
+          sum += line;
+          dCentre += slope;
+          dSplit += k * slope;
+          dWidth += (2 * q * q * line * line) / width;
+        }
+        const w = weight[i];
+        residuals[i] = (b * (1 - c * sum) - y[i]) * w;
+        jac[i] = (1 - c * sum) * w;
+        jac[m + i] = -bc * dCentre * w;
+        jac[2 * m + i] = -bc * dSplit * w;
+        jac[3 * m + i] = -bc * dWidth * w;
+        jac[4 * m + i] = -b * sum * w;
+      }
+    };
+  };
   return {
     id,
     title,
@@ -186,6 +223,7 @@ function patternDipModel(id: string, title: string, nucleus: string, splittingMH
     },
     jacobian: valueAndJacobian,
     valueAndJacobian,
+    prepareSweep,
     guess(x, y) {
       const profile = dipProfile(x, y);
       const { span } = xScale(x);

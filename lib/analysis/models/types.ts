@@ -3,6 +3,8 @@
  * (radians for phases). The polynomial roles ("y/x", "y/x^2", "y/x^3") extend the original
  * five so that slopes and curvatures can be labelled.
  */
+import type { CurveSweep } from "../fit/curve-problem";
+
 export type UnitRole = "x" | "y" | "1/x" | "1" | "x*y" | "y/x" | "y/x^2" | "y/x^3";
 
 export interface ModelParam {
@@ -72,6 +74,12 @@ export interface FitModel {
    * needs one model sweep per step instead of two. Must agree with evaluate and jacobian.
    */
   valueAndJacobian?: (x: number, p: ArrayLike<number>, out: Float64Array) => number;
+  /**
+   * Optional fastest path: set up once per dataset, returns a sweep writing the weighted
+   * residuals and the full weighted Jacobian (column-major) at every x. Must agree with
+   * evaluate and jacobian.
+   */
+  prepareSweep?: (x: Float64Array, y: Float64Array, weight: Float64Array) => CurveSweep;
   /** Automatic start values from the data, one per parameter. */
   guess(x: ArrayLike<number>, y: ArrayLike<number>): number[];
   /** Sensible default bounds for the data, one [lo, hi] per parameter (±Infinity allowed). */
