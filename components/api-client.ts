@@ -50,3 +50,28 @@ export async function fetchJson<T>(url: string, init?: RequestInit): Promise<T> 
 export function sendJson<T>(url: string, method: "POST" | "PUT" | "PATCH" | "DELETE", body?: unknown): Promise<T> {
   return fetchJson<T>(url, { method, body: body === undefined ? undefined : JSON.stringify(body) });
 }
+
+/**
+ * POSTs JSON to a route that answers NDJSON and hands each line's value to `onEvent` as it
+ * arrives; aborting `signal` closes the connection (the server then stops). An error answer
+ * (before the stream starts) throws an ApiError with the server's message.
+ */
+export async function postForEvents<E>(url: string, body: unknown, onEvent: (event: E) => void, signal?: AbortSignal): Promise<void> {
+  const res = await fetch(url, { method: "POST", headers: { accept: "application/x-ndjson", "content-type": "application/json" }, body: JSON.stringify(body), signal });
+  if (!res.ok || !res.body) {
+    const text = await res.text();
+    throw new ApiError(res.status, messageFromBody(res.status, text), errorBody(text)?.details);
+  }
+  const reader = res.body.pipeThrough(new TextDecoderStream()).getReader();
+  let buffered = "";
+  for (;;) {
+    const { value, done } = await reader.read();
+    if (done) break;
+    buffered += value;
+    for (let end = buffered.indexOf("\n"); end >= 0; end = buffered.indexOf("\n")) {
+      const line = buffered.slice(0, end).trim();
+      buffered = buffered.slice(end + 1);
+      if (line) onEvent(JSON.parse(line) as E);
+    }
+  }
+}

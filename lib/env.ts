@@ -1,3 +1,4 @@
+import os from "node:os";
 import path from "node:path";
 import { z } from "zod";
 
@@ -30,6 +31,8 @@ const schema = z.object({
   INGEST_HEAP_MB: z.coerce.number().int().min(16).default(1024),
   /** The ingest child's wall-clock budget for one file, ms: a longer parse is refused with 422. */
   INGEST_TIMEOUT_MS: z.coerce.number().int().positive().default(120_000),
+  /** Worker threads of the batch fit pool; one per core when unset. */
+  FIT_WORKERS: z.coerce.number().int().min(1).max(64).optional(),
   UPLOADS_PER_USER: z.coerce.number().int().positive().default(2),
   UPLOADS_IN_TOTAL: z.coerce.number().int().positive().default(4),
   JSON_BODY_MAX_BYTES: z.coerce
@@ -40,10 +43,30 @@ const schema = z.object({
   COMMENTS_PER_MINUTE: z.coerce.number().int().positive().default(30),
   /** Review notices to one person within this many seconds of the first go out as one mail. */
   MAIL_COALESCE_SECONDS: z.coerce.number().int().min(0).max(86_400).default(60),
+  /** How often each instance's digest scheduler looks for due digests, seconds. */
+  DIGEST_INTERVAL_SECONDS: z.coerce.number().int().min(1).max(3600).default(60),
+  /** Where uploaded files live: the uploads folder on this machine, or an S3-compatible bucket shared by every instance. */
+  STORAGE: z.enum(["local", "s3"], { message: "STORAGE must be local or s3" }).default("local"),
+  S3_ENDPOINT: z.url({ message: "S3_ENDPOINT must be a URL such as http://127.0.0.1:9000 (leave it unset for AWS itself)" }).optional(),
+  S3_REGION: z.string().min(1).default("us-east-1"),
+  S3_BUCKET: z
+    .string()
+    .regex(/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/, "S3_BUCKET must be a bucket name: 3 to 63 lower-case letters, digits, dots or hyphens")
+    .optional(),
+  S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  S3_FORCE_PATH_STYLE: z.enum(["true", "false", "1", "0"], { message: "S3_FORCE_PATH_STYLE must be true or false" }).default("false"),
+});
+
+/** With STORAGE=s3 the bucket and both keys must be given: an instance must never fall back to local disk unnoticed. */
+const checked = schema.superRefine((e, ctx) => {
+  if (e.STORAGE !== "s3") return;
+  for (const key of ["S3_BUCKET", "S3_ACCESS_KEY_ID", "S3_SECRET_ACCESS_KEY"] as const)
+    if (!e[key]) ctx.addIssue({ code: "custom", path: [key], message: `required when STORAGE=s3` });
 });
 
 function load() {
-  const parsed = schema.safeParse(process.env);
+  const parsed = checked.safeParse(process.env);
   if (!parsed.success) {
     const issues = parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ");
     throw new Error(`Invalid environment: ${issues}`);
@@ -81,12 +104,32 @@ function load() {
     uploadIdleTimeoutMs: e.UPLOAD_IDLE_TIMEOUT_MS,
     ingestHeapMb: e.INGEST_HEAP_MB,
     ingestTimeoutMs: e.INGEST_TIMEOUT_MS,
+    fitWorkers: e.FIT_WORKERS ?? Math.max(1, os.availableParallelism()),
     uploadsPerUser: e.UPLOADS_PER_USER,
     uploadsInTotal: e.UPLOADS_IN_TOTAL,
     jsonBodyMaxBytes: e.JSON_BODY_MAX_BYTES,
     commentsPerMinute: e.COMMENTS_PER_MINUTE,
     mailCoalesceMs: e.MAIL_COALESCE_SECONDS * 1000,
+    digestIntervalMs: e.DIGEST_INTERVAL_SECONDS * 1000,
+    storage: storageSettings(e),
     secureCookies: appUrl.startsWith("https://"),
+  };
+}
+
+type StorageSettings =
+  | { kind: "local" }
+  | { kind: "s3"; endpoint?: string; region: string; bucket: string; accessKeyId: string; secretAccessKey: string; forcePathStyle: boolean };
+
+function storageSettings(e: z.infer<typeof schema>): StorageSettings {
+  if (e.STORAGE === "local") return { kind: "local" };
+  return {
+    kind: "s3",
+    endpoint: e.S3_ENDPOINT,
+    region: e.S3_REGION,
+    bucket: e.S3_BUCKET!,
+    accessKeyId: e.S3_ACCESS_KEY_ID!,
+    secretAccessKey: e.S3_SECRET_ACCESS_KEY!,
+    forcePathStyle: e.S3_FORCE_PATH_STYLE === "true" || e.S3_FORCE_PATH_STYLE === "1",
   };
 }
 

@@ -48,6 +48,7 @@ export function AnalysesWorkspace({
           </h2>
           <BatchRunner
             key={kind}
+            manuscriptId={manuscriptId}
             datasets={datasets}
             models={models}
             model={model}

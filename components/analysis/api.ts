@@ -2,6 +2,7 @@ import type { analysisCatalogue } from "@/lib/server/analyses/catalogue";
 import type { populationStatistics } from "@/lib/server/analyses/population";
 import type { listAnalysesForVersion, previewAnalysis, runAnalysis } from "@/lib/server/analyses/run-analysis";
 import type { FitOptions } from "@/lib/server/analyses/schemas";
+import type { BatchEvent as ServerBatchEvent } from "@/lib/server/analyses/batch";
 import type { Wire } from "@/components/api-client";
 
 export type { FitOptions };
@@ -9,6 +10,8 @@ type Catalogue = ReturnType<typeof analysisCatalogue>;
 export type ModelInfo = Catalogue["items"][number];
 export type FitResult = Wire<Awaited<ReturnType<typeof previewAnalysis>>>;
 export type SavedRun = Wire<Awaited<ReturnType<typeof runAnalysis>>>;
+/** One line of the batch route's NDJSON answer. */
+export type BatchEvent = Wire<ServerBatchEvent>;
 export type FitParameter = FitResult["parameters"][number];
 export type StoredRun = Wire<Awaited<ReturnType<typeof listAnalysesForVersion>>[number]>;
 export type PopulationStats = Wire<Awaited<ReturnType<typeof populationStatistics>>>;

@@ -6,7 +6,8 @@ import { Converged } from "./fit-result";
 
 export interface BatchOutcome {
   dataset: BatchDataset;
-  run?: SavedRun;
+  /** The stored run as the batch reports it (without the points and curve). */
+  run?: Omit<SavedRun, "data" | "curve">;
   error?: string;
 }
 

@@ -1,8 +1,8 @@
 "use client";
 import { useRef, useState } from "react";
-import { sendJson } from "@/components/api-client";
+import { postForEvents } from "@/components/api-client";
 import { Button, EmptyState, Field, Notice, Select } from "@/components/ui";
-import type { ModelInfo, SavedRun } from "./api";
+import type { BatchEvent, ModelInfo } from "./api";
 import { BatchProgress } from "./batch-progress";
 import { BatchResults, type BatchOutcome } from "./batch-results";
 import type { BatchDataset } from "./batch-types";
@@ -10,6 +10,7 @@ import { defaultColumns } from "./fit-options";
 import { ColumnSelects, kindWords, ModelSelect } from "./model-and-columns";
 
 interface Props {
+  manuscriptId: string;
   datasets: BatchDataset[];
   models: ModelInfo[];
   model: ModelInfo;
@@ -20,8 +21,12 @@ interface Props {
   onFinished: () => void;
 }
 
-/** Runs one model (remounted per kind, so ticks and columns start fresh) over the current version of every ticked dataset of a kind, one at a time, storing each run. */
-export function BatchRunner({ datasets, models, model, onModel, kind, onKind, mayRun, onFinished }: Props) {
+/**
+ * Runs one model (remounted per kind, so ticks and columns start fresh) over the current version
+ * of every ticked dataset of a kind on the server's fit pool, storing each run; rows fill in as
+ * fits finish. Stop closes the connection: no further fit starts.
+ */
+export function BatchRunner({ manuscriptId, datasets, models, model, onModel, kind, onKind, mayRun, onFinished }: Props) {
   const matching = datasets.filter((d) => d.kind === kind);
   const kinds = [...new Set(datasets.map((d) => d.kind))].sort();
   const [unticked, setUnticked] = useState<Set<string>>(new Set());
@@ -30,7 +35,8 @@ export function BatchRunner({ datasets, models, model, onModel, kind, onKind, ma
   const [progress, setProgress] = useState<{ done: number; total: number; failed: number } | null>(null);
   const [running, setRunning] = useState(false);
   const [ranModel, setRanModel] = useState(model);
-  const stop = useRef(false);
+  const stop = useRef<AbortController | null>(null);
+  const [note, setNote] = useState<string | null>(null);
   const chosen = matching.filter((d) => !unticked.has(d.id));
 
   function toggle(id: string, on: boolean) {
@@ -44,24 +50,38 @@ export function BatchRunner({ datasets, models, model, onModel, kind, onKind, ma
 
   async function run() {
     const queue = chosen;
-    stop.current = false;
+    const byVersion = new Map(queue.map((d) => [d.versionId, d]));
+    const stopper = new AbortController();
+    stop.current = stopper;
     setRunning(true);
     setOutcomes([]);
     setRanModel(model);
+    setNote(null);
+    let done = 0;
     let failed = 0;
-    setProgress({ done: 0, total: queue.length, failed });
+    setProgress({ done, total: queue.length, failed });
     const options = { x: cols.x, y: cols.y, ...(cols.sigma ? { sigma: cols.sigma } : {}) };
-    for (let i = 0; i < queue.length && !stop.current; i++) {
-      const dataset = queue[i];
-      let outcome: BatchOutcome;
-      try {
-        outcome = { dataset, run: await sendJson<SavedRun>("/api/analyses", "POST", { versionId: dataset.versionId, model: model.id, options }) };
-      } catch (err) {
-        failed++;
-        outcome = { dataset, error: (err as Error).message };
-      }
-      setOutcomes((o) => [...o, outcome]);
-      setProgress({ done: i + 1, total: queue.length, failed });
+    try {
+      await postForEvents<BatchEvent>(
+        "/api/analyses/batch",
+        { manuscriptId, versionIds: queue.map((d) => d.versionId), model: model.id, options },
+        (event) => {
+          if (event.type === "start") setNote(`Fitting on ${event.workers} core${event.workers === 1 ? "" : "s"} of the server.`);
+          if (event.type === "end" && event.cancelled) setNote(`Stopped: ${event.cancelled} fit${event.cancelled === 1 ? " was" : "s were"} not started.`);
+          if (event.type !== "result") return;
+          const dataset = byVersion.get(event.versionId)!;
+          done++;
+          if (!event.ok) failed++;
+          const outcome = event.ok ? { dataset, run: event.run } : { dataset, error: event.error };
+          // Fits finish in any order; rows keep the order of the list above.
+          setOutcomes((o) => [...o, outcome].sort((a, b) => queue.indexOf(a.dataset) - queue.indexOf(b.dataset)));
+          setProgress({ done, total: queue.length, failed });
+        },
+        stopper.signal,
+      );
+    } catch (err) {
+      if (!stopper.signal.aborted) setNote((err as Error).message);
+      else setNote(`Stopped: ${queue.length - done} fit${queue.length - done === 1 ? " was" : "s were"} not finished here (fits already under way are still stored).`);
     }
     setRunning(false);
     onFinished();
@@ -120,10 +140,10 @@ export function BatchRunner({ datasets, models, model, onModel, kind, onKind, ma
               type="button"
               variant="quiet"
               onClick={() => {
-                stop.current = true;
+                stop.current?.abort();
               }}
             >
-              Stop after this fit
+              Stop
             </Button>
           ) : null}
           <span className="text-xs text-muted">Each run is stored with a derived version ({sigmaDefault}; automatic start values and default bounds).</span>
@@ -134,6 +154,7 @@ export function BatchRunner({ datasets, models, model, onModel, kind, onKind, ma
         </p>
       )}
       {progress ? <BatchProgress {...progress} /> : null}
+      {note ? <p className="text-xs text-muted">{note}</p> : null}
       {progress && !running && progress.failed ? (
         <Notice ok={false}>
           {progress.failed} of {progress.total} fits failed; the reason is in each row.

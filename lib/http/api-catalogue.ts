@@ -5,7 +5,7 @@ import { createManuscriptInput } from "@/lib/server/manuscripts";
 import { changeRoleInput, inviteInput } from "@/lib/server/members";
 import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schemas";
 import { houseStyleSchema } from "@/lib/figures/house-style";
-import { analysisInput, calculatorInput, statisticsQuery } from "@/lib/server/analyses/schemas";
+import { analysisInput, batchInput, calculatorInput, statisticsQuery } from "@/lib/server/analyses/schemas";
 import { exportQuery } from "@/lib/server/export/export-figure";
 import { traceQuery } from "@/lib/server/figures/trace";
 import { thumbnailQuery } from "@/lib/server/export/thumbnails";
@@ -164,6 +164,14 @@ export const API_OPERATIONS: ApiOperation[] = [
     success: 201,
   },
   { method: "POST", path: "/api/analyses/preview", permission: "analysis.run", summary: "Run a fit without storing it", body: analysisInput, success: 200 },
+  {
+    method: "POST",
+    path: "/api/analyses/batch",
+    permission: "analysis.run",
+    summary: "Fit one model over several versions of a manuscript on all cores, storing each run; progress streams back as NDJSON (start, one result per version, end); closing the connection stops the batch",
+    body: batchInput,
+    success: 200,
+  },
   { method: "GET", path: "/api/analyses/{id}", permission: "manuscript.read", summary: "A stored analysis run", success: 200 },
   {
     method: "GET",

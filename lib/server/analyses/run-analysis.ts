@@ -2,7 +2,7 @@ import "server-only";
 import { and, desc, eq, isNotNull, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, datasets, versions } from "@/db/schema";
-import { FitInputError, fitModel, getModel, sampleCurve, type ModelFitResult } from "@/lib/analysis";
+import { getModel, sampleCurve, type ModelFitResult } from "@/lib/analysis";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
@@ -10,6 +10,7 @@ import { badRequest, notFound } from "@/lib/errors";
 import { manuscriptOfVersion } from "../datasets/scope";
 import { importDatasetFromBytes } from "../datasets/upload-dataset";
 import { derivedCsv } from "./derived-file";
+import { runFitJob } from "./fit-job";
 import { loadFitData, type FitData } from "./fit-data";
 import { analysisInput, type AnalysisInput } from "./schemas";
 import { resolveUnit } from "@/lib/analysis/param-unit";
@@ -22,23 +23,13 @@ export function fitOrExplain(
   input: Pick<AnalysisInput, "model" | "options">,
   data: Pick<FitData, "x" | "y" | "sigma"> & { xUnit?: string | null },
 ): ModelFitResult {
-  if (!getModel(input.model)) throw badRequest(`model: unknown model "${input.model}"; GET /api/analysis-models lists them.`);
-  try {
-    return fitModel(input.model, {
-      x: data.x,
-      y: data.y,
-      sigma: data.sigma,
-      xUnit: data.xUnit,
-      start: input.options.start,
-      fixed: input.options.fixed,
-      bounds: input.options.bounds,
-      maxIterations: input.options.maxIterations,
-    });
-  } catch (err) {
-    if (err instanceof FitInputError) throw badRequest(`options.${err.field}: ${err.message}.`);
-    throw err;
-  }
+  const outcome = runFitJob({ model: input.model, options: input.options, x: data.x, y: data.y, sigma: data.sigma, xUnit: data.xUnit });
+  if (!outcome.ok) throw badRequest(outcome.message);
+  return outcome.fit;
 }
+
+/** How a run gets its fit: in this thread (one fit) or on the fit pool (batches). */
+type Fitter = (input: AnalysisInput, data: FitData) => ModelFitResult | Promise<ModelFitResult>;
 
 /** The fitted curve on the grid a stored run samples it on (log-spaced when x spans more than two decades). */
 export function curveFor(modelId: string, fit: ModelFitResult, x: Float64Array) {
@@ -135,12 +126,12 @@ async function derivedDatasetId(manuscriptId: string, source: FitData["dataset"]
  * Runs and stores: the run records the input hash, model id and code version, options and the
  * full result, and writes a derived version (curve, data, residuals) that figures can bind to.
  */
-export async function runAnalysis(user: SessionUser, raw: AnalysisInput) {
+export async function runAnalysis(user: SessionUser, raw: AnalysisInput, fitter: Fitter = fitOrExplain) {
   const input = analysisInput.parse(raw);
   const manuscriptId = await manuscriptOfVersion(input.versionId);
   await authorize(user, "analysis.run", manuscriptId);
   const data = await loadFitData(input.versionId, input.options);
-  const fit = fitOrExplain(input, data);
+  const fit = await fitter(input, data);
   const run = describeRun(input, data, fit, curveFor(input.model, fit, data.x));
   const id = newId();
   const csv = derivedCsv({

@@ -29,6 +29,17 @@ export const analysisInput = z.object({
 });
 export type AnalysisInput = z.infer<typeof analysisInput>;
 
+/** Batch: one model and one set of options over the current versions of several datasets of one manuscript. */
+export const batchInput = z
+  .object({
+    manuscriptId: z.string().min(1, "manuscriptId is required").max(128),
+    versionIds: z.array(z.string().min(1).max(128)).min(1, "choose at least one version").max(1000, "at most 1000 versions in one batch"),
+    model: z.string().min(1, "model is required").max(NAME_MAX),
+    options: fitOptions,
+  })
+  .strict();
+export type BatchInput = z.infer<typeof batchInput>;
+
 export const statisticsQuery = z.object({
   model: z.string().min(1).max(NAME_MAX),
   parameter: z.string().min(1).max(NAME_MAX),
