@@ -16,6 +16,7 @@
  * does not do).
  */
 import { spawn, spawnSync, type ChildProcessWithoutNullStreams } from "node:child_process";
+import os from "node:os";
 import path from "node:path";
 import { fitModel } from "@/lib/analysis";
 import { fitCurve } from "@/lib/analysis/fit/fit-curve";
@@ -244,6 +245,34 @@ function largestRelativeDifference(ours: number[][], theirs: number[][]): number
 
 const AGREEMENT = 1e-6;
 
+/** The batch of echo fits on the server's fit pool with 1 worker thread and with one per core (after a warm-up that starts the threads). */
+async function poolBatch(batch: Dataset[]): Promise<Record<string, { workers: number; totalSeconds: number; fitsPerSecond: number }>> {
+  const { resetEnvForTests } = await import("@/lib/env");
+  const { closeFitPool, fitInPool } = await import("@/lib/server/analyses/fit-pool");
+  const saved = process.env.FIT_WORKERS;
+  const out: Record<string, { workers: number; totalSeconds: number; fitsPerSecond: number }> = {};
+  for (const workers of [1, os.availableParallelism()]) {
+    process.env.FIT_WORKERS = String(workers);
+    resetEnvForTests();
+    const job = (d: Dataset) =>
+      fitInPool({ model: "hahn_echo", options: {}, x: Float64Array.from(d.x), y: Float64Array.from(d.y), sigma: Float64Array.from(d.sigma) });
+    await Promise.all(batch.slice(0, 50 * workers).map(job));
+    const t0 = performance.now();
+    await Promise.all(batch.map(job));
+    const seconds = (performance.now() - t0) / 1000;
+    out[`${workers} worker${workers === 1 ? "" : "s"}`] = {
+      workers,
+      totalSeconds: Number(seconds.toFixed(3)),
+      fitsPerSecond: Math.round(batch.length / seconds),
+    };
+    await closeFitPool();
+  }
+  if (saved === undefined) delete process.env.FIT_WORKERS;
+  else process.env.FIT_WORKERS = saved;
+  resetEnvForTests();
+  return out;
+}
+
 export async function benchFit(): Promise<Record<string, unknown>> {
   const echo = echoDatasets(50, 500);
   const triplet = tripletDatasets(20, 2000);
@@ -255,6 +284,7 @@ export async function benchFit(): Promise<Record<string, unknown>> {
   let batchConverged = 0;
   for (const data of batch) if (fitModel("hahn_echo", data).converged) batchConverged++;
   const batchSeconds = (performance.now() - batchStart) / 1000;
+  const pool = await poolBatch(batch);
 
   const cases = [anchorCase("hahn_echo, 500 points", "hahn_echo", echo, 100), anchorCase("odmr_14n_triplet, 2000 points", "odmr_14n_triplet", triplet, 20)];
   const run = await runAnchor(cases, [100, 20]);
@@ -293,6 +323,8 @@ export async function benchFit(): Promise<Record<string, unknown>> {
     },
   };
   console.table(table);
+  console.log("   The same 1000 echo fits on the server's fit pool (worker threads, data sent to each thread):");
+  console.table(pool);
   if (run && anchor) {
     const { hello } = run;
     console.log(
@@ -310,6 +342,7 @@ export async function benchFit(): Promise<Record<string, unknown>> {
     hahnEcho500,
     odmrTriplet2000,
     echoBatch1000: { totalSeconds: Number(batchSeconds.toFixed(3)), converged: batchConverged },
+    echoBatch1000OnFitPool: pool,
     scipyAnchor:
       run && anchor
         ? { scipy: run.hello.scipy, numpy: run.hello.numpy, python: run.hello.python, rounds: ROUNDS, cases: anchor }
