@@ -47,7 +47,7 @@ const schema = z.object({
   DIGEST_INTERVAL_SECONDS: z.coerce.number().int().min(1).max(3600).default(60),
   /** Where uploaded files live: the uploads folder on this machine, or an S3-compatible bucket shared by every instance. */
   STORAGE: z.enum(["local", "s3"], { message: "STORAGE must be local or s3" }).default("local"),
-  S3_ENDPOINT: z.url({ message: "S3_ENDPOINT must be a URL such as http://127.0.0.1:9000 (leave it unset for AWS itself)" }).optional(),
+  S3_ENDPOINT: z.url({ protocol: /^https?$/, message: "S3_ENDPOINT must be a URL such as http://127.0.0.1:9000 (leave it unset for AWS itself)" }).optional(),
   S3_REGION: z.string().min(1).default("us-east-1"),
   S3_BUCKET: z
     .string()
@@ -117,8 +117,7 @@ function load() {
 }
 
 type StorageSettings =
-  | { kind: "local" }
-  | { kind: "s3"; endpoint?: string; region: string; bucket: string; accessKeyId: string; secretAccessKey: string; forcePathStyle: boolean };
+  { kind: "local" } | { kind: "s3"; endpoint?: string; region: string; bucket: string; accessKeyId: string; secretAccessKey: string; forcePathStyle: boolean };
 
 function storageSettings(e: z.infer<typeof schema>): StorageSettings {
   if (e.STORAGE === "local") return { kind: "local" };

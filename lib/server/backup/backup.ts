@@ -10,7 +10,7 @@ import { getClient } from "@/db/client";
 import * as schema from "@/db/schema";
 import { env } from "@/lib/env";
 import { verifyAuditChain } from "../audit";
-import { blobPath } from "../storage/blob-store";
+import { blobStore } from "../storage/store";
 
 export const MANIFEST = "manifest.json";
 const DATABASE_FILE = "prooflight.db";
@@ -67,7 +67,7 @@ export async function createBackup(dir: string): Promise<BackupManifest> {
     for (const sha256 of hashes) {
       const dest = blobInBackup(dir, sha256);
       await fsp.mkdir(path.dirname(dest), { recursive: true });
-      await pipeline(fs.createReadStream(blobPath(sha256)), fs.createWriteStream(dest));
+      await pipeline(await blobStore().openRead(sha256), fs.createWriteStream(dest));
       const copied = await hashFile(dest);
       if (copied.sha256 !== sha256) throw new Error(`The stored upload ${sha256} does not match its hash (${copied.sha256}): the store is damaged.`);
       blobs.push(copied);

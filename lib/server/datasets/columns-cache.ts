@@ -1,5 +1,6 @@
 import "server-only";
-import { blobPath, commitCache, readCache, removeTemp, tempPath } from "../storage/blob-store";
+import { commitCache, readCache, removeTemp, tempPath } from "../storage/blob-store";
+import { blobStore } from "../storage/store";
 import { ingestInChild, type IngestJob } from "./ingest-in-child";
 
 const MAX_BYTES = 96 * 1024 * 1024;
@@ -33,7 +34,7 @@ export async function columnsFor(sha256: string, fileName: string, parseOptions:
   if (!blob) {
     const output = tempPath();
     try {
-      await ingestInChild({ input: blobPath(sha256), output, fileName, options: parseOptions });
+      await blobStore().withLocalFile(sha256, (input) => ingestInChild({ input, output, fileName, options: parseOptions }));
       await commitCache(output, sha256);
     } finally {
       await removeTemp(output);

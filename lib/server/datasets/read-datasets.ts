@@ -1,5 +1,4 @@
 import "server-only";
-import fs from "node:fs";
 import { Readable } from "node:stream";
 import { and, asc, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
 import { getDb } from "@/db/client";
@@ -9,7 +8,8 @@ import { decodeColumnar, readRows } from "@/lib/data/columnar";
 import { minMaxPerBucket } from "@/lib/data/downsample";
 import { appendAudit } from "../audit";
 import { badRequest, notFound } from "@/lib/errors";
-import { blobPath } from "../storage/blob-store";
+import { BlobMissingError } from "../storage/blob-contract";
+import { blobStore } from "../storage/store";
 import { columnsFor } from "./columns-cache";
 import { metadataInput, type MetadataInput } from "./schemas";
 import { manuscriptOfDataset, manuscriptOfVersion } from "./scope";
@@ -76,10 +76,14 @@ export async function getVersion(user: SessionUser, versionId: string) {
 /** The original bytes, streamed from disk; the stored file name goes into Content-Disposition, safely encoded. */
 export async function openRawVersion(user: SessionUser, versionId: string) {
   const { v } = await loadVersion(user, versionId);
-  const path = blobPath(v.sha256);
-  if (!fs.existsSync(path)) throw notFound("The stored file is missing; restore it from a backup.");
+  const stored = await blobStore()
+    .openRead(v.sha256)
+    .catch((err: unknown) => {
+      if (err instanceof BlobMissingError) throw notFound("The stored file is missing; restore it from a backup.");
+      throw err;
+    });
   return {
-    body: Readable.toWeb(fs.createReadStream(path)) as ReadableStream<Uint8Array>,
+    body: Readable.toWeb(stored) as ReadableStream<Uint8Array>,
     headers: {
       "content-type": "application/octet-stream",
       "content-length": String(v.byteSize),

@@ -8,7 +8,8 @@ import { appendAudit } from "../audit";
 import { newId } from "../crypto";
 import { badRequest, notFound } from "@/lib/errors";
 import { consumeRate, type RateRule } from "../limits/rate-limit";
-import { commitBlob, commitCache, removeTemp, tempPath, writeStreamToTemp } from "../storage/blob-store";
+import { commitCache, removeTemp, tempPath, writeStreamToTemp } from "../storage/blob-store";
+import { blobStore } from "../storage/store";
 import { readMultipartUpload, type UploadedFile } from "../storage/multipart";
 import { acquireUploadSlot } from "../storage/upload-slots";
 import { metadataInput, uploadFields, type MetadataInput, type UploadFields } from "./schemas";
@@ -96,7 +97,7 @@ async function ingestFile(user: SessionUser, manuscriptId: string, file: Uploade
       fileName: file.fileName,
       options: { delimiter, decimal: f.decimal, format: f.format },
     });
-    await commitBlob(file.tmp, file.sha256);
+    await blobStore().putFile(file.tmp, file.sha256);
     // Not read into memory here: a large upload would otherwise stay resident until evicted; the first read loads it.
     await commitCache(cacheTmp, file.sha256);
     return await recordVersion(user, manuscriptId, file, table, f.datasetId, f.name, metadata);

@@ -1,5 +1,4 @@
 import "server-only";
-import fs from "node:fs/promises";
 import { eq, inArray } from "drizzle-orm";
 import { strToU8 } from "fflate";
 import { getDb } from "@/db/client";
@@ -14,7 +13,7 @@ import { traceFigure, type FigureTrace } from "../figures/trace";
 import { svgToPdf } from "../render/to-pdf";
 import { printPng } from "../render/to-print-raster";
 import type { FigureReview } from "../review/review-context";
-import { blobPath } from "../storage/blob-store";
+import { blobStore } from "../storage/store";
 import { DRAFT_MARK_TEXT } from "./draft-mark";
 import { fitReportText, type StoredFit } from "./fit-report";
 import { BUNDLE_PATHS, type BundleParseRecord, type BundlePanelData, type BundleRender } from "./bundle-layout";
@@ -88,7 +87,7 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
       columns: stored.columns,
       summary: stored.summary,
     };
-    return addFile(path, new Uint8Array(await fs.readFile(blobPath(v.sha256))), mediaTypeOf(v.fileName), {
+    return addFile(path, await blobStore().readAll(v.sha256), mediaTypeOf(v.fileName), {
       name: `${v.dataset}, version ${v.number}`,
       identifier: v.versionId,
       dateCreated: iso(v.createdAt),

@@ -1,6 +1,7 @@
 import "server-only";
 import { eq, max, TransactionRollbackError } from "drizzle-orm";
 import { getDb } from "@/db/client";
+import { env } from "@/lib/env";
 import { digestRuns, mailPreferences, manuscriptMembers, users } from "@/db/schema";
 import { newId } from "../crypto";
 import { buildDigest } from "./digest-content";
@@ -95,7 +96,7 @@ export async function runDigests(now = new Date(), hooks: RunHooks = {}): Promis
 
 let timer: NodeJS.Timeout | undefined;
 /** Started once per server process beside the outbox worker; every instance may run it (the unique key decides). */
-export function startDigestScheduler(intervalMs = 60_000): void {
+export function startDigestScheduler(intervalMs = env().digestIntervalMs): void {
   if (timer) return;
   timer = setInterval(() => {
     void runDigests().catch((err: unknown) => console.warn("[prooflight] digest run failed:", (err as Error).message));

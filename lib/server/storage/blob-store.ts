@@ -8,12 +8,7 @@ import { env } from "@/lib/env";
 
 const SHA256 = /^[0-9a-f]{64}$/;
 
-/** uploads/ab/cd/<sha256>: content-addressed, so identical bytes are stored once. */
-export function blobPath(sha256: string): string {
-  if (!SHA256.test(sha256)) throw new Error("not a sha256");
-  return path.join(env().uploadsDir, sha256.slice(0, 2), sha256.slice(2, 4), sha256);
-}
-
+/** Derived files (rebuildable from the stored upload) stay on each instance's own disk, whatever the store. */
 function cachePath(sha256: string): string {
   if (!SHA256.test(sha256)) throw new Error("not a sha256");
   return path.join(env().uploadsDir, "cache", `${sha256}.columns`);
@@ -65,21 +60,6 @@ export async function writeStreamToTemp(
     await fsp.rm(tmp, { force: true });
     throw err;
   }
-}
-
-/** Atomic rename into place (fsync first); when the blob already exists the temporary copy is dropped. */
-export async function commitBlob(tmp: string, sha256: string): Promise<void> {
-  const dest = blobPath(sha256);
-  if (fs.existsSync(dest)) {
-    await fsp.rm(tmp, { force: true });
-    return;
-  }
-  await fsp.mkdir(path.dirname(dest), { recursive: true });
-  const fh = await fsp.open(tmp, "r");
-  await fh.sync();
-  await fh.close();
-  await fsp.rename(tmp, dest);
-  await fsp.chmod(dest, 0o444);
 }
 
 /** Moves a derived file (rebuildable), written complete under uploads/tmp, into the cache: one atomic rename. */
