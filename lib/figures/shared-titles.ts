@@ -4,6 +4,7 @@
  * one scale across the row). Pure: the stored revisions are not changed, only what is drawn.
  */
 import { axisTitlesOf } from "./describe-chart";
+import { gridPlacement } from "./grid-placement.mjs";
 
 type Json = { [key: string]: unknown };
 const isObject = (v: unknown): v is Json => !!v && typeof v === "object" && !Array.isArray(v);
@@ -35,5 +36,23 @@ export function shareYTitles<T>(specs: T[], rows: number[]): T[] {
     }
     const shared = firstTitle.get(rows[i]);
     return own !== null && own === shared ? withoutYTitle(spec, own) : spec;
+  });
+}
+
+/**
+ * For the figure page's preview: per panel (in figure order, with its column span and its spec,
+ * undefined while loading), the y title to leave out because it repeats the first panel of its
+ * grid row; undefined where the panel keeps its title.
+ */
+export function yTitlesLeftOut(panels: Array<{ span: number; spec: unknown }>, columns: number): Array<string | undefined> {
+  const rows = gridPlacement(panels, columns).map((c) => c.row);
+  const rowTitle = new Map<number, string | null>();
+  return panels.map((p, i) => {
+    const own = p.spec === undefined ? null : axisTitlesOf(p.spec).y;
+    if (!rowTitle.has(rows[i])) {
+      rowTitle.set(rows[i], own);
+      return undefined;
+    }
+    return own !== null && own === rowTitle.get(rows[i]) ? own : undefined;
   });
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { shareYTitles, withoutYTitle } from "@/lib/figures/shared-titles";
+import { shareYTitles, withoutYTitle, yTitlesLeftOut } from "@/lib/figures/shared-titles";
 
 const scatter = (yTitle: string | undefined) => ({
   data: { name: "d" },
@@ -33,5 +33,18 @@ describe("one y-axis title per row", () => {
     expect(out.vconcat[0]!.layer![0]!.encoding.y.title).toBeNull();
     expect(out.vconcat[0]!.layer![1]!.encoding.y.title).toBeNull();
     expect(out.vconcat[1]!.encoding!.y.title).toBe("residual");
+  });
+
+  it("the preview leaves out what the export leaves out: rows from the panels' spans, a loading panel keeps its place", () => {
+    // Two columns: a (1) and b (1) share row 0; c spans both (row 1); d (1) and e (1) share row 2.
+    const panels = [
+      { span: 1, spec: scatter("T₂ (µs)") },
+      { span: 1, spec: scatter("T₂ (µs)") },
+      { span: 2, spec: scatter("T₂ (µs)") },
+      { span: 1, spec: undefined },
+      { span: 1, spec: scatter("contrast") },
+    ];
+    expect(yTitlesLeftOut(panels, 2)).toEqual([undefined, "T₂ (µs)", undefined, undefined, undefined]);
+    expect(yTitlesLeftOut(panels, 1)).toEqual([undefined, undefined, undefined, undefined, undefined]);
   });
 });

@@ -37,9 +37,4 @@ export declare function composeFigureCore(panels: PanelSvg[], layout: FigureLayo
 export declare function cellWidthMm(widthMm: number, columns: number, span?: number, gapMm?: number): number;
 export declare function prefixIds(svg: string, prefix: string): string;
 
-export interface GridCell {
-  row: number;
-  col: number;
-  span: number;
-}
-export declare function gridPlacement(panels: Array<{ span?: number }>, columns: number): GridCell[];
+export { gridPlacement, type GridCell } from "../../../figures/grid-placement.mjs";

@@ -6,6 +6,8 @@
  */
 import { PT_PER_MM, RenderError, rootSize } from "./render-error.mjs";
 
+export { gridPlacement } from "../../../figures/grid-placement.mjs";
+
 const DEFAULT_GAP_MM = 2;
 const DEFAULT_LETTER_BAND_MM = 3;
 const LETTER_PT = 8;
@@ -41,26 +43,6 @@ function nestPanel(svg, x, y, width, height, naturalW, naturalH) {
   if (!open || close < 0) throw new RenderError("render-failed", "a panel is not an SVG document");
   const inner = svg.slice(open[0].length, close);
   return `<svg x="${fmt(x)}" y="${fmt(y)}" width="${fmt(width)}" height="${fmt(height)}" viewBox="0 0 ${fmt(naturalW)} ${fmt(naturalH)}" preserveAspectRatio="xMinYMin meet" overflow="hidden">${inner}</svg>`;
-}
-
-/**
- * Row and column of each panel on the grid: panels fill a row left to right, and one that does
- * not fit in the rest of a row starts the next.
- */
-export function gridPlacement(panels, columns) {
-  const cols = Math.max(1, Math.floor(columns ?? 1));
-  let row = 0;
-  let col = 0;
-  return panels.map((panel) => {
-    const span = Math.min(cols, Math.max(1, Math.floor(panel.span ?? 1)));
-    if (col + span > cols) {
-      row += 1;
-      col = 0;
-    }
-    const at = { row, col, span };
-    col += span;
-    return at;
-  });
 }
 
 /**

@@ -9,7 +9,9 @@ import { PanelChartLazy } from "@/components/figures/panel-chart-lazy";
 import { OpenThreads, ReviewStateBadge } from "@/components/figures/review-state";
 import { PX_PER_MM } from "@/components/figures/vega-render";
 import { applyHouseStyle, HOUSE_FONTS, panelLetter } from "@/lib/figures/house-style";
+import { withoutYTitle } from "@/lib/figures/shared-titles";
 import { MmRuler } from "./mm-ruler";
+import { useSharedYTitles } from "./use-shared-y-titles";
 import { usePrintedAt } from "./use-printing";
 
 const ZOOMS = { min: 50, max: 200, step: 10 };
@@ -32,6 +34,7 @@ export function FigureCanvas({ figure }: { figure: FigureView }) {
   const sheetMm = Math.max(figure.maxHeightMm, contentMm);
   const tooTall = contentMm > figure.maxHeightMm + 0.5;
   const clampZoom = (v: number) => Math.min(ZOOMS.max, Math.max(ZOOMS.min, v));
+  const sharedYTitles = useSharedYTitles(figure);
 
   return (
     <section aria-label={`Figure ${figure.number} at print size`}>
@@ -97,7 +100,7 @@ export function FigureCanvas({ figure }: { figure: FigureView }) {
               style={{ gridTemplateColumns: `repeat(${figure.columns}, minmax(0, 1fr))`, columnGap: GUTTER_MM * perMm, rowGap: GUTTER_MM * perMm }}
             >
               {figure.panels.map((p) => (
-                <PanelTile key={p.id} panel={p} figure={figure} zoom={zoom} />
+                <PanelTile key={p.id} panel={p} figure={figure} zoom={zoom} leaveOutYTitle={sharedYTitles.get(p.id)} />
               ))}
             </div>
             <div
@@ -120,7 +123,7 @@ export function FigureCanvas({ figure }: { figure: FigureView }) {
   );
 }
 
-function PanelTile({ panel, figure, zoom }: { panel: FigurePanel; figure: FigureView; zoom: number }) {
+function PanelTile({ panel, figure, zoom, leaveOutYTitle }: { panel: FigurePanel; figure: FigureView; zoom: number; leaveOutYTitle?: string }) {
   const rev = panel.currentRevision;
   const revision = useQuery({
     queryKey: queryKeys.revision(rev?.id ?? ""),
@@ -131,7 +134,11 @@ function PanelTile({ panel, figure, zoom }: { panel: FigurePanel; figure: Figure
   const widthMm = panelWidthMm(figure, panel.colSpan);
   const style = figure.houseStyle;
   // One restyled spec per revision and style, so the chart is not redrawn on every render.
-  const spec = useMemo(() => (revision.data ? applyHouseStyle(revision.data.spec, style, { browser: true }) : null), [revision.data, style]);
+  const spec = useMemo(() => {
+    if (!revision.data) return null;
+    const styled = applyHouseStyle(revision.data.spec, style, { browser: true });
+    return leaveOutYTitle === undefined ? styled : withoutYTitle(styled, leaveOutYTitle);
+  }, [revision.data, style, leaveOutYTitle]);
   const letterPx = ((style.letterPt * 96) / 72) * zoom;
   // The link holds only the letter (its visible text is part of its name); its ::after covers the tile, so all of it stays clickable.
   return (
