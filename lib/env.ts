@@ -45,6 +45,11 @@ const schema = z.object({
   MAIL_COALESCE_SECONDS: z.coerce.number().int().min(0).max(86_400).default(60),
   /** How often each instance's digest scheduler looks for due digests, seconds. */
   DIGEST_INTERVAL_SECONDS: z.coerce.number().int().min(1).max(3600).default(60),
+  /** This instance's name in the mail relay's greeting (EHLO) and logs; the host name when unset. */
+  INSTANCE_NAME: z
+    .string()
+    .regex(/^[A-Za-z0-9][A-Za-z0-9.-]{0,62}$/, "INSTANCE_NAME must be a host-style name: letters, digits, dots and hyphens, up to 63")
+    .optional(),
   /** Where uploaded files live: the uploads folder on this machine, or an S3-compatible bucket shared by every instance. */
   STORAGE: z.enum(["local", "s3"], { message: "STORAGE must be local or s3" }).default("local"),
   S3_ENDPOINT: z.url({ protocol: /^https?$/, message: "S3_ENDPOINT must be a URL such as http://127.0.0.1:9000 (leave it unset for AWS itself)" }).optional(),
@@ -112,6 +117,7 @@ function load() {
     mailCoalesceMs: e.MAIL_COALESCE_SECONDS * 1000,
     digestIntervalMs: e.DIGEST_INTERVAL_SECONDS * 1000,
     storage: storageSettings(e),
+    instanceName: e.INSTANCE_NAME ?? os.hostname(),
     secureCookies: appUrl.startsWith("https://"),
   };
 }

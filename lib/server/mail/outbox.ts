@@ -47,6 +47,8 @@ const SENDERS = 4;
 function openTransport(): Transporter {
   return nodemailer.createTransport({
     url: env().smtpUrl,
+    // The EHLO name: with several instances on one outbox, the relay's log says which one delivered.
+    name: env().instanceName,
     pool: true,
     maxConnections: SENDERS,
     connectionTimeout: 10_000,
