@@ -5,9 +5,12 @@
  * points are projected back into the box. Deterministic; all work arrays are allocated once.
  */
 import { createQrWorkspace, euclideanNorm, normFromSquares, qrFactorize, type QrWorkspace } from "./qr-factorization";
+import { createGramWorkspace, factorizeByNormalEquations, type GramWorkspace } from "./normal-equations";
 import { computeTrustRegionStep, createStepWorkspace, type StepWorkspace } from "./trust-region-step";
 
 const MACHINE_EPSILON = 2.220446049250313e-16;
+/** The normal equations pay off once the residuals outnumber the parameters this many times. */
+const NORMAL_EQUATIONS_ROWS_PER_PARAMETER = 4;
 
 export interface LeastSquaresProblem {
   /** Number of residuals. */
@@ -112,7 +115,10 @@ interface SolverWorkspace {
   qtf: Float64Array;
   diag: Float64Array;
   colNorm: Float64Array;
+  colSquares: Float64Array;
   activeNorm: Float64Array;
+  activeSquares: Float64Array;
+  activeGradient: Float64Array;
   gradient: Float64Array;
   active: Int32Array;
   diagActive: Float64Array;
@@ -121,6 +127,7 @@ interface SolverWorkspace {
   work: Float64Array;
   qr: QrWorkspace;
   step: StepWorkspace;
+  gram: GramWorkspace;
 }
 
 const spareWorkspaces = new Map<number, SolverWorkspace>();
@@ -135,7 +142,10 @@ function takeWorkspace(n: number): SolverWorkspace {
       qtf: f(),
       diag: f(),
       colNorm: f(),
+      colSquares: f(),
       activeNorm: f(),
+      activeSquares: f(),
+      activeGradient: f(),
       gradient: f(),
       active: new Int32Array(n),
       diagActive: f(),
@@ -144,6 +154,7 @@ function takeWorkspace(n: number): SolverWorkspace {
       work: f(),
       qr: createQrWorkspace(n),
       step: createStepWorkspace(n),
+      gram: createGramWorkspace(n),
     };
   }
   spareWorkspaces.delete(n);
@@ -152,7 +163,7 @@ function takeWorkspace(n: number): SolverWorkspace {
   return spare;
 }
 
-function zeroAll(value: Float64Array | Int32Array | QrWorkspace | StepWorkspace): void {
+function zeroAll(value: Float64Array | Int32Array | QrWorkspace | StepWorkspace | GramWorkspace): void {
   if (value instanceof Float64Array || value instanceof Int32Array) value.fill(0);
   else for (const array of Object.values(value) as Array<Float64Array | Int32Array>) array.fill(0);
 }
@@ -181,7 +192,24 @@ export function minimizeLeastSquares(problem: LeastSquaresProblem, start: ArrayL
   // True while fjac holds the untouched Jacobian at x.
   let jacobianFresh = false;
   const ws = takeWorkspace(n);
-  const { qtf, diag, colNorm, activeNorm, gradient, active, diagActive, stepActive, trial, work, qr, step: stepWs } = ws;
+  const {
+    qtf,
+    diag,
+    colNorm,
+    colSquares,
+    activeNorm,
+    activeSquares,
+    activeGradient,
+    gradient,
+    active,
+    diagActive,
+    stepActive,
+    trial,
+    work,
+    qr,
+    step: stepWs,
+    gram: gramWs,
+  } = ws;
 
   if (combined) combined(x, fvec, fjac);
   else problem.residuals(x, fvec);
@@ -231,6 +259,7 @@ export function minimizeLeastSquares(problem: LeastSquaresProblem, start: ArrayL
         squares += v * v;
       }
       gradient[j] = g;
+      colSquares[j] = squares;
       colNorm[j] = normFromSquares(squares, fjac, cj, m);
       const blocked = (x[j] <= lower[j] && g > 0) || (x[j] >= upper[j] && g < 0);
       if (!blocked) active[nAct++] = j;
@@ -249,13 +278,22 @@ export function minimizeLeastSquares(problem: LeastSquaresProblem, start: ArrayL
         if (src !== k * m) fjac.copyWithin(k * m, src, src + m);
       }
     }
-    for (let k = 0; k < nAct; k++) activeNorm[k] = colNorm[active[k]];
-    // Qᵀf is formed in trialF during the factorization.
-    trialF.set(fvec);
-    qrFactorize(fjac, m, nAct, m, qr, activeNorm, trialF);
-    for (let j = 0; j < nAct; j++) {
-      fjac[j * m + j] = qr.rDiagonal[j];
-      qtf[j] = trialF[j];
+    for (let k = 0; k < nAct; k++) {
+      activeNorm[k] = colNorm[active[k]];
+      activeSquares[k] = colSquares[active[k]];
+      activeGradient[k] = gradient[active[k]];
+    }
+    // A long, well-conditioned Jacobian is factorized through its normal equations (a few dot
+    // products); otherwise by Householder QR, with Qᵀf formed in trialF during the factorization.
+    if (m >= NORMAL_EQUATIONS_ROWS_PER_PARAMETER * nAct && factorizeByNormalEquations(fjac, m, nAct, activeSquares, activeGradient, qr, gramWs, qtf)) {
+      for (let j = 0; j < nAct; j++) fjac[j * m + j] = qr.rDiagonal[j];
+    } else {
+      trialF.set(fvec);
+      qrFactorize(fjac, m, nAct, m, qr, activeNorm, trialF);
+      for (let j = 0; j < nAct; j++) {
+        fjac[j * m + j] = qr.rDiagonal[j];
+        qtf[j] = trialF[j];
+      }
     }
 
     let gnorm = 0;
