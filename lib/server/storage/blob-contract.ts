@@ -30,7 +30,7 @@ export interface BlobStore {
    */
   putFile(tmp: string, sha256: string): Promise<{ created: boolean }>;
   /** Stores bytes from a stream, checking them against `sha256` first (a mismatch stores nothing and throws). */
-  putStream(source: AsyncIterable<Uint8Array>, sha256: string): Promise<{ created: boolean }>;
+  putStream(source: AsyncIterable<Uint8Array> | Iterable<Uint8Array>, sha256: string): Promise<{ created: boolean }>;
   /** The bytes as a stream; BlobMissingError when not stored. */
   openRead(sha256: string): Promise<Readable>;
   /** The whole file in memory: only for files known to be small enough. BlobMissingError when not stored. */

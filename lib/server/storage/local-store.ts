@@ -39,7 +39,7 @@ export class LocalBlobStore implements BlobStore {
     }
   }
 
-  async putStream(source: AsyncIterable<Uint8Array>, sha256: string): Promise<{ created: boolean }> {
+  async putStream(source: AsyncIterable<Uint8Array> | Iterable<Uint8Array>, sha256: string): Promise<{ created: boolean }> {
     return this.putFile(await checkedTemp(source, sha256), sha256);
   }
 
@@ -110,7 +110,7 @@ async function dirNames(dir: string): Promise<string[]> {
 }
 
 /** Streams into a temporary file and checks the hash; on a mismatch the file is removed and nothing is stored. */
-export async function checkedTemp(source: AsyncIterable<Uint8Array>, sha256: string): Promise<string> {
+export async function checkedTemp(source: AsyncIterable<Uint8Array> | Iterable<Uint8Array>, sha256: string): Promise<string> {
   blobKey(sha256);
   const written = await writeStreamToTemp(source, Number.MAX_SAFE_INTEGER);
   if (written.sha256 !== sha256) {

@@ -76,7 +76,7 @@ export class S3BlobStore implements BlobStore {
     }
   }
 
-  async putStream(source: AsyncIterable<Uint8Array>, sha256: string): Promise<{ created: boolean }> {
+  async putStream(source: AsyncIterable<Uint8Array> | Iterable<Uint8Array>, sha256: string): Promise<{ created: boolean }> {
     return this.putFile(await checkedTemp(source, sha256), sha256);
   }
 
