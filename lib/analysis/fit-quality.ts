@@ -201,12 +201,16 @@ const showP = (p: number): string => (p < 1e-4 ? p.toExponential(1) : String(Num
 
 /** Residuals divided by σ (when given), in ascending order of x (stable). */
 function weightedInXOrder(x: ArrayLike<number>, residuals: ArrayLike<number>, sigma: ArrayLike<number> | undefined): number[] {
+  const m = x.length;
+  const out = new Array<number>(m);
   let sorted = true;
-  for (let i = 1; i < x.length && sorted; i++) if (x[i] < x[i - 1]) sorted = false;
-  const order = Array.from({ length: x.length }, (_, i) => i);
-  if (!sorted) order.sort((a, b) => x[a] - x[b] || a - b);
-  const out = new Array<number>(order.length);
-  for (let k = 0; k < order.length; k++) out[k] = residuals[order[k]] / (sigma ? sigma[order[k]] : 1);
+  for (let i = 1; i < m && sorted; i++) if (x[i] < x[i - 1]) sorted = false;
+  if (sorted) {
+    for (let i = 0; i < m; i++) out[i] = sigma ? residuals[i] / sigma[i] : residuals[i];
+    return out;
+  }
+  const order = Array.from({ length: m }, (_, i) => i).sort((a, b) => x[a] - x[b] || a - b);
+  for (let k = 0; k < m; k++) out[k] = residuals[order[k]] / (sigma ? sigma[order[k]] : 1);
   return out;
 }
 

@@ -132,6 +132,12 @@ export function buildCurveProblem(
     for (let k = 0; k < n; k++) jac.set(sweepJac.subarray(freeIndex[k] * m, freeIndex[k] * m + m), k * m);
   };
 
+  let sweptResiduals: Float64Array | undefined;
+  const sweptJacobian = (free: Float64Array, out: Float64Array): void => {
+    sweptResiduals ??= new Float64Array(m);
+    sweptResidualsAndJacobian(free, sweptResiduals, out);
+  };
+
   let plus: Float64Array | undefined;
   let minus: Float64Array | undefined;
   const finiteDifferenceJacobian = (free: Float64Array, out: Float64Array): void => {
@@ -171,7 +177,7 @@ export function buildCurveProblem(
     full,
     expand,
     residuals,
-    jacobian: model.jacobian ? analyticJacobian : finiteDifferenceJacobian,
+    jacobian: sweep ? sweptJacobian : model.jacobian ? analyticJacobian : finiteDifferenceJacobian,
     ...(sweep ? { residualsAndJacobian: sweptResidualsAndJacobian } : valueAndJacobian ? { residualsAndJacobian } : {}),
   };
 }
