@@ -11,6 +11,8 @@ import { PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
 import { env, resetEnvForTests } from "@/lib/env";
 import { BlobMissingError, type BlobInfo, type BlobStore } from "@/lib/server/storage/blob-contract";
 import { tempPath } from "@/lib/server/storage/blob-store";
+import { copyBlobs } from "@/lib/server/storage/copy-blobs";
+import { LocalBlobStore } from "@/lib/server/storage/local-store";
 import { blobStore } from "@/lib/server/storage/store";
 import { startFakeS3, type FakeS3 } from "../support/fake-s3";
 
@@ -279,5 +281,42 @@ describe("storage settings", () => {
       secretAccessKey: "secret",
       forcePathStyle: true,
     });
+  });
+});
+
+describe("moving an uploads folder into a bucket (npm run storage:copy)", () => {
+  let dir: string;
+  let bucket: FakeS3;
+  beforeAll(async () => {
+    dir = fs.mkdtempSync(path.join(os.tmpdir(), "prooflight-store-copy-"));
+    process.env.UPLOADS_DIR = path.join(dir, "uploads");
+    bucket = await startFakeS3("prooflight-copy");
+    Object.assign(process.env, bucket.env);
+    resetEnvForTests();
+  });
+  afterAll(async () => {
+    await bucket.close();
+    restoreEnv();
+    fs.rmSync(dir, { recursive: true, force: true });
+  });
+
+  it("copies every stored file once, re-hashed, and refuses a damaged one", async () => {
+    const from = new LocalBlobStore(path.join(dir, "old-uploads"));
+    await from.putStream([HELLO.bytes], HELLO.sha256);
+    await from.putStream([ONCE.bytes], ONCE.sha256);
+    // A file whose bytes no longer match its name (the name is the SHA-256 of "bye\n", from hashlib).
+    const damaged = "abc6fd595fc079d3114d4b71a4d84b1d1d0f79df1e70f8813212f2a65d8916df";
+    fs.mkdirSync(path.join(dir, "old-uploads", "ab", "c6"), { recursive: true });
+    fs.writeFileSync(path.join(dir, "old-uploads", "ab", "c6", damaged), "not bye\n");
+    const to = blobStore();
+    expect(to.kind).toBe("s3");
+    const first = await copyBlobs(from, to);
+    expect(first).toMatchObject({ copied: 2, present: 0 });
+    expect(first.failed.map((f) => f.sha256)).toEqual([damaged]);
+    expect(first.failed[0]!.reason).toMatch(/nothing was stored$/);
+    expect(await to.readAll(HELLO.sha256)).toEqual(HELLO.bytes);
+    expect(await to.exists(damaged)).toBe(false);
+    const again = await copyBlobs(from, to);
+    expect(again).toMatchObject({ copied: 0, present: 2 });
   });
 });
