@@ -43,18 +43,28 @@ const LEASE_MS = 60_000;
 /** Messages in flight at once, each on its own pooled SMTP connection. */
 const SENDERS = 4;
 
-/** Pooled for one delivery run: a digest run reuses a few connections instead of a handshake per message. */
+/**
+ * Pooled for one delivery run: a digest run reuses a few connections instead of a handshake per message.
+ * Given a `url`, nodemailer reads its settings from the URL alone and drops every other option, so
+ * ours travel in the URL's query (the relay's own, e.g. `?tls.rejectUnauthorized=false`, are kept).
+ */
 function openTransport(): Transporter {
-  return nodemailer.createTransport({
-    url: env().smtpUrl,
+  return nodemailer.createTransport(transportUrl(env().smtpUrl, env().instanceName));
+}
+
+export function transportUrl(smtpUrl: string, instanceName: string): string {
+  const url = new URL(smtpUrl);
+  const settings = {
     // The EHLO name: with several instances on one outbox, the relay's log says which one delivered.
-    name: env().instanceName,
-    pool: true,
-    maxConnections: SENDERS,
-    connectionTimeout: 10_000,
-    greetingTimeout: 10_000,
-    socketTimeout: 30_000,
-  });
+    name: instanceName,
+    pool: "true",
+    maxConnections: String(SENDERS),
+    connectionTimeout: "10000",
+    greetingTimeout: "10000",
+    socketTimeout: "30000",
+  };
+  for (const [key, value] of Object.entries(settings)) url.searchParams.set(key, value);
+  return url.toString();
 }
 
 /**
