@@ -58,6 +58,8 @@ const vitestCode = browserOnly
   : run(process.execPath, ["node_modules/vitest/vitest.mjs", "run", "--reporter=default", "--reporter=json", `--outputFile.json=${vitestJson}`]);
 const total = browserOnly ? { passed: 0, failed: 0, skipped: 0 } : counts(vitestJson, "vitest");
 let e2eCode = 0;
+/** The two-instance check (tests/scale-out): it needs the production build, so it runs with the browser tests. */
+let scaleOutCode = 0;
 
 const chromium = process.env.CHROMIUM_PATH ?? "/usr/bin/chromium";
 if (!fs.existsSync(chromium)) {
@@ -71,6 +73,7 @@ if (!fs.existsSync(chromium)) {
   }
 } else {
   e2eCode = await runBrowserTests();
+  total[scaleOutCode === 0 ? "passed" : "failed"] += 1;
   const e2e = counts(path.join(work, "playwright.json"), "playwright");
   total.passed += e2e.passed;
   total.failed += e2e.failed;
@@ -83,6 +86,8 @@ async function runBrowserTests(): Promise<number> {
     console.log("\nBuilding the application for the browser tests…");
     await runNextSync(["build"]);
   }
+  console.log("\nTwo instances on one database and one S3-compatible bucket…");
+  scaleOutCode = run(path.join("node_modules", ".bin", "tsx"), ["--conditions=react-server", "tests/scale-out/two-instances.ts"]);
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "prooflight-e2e-"));
   const port = process.env.E2E_PORT ?? "3100";
   const env = {
@@ -127,4 +132,4 @@ async function runBrowserTests(): Promise<number> {
 
 console.log(`\nunit, reference, API and browser tests`);
 console.log(`Total: ${total.passed} passed, ${total.failed} failed, ${total.skipped} skipped`);
-process.exit(vitestCode !== 0 || e2eCode !== 0 ? 1 : 0);
+process.exit(vitestCode !== 0 || e2eCode !== 0 || scaleOutCode !== 0 ? 1 : 0);

@@ -281,6 +281,9 @@ try {
 } catch (err) {
   failed = true;
   console.error("✕ two instances:", err instanceof Error ? (err.stack ?? err.message) : err);
+  const seen = new Map<string, number>();
+  for (const r of received) seen.set(r.from, (seen.get(r.from) ?? 0) + 1);
+  console.error(`  the relay received ${received.length} messages: ${[...seen].map(([k, n]) => `${n} from ${k}`).join(", ") || "none"}`);
   for (const log of logs)
     if (fs.existsSync(log)) console.error(`--- ${path.basename(log)} (last lines)\n${fs.readFileSync(log, "utf8").split("\n").slice(-30).join("\n")}`);
 } finally {
