@@ -197,6 +197,21 @@ describe.each(kinds)("BlobStore contract: $name", (kind) => {
     await store.delete(sha256);
   });
 
+  it("keeps derived files by name, apart from the stored files", async () => {
+    expect(await store.readCache("thumbs/figure-abc.png")).toBeNull();
+    const tmp = tempPath();
+    fs.writeFileSync(tmp, "a picture");
+    await store.putCache("thumbs/figure-abc.png", tmp);
+    expect(fs.existsSync(tmp)).toBe(false);
+    expect(new TextDecoder().decode((await store.readCache("thumbs/figure-abc.png"))!)).toBe("a picture");
+    // On disk exactly where the thumbnails and column caches have always been.
+    expect(fs.existsSync(path.join(env().uploadsDir, "cache", "thumbs", "figure-abc.png"))).toBe(kind.name === "local");
+    expect((await collect(store.list())).map((b) => b.sha256)).toEqual([HELLO.sha256, ONCE.sha256]);
+    await expect(store.readCache("../secrets")).rejects.toThrow("not a cache name: ../secrets");
+    await expect(store.readCache("/etc/passwd")).rejects.toThrow("not a cache name");
+    expect(partFiles()).toEqual([]);
+  });
+
   it("deletes one file; deleting it again is not an error", async () => {
     await store.delete(HELLO.sha256);
     expect(await store.exists(HELLO.sha256)).toBe(false);

@@ -1,11 +1,12 @@
 // The whole path on object storage: with STORAGE=s3 (a local fake S3 server, s3rver, started here)
-// an upload is parsed and stored in the bucket, never under the uploads folder; a fit reads it back
-// (its column cache rebuilt from the object), the raw download and the reproducibility bundle carry
-// the same bytes, and a backup copies the object. Expected hashes are of the file as written here,
-// with node:crypto — not the store's own hashing.
+// an upload is parsed and stored in the bucket with its parsed columns, never under the uploads
+// folder; a fit reads it back (the columns rebuilt from the object when they are gone), the raw
+// download and the reproducibility bundle carry the same bytes, and a backup copies the object.
+// Expected hashes are of the file as written here, with node:crypto — not the store's own hashing.
 import { createHash } from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
+import { DeleteObjectCommand, HeadObjectCommand, S3Client } from "@aws-sdk/client-s3";
 import { unzipSync } from "fflate";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { resetEnvForTests } from "@/lib/env";
@@ -33,11 +34,21 @@ let tokens: Record<Who, string>;
 let versionId: string;
 let sha256: string;
 
-/** Files under the uploads folder other than part files and derived caches: there must be none. */
+/** Anything under the uploads folder but part files: there must be nothing (stored and derived files are in the bucket). */
 function storedOnDisk(): string[] {
   const up = path.join(dir, "uploads");
   if (!fs.existsSync(up)) return [];
-  return fs.readdirSync(up).filter((name) => name !== "tmp" && name !== "cache");
+  return fs.readdirSync(up).filter((name) => name !== "tmp");
+}
+
+function bucket() {
+  const client = new S3Client({
+    endpoint: fake.env.S3_ENDPOINT,
+    region: fake.env.S3_REGION,
+    forcePathStyle: true,
+    credentials: { accessKeyId: fake.env.S3_ACCESS_KEY_ID!, secretAccessKey: fake.env.S3_SECRET_ACCESS_KEY! },
+  });
+  return { client, Bucket: fake.env.S3_BUCKET! };
 }
 
 beforeAll(async () => {
@@ -71,8 +82,11 @@ describe("upload → parse → fit → export with STORAGE=s3", () => {
     expect(storedOnDisk()).toEqual([]);
   });
 
-  it("fits after the local column cache is gone: it is rebuilt from the object", async () => {
-    fs.rmSync(path.join(dir, "uploads", "cache"), { recursive: true, force: true });
+  it("keeps the parsed columns in the bucket; a fit after they are gone rebuilds them from the object", async () => {
+    const { client, Bucket } = bucket();
+    const Key = `cache/${sha256}.columns`;
+    await client.send(new HeadObjectCommand({ Bucket, Key }));
+    await client.send(new DeleteObjectCommand({ Bucket, Key }));
     const fit = await call(analyses.POST, {
       method: "POST",
       token: tokens.author,
@@ -80,7 +94,9 @@ describe("upload → parse → fit → export with STORAGE=s3", () => {
     });
     expect(fit.status).toBe(201);
     expect(Number.isFinite(fit.json.parameters.find((p: { name: string }) => p.name === "T2").value)).toBe(true);
-    expect(fs.existsSync(path.join(dir, "uploads", "cache", `${sha256}.columns`))).toBe(true);
+    expect((await client.send(new HeadObjectCommand({ Bucket, Key }))).ContentLength).toBeGreaterThan(0);
+    client.destroy();
+    expect(storedOnDisk()).toEqual([]);
     // The temporary copy downloaded for the parse is gone.
     expect(fs.readdirSync(path.join(dir, "uploads", "tmp"))).toEqual([]);
   });

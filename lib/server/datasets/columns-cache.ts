@@ -1,5 +1,5 @@
 import "server-only";
-import { commitCache, readCache, removeTemp, tempPath } from "../storage/blob-store";
+import { removeTemp, tempPath } from "../storage/blob-store";
 import { blobStore } from "../storage/store";
 import { ingestInChild, type IngestJob } from "./ingest-in-child";
 
@@ -20,7 +20,7 @@ function remember(sha: string, blob: Uint8Array) {
 
 /**
  * The parsed numbers of a stored file, as a columnar blob. Derived data: kept in memory (LRU),
- * on disk under uploads/cache, and rebuilt from the raw bytes when missing (in the ingest child,
+ * in the store's cache (uploads/cache, or the bucket shared by every instance), and rebuilt from the raw bytes when missing (in the ingest child,
  * as at upload, so a rebuild does not hold the file and its parse in this process either).
  */
 export async function columnsFor(sha256: string, fileName: string, parseOptions: IngestJob["options"] = {}): Promise<Uint8Array> {
@@ -30,18 +30,25 @@ export async function columnsFor(sha256: string, fileName: string, parseOptions:
     lru.set(sha256, hit);
     return hit;
   }
-  let blob = await readCache(sha256);
+  const name = columnsCacheName(sha256);
+  let blob = await blobStore().readCache(name);
   if (!blob) {
     const output = tempPath();
     try {
       await blobStore().withLocalFile(sha256, (input) => ingestInChild({ input, output, fileName, options: parseOptions }));
-      await commitCache(output, sha256);
+      await blobStore().putCache(name, output);
     } finally {
       await removeTemp(output);
     }
-    blob = await readCache(sha256);
+    blob = await blobStore().readCache(name);
     if (!blob) throw new Error(`the columnar cache of ${sha256} was rebuilt but cannot be read`);
   }
   remember(sha256, blob);
   return blob;
+}
+
+/** `<sha256>.columns`: uploads/cache/<sha256>.columns on disk, as before the store existed. */
+export function columnsCacheName(sha256: string): string {
+  if (!/^[0-9a-f]{64}$/.test(sha256)) throw new Error("not a sha256");
+  return `${sha256}.columns`;
 }

@@ -8,11 +8,12 @@ import { appendAudit } from "../audit";
 import { newId } from "../crypto";
 import { badRequest, notFound } from "@/lib/errors";
 import { consumeRate, type RateRule } from "../limits/rate-limit";
-import { commitCache, removeTemp, tempPath, writeStreamToTemp } from "../storage/blob-store";
+import { removeTemp, tempPath, writeStreamToTemp } from "../storage/blob-store";
 import { blobStore } from "../storage/store";
 import { readMultipartUpload, type UploadedFile } from "../storage/multipart";
 import { acquireUploadSlot } from "../storage/upload-slots";
 import { metadataInput, uploadFields, type MetadataInput, type UploadFields } from "./schemas";
+import { columnsCacheName } from "./columns-cache";
 import { ingestInChild, type IngestedTable } from "./ingest-in-child";
 import { toVersionDto } from "./version-dto";
 
@@ -99,7 +100,7 @@ async function ingestFile(user: SessionUser, manuscriptId: string, file: Uploade
     });
     await blobStore().putFile(file.tmp, file.sha256);
     // Not read into memory here: a large upload would otherwise stay resident until evicted; the first read loads it.
-    await commitCache(cacheTmp, file.sha256);
+    await blobStore().putCache(columnsCacheName(file.sha256), cacheTmp);
     return await recordVersion(user, manuscriptId, file, table, f.datasetId, f.name, metadata);
   } finally {
     await removeTemp(file.tmp);

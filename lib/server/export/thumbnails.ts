@@ -1,7 +1,7 @@
 /**
  * Thumbnails of figures and panels for the manuscript, figure-status and figure pages: a small PNG
  * drawn by the same budgeted renderer as the exports, made lazily on the first request and kept
- * under `uploads/cache/thumbs/` by content hash (figure: the figure hash; panel: its current
+ * in the store's cache (`uploads/cache/thumbs/`, or the bucket every instance shares) by content hash (figure: the figure hash; panel: its current
  * revision's content hash). A new revision changes the hash, so the next request draws a new one;
  * old files are never read again (the cache is rebuildable and may be deleted at any time).
  *
@@ -9,15 +9,12 @@
  * that fails all answer a labelled placeholder PNG (failures are not cached).
  */
 import "server-only";
-import { randomBytes } from "node:crypto";
 import fsp from "node:fs/promises";
-import path from "node:path";
 import { eq } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
 import { panels, revisions, type BoundInput } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
-import { env } from "@/lib/env";
 import { notFound } from "@/lib/errors";
 import { loadBoundData } from "../figures/bindings";
 import { reduceRowsForDisplay } from "../figures/display-data";
@@ -25,6 +22,8 @@ import { manuscriptOfFigure, manuscriptOfPanel } from "../figures/scope";
 import { renderFigureInWorker, renderSpecInWorker, type FigurePanelJob } from "../render/render-in-worker";
 import { svgToPng } from "../render/to-png";
 import { loadReviewContext } from "../review/review-context";
+import { tempPath } from "../storage/blob-store";
+import { blobStore } from "../storage/store";
 
 /** Pixel width of every thumbnail (shown at up to 240 CSS px, so sharp on 2× screens). */
 const THUMB_WIDTH_PX = 480;
@@ -55,14 +54,10 @@ interface Thumbnail {
   kind: "ok" | "empty" | "failed";
 }
 
-function thumbsDir(): string {
-  return path.join(env().uploadsDir, "cache", "thumbs");
-}
-
-/** Where the thumbnail of a figure hash or revision content hash is kept. */
-function thumbnailCachePath(kind: "figure" | "panel", hash: string): string {
+/** The thumbnail's name in the store's cache: uploads/cache/thumbs/<kind>-<hash>.png on disk, shared in a bucket. */
+function thumbnailCacheName(kind: "figure" | "panel", hash: string): string {
   if (!SHA256.test(hash)) throw new Error("not a sha256");
-  return path.join(thumbsDir(), `${kind}-${hash}.png`);
+  return `thumbs/${kind}-${hash}.png`;
 }
 
 // ---- a small queue so a page of thumbnails does not start one render process per figure ----
@@ -85,21 +80,17 @@ async function limited<T>(fn: () => Promise<T>): Promise<T> {
 const inFlight = new Map<string, Promise<Thumbnail>>();
 
 async function cachedOrDrawn(what: "figure" | "panel", hash: string, draw: () => Promise<Uint8Array>): Promise<Thumbnail> {
-  const file = thumbnailCachePath(what, hash);
-  try {
-    return { png: new Uint8Array(await fsp.readFile(file)), hash, kind: "ok" };
-  } catch (err) {
-    if ((err as NodeJS.ErrnoException).code !== "ENOENT") throw err;
-  }
+  const file = thumbnailCacheName(what, hash);
+  const kept = await blobStore().readCache(file);
+  if (kept) return { png: kept, hash, kind: "ok" };
   const pending = inFlight.get(file);
   if (pending) return pending;
   const job = limited<Thumbnail>(async () => {
     try {
       const png = await draw();
-      await fsp.mkdir(path.dirname(file), { recursive: true });
-      const tmp = `${file}.${randomBytes(4).toString("hex")}.tmp`;
+      const tmp = tempPath();
       await fsp.writeFile(tmp, png);
-      await fsp.rename(tmp, file);
+      await blobStore().putCache(file, tmp);
       return { png, hash, kind: "ok" };
     } catch (err) {
       console.warn(`[prooflight] the ${what} thumbnail ${hash.slice(0, 12)} could not be drawn: ${(err as Error)?.message ?? err}`);

@@ -47,6 +47,21 @@ export interface BlobStore {
    * the way down and removed when `work` settles.
    */
   withLocalFile<T>(sha256: string, work: (file: string) => Promise<T>): Promise<T>;
+  /**
+   * Keeps a derived file (rebuildable from stored files: parsed columns, thumbnails) under a relative
+   * name such as `thumbs/figure-<hash>.png`: `uploads/cache/<name>` on disk, `cache/<name>` in a bucket,
+   * so every instance reuses what one of them made. Takes a complete temporary file, gone afterwards.
+   */
+  putCache(name: string, tmp: string): Promise<void>;
+  /** The derived file, or null when it was never made (or has been cleared). */
+  readCache(name: string): Promise<Uint8Array | null>;
+}
+
+const CACHE_NAME = /^[A-Za-z0-9][A-Za-z0-9._-]{0,199}(\/[A-Za-z0-9][A-Za-z0-9._-]{0,199})?$/;
+
+/** A cache name: one or two plain path segments, no `..`, nothing absolute. */
+export function assertCacheName(name: string): void {
+  if (!CACHE_NAME.test(name) || name.includes("..")) throw new Error(`not a cache name: ${name}`);
 }
 
 const SHA256 = /^[0-9a-f]{64}$/;

@@ -6,14 +6,6 @@ import fsp from "node:fs/promises";
 import path from "node:path";
 import { env } from "@/lib/env";
 
-const SHA256 = /^[0-9a-f]{64}$/;
-
-/** Derived files (rebuildable from the stored upload) stay on each instance's own disk, whatever the store. */
-function cachePath(sha256: string): string {
-  if (!SHA256.test(sha256)) throw new Error("not a sha256");
-  return path.join(env().uploadsDir, "cache", `${sha256}.columns`);
-}
-
 /** A fresh part file name under uploads/tmp (removed by the start-up sweep if a crash leaves it). */
 export function tempPath(): string {
   const dir = path.join(env().uploadsDir, "tmp");
@@ -59,21 +51,6 @@ export async function writeStreamToTemp(
     });
     await fsp.rm(tmp, { force: true });
     throw err;
-  }
-}
-
-/** Moves a derived file (rebuildable), written complete under uploads/tmp, into the cache: one atomic rename. */
-export async function commitCache(tmp: string, sha256: string): Promise<void> {
-  const dest = cachePath(sha256);
-  await fsp.mkdir(path.dirname(dest), { recursive: true });
-  await fsp.rename(tmp, dest);
-}
-
-export async function readCache(sha256: string): Promise<Uint8Array | null> {
-  try {
-    return asBytes(await fsp.readFile(cachePath(sha256)));
-  } catch {
-    return null;
   }
 }
 

@@ -4,7 +4,7 @@ import fsp from "node:fs/promises";
 import path from "node:path";
 import type { Readable } from "node:stream";
 import { readFileBytes, removeTemp, writeStreamToTemp } from "./blob-store";
-import { BlobMissingError, blobKey, type BlobInfo, type BlobStore } from "./blob-contract";
+import { BlobMissingError, assertCacheName, blobKey, type BlobInfo, type BlobStore } from "./blob-contract";
 
 const HEX2 = /^[0-9a-f]{2}$/;
 const SHA256 = /^[0-9a-f]{64}$/;
@@ -97,6 +97,28 @@ export class LocalBlobStore implements BlobStore {
   async withLocalFile<T>(sha256: string, work: (file: string) => Promise<T>): Promise<T> {
     if (!(await this.exists(sha256))) throw new BlobMissingError(sha256);
     return work(this.file(sha256));
+  }
+
+  /** One atomic rename into `uploads/cache/<name>` (the part file lives under uploads/tmp, on the same disk). */
+  async putCache(name: string, tmp: string): Promise<void> {
+    assertCacheName(name);
+    const dest = path.join(this.root, "cache", ...name.split("/"));
+    try {
+      await fsp.mkdir(path.dirname(dest), { recursive: true });
+      await fsp.rename(tmp, dest);
+    } finally {
+      await removeTemp(tmp);
+    }
+  }
+
+  async readCache(name: string): Promise<Uint8Array | null> {
+    assertCacheName(name);
+    try {
+      return await readFileBytes(path.join(this.root, "cache", ...name.split("/")));
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code === "ENOENT") return null;
+      throw err;
+    }
   }
 }
 

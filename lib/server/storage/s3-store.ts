@@ -15,7 +15,7 @@ import {
 } from "@aws-sdk/client-s3";
 import type { Env } from "@/lib/env";
 import { removeTemp, tempPath } from "./blob-store";
-import { BlobMissingError, blobKey, type BlobInfo, type BlobStore } from "./blob-contract";
+import { BlobMissingError, assertCacheName, blobKey, type BlobInfo, type BlobStore } from "./blob-contract";
 import { checkedTemp } from "./local-store";
 
 type S3Settings = Extract<Env["storage"], { kind: "s3" }>;
@@ -152,6 +152,35 @@ export class S3BlobStore implements BlobStore {
       return await work(tmp);
     } finally {
       await removeTemp(tmp);
+    }
+  }
+
+  async putCache(name: string, tmp: string): Promise<void> {
+    assertCacheName(name);
+    try {
+      const { size } = await fsp.stat(tmp);
+      await this.client.send(
+        new PutObjectCommand({
+          Bucket: this.bucket,
+          Key: `cache/${name}`,
+          Body: fs.createReadStream(tmp),
+          ContentLength: size,
+          ContentType: "application/octet-stream",
+        }),
+      );
+    } finally {
+      await removeTemp(tmp);
+    }
+  }
+
+  async readCache(name: string): Promise<Uint8Array | null> {
+    assertCacheName(name);
+    try {
+      const out = await this.client.send(new GetObjectCommand({ Bucket: this.bucket, Key: `cache/${name}` }));
+      return out.Body ? await out.Body.transformToByteArray() : null;
+    } catch (err) {
+      if (isNotFound(err)) return null;
+      throw err;
     }
   }
 }
