@@ -3,7 +3,8 @@
 // uploads folder (part files and derived caches only), both running the outbox worker and the digest
 // scheduler against one SMTP relay hosted here. It shows that
 //   - a file uploaded through one instance is fitted, downloaded and exported through the other
-//     (the bytes live in the bucket, not on either machine);
+//     (the bytes live in the bucket, not on either machine), parsed once, and a thumbnail drawn on
+//     one instance's request is served by the other without drawing it again;
 //   - every message in the outbox reaches the relay exactly once although both workers deliver
 //     (each instance greets the relay with its INSTANCE_NAME, so both are seen at work);
 //   - each person's digest for the period is built once (one period row, one mail) although both
@@ -199,10 +200,24 @@ try {
   const rawPath = Object.keys(files).find((p) => p.startsWith("raw/"))!;
   assert.equal(createHash("sha256").update(files[rawPath]!).digest("hex"), sha, "the bundle from B carries the bytes uploaded through A");
   for (const name of names) {
-    const kept = fs.readdirSync(path.join(dir, name)).filter((n) => n !== "tmp" && n !== "cache");
+    const kept = fs.readdirSync(path.join(dir, name)).filter((n) => n !== "tmp");
     assert.deepEqual(kept, [], `${name} keeps no stored file of its own`);
   }
   console.log("✓ uploaded through A; fitted, downloaded and exported through B from the shared bucket");
+
+  // 1b. Work one instance did is not done again by the other: the parsed columns (written by A's
+  // upload, read by B's fit) and the figure's thumbnail (drawn on A's request, served by B).
+  const writesOf = (prefix: string) => fake.writes.filter((w) => w.event.startsWith("ObjectCreated") && w.key.startsWith(prefix)).length;
+  assert.equal(writesOf(`cache/${sha}.columns`), 1, "the upload was parsed once");
+  const thumbA = await api(a, "GET", `/api/figures/${fig.id}/thumbnail`, piToken);
+  assert.equal(thumbA.status, 200);
+  const pngA = new Uint8Array(await thumbA.arrayBuffer());
+  assert.equal(writesOf("cache/thumbs/figure-"), 1, "A drew the thumbnail and kept it in the bucket");
+  const thumbB = await api(b, "GET", `/api/figures/${fig.id}/thumbnail`, piToken);
+  assert.equal(thumbB.status, 200);
+  assert.deepEqual(new Uint8Array(await thumbB.arrayBuffer()), pngA, "B serves A's thumbnail");
+  assert.equal(writesOf("cache/thumbs/figure-"), 1, "B did not draw it again");
+  console.log("✓ the upload parsed once and the thumbnail drawn once for both instances");
 
   // 2. Mail: waves of messages until both instances' workers have delivered some.
   const db = getDb();

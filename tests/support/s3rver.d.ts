@@ -12,5 +12,7 @@ declare module "s3rver" {
     constructor(options: S3rverOptions);
     run(): Promise<{ address: string; port: number }>;
     close(): Promise<void>;
+    /** S3 event notifications: one record per object written or removed. */
+    on(event: "event", listener: (e: { Records: Array<{ eventName: string; s3: { object: { key: string } } }> }) => void): this;
   }
 }
