@@ -1,7 +1,7 @@
 import "server-only";
 import type { BlobStore } from "./blob-contract";
 
-export interface CopyReport {
+interface CopyReport {
   copied: number;
   /** Already in the target with the same size (a rerun after an interruption skips them). */
   present: number;
