@@ -45,7 +45,7 @@ const schema = z.object({
   MAIL_COALESCE_SECONDS: z.coerce.number().int().min(0).max(86_400).default(60),
   /** How often each instance's digest scheduler looks for due digests, seconds. */
   DIGEST_INTERVAL_SECONDS: z.coerce.number().int().min(1).max(3600).default(60),
-  /** This instance's name in the mail relay's greeting (EHLO) and logs; the host name when unset. */
+  /** This instance's name in its greeting to the mail relay (EHLO): a fully qualified host name for relays that insist. */
   INSTANCE_NAME: z
     .string()
     .regex(/^[A-Za-z0-9][A-Za-z0-9.-]{0,62}$/, "INSTANCE_NAME must be a host-style name: letters, digits, dots and hyphens, up to 63")
@@ -117,7 +117,8 @@ function load() {
     mailCoalesceMs: e.MAIL_COALESCE_SECONDS * 1000,
     digestIntervalMs: e.DIGEST_INTERVAL_SECONDS * 1000,
     storage: storageSettings(e),
-    instanceName: e.INSTANCE_NAME ?? os.hostname(),
+    /** Unset: nodemailer's own choice (the host name when it is fully qualified, else [127.0.0.1]), which strict relays accept. */
+    instanceName: e.INSTANCE_NAME,
     secureCookies: appUrl.startsWith("https://"),
   };
 }

@@ -52,11 +52,11 @@ function openTransport(): Transporter {
   return nodemailer.createTransport(transportUrl(env().smtpUrl, env().instanceName));
 }
 
-export function transportUrl(smtpUrl: string, instanceName: string): string {
+export function transportUrl(smtpUrl: string, instanceName: string | undefined): string {
   const url = new URL(smtpUrl);
   const settings = {
     // The EHLO name: with several instances on one outbox, the relay's log says which one delivered.
-    name: instanceName,
+    ...(instanceName ? { name: instanceName } : {}),
     pool: "true",
     maxConnections: String(SENDERS),
     connectionTimeout: "10000",

@@ -26,4 +26,10 @@ describe("the outbox's transport settings", () => {
     });
     transport.close();
   });
+
+  it("leaves the greeting to nodemailer when no instance name is set", () => {
+    const url = transportUrl("smtp://relay.example:25", undefined);
+    expect(new URL(url).searchParams.has("name")).toBe(false);
+    expect(new URL(url).searchParams.get("pool")).toBe("true");
+  });
 });
