@@ -54,7 +54,7 @@ const GROUP_DEPTH_FRACTION = 1 / 3;
  * closer than GROUP_GAP_WIDTHS typical widths belong to one group, as the hyperfine lines of one
  * resonance do; shallow groups (noise) are left out.
  */
-function dipGroups(x: ArrayLike<number>, y: ArrayLike<number>): Array<{ centre: number; depth: number; dips: number }> {
+export function dipGroups(x: ArrayLike<number>, y: ArrayLike<number>): Array<{ centre: number; depth: number; dips: number }> {
   const profile = dipProfile(x, y);
   const dips = findDips(profile, 8).sort((a, b) => a.position - b.position);
   if (dips.length === 0) return [];
@@ -75,16 +75,16 @@ const showPosition = (v: number): string => String(Number(v.toPrecision(5)));
 
 /**
  * For models of one resonance: when the spectrum shows two to four separate groups of dips (f₋ and
- * f₊ of one NV, or several orientations), names the model with one line per group. No model here
- * fits hyperfine lines in each of two groups; the per-group line then takes the group's width.
+ * f₊ of one NV, or several orientations), names the model with one line per group; for two groups,
+ * `twoGroups` (the hyperfine models name the f₋/f₊ model with the same hyperfine lines in each group).
  */
-function suggestForGroups(x: ArrayLike<number>, y: ArrayLike<number>): ModelSuggestion | undefined {
+function suggestForGroups(x: ArrayLike<number>, y: ArrayLike<number>, twoGroups = "odmr_two_resonances"): ModelSuggestion | undefined {
   const groups = dipGroups(x, y);
   if (groups.length < 2 || groups.length > 4) return undefined;
   const near = groups.map((g) => showPosition(g.centre));
   const listed = `${near.slice(0, -1).join(", ")} and ${near[near.length - 1]}`;
   const reason = `the data show ${groups.length} separate groups of dips (near ${listed}) but this model describes one resonance`;
-  return groups.length === 2 ? { modelId: "odmr_two_resonances", reason } : { modelId: `odmr_lorentzian_${groups.length}`, reason };
+  return groups.length === 2 ? { modelId: twoGroups, reason } : { modelId: `odmr_lorentzian_${groups.length}`, reason };
 }
 
 function multiDipModel(id: string, title: string, kinds: string[], names: Array<[string, string, string]>): FitModel {
@@ -137,11 +137,20 @@ function multiDipModel(id: string, title: string, kinds: string[], names: Array<
       return [[0, Infinity], ...names.flatMap(() => [b.position, b.width, b.depth])];
     },
     amplitudes: names.map(([f, w, c]) => ({ amplitude: c, shapes: [f, w] })),
-    ...(count === 1 ? { suggest: suggestForGroups } : {}),
+    ...(count === 1 ? { suggest: (x: ArrayLike<number>, y: ArrayLike<number>) => suggestForGroups(x, y) } : {}),
   };
 }
 
-function patternDipModel(id: string, title: string, nucleus: string, splittingMHz: number, pattern: readonly number[], plausible: PhysicalRange): FitModel {
+/** `twoGroups`: the model with this pattern on both f₋ and f₊, suggested when the data show two groups of dips. */
+function patternDipModel(
+  id: string,
+  title: string,
+  nucleus: string,
+  splittingMHz: number,
+  pattern: readonly number[],
+  plausible: PhysicalRange,
+  twoGroups: string,
+): FitModel {
   const lines = pattern.map((k) => (k === 0 ? "f₀" : `f₀ ${k < 0 ? "−" : "+"} ${Math.abs(k) === 1 ? "" : "½"}|A∥|`));
   const valueAndJacobian = (f: number, p: ArrayLike<number>, out: Float64Array): number => {
     const b = p[0];
@@ -252,7 +261,7 @@ function patternDipModel(id: string, title: string, nucleus: string, splittingMH
     },
     amplitudes: [{ amplitude: "c", shapes: ["f0", "Apar", "w"] }],
     physicalRanges: [plausible],
-    suggest: suggestForGroups,
+    suggest: (x, y) => suggestForGroups(x, y, twoGroups),
   };
 }
 
@@ -279,6 +288,7 @@ export const odmr14nTripletModel: FitModel = patternDipModel(
   NV_14N_SPLITTING_MHZ,
   [-1, 0, 1],
   N14_SPLITTING_RANGE,
+  "odmr_14n_two_groups",
 );
 
 export const odmr15nDoubletModel: FitModel = patternDipModel(
@@ -288,4 +298,5 @@ export const odmr15nDoubletModel: FitModel = patternDipModel(
   NV_15N_SPLITTING_MHZ,
   [-0.5, 0.5],
   N15_SPLITTING_RANGE,
+  "odmr_15n_two_groups",
 );

@@ -1,5 +1,6 @@
 /** All fit models by id, in the order the UI offers them. */
 import { exponentialModel, hahnEchoModel, relaxationModel, relaxationStretchedModel } from "./decay-models";
+import { odmr14nTwoGroupsModel, odmr15nTwoGroupsModel } from "./odmr-hyperfine-groups";
 import { odmr14nTripletModel, odmr15nDoubletModel, odmrLorentzianModels, odmrTwoResonancesModel } from "./odmr-models";
 import { gaussianModel, lorentzianModel, pseudoVoigtModel, voigtModel } from "./peak-models";
 import { lineModel, polynomial2Model, polynomial3Model } from "./polynomial-models";
@@ -22,6 +23,8 @@ const MODELS: readonly FitModel[] = [
   odmr14nTripletModel,
   odmr15nDoubletModel,
   odmrTwoResonancesModel,
+  odmr14nTwoGroupsModel,
+  odmr15nTwoGroupsModel,
   exponentialModel,
   gaussianModel,
   lorentzianModel,

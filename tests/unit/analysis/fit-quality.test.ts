@@ -48,7 +48,7 @@ describe("the ¹⁴N-triplet model on a two-group sweep (f₋ and f₊ at 4.2 mT
     expect(r.quality.findings.find((f) => f.check === "physical-range")!.message).toBe(
       "|Apar| = 118 MHz is outside 1.5–3 MHz, the range of the ¹⁴N hyperfine splitting |A∥| of the NV centre: the model has matched something else in the data.",
     );
-    expect(r.quality.suggestion).toMatchObject({ modelId: "odmr_two_resonances", title: "ODMR, f₋ and f₊ resonances" });
+    expect(r.quality.suggestion).toMatchObject({ modelId: "odmr_14n_two_groups", title: "ODMR, f₋ and f₊ with ¹⁴N hyperfine triplets" });
     expect(r.quality.runs!.p).toBeLessThan(RESIDUAL_P);
   });
 
@@ -61,7 +61,7 @@ describe("the ¹⁴N-triplet model on a two-group sweep (f₋ and f₊ at 4.2 mT
     expect(checks(r)).toEqual(expect.arrayContaining(["physical-range", "shape"]));
     const shape = r.quality.findings.find((f) => f.check === "shape")!;
     expect(shape.message).toMatch(/^The model does not fit the data's shape: the data show 2 separate groups of dips \(near 2752\.\d and 2987\.\d\)/);
-    expect(shape.message).toMatch(/Try “ODMR, f₋ and f₊ resonances”\.$/);
+    expect(shape.message).toMatch(/Try “ODMR, f₋ and f₊ with ¹⁴N hyperfine triplets”\.$/);
   });
 
   it("without the x unit the range cannot be checked, but the shape still fails the fit", () => {

@@ -35,6 +35,8 @@ describe("model registry", () => {
       "odmr_14n_triplet",
       "odmr_15n_doublet",
       "odmr_two_resonances",
+      "odmr_14n_two_groups",
+      "odmr_15n_two_groups",
       "exponential",
       "gaussian",
       "lorentzian",
