@@ -29,6 +29,7 @@ const ACTION_WORDS: Record<ManuscriptAction, string> = {
   "dataset.edit": "edit dataset details (PI and authors)",
   "analysis.run": "run analyses (PI and authors)",
   "figure.edit": "edit figures (PI and authors)",
+  "bundle.import": "import bundles (PI and authors)",
   "comment.write": "comment (PI, authors and reviewers)",
   "review.decide": "record review decisions (PI, authors and reviewers)",
   "figure.signoff": "sign off figures (PI only)",

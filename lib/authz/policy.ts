@@ -16,6 +16,8 @@ const MANUSCRIPT_POLICY = {
   "dataset.edit": writers,
   "analysis.run": writers,
   "figure.edit": writers,
+  /** Recreate a verified reproducibility bundle's data, fits and figure in this manuscript. */
+  "bundle.import": writers,
   "comment.write": commenters,
   "review.decide": commenters,
   "figure.signoff": ["pi"],

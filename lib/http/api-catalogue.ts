@@ -168,7 +168,8 @@ export const API_OPERATIONS: ApiOperation[] = [
     method: "POST",
     path: "/api/analyses/batch",
     permission: "analysis.run",
-    summary: "Fit one model over several versions of a manuscript on all cores, storing each run; progress streams back as NDJSON (start, one result per version, end); closing the connection stops the batch",
+    summary:
+      "Fit one model over several versions of a manuscript on all cores, storing each run; progress streams back as NDJSON (start, one result per version, end); closing the connection stops the batch",
     body: batchInput,
     success: 200,
   },
@@ -257,6 +258,15 @@ export const API_OPERATIONS: ApiOperation[] = [
     summary: "The figure as SVG, PDF or PNG at print size; its source data; the RO-Crate bundle",
     query: exportQuery,
     success: 200,
+  },
+  {
+    method: "POST",
+    path: "/api/manuscripts/{id}/bundles/import",
+    permission: "bundle.import",
+    summary:
+      "Import a reproducibility bundle into this manuscript: checked in full first (as /api/bundles/verify; a bundle that does not verify or is unsafe to unpack is refused with 422 and nothing is written), then its datasets (same bytes and hashes), fits (the recorded runs) and figure (panels, one revision each) are recreated, marked imported from the bundle's sha256; review decisions and sign-offs are not carried over",
+    multipart: { file: "the bundle's .zip as exported (GET /api/figures/{id}/export?format=bundle); binary" },
+    success: 201,
   },
   {
     method: "POST",

@@ -146,6 +146,8 @@ const FIXTURES: Record<string, Fixture> = {
   "POST /api/calculators/{id}": async () => ({ params: { id: "odmr-field-from-pair" }, body: { inputs: { f_minus: 2750, f_plus: 2990 } } }),
   // A bundle belongs to no manuscript here: a small crate of one listed file, checked by anyone signed in.
   "POST /api/bundles/verify": async () => ({ rawBody: uploadForm("bundle.zip", tinyCrate()) }),
+  // A crate that does not verify: members who may import get as far as the check (422).
+  "POST /api/manuscripts/{id}/bundles/import": async () => ({ params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm("bundle.zip", tinyCrate()) }),
 };
 
 /** A zip with ro-crate-metadata.json listing one file by size and sha256 (computed here with node:crypto). */
@@ -261,6 +263,7 @@ const EXPECTED: Record<string, Row> = {
   "GET /api/analysis-models":                         [200, 200,   200,     200,   200,     401],
   "POST /api/calculators/{id}":                       [200, 200,   200,     200,   200,     401],
   "POST /api/bundles/verify":                         [200, 200,   200,     200,   200,     401],
+  "POST /api/manuscripts/{id}/bundles/import":        [422, 422,   403,     403,   404,     401],
   "GET /api/manuscripts":                             [200, 200,   200,     200,   200,     401],
   "POST /api/manuscripts":                            [201, 201,   404,     201,   404,     401],
   "GET /api/manuscripts/{id}":                        [200, 200,   200,     200,   404,     401],

@@ -1,5 +1,5 @@
 import "server-only";
-import { strFromU8, unzipSync, type UnzipFileInfo } from "fflate";
+import { strFromU8 } from "fflate";
 import { storedParameters, parameterRows, type StoredParameter } from "@/lib/figures/fit-value";
 import { parseTable, type ParsedTable, type ParseOptions } from "@/lib/data/parse";
 import { summarizeColumn } from "@/lib/data/summary";
@@ -7,7 +7,7 @@ import { tableRows, type TableRow } from "@/lib/data/table-rows";
 import { readHouseStyle } from "@/lib/figures/house-style";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { env } from "@/lib/env";
-import { AppError, badRequest, unprocessable } from "@/lib/errors";
+import { badRequest } from "@/lib/errors";
 import { fitColumns } from "../analyses/fit-data";
 import { curveFor, fitOrExplain } from "../analyses/run-analysis";
 import type { FitOptions } from "../analyses/schemas";
@@ -20,6 +20,7 @@ import { acquireUploadSlot } from "../storage/upload-slots";
 import { DRAFT_MARK_TEXT, withDraftMark } from "./draft-mark";
 import { BUNDLE_PATHS, type BundleParseRecord, type BundlePanelData, type BundleRender } from "./bundle-layout";
 import { drawFigure, figureLayout, figurePanelJobs } from "./render-figure";
+import { unpackArchive } from "./safe-unzip";
 
 /** Fitted parameters and their standard errors must agree to this relative difference. */
 const FIT_RELATIVE_TOLERANCE = 1e-6;
@@ -52,11 +53,6 @@ export interface VerifyReport {
   rows: VerifyRow[];
 }
 
-/** Archive limits: a bundle is refused before anything is unpacked when it passes one. */
-const MAX_ENTRIES = 10_000;
-const MAX_UNPACKED_BYTES = 2 * 1024 ** 3;
-const MAX_RATIO = 100;
-
 type Json = Record<string, unknown>;
 type Entity = Json & { "@id": string; "@type": string | string[] };
 
@@ -68,7 +64,7 @@ type Entity = Json & { "@id": string; "@type": string | string[] };
  * figure.svg. Reads no database: the answer depends on the zip alone.
  */
 export async function verifyBundle(zipBytes: Uint8Array): Promise<VerifyReport> {
-  const files = unpack(zipBytes);
+  const files = unpackArchive(zipBytes);
   const rows: VerifyRow[] = [];
   const report = () => ({ ok: rows.length > 0 && rows.every((r) => r.match), bundleSha256: sha256Hex(zipBytes), tolerances: VERIFY_TOLERANCES, rows });
 
@@ -153,34 +149,6 @@ export async function verifyUploadedBundle(user: SessionUser, req: Request): Pro
   } finally {
     release();
   }
-}
-
-/** The zip's entries, after refusing archives that are unsafe to unpack. */
-function unpack(zipBytes: Uint8Array): Record<string, Uint8Array> {
-  const seen = new Set<string>();
-  let unpacked = 0;
-  let packed = 0;
-  const check = (f: UnzipFileInfo) => {
-    if (seen.size >= MAX_ENTRIES) throw unprocessable(`The archive has more than ${MAX_ENTRIES} entries.`);
-    if (f.name.startsWith("/") || /^[A-Za-z]:/.test(f.name) || f.name.includes("\\") || f.name.split("/").includes(".."))
-      throw unprocessable(`The archive holds an unsafe path: ${JSON.stringify(f.name)}.`);
-    if (seen.has(f.name)) throw unprocessable(`The archive holds ${JSON.stringify(f.name)} twice.`);
-    seen.add(f.name);
-    unpacked += f.originalSize;
-    packed += f.size;
-    if (unpacked > MAX_UNPACKED_BYTES) throw unprocessable(`The archive unpacks to more than ${MAX_UNPACKED_BYTES / 1024 ** 3} GB.`);
-    if (unpacked > 1024 * 1024 && unpacked > MAX_RATIO * Math.max(packed, 1))
-      throw unprocessable(`The archive is compressed more than ${MAX_RATIO}× (${unpacked} bytes from ${packed}).`);
-    return !f.name.endsWith("/");
-  };
-  let out: Record<string, Uint8Array>;
-  try {
-    out = unzipSync(zipBytes, { filter: check });
-  } catch (err) {
-    if (err instanceof AppError) throw err;
-    throw unprocessable(`Not a readable zip archive: ${err instanceof Error ? err.message : String(err)}.`);
-  }
-  return out;
 }
 
 function readJson(files: Record<string, Uint8Array>, path: string): { ok: true; value: Json } | { ok: false; error: string } {

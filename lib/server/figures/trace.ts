@@ -209,6 +209,9 @@ async function describeVersion(versionId: string, people: PeopleNames) {
     versionId,
     datasetId: row.d.id,
     dataset: row.d.name,
+    /** The dataset's measurement kind and sample, so an imported bundle recreates them. */
+    datasetKind: row.d.kind,
+    sample: row.d.sample,
     number: row.v.number,
     latestNumber: Math.max(...newest.map((x) => x.n)),
     sha256: row.v.sha256,

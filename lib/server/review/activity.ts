@@ -14,6 +14,9 @@ const WORDS: Record<string, (d: Record<string, any>) => string> = {
   "dataset.upload": (d) => `uploaded ${d.fileName} (version ${d.number}, sha256 ${String(d.sha256).slice(0, 12)}…)`,
   "dataset.metadata": (d) => `edited dataset details (${Object.keys(d).join(", ")})`,
   "analysis.run": (d) => `ran the ${d.model} fit (model version ${d.modelVersion})`,
+  "analysis.import": (d) => `imported the ${d.model} fit from bundle ${String(d.bundleSha256).slice(0, 12)}…`,
+  "bundle.import": (d) =>
+    `imported a figure from bundle ${String(d.bundleSha256).slice(0, 12)}… (${d.datasets} datasets, ${d.analyses} fits, ${d.panels} panels; its review history not carried over)`,
   "figure.create": (d) => `created the figure “${d.title}”`,
   "figure.update": () => "changed a figure's layout or settings",
   "figure.reorder": () => "reordered panels",
