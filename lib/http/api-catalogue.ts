@@ -6,6 +6,7 @@ import { changeRoleInput, inviteInput } from "@/lib/server/members";
 import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schemas";
 import { houseStyleSchema } from "@/lib/figures/house-style";
 import { analysisInput, batchInput, calculatorInput, statisticsQuery } from "@/lib/server/analyses/schemas";
+import { scalingInput } from "@/lib/server/analyses/scaling";
 import { exportQuery } from "@/lib/server/export/export-figure";
 import { traceQuery } from "@/lib/server/figures/trace";
 import { thumbnailQuery } from "@/lib/server/export/thumbnails";
@@ -171,6 +172,14 @@ export const API_OPERATIONS: ApiOperation[] = [
     summary:
       "Fit one model over several versions of a manuscript on all cores, storing each run; progress streams back as NDJSON (start, one result per version, end); closing the connection stops the batch",
     body: batchInput,
+    success: 200,
+  },
+  {
+    method: "POST",
+    path: "/api/analyses/scaling",
+    permission: "analysis.run",
+    summary: "Decoupling scaling T₂(N) = T₂(1)·N^s over stored runs (one point per run, N given per run, weighted by the runs' errors); nothing is stored",
+    body: scalingInput,
     success: 200,
   },
   { method: "GET", path: "/api/analyses/{id}", permission: "manuscript.read", summary: "A stored analysis run", success: 200 },

@@ -75,6 +75,7 @@ const FIXTURES: Record<string, Fixture> = {
   "POST /api/analyses": async () => ({ body: fitBody() }),
   "POST /api/analyses/preview": async () => ({ body: fitBody() }),
   "POST /api/analyses/batch": async () => ({ body: { manuscriptId: DEMO_MANUSCRIPT_ID, versionIds: [sample.fitVersionId], model: "relaxation", options: { x: "wait", y: "p" } } }),
+  "POST /api/analyses/scaling": async () => ({ body: { manuscriptId: DEMO_MANUSCRIPT_ID, parameter: "T1", runs: await threeRuns() } }),
   "GET /api/analyses/{id}": async () => ({ params: { id: sample.analysisId } }),
   "GET /api/manuscripts/{id}/statistics": async () => ({ params: { id: DEMO_MANUSCRIPT_ID }, query: "model=relaxation&parameter=T1&groupBy=group" }),
   "GET /api/manuscripts/{id}/house-style": async () => ({ params: { id: DEMO_MANUSCRIPT_ID } }),
@@ -173,6 +174,15 @@ async function commentBy(who: Caller): Promise<string> {
 }
 
 /** A fresh panel with one revision by the author, still a draft. */
+/** Three stored runs of the sample fit (the later two on fit windows, so their T1 differ), as points at N = 1, 2, 4 for the scaling route. */
+async function threeRuns(): Promise<Array<{ analysisId: string; pulses: number }>> {
+  const post = (await import("@/app/api/analyses/route")).POST;
+  const windowed = (lo: number) => ({ ...fitBody(), options: { x: "wait", y: "p", xRange: [lo, 1e9] } });
+  const more: string[] = [];
+  for (const lo of [0.1, 0.2]) more.push((await call(post, { method: "POST", token: tokens.author, body: windowed(lo) })).json.id as string);
+  return [sample.analysisId, ...more].map((analysisId, k) => ({ analysisId, pulses: 2 ** k }));
+}
+
 async function draftPanel(): Promise<string> {
   const id = (
     await call((await import("@/app/api/figures/[id]/panels/route")).POST, { method: "POST", token: tokens.author, params: { id: sample.figureId }, body: {} })
@@ -284,6 +294,7 @@ const EXPECTED: Record<string, Row> = {
   "POST /api/analyses":                               [201, 201,   403,     403,   404,     401],
   "POST /api/analyses/preview":                       [200, 200,   403,     403,   404,     401],
   "POST /api/analyses/batch":                         [200, 200,   403,     403,   404,     401],
+  "POST /api/analyses/scaling":                       [200, 200,   403,     403,   404,     401],
   "GET /api/analyses/{id}":                           [200, 200,   200,     200,   404,     401],
   "GET /api/manuscripts/{id}/statistics":             [200, 200,   200,     200,   404,     401],
   "GET /api/manuscripts/{id}/house-style":            [200, 200,   200,     200,   404,     401],

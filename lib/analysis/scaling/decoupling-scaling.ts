@@ -96,6 +96,8 @@ export function fitDecouplingScaling(points: readonly ScalingPoint[]): ScalingFi
   });
   if (points.length < 3) throw new FitInputError(`a power law needs at least 3 runs to be judged (got ${points.length})`, "points");
   if (new Set(points.map((p) => p.pulses)).size < 2) throw new FitInputError("the runs need at least two different numbers of π pulses", "points");
+  if (new Set(points.map((p) => p.t2)).size < 2)
+    throw new FitInputError(`every run has the same T₂ (${points[0].t2}): there is no change with N to fit`, "points");
   const r = fitModel(powerLaw, {
     x: points.map((p) => p.pulses),
     y: points.map((p) => p.t2),

@@ -61,5 +61,6 @@ describe("decoupling scaling agrees with SciPy", () => {
     expect(bad({ t2: Number.NaN })).toThrow("point 3: T₂ must be a positive number");
     expect(() => fitDecouplingScaling(points.slice(0, 2))).toThrow("at least 3 runs");
     expect(() => fitDecouplingScaling(points.map((p) => ({ ...p, pulses: 4 })))).toThrow("at least two different numbers of π pulses");
+    expect(() => fitDecouplingScaling(points.map((p) => ({ ...p, t2: 100 })))).toThrow("every run has the same T₂ (100): there is no change with N to fit");
   });
 });

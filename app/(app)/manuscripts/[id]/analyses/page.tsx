@@ -1,9 +1,11 @@
 import { AnalysesWorkspace } from "@/components/analysis/analyses-workspace";
+import { DecouplingScaling } from "@/components/analysis/decoupling-scaling";
 import type { BatchDataset } from "@/components/analysis/batch-types";
 import { EstimateCaution } from "@/components/analysis/estimate-caution";
-import { PageHeader } from "@/components/ui";
+import { PageHeader, Sheet } from "@/components/ui";
 import { roleAllows } from "@/lib/authz/policy";
 import { analysisCatalogue } from "@/lib/server/analyses/catalogue";
+import { scalingCandidates } from "@/lib/server/analyses/scaling";
 import { listDatasets } from "@/lib/server/datasets/read-datasets";
 import { BackToManuscript, loadManuscriptPage } from "../_components/manuscript-page";
 
@@ -36,6 +38,14 @@ export default async function AnalysesPage({ params }: { params: Promise<{ id: s
       <PageHeader title="Analyses" subtitle={<BackToManuscript manuscript={m} />} />
       <EstimateCaution />
       <AnalysesWorkspace manuscriptId={m.id} datasets={sources} models={analysisCatalogue().items} groupings={groupings} mayRun={mayRun} />
+      <section aria-labelledby="scaling-heading" className="mt-6">
+        <Sheet>
+          <h2 id="scaling-heading" className="mb-3 text-lg font-semibold">
+            Decoupling scaling
+          </h2>
+          <DecouplingScaling manuscriptId={m.id} candidates={await scalingCandidates(user, id)} mayRun={mayRun} />
+        </Sheet>
+      </section>
     </>
   );
 }
