@@ -1,5 +1,5 @@
 "use client";
-import { useId, useState } from "react";
+import { useId, useState, type PointerEvent } from "react";
 import { extent, linearScale, logScale, padRange, type Scale } from "@/components/data/plot-scales";
 import { formatCount, formatValueError } from "@/lib/data/format";
 
@@ -20,7 +20,18 @@ const DATA = "#0072B2",
 
 export interface FitPlotProps {
   /** `sigma`: one standard uncertainty per point, y units (the fit's σ column); drawn as ± σ error bars. */
-  data: { x: number[]; y: number[]; sigma?: Array<number | null> | null; residuals: Array<number | null> };
+  data: {
+    x: number[];
+    y: number[];
+    sigma?: Array<number | null> | null;
+    residuals: Array<number | null>;
+    /** Points outside the fit window, drawn faded. */
+    outside?: { x: number[]; y: number[] } | null;
+  };
+  /** The fit window [from, to] in x units, drawn shaded. */
+  window?: readonly [number, number] | null;
+  /** When given, a window can be drawn on the plot by dragging across it (the typed fields stay the keyboard way). */
+  onWindow?: (range: [number, number]) => void;
   curve: { x: number[]; y: number[] };
   xTitle: string;
   yTitle: string;
@@ -46,6 +57,10 @@ function fitPlotDescription(p: FitPlotProps & { logX: boolean }): string {
     (q) => `${q.name} = ${formatValueError(q.value, q.fixed ? null : q.stderr)}${q.unit ? ` ${q.unit}` : ""}${q.fixed ? " (held fixed)" : ""}`,
   );
   if (fitted.length) parts.push(`Fitted values: ${fitted.join("; ")}.`);
+  if (p.window)
+    parts.push(
+      `Fitted only from ${p.window[0]} to ${p.window[1]} (shaded)${p.data.outside?.x.length ? `; ${points(p.data.outside.x.length)} outside it are drawn faded` : ""}.`,
+    );
   return parts.join(" ");
 }
 
@@ -58,13 +73,17 @@ function ErrorBar({ cx, lo, hi }: { cx: number; lo: number; hi: number }) {
 
 /** Data points with the fitted curve, and the residuals (data − fit) in a strip beneath on the same x axis. */
 export function FitPlot(props: FitPlotProps) {
-  const { data, curve, xTitle, yTitle, residualTitle, modelTitle, sigmaName } = props;
+  const { data, curve, xTitle, yTitle, residualTitle, modelTitle, sigmaName, window, onWindow } = props;
+  const outside = data.outside ?? { x: [], y: [] };
+  const [drag, setDrag] = useState<{ from: number; to: number } | null>(null);
   const clip = `fit-clip-${useId().replace(/[^a-zA-Z0-9_-]/g, "")}`;
-  const positive = data.x.length > 0 && data.x.every((v) => v > 0);
-  const xPositive = extent([data.x], true);
+  const positive = data.x.length > 0 && data.x.every((v) => v > 0) && outside.x.every((v) => v > 0);
+  const xPositive = extent([data.x, outside.x], true);
   const [logX, setLogX] = useState(positive && xPositive !== null && xPositive[1] / xPositive[0] > 100);
   const useLog = logX && positive;
-  const xs: Scale = useLog ? logScale(padRange(xPositive, 0.03, true), [LEFT, W - RIGHT]) : linearScale(padRange(extent([data.x]), 0.03), [LEFT, W - RIGHT], 7);
+  const xs: Scale = useLog
+    ? logScale(padRange(xPositive, 0.03, true), [LEFT, W - RIGHT])
+    : linearScale(padRange(extent([data.x, outside.x]), 0.03), [LEFT, W - RIGHT], 7);
   const sigma = data.sigma?.some((v) => v !== null && v > 0) ? data.sigma : null;
   const sigmaAt = (i: number) => {
     const v = sigma?.[i];
@@ -72,7 +91,16 @@ export function FitPlot(props: FitPlotProps) {
   };
   const yLo = sigma ? data.y.map((y, i) => y - (sigmaAt(i) ?? 0)) : [];
   const yHi = sigma ? data.y.map((y, i) => y + (sigmaAt(i) ?? 0)) : [];
-  const ys = linearScale(padRange(extent([data.y, curve.y, yLo, yHi]), 0.06), [MAIN_BOTTOM, TOP], 5);
+  const ys = linearScale(padRange(extent([data.y, curve.y, yLo, yHi, outside.y]), 0.06), [MAIN_BOTTOM, TOP], 5);
+  /** The x value under a pointer event, from the drawn scale. */
+  const xAt = (e: PointerEvent<SVGSVGElement>): number => {
+    const box = e.currentTarget.getBoundingClientRect();
+    const px = Math.min(W - RIGHT, Math.max(LEFT, ((e.clientX - box.left) / box.width) * W));
+    const f = (px - LEFT) / (W - RIGHT - LEFT);
+    const [d0, d1] = xs.domain;
+    return xs.log ? 10 ** (Math.log10(d0) + f * (Math.log10(d1) - Math.log10(d0))) : d0 + f * (d1 - d0);
+  };
+  const shaded = drag ? ([Math.min(drag.from, drag.to), Math.max(drag.from, drag.to)] as const) : window;
   const rMax = Math.max(1e-300, ...data.residuals.map((r, i) => (r === null ? 0 : Math.abs(r) + (sigmaAt(i) ?? 0)))) * 1.15;
   const rs = linearScale([-rMax, rMax], [RES_BOTTOM, RES_TOP], 4);
   const outer = Math.max(...rs.ticks.map((t) => Math.abs(t.value)));
@@ -117,6 +145,27 @@ export function FitPlot(props: FitPlotProps) {
         aria-label={`Fit of ${modelTitle}: ${yTitle} against ${xTitle}, with residuals`}
         aria-describedby={`${clip}-description`}
         data-testid="fit-plot"
+        style={onWindow ? { touchAction: "none", cursor: "col-resize" } : undefined}
+        onPointerDown={
+          onWindow
+            ? (e) => {
+                e.currentTarget.setPointerCapture(e.pointerId);
+                const x = xAt(e);
+                setDrag({ from: x, to: x });
+              }
+            : undefined
+        }
+        onPointerMove={onWindow && drag ? (e) => setDrag({ ...drag, to: xAt(e) }) : undefined}
+        onPointerUp={
+          onWindow && drag
+            ? (e) => {
+                const to = xAt(e);
+                setDrag(null);
+                const [lo, hi] = [Math.min(drag.from, to), Math.max(drag.from, to)];
+                if (xs(hi) - xs(lo) > 4) onWindow([Number(lo.toPrecision(6)), Number(hi.toPrecision(6))]);
+              }
+            : undefined
+        }
       >
         <defs>
           <clipPath id={`${clip}-main`}>
@@ -147,7 +196,23 @@ export function FitPlot(props: FitPlotProps) {
         <text transform={`translate(14 ${(RES_TOP + RES_BOTTOM) / 2}) rotate(-90)`} textAnchor="middle" className="fill-ink text-[10px]">
           {residualTitle}
         </text>
+        {shaded ? (
+          <rect
+            x={Math.max(LEFT, xs(shaded[0]))}
+            y={TOP}
+            width={Math.max(0, Math.min(W - RIGHT, xs(shaded[1])) - Math.max(LEFT, xs(shaded[0])))}
+            height={RES_BOTTOM - TOP}
+            fill="#0072B2"
+            fillOpacity={0.07}
+            data-testid="fit-plot-window"
+          />
+        ) : null}
         <g clipPath={`url(#${clip}-main)`}>
+          <g data-testid="fit-plot-outside" aria-hidden>
+            {outside.x.map((x, i) => (
+              <circle key={i} cx={xs(x)} cy={ys(outside.y[i])} r={2.4} fill="#8a8f96" fillOpacity={0.35} />
+            ))}
+          </g>
           {sigma ? (
             <g stroke={DATA} strokeOpacity={0.55} strokeWidth={1} fill="none" aria-hidden>
               {data.x.map((x, i) => {

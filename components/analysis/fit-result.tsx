@@ -95,7 +95,20 @@ function QualityFindings({ quality }: { quality: NonNullable<FitResult["quality"
 }
 
 /** The fitted curve over the data with residuals, the parameters with standard errors, and how well it fits. */
-export function FitResultView({ result, modelTitle, xName, yName }: { result: FitResult; modelTitle: string; xName: string; yName: string }) {
+export function FitResultView({
+  result,
+  modelTitle,
+  xName,
+  yName,
+  onWindow,
+}: {
+  result: FitResult;
+  modelTitle: string;
+  xName: string;
+  yName: string;
+  /** Drawing a fit window on the plot sets it in the form. */
+  onWindow?: (range: [number, number]) => void;
+}) {
   const yTitle = axisTitle(yName, result.units.y);
   return (
     <div className="grid gap-6 lg:grid-cols-[minmax(0,1.45fr)_minmax(0,1fr)]">
@@ -108,6 +121,8 @@ export function FitResultView({ result, modelTitle, xName, yName }: { result: Fi
         residualTitle={axisTitle("residual", result.units.y)}
         sigmaName={result.options.sigma}
         parameters={result.parameters}
+        window={result.options.xRange ? [result.options.xRange[0], result.options.xRange[1]] : null}
+        onWindow={onWindow}
       />
       <div className="space-y-4">
         <div className="relative overflow-x-auto">

@@ -7,8 +7,9 @@ import { Button, Notice, Sheet } from "@/components/ui";
 import { resolveUnit } from "@/lib/analysis/param-unit";
 import { returnWithRun } from "@/lib/figures/return-to";
 import type { FitOptions, FitResult, ModelInfo, SavedRun, StoredRun } from "./api";
-import { buildOptions, defaultColumns, defaultsFrom, orderModels, type Column, type DefaultBounds, type ParamDraft } from "./fit-options";
+import { buildOptions, defaultColumns, defaultsFrom, orderModels, type BuildResult, type Column, type DefaultBounds, type ParamDraft } from "./fit-options";
 import { FitResultView } from "./fit-result";
+import { FitWindowFields, NO_WINDOW, windowDraft, windowRange, type WindowDraft } from "./fit-window";
 import { ColumnSelects, ModelSelect } from "./model-and-columns";
 import { ParameterInputs } from "./parameter-inputs";
 import { StoredRuns } from "./stored-runs";
@@ -44,6 +45,7 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
   const [modelId, setModelId] = useState(() => (orderModels(models, kind).suggested[0] ?? models[0])?.id ?? "");
   const [cols, setCols] = useState(() => defaultColumns(columns));
   const [drafts, setDrafts] = useState<Record<string, ParamDraft>>({});
+  const [fitWindow, setFitWindow] = useState<WindowDraft>(NO_WINDOW);
   const [defaults, setDefaults] = useState<{ key: string; bounds: DefaultBounds } | null>(null);
   const [shown, setShown] = useState<Shown | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -55,7 +57,10 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
   const rows = (model?.parameters ?? []).map((p) => ({ name: p.name, description: p.description, unit: resolveUnit(p.unit, unitOf(cols.x), unitOf(cols.y)) }));
   const dataKey = `${modelId}|${cols.x}|${cols.y}`;
   const knownDefaults = defaults?.key === dataKey ? defaults.bounds : undefined;
-  const built = useMemo(() => buildOptions(model?.parameters ?? [], drafts, cols, knownDefaults), [model, drafts, cols, knownDefaults]);
+  const built = useMemo(
+    () => withWindow(buildOptions(model?.parameters ?? [], drafts, cols, knownDefaults), fitWindow),
+    [model, drafts, cols, knownDefaults, fitWindow],
+  );
   const currentKey = "options" in built ? JSON.stringify({ modelId, options: built.options }) : null;
   const lastValues = shown?.run.model === modelId ? Object.fromEntries(shown.run.parameters.map((p) => [p.name, p.value])) : undefined;
 
@@ -76,11 +81,11 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
       let base = knownDefaults;
       if ("needDefaults" in request) {
         const plain = Object.fromEntries(Object.entries(drafts).map(([k, d]) => [k, { ...d, lower: "", upper: "" }]));
-        const probeOptions = buildOptions(model?.parameters ?? [], plain, cols);
+        const probeOptions = withWindow(buildOptions(model?.parameters ?? [], plain, cols), fitWindow);
         if (!("options" in probeOptions)) throw new Error("error" in probeOptions ? probeOptions.error : "Could not read the form.");
         const probe = await preview(probeOptions.options);
         base = learn(probe, probeOptions.options, base);
-        request = buildOptions(model?.parameters ?? [], drafts, cols, base);
+        request = withWindow(buildOptions(model?.parameters ?? [], drafts, cols, base), fitWindow);
       }
       if ("error" in request) {
         setError(request.error);
@@ -160,6 +165,14 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
               setSaved(null);
             }}
           />
+          <FitWindowFields
+            value={fitWindow}
+            unit={unitOf(cols.x)}
+            onChange={(v) => {
+              setFitWindow(v);
+              setSaved(null);
+            }}
+          />
           <div className="mt-4 flex flex-wrap items-center gap-3">
             <Button type="button" onClick={() => void fit()} disabled={busy !== null || !model}>
               {busy === "fit" ? "Fitting…" : "Fit"}
@@ -214,7 +227,20 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
                 </span>
               ) : null}
             </h2>
-            <FitResultView result={shown.run} modelTitle={shown.modelTitle} xName={shown.xName} yName={shown.yName} />
+            <FitResultView
+              result={shown.run}
+              modelTitle={shown.modelTitle}
+              xName={shown.xName}
+              yName={shown.yName}
+              onWindow={
+                mayRun
+                  ? (range) => {
+                      setFitWindow(windowDraft(range));
+                      setSaved(null);
+                    }
+                  : undefined
+              }
+            />
           </Sheet>
         </section>
       ) : null}
@@ -222,8 +248,29 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
         <h2 id="stored-runs-heading" className="mb-2 text-lg font-semibold">
           Stored runs on this version
         </h2>
-        <StoredRuns runs={runs.data.items} models={models} versionId={versionId} mayArchive={mayRun} />
+        <StoredRuns
+          runs={runs.data.items}
+          models={models}
+          versionId={versionId}
+          mayArchive={mayRun}
+          onUseWindow={
+            mayRun
+              ? (range) => {
+                  setFitWindow(windowDraft(range));
+                  setSaved(null);
+                }
+              : undefined
+          }
+        />
       </section>
     </div>
   );
+}
+
+/** The typed fit window added to the built options as xRange (an error in the window wins). */
+function withWindow(built: BuildResult, draft: WindowDraft): BuildResult {
+  if (!("options" in built)) return built;
+  const w = windowRange(draft);
+  if ("error" in w) return { error: w.error };
+  return w.range ? { options: { ...built.options, xRange: w.range } } : built;
 }

@@ -37,11 +37,14 @@ export function StoredRuns({
   models,
   versionId,
   mayArchive = false,
+  onUseWindow,
 }: {
   runs: StoredRun[];
   models: readonly ModelInfo[];
   versionId?: string;
   mayArchive?: boolean;
+  /** Puts a run's fit window into the form, for refitting with it. */
+  onUseWindow?: (range: [number, number]) => void;
 }) {
   const queryClient = useQueryClient();
   const [showArchived, setShowArchived] = useState(false);
@@ -99,6 +102,7 @@ export function StoredRuns({
                 </td>
                 <td className="px-3 py-2">
                   <ParameterSummary params={keyParameters(model, result.parameters ?? [])} />
+                  <RunWindow run={r} onUse={onUseWindow} />
                 </td>
                 <td className="px-3 py-2 tabular-nums">{formatNumber(result.chi2red, 3)}</td>
                 <td className="whitespace-nowrap px-3 py-2">
@@ -131,5 +135,23 @@ function DerivedLink({ versionId }: { versionId: string }) {
     <Link href={`/datasets/${v.data.datasetId}?v=${versionId}`} className="underline">
       version {v.data.number}
     </Link>
+  );
+}
+
+/** The run's fit window (options.xRange) in the x column's unit, with a button to refit with it. */
+function RunWindow({ run, onUse }: { run: StoredRun; onUse?: (range: [number, number]) => void }) {
+  const range = (run.options as { xRange?: [number, number] }).xRange;
+  if (!range) return null;
+  const unit = (run.result as { units?: { x?: string | null } }).units?.x;
+  return (
+    <span className="mt-1 flex flex-wrap items-center gap-2 text-xs text-muted" data-testid="run-window">
+      Fit window {range[0]} – {range[1]}
+      {unit ? ` ${unit}` : ""}
+      {onUse ? (
+        <button type="button" className="underline" onClick={() => onUse(range)}>
+          Use this window
+        </button>
+      ) : null}
+    </span>
   );
 }

@@ -17,6 +17,8 @@ export interface FitData {
   xUnit: string | null;
   yUnit: string | null;
   dropped: number;
+  /** Points with x and y but outside options.xRange, for drawing faded beside the fitted ones. */
+  outside?: { x: number[]; y: number[] };
 }
 
 /** The x, y (and σ) columns of a version, rows with a missing value or outside xRange left out. */
@@ -45,10 +47,18 @@ export function fitColumns(table: Pick<ParsedTable, "columns" | "data">, options
   const ss = options.sigma ? column(options.sigma, "sigma") : null;
   const [lo, hi] = options.xRange ?? [-Infinity, Infinity];
   const keep: number[] = [];
+  const outside = { x: [] as number[], y: [] as number[] };
   for (let i = 0; i < xs.data.length; i++) {
     const ok = Number.isFinite(xs.data[i]) && Number.isFinite(ys.data[i]) && (!ss || (ss.data[i] > 0 && Number.isFinite(ss.data[i])));
-    if (ok && xs.data[i] >= lo && xs.data[i] <= hi) keep.push(i);
+    const inside = xs.data[i] >= lo && xs.data[i] <= hi;
+    if (ok && inside) keep.push(i);
+    else if (!inside && Number.isFinite(xs.data[i]) && Number.isFinite(ys.data[i])) {
+      outside.x.push(xs.data[i]);
+      outside.y.push(ys.data[i]);
+    }
   }
+  if (options.xRange && keep.length === 0)
+    throw badRequest(`options.xRange: no usable point of version ${versionNumber} has ${options.x} between ${lo} and ${hi}.`);
   const pick = (a: Float64Array) => Float64Array.from(keep, (i) => a[i]);
   return {
     x: pick(xs.data),
@@ -57,5 +67,6 @@ export function fitColumns(table: Pick<ParsedTable, "columns" | "data">, options
     xUnit: xs.unit,
     yUnit: ys.unit,
     dropped: xs.data.length - keep.length,
+    ...(options.xRange ? { outside } : {}),
   };
 }

@@ -102,6 +102,8 @@ function describeRun(input: AnalysisInput, data: FitData, fit: ModelFitResult, c
       y: Array.from(data.y),
       sigma: data.sigma ? Array.from(data.sigma, nullIfNaN) : null,
       residuals: fit.residuals.map(nullIfNaN),
+      // With a fit window: the points outside it, drawn faded (not stored with the run; the window is, in options).
+      ...(data.outside ? { outside: data.outside } : {}),
     },
     curve,
   };

@@ -16,7 +16,10 @@ const fitOptions = z
     fixed: z.record(z.string().max(NAME_MAX), finite).optional(),
     bounds: z.record(z.string().max(NAME_MAX), z.tuple([z.number(), z.number()])).optional(),
     /** Fit only points with x in [lo, hi] (x column units). */
-    xRange: z.tuple([finite, finite]).optional(),
+    xRange: z
+      .tuple([finite, finite])
+      .refine(([lo, hi]) => lo < hi, "the fit window's start must be below its end")
+      .optional(),
     maxIterations: z.number().int().min(1).max(5000).optional(),
   })
   .strict();
