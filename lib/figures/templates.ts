@@ -6,6 +6,7 @@
 import { decayCurveTemplate } from "./plots/decay-curve";
 import { groupStripTemplate } from "./plots/group-strip";
 import { plMapTemplate } from "./plots/pl-map";
+import { pulseScalingTemplate } from "./plots/pulse-scaling";
 import { scatterLineTemplate } from "./plots/scatter-line";
 import { nvNmrTemplate, spectrumTemplate } from "./plots/spectrum";
 import type { CommonOptions, FigureTemplate } from "./plots/types";
@@ -23,6 +24,7 @@ export const FIGURE_TEMPLATES: ReadonlyArray<FigureTemplate<any>> = [
   groupStripTemplate,
   nvNmrTemplate,
   scatterLineTemplate,
+  pulseScalingTemplate,
 ];
 
 export function getTemplate(id: string): FigureTemplate<CommonOptions> | undefined {

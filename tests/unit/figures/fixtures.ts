@@ -34,6 +34,8 @@ export const TEMPLATE_DATA: Record<string, object[]> = {
   population,
   nmr,
   data: echo.map((r) => ({ x: r.tau, y: r.signal, sigma: r.sigma })),
+  // T₂ at N = 1 … 16 π pulses, growing as N^(2/3) (invented), with 3 % errors.
+  scaling: [1, 2, 4, 8, 16].map((n) => ({ N: n, T2: 120 * n ** (2 / 3), T2_err: 3.6 * n ** (2 / 3) })),
 };
 
 export const templateSpec = (id: string, options: Record<string, unknown> = {}) => FIGURE_TEMPLATES.find((t) => t.id === id)!.build(options);

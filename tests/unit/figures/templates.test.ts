@@ -18,7 +18,7 @@ function collect(node: unknown, key: string, out: unknown[] = []): unknown[] {
 
 describe("builder templates", () => {
   it("cover the field's plots with unique ids, titles and an option form", () => {
-    expect(FIGURE_TEMPLATES.map((t) => t.id)).toEqual(["decay-curve", "spectrum", "pl-map", "group-strip", "nv-nmr", "scatter-line"]);
+    expect(FIGURE_TEMPLATES.map((t) => t.id)).toEqual(["decay-curve", "spectrum", "pl-map", "group-strip", "nv-nmr", "scatter-line", "pulse-scaling"]);
     for (const t of FIGURE_TEMPLATES) {
       expect(t.title.length).toBeGreaterThan(5);
       expect(t.description.length).toBeGreaterThan(20);
@@ -149,5 +149,37 @@ describe("builder templates", () => {
     const spec = build("scatter-line", { xField: "B.field (mT)", yField: "count[0]" });
     expect(spec.layer[0].encoding.x.field).toBe("B\\.field (mT)");
     expect(spec.layer[0].encoding.y.field).toBe("count\\[0\\]");
+  });
+});
+
+describe("T₂ versus pulse number", () => {
+  // The fitted line is T₂(1)·N^s with the values typed from the scaling fit; on log–log axes it is straight.
+  const spec = build("pulse-scaling", { fitT2One: 120.609, fitExponent: 0.6645 });
+
+  it("draws points with ± σ error bars and the fitted power law, both axes logarithmic", () => {
+    expect(spec.data).toEqual({ name: "scaling" });
+    expect(spec.layer.map((l: Json) => l.mark.type)).toEqual(["errorbar", "point", "line"]);
+    for (const l of spec.layer) {
+      expect(l.encoding.x.scale.type).toBe("log");
+      expect(l.encoding.y.scale.type).toBe("log");
+    }
+    expect(spec.layer[0].encoding.yError).toEqual({ field: "T2_err" });
+    expect(spec.layer[2].transform).toEqual([{ calculate: '120.609 * pow(datum["N"], 0.6645)', as: "pulse_scaling_fit" }]);
+    expect(spec.layer[2].encoding.y.field).toBe("pulse_scaling_fit");
+    expect(spec.layer[0].encoding.x.title).toBe("number of π pulses N");
+    expect(spec.layer[0].encoding.y.title).toBe("T₂ (µs)");
+  });
+
+  it("leaves the line out until a fitted T₂(1) is given, and the error bars when no σ column is named", () => {
+    expect(build("pulse-scaling", {}).layer.map((l: Json) => l.mark.type)).toEqual(["errorbar", "point"]);
+    expect(build("pulse-scaling", { sigmaField: "" }).layer.map((l: Json) => l.mark.type)).toEqual(["point"]);
+  });
+
+  it("passes the spec's security check and reads only the bound columns", async () => {
+    const { checkSpecSecurity } = await import("@/lib/figures/spec-security");
+    // The pow() of the fitted line is on the expression allow-list; nothing else is written in the spec.
+    expect(checkSpecSecurity(spec)).toMatchObject({ issues: [], dataNames: ["scaling"], inlineValues: 0 });
+    const { specFields } = await import("@/lib/figures/spec-fields");
+    expect(specFields(spec).scaling!.sort()).toEqual(["N", "T2", "T2_err"]);
   });
 });

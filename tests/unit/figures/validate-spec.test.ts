@@ -18,6 +18,7 @@ describe("validateSpec: good specs", () => {
       "group-strip": [{}, { summary: "median-iqr", yScale: "log" }],
       "nv-nmr": [{}, { xQuantity: "spacing", nucleus: "13C", fitName: "fit" }],
       "scatter-line": [{}, { sigmaField: "s", colorField: "series", marks: "line+points", xScale: "log", yScale: "symlog" }],
+      "pulse-scaling": [{}, { fitT2One: 120, fitExponent: 0.667 }, { sigmaField: "" }],
     };
     for (const t of FIGURE_TEMPLATES) {
       for (const options of variants[t.id]!) {
