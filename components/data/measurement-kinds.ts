@@ -5,6 +5,7 @@ const KIND_LABELS = {
   pl_spectrum: "PL spectrum",
   odmr: "ODMR",
   hahn_echo: "Hahn echo",
+  decoupling: "Dynamical decoupling (CPMG, XY-N)",
   relaxation: "Relaxation (T1)",
   ramsey: "Ramsey",
   nv_nmr: "NV-NMR",

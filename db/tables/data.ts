@@ -2,7 +2,7 @@ import { index, integer, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqli
 import { archivedAt, createdAt, id } from "./columns";
 import { manuscripts, users } from "./people";
 
-export const MEASUREMENT_KINDS = ["pl_map", "pl_spectrum", "odmr", "hahn_echo", "relaxation", "ramsey", "nv_nmr", "other"] as const;
+export const MEASUREMENT_KINDS = ["pl_map", "pl_spectrum", "odmr", "hahn_echo", "decoupling", "relaxation", "ramsey", "nv_nmr", "other"] as const;
 export type MeasurementKind = (typeof MEASUREMENT_KINDS)[number];
 
 export const datasets = sqliteTable(

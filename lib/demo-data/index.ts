@@ -10,6 +10,7 @@ import { plMapFiles } from "./pl-map";
 import { plSpectrumFiles } from "./pl-spectrum";
 import { odmrFiles } from "./odmr";
 import { hahnEchoFiles } from "./hahn-echo";
+import { decouplingFiles } from "./decoupling";
 import { relaxationFiles } from "./relaxation";
 import { ramseyFiles } from "./ramsey";
 import { nvNmrFiles } from "./nv-nmr";
@@ -23,6 +24,7 @@ export function demoFiles(): DemoFile[] {
     ...plSpectrumFiles(),
     ...odmrFiles(),
     ...hahnEchoFiles(),
+    ...decouplingFiles(),
     ...relaxationFiles(),
     ...ramseyFiles(),
     ...nvNmrFiles(),

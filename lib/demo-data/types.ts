@@ -1,6 +1,6 @@
 /** Shape of one invented demo measurement file (see lib/demo-data/index.ts). */
 
-type DemoKind = "pl_map" | "pl_spectrum" | "odmr" | "hahn_echo" | "relaxation" | "ramsey" | "nv_nmr" | "other";
+type DemoKind = "pl_map" | "pl_spectrum" | "odmr" | "hahn_echo" | "relaxation" | "ramsey" | "nv_nmr" | "decoupling" | "other";
 
 export interface DemoFile {
   /** File name as uploaded, e.g. "echo_K17-NV03.csv". */

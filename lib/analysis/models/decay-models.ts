@@ -89,7 +89,7 @@ export const hahnEchoModel: FitModel = {
   title: "Hahn echo decay",
   formula: "S(t) = S₀ + A·exp(−(t/T₂)ⁿ)",
   version: "1.0.0",
-  kinds: ["hahn_echo"],
+  kinds: ["hahn_echo", "decoupling"],
   params: [
     { name: "S0", unit: "y", description: "signal after full decay" },
     { name: "A", unit: "y", description: "echo amplitude at t = 0" },

@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { FitInputError, getModel, listModels, sampleCurve } from "@/lib/analysis";
 import { SYNTHETIC_CASES } from "./synthetic-cases";
 
-const KINDS = ["hahn_echo", "relaxation", "ramsey", "odmr", "pl_spectrum", "nv_nmr", "other"];
+const KINDS = ["hahn_echo", "decoupling", "relaxation", "ramsey", "odmr", "pl_spectrum", "nv_nmr", "other"];
 const UNITS = ["x", "y", "1/x", "1", "x*y", "y/x", "y/x^2", "y/x^3"];
 
 describe("model registry", () => {

@@ -81,7 +81,7 @@ describe("demo files: inventory", () => {
   it("has the agreed number of files per kind", () => {
     const counts: Record<string, number> = {};
     for (const f of files) counts[f.kind] = (counts[f.kind] ?? 0) + 1;
-    expect(counts).toEqual({ pl_map: 1, pl_spectrum: 1, odmr: 3, hahn_echo: 12, relaxation: 6, ramsey: 1, nv_nmr: 1, other: 1 });
+    expect(counts).toEqual({ pl_map: 1, pl_spectrum: 1, odmr: 3, hahn_echo: 12, decoupling: 5, relaxation: 6, ramsey: 1, nv_nmr: 1, other: 1 });
     for (const g of GROUPS) {
       expect(byKind("hahn_echo").filter((f) => f.tags.group === g)).toHaveLength(4);
       expect(byKind("relaxation").filter((f) => f.tags.group === g)).toHaveLength(2);
@@ -242,5 +242,17 @@ describe("demo files: lib/data/parse reads every file", () => {
     const calibration = parse(byKind("other")[0]);
     expect(calibration.format).toBe("json");
     expect(calibration.rowCount).toBe(12);
+  });
+});
+
+describe("demo files: the CPMG decoupling series", () => {
+  it("one file per N = 1, 2, 4, 8, 16 with N in the pulses tag and the true T2 = 95 µs · N^(2/3) in the notes", () => {
+    const series = demoFiles().filter((f) => f.kind === "decoupling");
+    expect(series.map((f) => f.tags.pulses)).toEqual(["1", "2", "4", "8", "16"]);
+    // In Python: 95 * 2**(2/3) = 150.803, 95 * 16**(2/3) = 603.212 µs.
+    const t2 = series.map((f) => Number(/true T2 = ([\d.]+)/.exec(f.notes)![1]));
+    expect(t2[0]).toBe(95);
+    expect(t2[1]).toBeCloseTo(150.8, 1);
+    expect(t2[4]).toBeCloseTo(603.21, 1);
   });
 });

@@ -11,6 +11,7 @@ export const KIND_WORDS: Record<string, string> = {
   odmr: "an ODMR sweep",
   pl_spectrum: "a PL spectrum",
   hahn_echo: "a Hahn echo",
+  decoupling: "a CPMG or XY-N echo",
   relaxation: "a T₁ relaxation",
   ramsey: "a Ramsey measurement",
   nv_nmr: "an NV-NMR spectrum",
