@@ -9,7 +9,7 @@ import { axisTitle, OKABE_ITO, quantitative, singleViewPanel, type Spec, vlField
 import { axisTextOptions, dataNamesOf, dataOptions } from "./template-options";
 import type { CommonOptions, FigureTemplate, XYAxisText } from "./types";
 
-export interface PulseScalingOptions extends CommonOptions, XYAxisText {
+interface PulseScalingOptions extends CommonOptions, XYAxisText {
   dataName: string;
   xField: string;
   yField: string;

@@ -33,7 +33,7 @@ export const scalingInput = z
       .max(200, "at most 200 runs"),
   })
   .strict();
-export type ScalingInput = z.input<typeof scalingInput>;
+type ScalingInput = z.input<typeof scalingInput>;
 
 interface StoredParameter {
   name: string;
