@@ -222,6 +222,12 @@ export function DecouplingScaling({ manuscriptId, candidates, mayRun }: { manusc
               </dd>
             </dl>
             <p className="text-xs text-muted">Errors: {result.weighting}.</p>
+            <p>
+              <a href={`data:text/csv;charset=utf-8,${encodeURIComponent(pointsCsv(result))}`} download="t2-versus-pulses.csv" className="underline">
+                Download the points (CSV)
+              </a>{" "}
+              <span className="text-xs text-muted">— upload it as a dataset for the “T₂ versus pulse number” figure template.</span>
+            </p>
             {result.fit.notes.map((n) => (
               <p key={n}>{n}</p>
             ))}
@@ -230,4 +236,16 @@ export function DecouplingScaling({ manuscriptId, candidates, mayRun }: { manusc
       ) : null}
     </div>
   );
+}
+
+/** The points as a CSV whose columns the “T₂ versus pulse number” template reads (N, T2, T2_err), the fit in comment lines. */
+function pointsCsv(r: ScalingResult): string {
+  const u = r.unit ? ` (${r.unit})` : "";
+  const head = [
+    `# ${r.formula}: ${r.parameter}(1) = ${r.fit.t2One.value} +- ${r.fit.t2One.stderr}${u}, s = ${r.fit.exponent.value} +- ${r.fit.exponent.stderr}`,
+    `# errors: ${r.weighting}; chi2red = ${r.fit.chi2red} (${r.fit.dof} degrees of freedom)`,
+    `N,T2${u},T2_err${u},dataset`,
+  ];
+  const rows = r.points.map((p) => `${p.pulses},${p.value},${p.stderr},"${p.dataset.replace(/"/g, '""')}"`);
+  return [...head, ...rows].join("\n") + "\n";
 }

@@ -62,5 +62,6 @@ test("the author fits T2 against the number of π pulses on the Analyses page", 
   await expect(section.getByTestId("scaling-exponent")).toContainText("±");
   await expect(section.getByTestId("scaling-t2-one")).toContainText("µs");
   await expect(section.getByTestId("scaling-plot")).toBeVisible();
+  await expect(section.getByRole("link", { name: "Download the points (CSV)" })).toHaveAttribute("download", "t2-versus-pulses.csv");
   await shoot(page, "decoupling-scaling");
 });
