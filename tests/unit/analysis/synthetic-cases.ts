@@ -55,6 +55,18 @@ export const SYNTHETIC_CASES: SyntheticCase[] = [
     x: linspace(2700, 3050, 700),
     noise: 0.004,
   },
+  {
+    modelId: "odmr_14n_two_groups",
+    truth: { B: 1, fMinus: 2752.4, fPlus: 2987.6, Apar: 2.14, w: 0.9, cMinus: 0.03, cPlus: 0.028 },
+    x: linspace(2700, 3050, 2000),
+    noise: 0.004,
+  },
+  {
+    modelId: "odmr_15n_two_groups",
+    truth: { B: 1, fMinus: 2752.4, fPlus: 2987.6, Apar: 3.03, w: 1.0, cMinus: 0.03, cPlus: 0.03 },
+    x: linspace(2700, 3050, 2000),
+    noise: 0.004,
+  },
   { modelId: "exponential", truth: { y0: 3, A: 5, k: 0.4 }, x: linspace(0, 15, 200), noise: 0.05 },
   { modelId: "gaussian", truth: { y0: 100, A: 800, x0: 637.4, sigma: 1.2 }, x: linspace(620, 660, 400), noise: 10 },
   { modelId: "lorentzian", truth: { y0: 1, A: -0.1, x0: 2870, gamma: 2 }, x: linspace(2850, 2890, 300), noise: 0.005 },
