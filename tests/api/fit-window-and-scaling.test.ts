@@ -12,6 +12,7 @@ import * as preview from "@/app/api/analyses/preview/route";
 import * as analysis from "@/app/api/analyses/[id]/route";
 import * as versionRuns from "@/app/api/versions/[id]/analyses/route";
 import * as scaling from "@/app/api/analyses/scaling/route";
+import * as raw from "@/app/api/versions/[id]/raw/route";
 import { call, setupTestApp, uploadForm, type Who } from "./harness";
 
 let tokens: Record<Who, string>;
@@ -58,6 +59,12 @@ describe("fit window", () => {
     expect(stored.json.options.xRange).toEqual([2, 400]);
     const listed = await call(versionRuns.GET, { token: tokens.viewer, params: { id: versionIds[0]! } });
     expect(listed.json.items.find((a: { id: string }) => a.id === r.json.id).options.xRange).toEqual([2, 400]);
+    // The derived file says so in its header, and holds only the fitted points.
+    const file = await call(raw.GET, { token: tokens.viewer, params: { id: r.json.derivedVersionId } });
+    expect(file.status).toBe(200);
+    const text = String(file.json);
+    expect(text).toContain("# fit window: only points with tau from 2 to 400 µs were fitted (the data rows below)\n");
+    expect(text.split("\n").filter((l) => l.startsWith("data,"))).toHaveLength(inside);
   });
 
   it("a fit without a window sends no faded points", async () => {

@@ -13,6 +13,8 @@ export interface DerivedFileInput {
   yUnit: string | null;
   /** The column whose values weighted the fit as per-point σ (y units); null for an unweighted fit. */
   sigmaColumn: string | null;
+  /** The fit window [from, to] in x units (options.xRange); absent when every point was fitted. */
+  xRange?: readonly [number, number];
   /** stderr is NaN for a parameter the data do not determine; `fixed` ones were held, not fitted. */
   parameters: Array<{ name: string; value: number; stderr: number; unit: string; fixed?: boolean }>;
   /** Quantities computed from the parameters, errors propagated through the scaled covariance. */
@@ -49,6 +51,9 @@ export function derivedCsv(d: DerivedFileInput): string {
     d.sigmaColumn
       ? `# weights: 1/σ² per point, σ from the column "${d.sigmaColumn}" (y units)`
       : "# weights: none (unweighted least squares: every point counts equally, σ = 1)",
+    ...(d.xRange
+      ? [`# fit window: only points with ${d.xName} from ${d.xRange[0]} to ${d.xRange[1]}${d.xUnit ? ` ${d.xUnit}` : ""} were fitted (the data rows below)`]
+      : []),
     "# errors: ± is one standard error from the covariance scaled by √χ²ᵣ (reduced chi-square below), as SciPy curve_fit with absolute_sigma=False; not a confidence interval",
     ...d.parameters.map((p) => `# parameter ${p.name}: ${valueWithError(p)}`),
     ...(d.derived ?? []).map((q) => `# derived ${q.name}: ${valueWithError(q)} [${q.formula}]`),

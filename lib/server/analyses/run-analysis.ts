@@ -146,6 +146,7 @@ export async function runAnalysis(user: SessionUser, raw: AnalysisInput, fitter:
     yName: input.options.y,
     yUnit: data.yUnit,
     sigmaColumn: input.options.sigma ?? null,
+    ...(input.options.xRange ? { xRange: input.options.xRange } : {}),
     parameters: run.parameters.map((p) => ({ name: p.name, value: p.value ?? NaN, stderr: p.stderr ?? NaN, unit: p.unit, fixed: p.fixed })),
     derived: run.derived.map((q) => ({ name: q.name, value: q.value ?? NaN, stderr: q.stderr ?? NaN, unit: q.unit, formula: q.formula })),
     chi2red: fit.chi2red,
