@@ -86,6 +86,7 @@ function guessGroup(profile: DipProfile, x: ArrayLike<number>, y: ArrayLike<numb
   return { centre: match.centre, spacing: match.spacing, width: Math.min(width, match.spacing), depth: score(match.centre, match.spacing) / pattern.length };
 }
 
+/** `oneGroup`: the model of a single group with the same hyperfine lines, suggested when the data show only one group of dips. */
 function hyperfineGroupsModel(
   id: string,
   title: string,
@@ -93,6 +94,7 @@ function hyperfineGroupsModel(
   splittingMHz: number,
   pattern: readonly number[],
   plausible: PhysicalRange,
+  oneGroup: string,
 ): FitModel {
   const valueAndJacobian = (f: number, p: ArrayLike<number>, out: Float64Array): number => {
     const b = p[B];
@@ -195,6 +197,12 @@ function hyperfineGroupsModel(
       { amplitude: "cPlus", shapes: ["fPlus"] },
     ],
     physicalRanges: [plausible],
+    suggest(x, y) {
+      const groups = dipGroups(x, y);
+      if (groups.length !== 1) return undefined;
+      const near = String(Number(groups[0].centre.toPrecision(5)));
+      return { modelId: oneGroup, reason: `the data show one group of dips (near ${near}) but this model describes two resonances, f₋ and f₊` };
+    },
   };
 
   /** |A∥| between the physical range's ends in the x unit read from the sweep; [0, span] when the unit cannot be told. */
@@ -212,6 +220,7 @@ export const odmr14nTwoGroupsModel: FitModel = hyperfineGroupsModel(
   NV_14N_SPLITTING_MHZ,
   [-1, 0, 1],
   N14_SPLITTING_RANGE,
+  "odmr_14n_triplet",
 );
 
 export const odmr15nTwoGroupsModel: FitModel = hyperfineGroupsModel(
@@ -221,4 +230,5 @@ export const odmr15nTwoGroupsModel: FitModel = hyperfineGroupsModel(
   NV_15N_SPLITTING_MHZ,
   [-0.5, 0.5],
   N15_SPLITTING_RANGE,
+  "odmr_15n_doublet",
 );

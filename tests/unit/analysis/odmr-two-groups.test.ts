@@ -51,6 +51,19 @@ describe("two groups of ¹⁴N triplets", () => {
   });
 });
 
+describe("one group only", () => {
+  it("the two-group model on a sweep of f₋ alone names the single-triplet model", () => {
+    const x = linspace(2740, 2765, 600);
+    const random = seededRandom(9);
+    const lines = [2752.4 - 2.14, 2752.4, 2752.4 + 2.14];
+    const y = x.map((f) => 1 - lines.reduce((s, c) => s + 0.03 / (1 + (2 * (f - c)) ** 2), 0) + 0.003 * random.normal());
+    const r = fitModel("odmr_14n_two_groups", { x, y, xUnit: "MHz" });
+    expect(r.quality.level).toBe("not supported");
+    expect(r.quality.suggestion).toMatchObject({ modelId: "odmr_14n_triplet", title: "ODMR, ¹⁴N hyperfine triplet" });
+    expect(r.quality.findings.find((f) => f.check === "shape")!.message).toMatch(/one group of dips \(near 275[0-4]\.\d\) but this model describes two resonances/);
+  });
+});
+
 describe("two groups of ¹⁵N doublets", () => {
   it("recovers |A∥| = 3.03 MHz (Felton et al. 2009; from memory) on a seeded sweep", () => {
     const x = linspace(2700, 3050, 1600);
