@@ -6,6 +6,7 @@
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
+import { benchExport } from "./export";
 import { benchFit } from "./fit";
 import { benchIngest } from "./ingest";
 import { benchMail } from "./mail";
@@ -17,6 +18,10 @@ const BENCHMARKS: Record<string, { what: string; run: () => Promise<Record<strin
   ingest: { what: "1M × 3 CSV: parsers, upload through the HTTP API, server memory, row paging", run: benchIngest },
   render: { what: "server SVG vs bare Vega, 1M-point display series, two-panel figure PDF", run: benchRender },
   review: { what: "board read and comment post, 32 concurrent clients, against a fixed-JSON route", run: benchReview },
+  export: {
+    what: "xlsx source data, bundle and bundle check of the demo figure and of figures bound to 10k, 100k and 1M rows: time and peak memory",
+    run: benchExport,
+  },
   mail: { what: "digests for 1,000 people on 20 manuscripts after a month of activity: build, draw, send", run: benchMail },
 };
 

@@ -15,6 +15,8 @@ import { gridPlacement } from "../render/worker/compose-core.mjs";
 
 /** Past this the vector file becomes unwieldy for journals; long series are then reduced and the export says so. */
 const VECTOR_CAP_BYTES = 20 * 1024 * 1024;
+/** The fewest bytes one drawn mark takes in the SVG (a short path with its coordinates). */
+const MIN_BYTES_PER_MARK = 40;
 
 export interface FigureRender {
   svg: string;
@@ -56,10 +58,15 @@ export function figurePanelJobs(
  * pass its cap, long series are reduced for display and drawn again (`reduced`).
  */
 export async function drawFigure(jobs: PanelJob[], layout: FigureLayout, widthMm: number): Promise<{ figure: RenderedFigure; reduced: boolean }> {
+  const reduced = () => jobs.map((j) => ({ ...j, data: Object.fromEntries(Object.entries(j.data).map(([k, rows]) => [k, reduceRowsForDisplay(rows).rows])) }));
+  // A series this long cannot fit under the cap (every mark costs tens of bytes): reduced up front
+  // rather than drawn in full, which can outlast the render budget, and then dropped.
+  if (jobs.some((j) => Object.values(j.data).some((rows) => rows.length > VECTOR_CAP_BYTES / MIN_BYTES_PER_MARK))) {
+    return { figure: await renderFigureInWorker(reduced(), layout, widthMm), reduced: true };
+  }
   const figure = await renderFigureInWorker(jobs, layout, widthMm);
   if (figure.svg.length <= VECTOR_CAP_BYTES) return { figure, reduced: false };
-  const reduced = jobs.map((j) => ({ ...j, data: Object.fromEntries(Object.entries(j.data).map(([k, rows]) => [k, reduceRowsForDisplay(rows).rows])) }));
-  return { figure: await renderFigureInWorker(reduced, layout, widthMm), reduced: true };
+  return { figure: await renderFigureInWorker(reduced(), layout, widthMm), reduced: true };
 }
 
 /** The whole figure as one composed SVG at print size in the manuscript's house style, rendered in the budgeted worker with the full data. */
