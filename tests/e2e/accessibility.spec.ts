@@ -55,6 +55,7 @@ const PI_PAGES: { label: string; path: string; follow?: string }[] = [
   { label: "analyses", path: `/manuscripts/${DEMO_MANUSCRIPT}/analyses` },
   { label: "members", path: `/manuscripts/${DEMO_MANUSCRIPT}/members` },
   { label: "house style", path: `/manuscripts/${DEMO_MANUSCRIPT}/house-style` },
+  { label: "bundles", path: `/manuscripts/${DEMO_MANUSCRIPT}/bundles` },
   { label: "waiting on me", path: "/review" },
   { label: "calculators", path: "/calculators" },
   { label: "API tokens", path: "/settings/tokens" },

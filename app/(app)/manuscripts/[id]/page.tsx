@@ -30,6 +30,9 @@ export default async function ManuscriptPage({ params }: { params: Promise<{ id:
             <Link href={`/manuscripts/${m.id}/house-style`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
               House style
             </Link>
+            <Link href={`/manuscripts/${m.id}/bundles`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+              Bundles
+            </Link>
             <Link href={`/manuscripts/${m.id}/members`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
               Members ({m.members.length})
             </Link>
