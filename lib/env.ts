@@ -27,6 +27,8 @@ const schema = z.object({
   TRUSTED_PROXIES: z.string().default(""),
   /** A stalled upload is aborted after this many milliseconds without a byte. */
   UPLOAD_IDLE_TIMEOUT_MS: z.coerce.number().int().positive().default(60_000),
+  /** Stored files no version references are removed once they are older than this (ms); it must outlast any upload. */
+  ORPHAN_GRACE_MS: z.coerce.number().int().min(60_000, "ORPHAN_GRACE_MS must be at least 60000 (one minute)").default(3_600_000),
   /** The ingest child's heap cap, MB: an upload that needs more to parse is refused with 413. */
   INGEST_HEAP_MB: z.coerce.number().int().min(16).default(1024),
   /** The ingest child's wall-clock budget for one file, ms: a longer parse is refused with 422. */
@@ -107,6 +109,7 @@ function load() {
       .map((a) => a.trim())
       .filter(Boolean),
     uploadIdleTimeoutMs: e.UPLOAD_IDLE_TIMEOUT_MS,
+    orphanGraceMs: e.ORPHAN_GRACE_MS,
     ingestHeapMb: e.INGEST_HEAP_MB,
     ingestTimeoutMs: e.INGEST_TIMEOUT_MS,
     fitWorkers: e.FIT_WORKERS ?? Math.max(1, os.availableParallelism()),
