@@ -1,0 +1,76 @@
+// kill -9 during an upload: the process storing a 1,000,000-row file is killed as soon as its
+// temporary part file appears. Afterwards no version of it exists, the audit chain is whole, and
+// the start-up sweeps (part files, then stored files nothing references) leave nothing behind.
+// The file's SHA-256 is computed here with node:crypto.
+import { spawn } from "node:child_process";
+import { createHash } from "node:crypto";
+import { once } from "node:events";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { eq } from "drizzle-orm";
+import { beforeAll, describe, expect, it } from "vitest";
+import { getDb } from "@/db/client";
+import { datasets, versions } from "@/db/schema";
+import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
+import { env } from "@/lib/env";
+import { verifyAuditChain } from "@/lib/server/audit";
+import { sweepUploadTemp } from "@/lib/server/storage";
+import { sweepOrphanBlobs } from "@/lib/server/storage/orphan-sweep";
+import { blobStore } from "@/lib/server/storage/store";
+import { setupTestApp } from "./harness";
+
+let file: string;
+let sha: string;
+
+beforeAll(async () => {
+  await setupTestApp();
+  const rows = ["t (µs),signal,sigma"];
+  for (let i = 0; i < 1_000_000; i++) rows.push(`${i * 0.001},${(0.5 + 0.3 * Math.exp(-i / 300_000)).toFixed(6)},0.01`);
+  const text = `${rows.join("\n")}\n`;
+  file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), "prooflight-crash-")), "sweep.csv");
+  fs.writeFileSync(file, text);
+  sha = createHash("sha256").update(text).digest("hex");
+}, 60_000);
+
+describe("kill -9 during an upload", () => {
+  it("leaves no version, a whole audit chain, and nothing after the sweeps", async () => {
+    const versionsBefore = (await getDb().select().from(versions)).length;
+    const tmp = path.join(env().uploadsDir, "tmp");
+    fs.mkdirSync(tmp, { recursive: true });
+    const partAppeared = new Promise<void>((resolve) => {
+      const watcher = fs.watch(tmp, (_event, name) => {
+        if (!name?.endsWith(".part")) return;
+        watcher.close();
+        resolve();
+      });
+    });
+    // Its own process group, so the kill takes tsx and the ingest child with it.
+    const child = spawn(path.join("node_modules", ".bin", "tsx"), ["--conditions=react-server", "tests/support/upload-child.ts", file, DEMO_MANUSCRIPT_ID], {
+      cwd: process.cwd(),
+      env: process.env,
+      detached: true,
+      stdio: ["ignore", "pipe", "pipe"],
+    });
+    let stdout = "";
+    child.stdout!.on("data", (d: Buffer) => (stdout += d.toString("utf8")));
+    const exited = once(child, "exit");
+    await partAppeared;
+    process.kill(-child.pid!, "SIGKILL");
+    const [code, signal] = (await exited) as [number | null, NodeJS.Signals | null];
+    expect(signal ?? code).toBe("SIGKILL");
+    expect(stdout).not.toContain("stored");
+
+    expect((await getDb().select().from(versions)).length).toBe(versionsBefore);
+    expect(await getDb().select().from(datasets).where(eq(datasets.name, "Killed upload"))).toEqual([]);
+    expect((await verifyAuditChain(getDb())).ok).toBe(true);
+
+    // The killed process left its part file behind; the start-up sweep takes it.
+    expect(fs.readdirSync(tmp).filter((n) => n.endsWith(".part")).length).toBeGreaterThan(0);
+    await sweepUploadTemp(0);
+    expect(fs.readdirSync(tmp).filter((n) => n.endsWith(".part"))).toEqual([]);
+    const orphans = await sweepOrphanBlobs({ graceMs: 0 });
+    expect(orphans.removed.every((r) => r.sha256 === sha)).toBe(true);
+    expect(await blobStore().exists(sha)).toBe(false);
+  }, 120_000);
+});
