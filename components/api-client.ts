@@ -57,7 +57,12 @@ export function sendJson<T>(url: string, method: "POST" | "PUT" | "PATCH" | "DEL
  * (before the stream starts) throws an ApiError with the server's message.
  */
 export async function postForEvents<E>(url: string, body: unknown, onEvent: (event: E) => void, signal?: AbortSignal): Promise<void> {
-  const res = await fetch(url, { method: "POST", headers: { accept: "application/x-ndjson", "content-type": "application/json" }, body: JSON.stringify(body), signal });
+  const res = await fetch(url, {
+    method: "POST",
+    headers: { accept: "application/x-ndjson", "content-type": "application/json" },
+    body: JSON.stringify(body),
+    signal,
+  });
   if (!res.ok || !res.body) {
     const text = await res.text();
     throw new ApiError(res.status, messageFromBody(res.status, text), errorBody(text)?.details);

@@ -81,7 +81,10 @@ export function BatchRunner({ manuscriptId, datasets, models, model, onModel, ki
       );
     } catch (err) {
       if (!stopper.signal.aborted) setNote((err as Error).message);
-      else setNote(`Stopped: ${queue.length - done} fit${queue.length - done === 1 ? " was" : "s were"} not finished here (fits already under way are still stored).`);
+      else
+        setNote(
+          `Stopped: ${queue.length - done} fit${queue.length - done === 1 ? " was" : "s were"} not finished here (fits already under way are still stored).`,
+        );
     }
     setRunning(false);
     onFinished();

@@ -74,7 +74,9 @@ const FIXTURES: Record<string, Fixture> = {
   "GET /api/analysis-models": async () => ({}),
   "POST /api/analyses": async () => ({ body: fitBody() }),
   "POST /api/analyses/preview": async () => ({ body: fitBody() }),
-  "POST /api/analyses/batch": async () => ({ body: { manuscriptId: DEMO_MANUSCRIPT_ID, versionIds: [sample.fitVersionId], model: "relaxation", options: { x: "wait", y: "p" } } }),
+  "POST /api/analyses/batch": async () => ({
+    body: { manuscriptId: DEMO_MANUSCRIPT_ID, versionIds: [sample.fitVersionId], model: "relaxation", options: { x: "wait", y: "p" } },
+  }),
   "POST /api/analyses/scaling": async () => ({ body: { manuscriptId: DEMO_MANUSCRIPT_ID, parameter: "T1", runs: await threeRuns() } }),
   "GET /api/analyses/{id}": async () => ({ params: { id: sample.analysisId } }),
   "GET /api/manuscripts/{id}/statistics": async () => ({ params: { id: DEMO_MANUSCRIPT_ID }, query: "model=relaxation&parameter=T1&groupBy=group" }),

@@ -87,7 +87,7 @@ interface PanelBindings {
  * The bundle is checked in full first (verifyBundle: hashes, parses, rows, fits, render); a bundle
  * that does not verify, or that is unsafe to unpack, is refused before anything is written.
  */
-export async function importBundle(user: SessionUser, manuscriptId: string, zipBytes: Uint8Array): Promise<ImportReport> {
+async function importBundle(user: SessionUser, manuscriptId: string, zipBytes: Uint8Array): Promise<ImportReport> {
   await authorize(user, "bundle.import", manuscriptId);
   const check = await verifyBundle(zipBytes);
   if (!check.ok) {

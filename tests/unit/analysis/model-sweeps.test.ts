@@ -45,7 +45,12 @@ describe("whole-dataset sweeps agree with the point-by-point model", () => {
     const x = Array.from({ length: 60 }, (_, i) => 5 * i);
     // Hand-made wobble instead of noise, so the data are not the model's own curve.
     const y = x.map((t, i) => 0.5 + 0.3 * Math.exp(-((t / 80) ** 2)) + 0.004 * Math.sin(1.7 * i));
-    const options = { start: [0.5, 0.3, 70, 2], fixed: [false, false, false, true], lower: [-Infinity, -Infinity, 1e-3, 0.5], upper: [Infinity, Infinity, 1e5, 4] };
+    const options = {
+      start: [0.5, 0.3, 70, 2],
+      fixed: [false, false, false, true],
+      lower: [-Infinity, -Infinity, 1e-3, 0.5],
+      upper: [Infinity, Infinity, 1e5, 4],
+    };
     const fast = fitCurve(model, { x, y }, options);
     const slow = fitCurve(pointwise, { x, y }, options);
     expect(fast.params[3]).toBe(2);

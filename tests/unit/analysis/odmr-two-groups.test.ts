@@ -60,7 +60,9 @@ describe("one group only", () => {
     const r = fitModel("odmr_14n_two_groups", { x, y, xUnit: "MHz" });
     expect(r.quality.level).toBe("not supported");
     expect(r.quality.suggestion).toMatchObject({ modelId: "odmr_14n_triplet", title: "ODMR, ¹⁴N hyperfine triplet" });
-    expect(r.quality.findings.find((f) => f.check === "shape")!.message).toMatch(/one group of dips \(near 275[0-4]\.\d\) but this model describes two resonances/);
+    expect(r.quality.findings.find((f) => f.check === "shape")!.message).toMatch(
+      /one group of dips \(near 275[0-4]\.\d\) but this model describes two resonances/,
+    );
   });
 });
 
