@@ -1,4 +1,4 @@
-// kill -9 during an upload: the process storing a 1,000,000-row file is killed as soon as its
+// kill -9 during an upload, and a fit run recorded with its derived version: the process storing a 1,000,000-row file is killed as soon as its
 // temporary part file appears. Afterwards no version of it exists, the audit chain is whole, and
 // the start-up sweeps (part files, then stored files nothing references) leave nothing behind.
 // The file's SHA-256 is computed here with node:crypto.
@@ -73,4 +73,24 @@ describe("kill -9 during an upload", () => {
     expect(orphans.removed.every((r) => r.sha256 === sha)).toBe(true);
     expect(await blobStore().exists(sha)).toBe(false);
   }, 120_000);
+
+  it("a fit run's derived version commits with the run or not at all", async () => {
+    const { importDatasetFromBytes } = await import("@/lib/server/datasets/upload-dataset");
+    const author = { id: "demo-author", email: "author@lab.example.org", name: "Tomás Ekberg" };
+    const before = (await getDb().select().from(versions)).length;
+    const refused = importDatasetFromBytes(
+      author,
+      DEMO_MANUSCRIPT_ID,
+      "fit-derived.csv",
+      new TextEncoder().encode("t,y\n1,2\n2,3\n"),
+      { name: "Derived, run fails" },
+      async () => {
+        throw new Error("the run's record could not be written");
+      },
+    );
+    await expect(refused).rejects.toThrow("the run's record could not be written");
+    expect((await getDb().select().from(versions)).length).toBe(before);
+    expect(await getDb().select().from(datasets).where(eq(datasets.name, "Derived, run fails"))).toEqual([]);
+    expect((await verifyAuditChain(getDb())).ok).toBe(true);
+  });
 });

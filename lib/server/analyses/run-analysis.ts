@@ -157,6 +157,8 @@ export async function runAnalysis(user: SessionUser, raw: AnalysisInput, fitter:
     residuals: fit.residuals,
   });
   const existing = await derivedDatasetId(manuscriptId, data.dataset, input.model);
+  const { data: _points, curve: _curve, ...stored } = run;
+  // The run is recorded in the transaction that records its derived version: a crash leaves both or neither.
   const derived = await importDatasetFromBytes(
     user,
     manuscriptId,
@@ -174,33 +176,32 @@ export async function runAnalysis(user: SessionUser, raw: AnalysisInput, fitter:
             }),
           }),
     },
+    async (tx, version) => {
+      await tx.insert(analyses).values({
+        id,
+        manuscriptId,
+        versionId: input.versionId,
+        inputSha256: data.version.sha256,
+        model: input.model,
+        modelVersion: fit.modelVersion,
+        options: input.options,
+        result: { ...stored, residuals: run.data.residuals },
+        derivedVersionId: version.id,
+        createdBy: user.id,
+      });
+      await tx
+        .update(versions)
+        .set({ derivedFromAnalysisId: id })
+        .where(and(eq(versions.id, version.id), isNull(versions.derivedFromAnalysisId)));
+      await appendAudit(tx, {
+        actorId: user.id,
+        manuscriptId,
+        action: "analysis.run",
+        target: `analysis:${id}`,
+        data: { versionId: input.versionId, model: input.model, modelVersion: fit.modelVersion, derivedVersionId: version.id },
+      });
+    },
   );
-  const { data: _points, curve: _curve, ...stored } = run;
-  await getDb().transaction(async (tx) => {
-    await tx.insert(analyses).values({
-      id,
-      manuscriptId,
-      versionId: input.versionId,
-      inputSha256: data.version.sha256,
-      model: input.model,
-      modelVersion: fit.modelVersion,
-      options: input.options,
-      result: { ...stored, residuals: run.data.residuals },
-      derivedVersionId: derived.id,
-      createdBy: user.id,
-    });
-    await tx
-      .update(versions)
-      .set({ derivedFromAnalysisId: id })
-      .where(and(eq(versions.id, derived.id), isNull(versions.derivedFromAnalysisId)));
-    await appendAudit(tx, {
-      actorId: user.id,
-      manuscriptId,
-      action: "analysis.run",
-      target: `analysis:${id}`,
-      data: { versionId: input.versionId, model: input.model, modelVersion: fit.modelVersion, derivedVersionId: derived.id },
-    });
-  });
   return { id, ...run, derivedVersionId: derived.id };
 }
 

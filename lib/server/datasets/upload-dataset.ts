@@ -81,12 +81,22 @@ export async function uploadDataset(user: SessionUser, manuscriptId: string, req
 }
 
 /** Stores bytes that are already in memory (seed, scripts) through the same path as an upload. */
-export async function importDatasetFromBytes(user: SessionUser, manuscriptId: string, fileName: string, bytes: Uint8Array, fields: Record<string, string>) {
+/** More writes that must commit with the version, or not at all (a fit run and its derived version). */
+type AlsoInTransaction = (tx: Parameters<Parameters<ReturnType<typeof getDb>["transaction"]>[0]>[0], version: { id: string }) => Promise<void>;
+
+export async function importDatasetFromBytes(
+  user: SessionUser,
+  manuscriptId: string,
+  fileName: string,
+  bytes: Uint8Array,
+  fields: Record<string, string>,
+  alsoInTransaction?: AlsoInTransaction,
+) {
   const stored = await writeStreamToTemp([bytes], env().uploadMaxBytes);
-  return ingestFile(user, manuscriptId, { ...stored, fileName }, fields);
+  return ingestFile(user, manuscriptId, { ...stored, fileName }, fields, alsoInTransaction);
 }
 
-async function ingestFile(user: SessionUser, manuscriptId: string, file: UploadedFile, fields: Record<string, string>) {
+async function ingestFile(user: SessionUser, manuscriptId: string, file: UploadedFile, fields: Record<string, string>, alsoInTransaction?: AlsoInTransaction) {
   const cacheTmp = tempPath();
   try {
     // Before the blob is committed or the cache written: fields may also come after the file part.
@@ -101,7 +111,7 @@ async function ingestFile(user: SessionUser, manuscriptId: string, file: Uploade
     await blobStore().putFile(file.tmp, file.sha256);
     // Not read into memory here: a large upload would otherwise stay resident until evicted; the first read loads it.
     await blobStore().putCache(columnsCacheName(file.sha256), cacheTmp);
-    return await recordVersion(user, manuscriptId, file, table, f.datasetId, f.name, metadata);
+    return await recordVersion(user, manuscriptId, file, table, f.datasetId, f.name, metadata, alsoInTransaction);
   } finally {
     await removeTemp(file.tmp);
     await removeTemp(cacheTmp);
@@ -116,6 +126,7 @@ async function recordVersion(
   datasetId: string | undefined,
   name: string | undefined,
   metadata: MetadataInput,
+  alsoInTransaction?: AlsoInTransaction,
 ) {
   return getDb().transaction(async (tx) => {
     let dsId = datasetId;
@@ -126,7 +137,10 @@ async function recordVersion(
         .where(and(eq(datasets.id, dsId), eq(datasets.manuscriptId, manuscriptId)));
       if (!ds) throw notFound("datasetId: no such dataset in this manuscript.");
       const [latest] = await tx.select().from(versions).where(eq(versions.datasetId, dsId)).orderBy(desc(versions.number)).limit(1);
-      if (latest?.sha256 === file.sha256) return { ...toVersionDto(latest), deduplicated: true };
+      if (latest?.sha256 === file.sha256) {
+        await alsoInTransaction?.(tx, latest);
+        return { ...toVersionDto(latest), deduplicated: true };
+      }
     } else {
       dsId = newId();
       await tx.insert(datasets).values({
@@ -169,6 +183,7 @@ async function recordVersion(
       target: `version:${row.id}`,
       data: { datasetId: dsId, number: row.number, sha256: file.sha256, fileName: file.fileName, byteSize: file.byteSize },
     });
+    await alsoInTransaction?.(tx, row);
     return { ...toVersionDto(row), deduplicated: false };
   });
 }

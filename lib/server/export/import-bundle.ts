@@ -160,40 +160,47 @@ async function importBundle(user: SessionUser, manuscriptId: string, zipBytes: U
   for (const fit of [...fits.values()].sort((a, b) => a.id.localeCompare(b.id))) {
     const { path, rec } = fileOf.get(fit.derived.versionId)!;
     const source = rawVersions.get(fit.input.versionId)!;
-    const derived = await importDatasetFromBytes(user, manuscriptId, rec.fileName, files[path], {
-      name: `${source.dataset} — fit: ${getModel(fit.model)!.title}`,
-      metadata: JSON.stringify({
-        kind: source.datasetKind ?? "other",
-        sample: source.sample ?? null,
-        notes: `${mark}.`,
-        tags: { derivedFrom: datasetIds.get(source.datasetId)!, model: fit.model },
-      }),
-      ...parseFields(rec),
-    });
     const id = newId();
     analysisIds.set(fit.id, id);
-    await getDb().transaction(async (tx) => {
-      await tx.insert(analyses).values({
-        id,
-        manuscriptId,
-        versionId: versionIds.get(fit.input.versionId)!,
-        inputSha256: fit.inputSha256,
-        model: fit.model,
-        modelVersion: fit.modelVersion,
-        options: fit.options as never,
-        result: fit.result,
-        derivedVersionId: derived.id,
-        createdBy: user.id,
-      });
-      await tx.update(versions).set({ derivedFromAnalysisId: id }).where(eq(versions.id, derived.id));
-      await appendAudit(tx, {
-        actorId: user.id,
-        manuscriptId,
-        action: "analysis.import",
-        target: `analysis:${id}`,
-        data: { bundleSha256: sha, bundleAnalysisId: fit.id, model: fit.model },
-      });
-    });
+    // The run is recorded with its derived version, in one transaction.
+    await importDatasetFromBytes(
+      user,
+      manuscriptId,
+      rec.fileName,
+      files[path],
+      {
+        name: `${source.dataset} — fit: ${getModel(fit.model)!.title}`,
+        metadata: JSON.stringify({
+          kind: source.datasetKind ?? "other",
+          sample: source.sample ?? null,
+          notes: `${mark}.`,
+          tags: { derivedFrom: datasetIds.get(source.datasetId)!, model: fit.model },
+        }),
+        ...parseFields(rec),
+      },
+      async (tx, derived) => {
+        await tx.insert(analyses).values({
+          id,
+          manuscriptId,
+          versionId: versionIds.get(fit.input.versionId)!,
+          inputSha256: fit.inputSha256,
+          model: fit.model,
+          modelVersion: fit.modelVersion,
+          options: fit.options as never,
+          result: fit.result,
+          derivedVersionId: derived.id,
+          createdBy: user.id,
+        });
+        await tx.update(versions).set({ derivedFromAnalysisId: id }).where(eq(versions.id, derived.id));
+        await appendAudit(tx, {
+          actorId: user.id,
+          manuscriptId,
+          action: "analysis.import",
+          target: `analysis:${id}`,
+          data: { bundleSha256: sha, bundleAnalysisId: fit.id, model: fit.model },
+        });
+      },
+    );
   }
 
   // The figure, its panels and one revision each.
