@@ -8,10 +8,10 @@ import { once } from "node:events";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { eq } from "drizzle-orm";
+import { eq, inArray } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { datasets, versions } from "@/db/schema";
+import { analyses, datasets, versions } from "@/db/schema";
 import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import { env } from "@/lib/env";
 import { verifyAuditChain } from "@/lib/server/audit";
@@ -93,4 +93,46 @@ describe("kill -9 during an upload", () => {
     expect(await getDb().select().from(datasets).where(eq(datasets.name, "Derived, run fails"))).toEqual([]);
     expect((await verifyAuditChain(getDb())).ok).toBe(true);
   });
+
+  it("kill -9 after the first fit of a batch: every stored run is whole, no derived version without its run", async () => {
+    const { importDatasetFromBytes } = await import("@/lib/server/datasets/upload-dataset");
+    const author = { id: "demo-author", email: "author@lab.example.org", name: "Tomás Ekberg" };
+    const ids: string[] = [];
+    for (const t1 of [2, 4, 8, 16, 32, 64, 128, 256]) {
+      const csv = `wait (ms),p\n${Array.from({ length: 30 }, (_, i) => `${0.05 * 1.25 ** i},${(0.7 + 0.3 * Math.exp(-(0.05 * 1.25 ** i) / t1) + 0.002 * Math.sin(7 * i)).toFixed(5)}`).join("\n")}\n`;
+      ids.push((await importDatasetFromBytes(author, DEMO_MANUSCRIPT_ID, `t1-${t1}.csv`, new TextEncoder().encode(csv), { name: `Batch crash T1 ${t1}` })).id);
+    }
+    const child = spawn(path.join("node_modules", ".bin", "tsx"), ["--conditions=react-server", "tests/support/batch-child.ts", DEMO_MANUSCRIPT_ID, ...ids], {
+      cwd: process.cwd(),
+      env: { ...process.env, FIT_WORKERS: "1" },
+      detached: true,
+      stdio: ["ignore", "pipe", "pipe"],
+    });
+    const exited = once(child, "exit");
+    let seen = "";
+    await new Promise<void>((resolve) => {
+      child.stdout!.on("data", (d: Buffer) => {
+        seen += d.toString("utf8");
+        if (seen.includes('"result"')) resolve();
+      });
+    });
+    process.kill(-child.pid!, "SIGKILL");
+    await exited;
+    expect(seen).not.toContain('"end"');
+
+    const runs = await getDb().select().from(analyses).where(inArray(analyses.versionId, ids));
+    expect(runs.length).toBeGreaterThanOrEqual(1);
+    expect(runs.length).toBeLessThan(ids.length);
+    for (const run of runs) {
+      const [derived] = await getDb().select().from(versions).where(eq(versions.id, run.derivedVersionId!));
+      expect(derived?.derivedFromAnalysisId).toBe(run.id);
+    }
+    // Derived versions of these inputs: each one belongs to a stored run.
+    const derivedSets = await getDb().select().from(datasets).where(eq(datasets.manuscriptId, DEMO_MANUSCRIPT_ID));
+    const fromThese = derivedSets.filter((d) => d.name.startsWith("Batch crash T1") && d.tags.derivedFrom);
+    for (const d of fromThese) {
+      for (const v of await getDb().select().from(versions).where(eq(versions.datasetId, d.id))) expect(v.derivedFromAnalysisId).not.toBeNull();
+    }
+    expect((await verifyAuditChain(getDb())).ok).toBe(true);
+  }, 120_000);
 });
