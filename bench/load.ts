@@ -15,6 +15,10 @@ import { percentile, round } from "./report";
 export interface LoadRequest {
   url: string;
   init?: RequestInit;
+  /** A mixed workload names each request's kind; latencies and errors are then also kept per kind. */
+  kind?: string;
+  /** This request's expected status, when it differs from the target's. */
+  expectStatus?: number;
 }
 
 export interface LoadOptions {
@@ -42,6 +46,8 @@ export interface LoadResult {
   bytesPerResponse: number;
   /** The untimed warm-up: how many requests, with which statuses. */
   warmup: { requests: number; errors: number; statuses: Record<string, number> };
+  /** Per kind of a mixed workload: requests, errors and latency percentiles. */
+  byKind: Record<string, { requests: number; errors: number; p50: number; p95: number; p99: number }>;
 }
 
 const LOOPBACK = new Set(["localhost", "127.0.0.1", "[::1]"]);
@@ -63,6 +69,7 @@ async function makeAgent(probeUrl: string, connections: number): Promise<Dispatc
 }
 
 interface Raw {
+  kinds: Record<string, { latencies: number[]; errors: number }>;
   latencies: number[];
   statuses: Record<string, number>;
   errors: number;
@@ -74,6 +81,7 @@ interface Raw {
 /** One closed-loop slice of `durationMs`; `seq` numbers requests across the slices of one target. */
 async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationMs: number, kind: "warmup" | "timed", counter: { seq: number }): Promise<Raw> {
   const latencies: number[] = [];
+  const kinds: Raw["kinds"] = {};
   const statuses: Record<string, number> = {};
   const errorSamples: string[] = [];
   let errors = 0;
@@ -85,7 +93,8 @@ async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationM
   const client = async (c: number) => {
     while (performance.now() < end && issued < max) {
       issued++;
-      const { url, init } = opts.request(counter.seq++, c, kind);
+      const { url, init, kind: requestKind, expectStatus } = opts.request(counter.seq++, c, kind);
+      const expected = expectStatus ?? opts.expectStatus;
       const started = performance.now();
       let status = "error";
       let detail = "";
@@ -94,11 +103,17 @@ async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationM
         const body = await res.arrayBuffer();
         bytes += body.byteLength;
         status = String(res.status);
-        if (res.status !== opts.expectStatus) detail = `HTTP ${res.status}: ${Buffer.from(body).toString("utf8").slice(0, 200)}`;
+        if (res.status !== expected) detail = `${requestKind ? `${requestKind}: ` : ""}HTTP ${res.status}: ${Buffer.from(body).toString("utf8").slice(0, 200)}`;
       } catch (err) {
         detail = `${(err as Error).name}: ${(err as Error).message}`;
       }
-      latencies.push(performance.now() - started);
+      const ms = performance.now() - started;
+      latencies.push(ms);
+      if (requestKind) {
+        kinds[requestKind] ??= { latencies: [], errors: 0 };
+        kinds[requestKind].latencies.push(ms);
+        if (detail) kinds[requestKind].errors++;
+      }
       statuses[status] = (statuses[status] ?? 0) + 1;
       if (detail) {
         errors++;
@@ -107,13 +122,21 @@ async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationM
     }
   };
   await Promise.all(Array.from({ length: opts.connections }, (_, c) => client(c)));
-  return { latencies, statuses, errors, errorSamples, bytes, elapsedMs: performance.now() - t0 };
+  return { kinds, latencies, statuses, errors, errorSamples, bytes, elapsedMs: performance.now() - t0 };
 }
 
 function merge(raws: Raw[]): Raw {
   const statuses: Record<string, number> = {};
   for (const r of raws) for (const [k, v] of Object.entries(r.statuses)) statuses[k] = (statuses[k] ?? 0) + v;
+  const kinds: Raw["kinds"] = {};
+  for (const r of raws)
+    for (const [k, v] of Object.entries(r.kinds)) {
+      kinds[k] ??= { latencies: [], errors: 0 };
+      kinds[k].latencies.push(...v.latencies);
+      kinds[k].errors += v.errors;
+    }
   return {
+    kinds,
     latencies: raws.flatMap((r) => r.latencies),
     statuses,
     errors: raws.reduce((a, r) => a + r.errors, 0),
@@ -151,6 +174,18 @@ function summarize(r: Raw, w: Raw | null): LoadResult {
       : { p50: NaN, p95: NaN, p99: NaN, mean: NaN, max: NaN, min: NaN },
     bytesPerResponse: n ? Math.round(r.bytes / n) : 0,
     warmup: { requests: w?.latencies.length ?? 0, errors: w?.errors ?? 0, statuses: w?.statuses ?? {} },
+    byKind: Object.fromEntries(
+      Object.entries(r.kinds).map(([k, v]) => [
+        k,
+        {
+          requests: v.latencies.length,
+          errors: v.errors,
+          p50: round(percentile(v.latencies, 50), 2),
+          p95: round(percentile(v.latencies, 95), 2),
+          p99: round(percentile(v.latencies, 99), 2),
+        },
+      ]),
+    ),
   };
 }
 

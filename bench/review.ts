@@ -49,7 +49,7 @@ const VIEWER = "viewer@lab.example.org";
 
 const doc = (text: string) => ({ type: "doc", content: [{ type: "paragraph", content: [{ type: "text", text }] }] });
 
-function apiClient(base: string, tokens: Record<string, string>) {
+export function apiClient(base: string, tokens: Record<string, string>) {
   return async function api<T = any>(who: string, method: string, path: string, body?: unknown): Promise<T> {
     const res = await fetch(`${base}${path}`, {
       method,
@@ -63,7 +63,7 @@ function apiClient(base: string, tokens: Record<string, string>) {
 }
 
 /** The figure, panels, revisions, threads and decisions the board and the comments work on. */
-async function setUp(api: ReturnType<typeof apiClient>) {
+export async function setUp(api: ReturnType<typeof apiClient>) {
   const { items } = await api<{ items: Array<{ kind: string; tags: Record<string, string>; latestVersion: { id: string } | null }> }>(
     AUTHOR,
     "GET",

@@ -9,6 +9,7 @@ import path from "node:path";
 import { benchExport } from "./export";
 import { benchFit } from "./fit";
 import { benchIngest } from "./ingest";
+import { benchLoadMix } from "./load-mix";
 import { benchMail } from "./mail";
 import { benchRender } from "./render";
 import { benchReview } from "./review";
@@ -22,6 +23,7 @@ const BENCHMARKS: Record<string, { what: string; run: () => Promise<Record<strin
     what: "xlsx source data, bundle and bundle check of the demo figure and of figures bound to 10k, 100k and 1M rows: time and peak memory",
     run: benchExport,
   },
+  load: { what: "mixed workload (board, rows, queue, comments, decisions) at 32 and 128 clients beside a bare route, then a memory soak", run: benchLoadMix },
   mail: { what: "digests for 1,000 people on 20 manuscripts after a month of activity: build, draw, send", run: benchMail },
 };
 
