@@ -83,6 +83,8 @@ export async function setUp(api: ReturnType<typeof apiClient>) {
       baseRevisionId: null,
       message: "bench",
     });
+    // A new panel is a draft until its author sends it to review; only then may it be decided on.
+    await api(AUTHOR, "POST", `/api/panels/${panel.id}/send-to-review`, {});
     panels.push({ id: panel.id, revisionId: rev.id });
     for (let t = 0; t < THREADS_PER_PANEL; t++) {
       const thread = await api(REVIEWER, "POST", `/api/panels/${panel.id}/threads`, {
