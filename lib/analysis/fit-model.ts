@@ -4,6 +4,7 @@
  * Levenberg–Marquardt fitter and names every parameter in the result. Values and standard
  * errors are in the units given by each parameter's UnitRole (x and y column units).
  */
+import type { BootstrapSummary } from "./bootstrap";
 import { fitCurve, type CurveFitResult } from "./fit/fit-curve";
 import type { SolverOptions } from "./fit/levenberg-marquardt";
 import { FitInputError } from "./fit-input-error";
@@ -67,6 +68,8 @@ export interface ModelFitResult extends Omit<CurveFitResult, "params"> {
   warnings: string[];
   /** Whether the fit describes the data, beyond the solver having converged (lib/analysis/fit-quality). */
   quality: FitQuality;
+  /** Bootstrap percentile intervals, when asked for (lib/analysis/bootstrap; fitModel never fills it). */
+  bootstrap?: BootstrapSummary;
 }
 
 const CORRELATION_WARNING = 0.95;

@@ -167,6 +167,15 @@ export const API_OPERATIONS: ApiOperation[] = [
   { method: "POST", path: "/api/analyses/preview", permission: "analysis.run", summary: "Run a fit without storing it", body: analysisInput, success: 200 },
   {
     method: "POST",
+    path: "/api/analyses/bootstrap",
+    permission: "analysis.run",
+    summary:
+      "Run a fit with residual-bootstrap percentile intervals (options.bootstrap: draws, seed) without storing it; progress streams back as NDJSON (progress…, done with the run); closing the connection stops the draws",
+    body: analysisInput,
+    success: 200,
+  },
+  {
+    method: "POST",
     path: "/api/analyses/batch",
     permission: "analysis.run",
     summary:

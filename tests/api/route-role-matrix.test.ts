@@ -74,6 +74,7 @@ const FIXTURES: Record<string, Fixture> = {
   "GET /api/analysis-models": async () => ({}),
   "POST /api/analyses": async () => ({ body: fitBody() }),
   "POST /api/analyses/preview": async () => ({ body: fitBody() }),
+  "POST /api/analyses/bootstrap": async () => ({ body: { ...fitBody(), options: { ...fitBody().options, bootstrap: { draws: 100, seed: 1 } } } }),
   "POST /api/analyses/batch": async () => ({
     body: { manuscriptId: DEMO_MANUSCRIPT_ID, versionIds: [sample.fitVersionId], model: "relaxation", options: { x: "wait", y: "p" } },
   }),
@@ -295,6 +296,7 @@ const EXPECTED: Record<string, Row> = {
   "GET /api/versions/{id}/analyses":                  [200, 200,   200,     200,   404,     401],
   "POST /api/analyses":                               [201, 201,   403,     403,   404,     401],
   "POST /api/analyses/preview":                       [200, 200,   403,     403,   404,     401],
+  "POST /api/analyses/bootstrap":                     [200, 200,   403,     403,   404,     401],
   "POST /api/analyses/batch":                         [200, 200,   403,     403,   404,     401],
   "POST /api/analyses/scaling":                       [200, 200,   403,     403,   404,     401],
   "GET /api/analyses/{id}":                           [200, 200,   200,     200,   404,     401],

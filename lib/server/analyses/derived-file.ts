@@ -19,6 +19,13 @@ export interface DerivedFileInput {
   parameters: Array<{ name: string; value: number; stderr: number; unit: string; fixed?: boolean }>;
   /** Quantities computed from the parameters, errors propagated through the scaled covariance. */
   derived?: Array<{ name: string; value: number; stderr: number; unit: string; formula: string }>;
+  /** Percentile intervals from a residual bootstrap, when one was run. */
+  bootstrap?: {
+    draws: number;
+    seed: number;
+    used: number;
+    intervals: Array<{ name: string; unit: string; interval68: Array<number | null>; interval95: Array<number | null> }>;
+  } | null;
   chi2red: number;
   /** Points minus free parameters. */
   dof: number;
@@ -35,6 +42,18 @@ function valueWithError(p: { value: number; stderr: number; unit: string; fixed?
   if (p.fixed) return `${fmt(p.value)}${unit} (held fixed, not fitted)`;
   if (!Number.isFinite(p.stderr)) return `${fmt(p.value)}${unit} (not determined by the data: no standard error)`;
   return `${fmt(p.value)} ± ${fmt(p.stderr)}${unit}`;
+}
+
+const bound = (v: number | null) => (v === null ? "" : fmt(v));
+
+function bootstrapLines(b: NonNullable<DerivedFileInput["bootstrap"]>): string[] {
+  return [
+    `# bootstrap: residual resampling, ${b.draws} draws (seed ${b.seed}), ${b.used} refits converged; percentile intervals, central 68.27 % and 95 %`,
+    ...b.intervals.map(
+      (q) =>
+        `# bootstrap ${q.name}: 68 % [${bound(q.interval68[0])}, ${bound(q.interval68[1])}], 95 % [${bound(q.interval95[0])}, ${bound(q.interval95[1])}]${q.unit ? ` ${q.unit}` : ""}`,
+    ),
+  ];
 }
 
 /**
@@ -57,6 +76,7 @@ export function derivedCsv(d: DerivedFileInput): string {
     "# errors: ± is one standard error from the covariance scaled by √χ²ᵣ (reduced chi-square below), as SciPy curve_fit with absolute_sigma=False; not a confidence interval",
     ...d.parameters.map((p) => `# parameter ${p.name}: ${valueWithError(p)}`),
     ...(d.derived ?? []).map((q) => `# derived ${q.name}: ${valueWithError(q)} [${q.formula}]`),
+    ...(d.bootstrap ? bootstrapLines(d.bootstrap) : []),
     `# reduced chi-square: ${fmt(d.chi2red)} (${d.dof} degrees of freedom)`,
     `series,${axisTitle(d.xName, d.xUnit)},${axisTitle(d.yName, d.yUnit)}`,
   ];

@@ -3,6 +3,7 @@ import { and, desc, eq, isNotNull, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, datasets, versions } from "@/db/schema";
 import { getModel, sampleCurve, type ModelFitResult } from "@/lib/analysis";
+import type { BootstrapInterval, BootstrapSummary } from "@/lib/analysis/bootstrap";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
@@ -11,6 +12,7 @@ import { manuscriptOfVersion } from "../datasets/scope";
 import { importDatasetFromBytes } from "../datasets/upload-dataset";
 import { derivedCsv } from "./derived-file";
 import { runFitJob } from "./fit-job";
+import { fitInPool } from "./fit-pool";
 import { loadFitData, type FitData } from "./fit-data";
 import { analysisInput, type AnalysisInput } from "./schemas";
 import { resolveUnit } from "@/lib/analysis/param-unit";
@@ -28,8 +30,11 @@ export function fitOrExplain(
   return outcome.fit;
 }
 
-/** How a run gets its fit: in this thread (one fit) or on the fit pool (batches). */
+/** How a run gets its fit: in this thread (one fit) or on the fit pool (batches, and a bootstrap's thousand refits). */
 type Fitter = (input: AnalysisInput, data: FitData) => ModelFitResult | Promise<ModelFitResult>;
+
+const fitOnPool: Fitter = (input, data) =>
+  fitInPool({ model: input.model, options: input.options, x: data.x, y: data.y, sigma: data.sigma, xUnit: data.xUnit });
 
 /** The fitted curve on the grid a stored run samples it on (log-spaced when x spans more than two decades). */
 export function curveFor(modelId: string, fit: ModelFitResult, x: Float64Array) {
@@ -52,7 +57,22 @@ export async function previewAnalysis(user: SessionUser, raw: AnalysisInput) {
   return describeRun(input, data, fit, curveFor(input.model, fit, data.x));
 }
 
-function describeRun(input: AnalysisInput, data: FitData, fit: ModelFitResult, curve: { x: number[]; y: number[] }) {
+/** Bootstrap intervals with NaN as null, units resolved like the parameters'. */
+function describeBootstrap(summary: BootstrapSummary, units: (name: string) => string) {
+  const interval = (b: BootstrapInterval) => ({
+    name: b.name,
+    value: nullIfNaN(b.value),
+    stderr: nullIfNaN(b.stderr),
+    unit: units(b.name),
+    interval68: b.interval68.map(nullIfNaN),
+    interval95: b.interval95.map(nullIfNaN),
+    ratio: nullIfNaN(b.ratio),
+    disagrees: b.disagrees,
+  });
+  return { ...summary, parameters: summary.parameters.map(interval), derived: summary.derived.map(interval) };
+}
+
+export function describeRun(input: AnalysisInput, data: FitData, fit: ModelFitResult, curve: { x: number[]; y: number[] }) {
   const parameters = fit.params.map((p) => ({
     name: p.name,
     value: nullIfNaN(p.value),
@@ -80,6 +100,13 @@ function describeRun(input: AnalysisInput, data: FitData, fit: ModelFitResult, c
       formula: d.formula,
     })),
     verdicts: fit.verdicts,
+    // Percentile intervals from a residual bootstrap, when the options asked for one.
+    bootstrap: fit.bootstrap
+      ? describeBootstrap(fit.bootstrap, (name) => {
+          const unit = fit.params.find((p) => p.name === name)?.unit ?? fit.derived.find((d) => d.name === name)?.unit ?? "1";
+          return resolveUnit(unit, data.xUnit, data.yUnit);
+        })
+      : null,
     chi2: nullIfNaN(fit.chi2),
     chi2red: nullIfNaN(fit.chi2red),
     dof: fit.dof,
@@ -128,12 +155,12 @@ async function derivedDatasetId(manuscriptId: string, source: FitData["dataset"]
  * Runs and stores: the run records the input hash, model id and code version, options and the
  * full result, and writes a derived version (curve, data, residuals) that figures can bind to.
  */
-export async function runAnalysis(user: SessionUser, raw: AnalysisInput, fitter: Fitter = fitOrExplain) {
+export async function runAnalysis(user: SessionUser, raw: AnalysisInput, fitter?: Fitter) {
   const input = analysisInput.parse(raw);
   const manuscriptId = await manuscriptOfVersion(input.versionId);
   await authorize(user, "analysis.run", manuscriptId);
   const data = await loadFitData(input.versionId, input.options);
-  const fit = await fitter(input, data);
+  const fit = await (fitter ?? (input.options.bootstrap ? fitOnPool : fitOrExplain))(input, data);
   const run = describeRun(input, data, fit, curveFor(input.model, fit, data.x));
   const id = newId();
   const csv = derivedCsv({
@@ -149,6 +176,9 @@ export async function runAnalysis(user: SessionUser, raw: AnalysisInput, fitter:
     ...(input.options.xRange ? { xRange: input.options.xRange } : {}),
     parameters: run.parameters.map((p) => ({ name: p.name, value: p.value ?? NaN, stderr: p.stderr ?? NaN, unit: p.unit, fixed: p.fixed })),
     derived: run.derived.map((q) => ({ name: q.name, value: q.value ?? NaN, stderr: q.stderr ?? NaN, unit: q.unit, formula: q.formula })),
+    bootstrap: run.bootstrap
+      ? { draws: run.bootstrap.draws, seed: run.bootstrap.seed, used: run.bootstrap.used, intervals: [...run.bootstrap.parameters, ...run.bootstrap.derived] }
+      : null,
     chi2red: fit.chi2red,
     dof: fit.dof,
     curve: run.curve,

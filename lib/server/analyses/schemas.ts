@@ -4,6 +4,7 @@ import { z } from "zod";
 /** Column names come from uploaded files; model and parameter names from our own catalogue. */
 const COLUMN_MAX = 1000;
 const NAME_MAX = 100;
+const BOOTSTRAP_MAX_DRAWS = 5000;
 
 const finite = z.number().refine(Number.isFinite, "must be a finite number");
 
@@ -21,6 +22,18 @@ const fitOptions = z
       .refine(([lo, hi]) => lo < hi, "the fit window's start must be below its end")
       .optional(),
     maxIterations: z.number().int().min(1).max(5000).optional(),
+    /** Percentile intervals from a residual-resampling bootstrap beside the covariance errors. */
+    bootstrap: z
+      .object({
+        draws: z.number().int().min(100, "at least 100 bootstrap draws").max(BOOTSTRAP_MAX_DRAWS, `at most ${BOOTSTRAP_MAX_DRAWS} bootstrap draws`),
+        seed: z
+          .number()
+          .int()
+          .min(0)
+          .max(2 ** 32 - 1),
+      })
+      .strict()
+      .optional(),
   })
   .strict();
 export type FitOptions = z.infer<typeof fitOptions>;
