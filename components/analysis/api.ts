@@ -3,6 +3,7 @@ import type { populationStatistics } from "@/lib/server/analyses/population";
 import type { listAnalysesForVersion, previewAnalysis, runAnalysis } from "@/lib/server/analyses/run-analysis";
 import type { FitOptions } from "@/lib/server/analyses/schemas";
 import type { BatchEvent as ServerBatchEvent } from "@/lib/server/analyses/batch";
+import type { BootstrapEvent as ServerBootstrapEvent } from "@/lib/server/analyses/bootstrap-preview";
 import type { Wire } from "@/components/api-client";
 
 export type { FitOptions };
@@ -12,6 +13,8 @@ export type FitResult = Wire<Awaited<ReturnType<typeof previewAnalysis>>>;
 export type SavedRun = Wire<Awaited<ReturnType<typeof runAnalysis>>>;
 /** One line of the batch route's NDJSON answer. */
 export type BatchEvent = Wire<ServerBatchEvent>;
+/** One line of the bootstrap route's NDJSON answer. */
+export type BootstrapEvent = Wire<ServerBootstrapEvent>;
 export type FitParameter = FitResult["parameters"][number];
 export type StoredRun = Wire<Awaited<ReturnType<typeof listAnalysesForVersion>>[number]>;
 export type PopulationStats = Wire<Awaited<ReturnType<typeof populationStatistics>>>;

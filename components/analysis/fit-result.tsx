@@ -1,6 +1,7 @@
 "use client";
 import { axisTitle, formatNumber, formatValueError } from "@/lib/data/format";
 import type { FitResult } from "./api";
+import { BootstrapTable } from "./bootstrap-table";
 import { FitPlot } from "./fit-plot";
 
 /** Status as a shape and words: never colour alone. */
@@ -172,6 +173,7 @@ export function FitResultView({
           </table>
         </div>
         {result.derived?.length ? <DerivedTable items={result.derived} /> : null}
+        {result.bootstrap ? <BootstrapTable bootstrap={result.bootstrap} /> : null}
         {result.quality ? <QualityFindings quality={result.quality} /> : null}
         {result.verdicts?.map((v) => (
           <p key={v} className={`text-sm font-medium ${v.startsWith("Single emitter") ? "text-good" : "text-warn"}`} data-testid="fit-verdict">
@@ -214,9 +216,13 @@ export function FitResultView({
         </dl>
         <p className="text-xs text-muted">
           {result.options.sigma ? `Weighted by the ${result.options.sigma} column; ` : "Unweighted (no σ column); "}
-          standard errors are scaled by √χ²ᵣ. Model version {result.modelVersion}.
+          standard errors are scaled by √χ²ᵣ
+          {result.bootstrap
+            ? `; intervals are percentiles of ${result.bootstrap.used} refits to the fitted curve plus resampled residuals (residual bootstrap, ${result.bootstrap.draws} draws, seed ${result.bootstrap.seed})`
+            : ""}
+          . Model version {result.modelVersion}.
         </p>
-        <Warnings items={result.warnings} />
+        <Warnings items={[...result.warnings, ...(result.bootstrap?.warnings ?? [])]} />
       </div>
     </div>
   );

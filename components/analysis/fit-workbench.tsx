@@ -2,11 +2,13 @@
 import Link from "next/link";
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useMemo, useState } from "react";
-import { ApiError, fetchJson, sendJson } from "@/components/api-client";
+import { ApiError, fetchJson, postForEvents, sendJson } from "@/components/api-client";
 import { Button, Notice, Sheet } from "@/components/ui";
 import { resolveUnit } from "@/lib/analysis/param-unit";
 import { returnWithRun } from "@/lib/figures/return-to";
-import type { FitOptions, FitResult, ModelInfo, SavedRun, StoredRun } from "./api";
+import type { BootstrapEvent, FitOptions, FitResult, ModelInfo, SavedRun, StoredRun } from "./api";
+import { BatchProgress } from "./batch-progress";
+import { BOOTSTRAP_OFF, BootstrapFields, bootstrapSettings, type BootstrapDraft } from "./bootstrap-fields";
 import { buildOptions, defaultColumns, defaultsFrom, orderModels, type BuildResult, type Column, type DefaultBounds, type ParamDraft } from "./fit-options";
 import { FitResultView } from "./fit-result";
 import { FitWindowFields, NO_WINDOW, windowDraft, windowRange, type WindowDraft } from "./fit-window";
@@ -46,6 +48,9 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
   const [cols, setCols] = useState(() => defaultColumns(columns));
   const [drafts, setDrafts] = useState<Record<string, ParamDraft>>({});
   const [fitWindow, setFitWindow] = useState<WindowDraft>(NO_WINDOW);
+  const [bootstrapDraft, setBootstrapDraft] = useState<BootstrapDraft>(BOOTSTRAP_OFF);
+  const [draws, setDraws] = useState<{ done: number; total: number } | null>(null);
+  const [stopDraws, setStopDraws] = useState<AbortController | null>(null);
   const [defaults, setDefaults] = useState<{ key: string; bounds: DefaultBounds } | null>(null);
   const [shown, setShown] = useState<Shown | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -58,13 +63,37 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
   const dataKey = `${modelId}|${cols.x}|${cols.y}`;
   const knownDefaults = defaults?.key === dataKey ? defaults.bounds : undefined;
   const built = useMemo(
-    () => withWindow(buildOptions(model?.parameters ?? [], drafts, cols, knownDefaults), fitWindow),
-    [model, drafts, cols, knownDefaults, fitWindow],
+    () => withBootstrap(withWindow(buildOptions(model?.parameters ?? [], drafts, cols, knownDefaults), fitWindow), bootstrapDraft),
+    [model, drafts, cols, knownDefaults, fitWindow, bootstrapDraft],
   );
   const currentKey = "options" in built ? JSON.stringify({ modelId, options: built.options }) : null;
   const lastValues = shown?.run.model === modelId ? Object.fromEntries(shown.run.parameters.map((p) => [p.name, p.value])) : undefined;
 
   const preview = (options: FitOptions) => sendJson<FitResult>("/api/analyses/preview", "POST", { versionId, model: modelId, options });
+  /** The fit with its bootstrap, the draws' progress shown as they stream in; null when stopped. */
+  const previewWithBootstrap = async (options: FitOptions): Promise<FitResult | null> => {
+    const stop = new AbortController();
+    setStopDraws(stop);
+    setDraws({ done: 0, total: options.bootstrap!.draws });
+    let run: FitResult | null = null;
+    try {
+      await postForEvents<BootstrapEvent>(
+        "/api/analyses/bootstrap",
+        { versionId, model: modelId, options },
+        (event) => {
+          if (event.type === "progress") setDraws({ done: event.done, total: event.total });
+          if (event.type === "done") run = event.run;
+        },
+        stop.signal,
+      );
+    } catch (err) {
+      if (!stop.signal.aborted) throw err;
+    } finally {
+      setStopDraws(null);
+      setDraws(null);
+    }
+    return run;
+  };
   const learn = (run: FitResult, options: FitOptions, base: DefaultBounds | undefined): DefaultBounds => {
     const fresh = defaultsFrom(run.parameters.filter((p) => !options.bounds?.[p.name]));
     const merged = { ...base, ...fresh };
@@ -81,18 +110,22 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
       let base = knownDefaults;
       if ("needDefaults" in request) {
         const plain = Object.fromEntries(Object.entries(drafts).map(([k, d]) => [k, { ...d, lower: "", upper: "" }]));
-        const probeOptions = withWindow(buildOptions(model?.parameters ?? [], plain, cols), fitWindow);
+        const probeOptions = withWindow(buildOptions(model?.parameters ?? [], plain, cols), fitWindow); // no bootstrap: only the default ranges are wanted
         if (!("options" in probeOptions)) throw new Error("error" in probeOptions ? probeOptions.error : "Could not read the form.");
         const probe = await preview(probeOptions.options);
         base = learn(probe, probeOptions.options, base);
-        request = withWindow(buildOptions(model?.parameters ?? [], drafts, cols, base), fitWindow);
+        request = withBootstrap(withWindow(buildOptions(model?.parameters ?? [], drafts, cols, base), fitWindow), bootstrapDraft);
       }
       if ("error" in request) {
         setError(request.error);
         return;
       }
       if (!("options" in request)) return;
-      const run = await preview(request.options);
+      const run = request.options.bootstrap ? await previewWithBootstrap(request.options) : await preview(request.options);
+      if (!run) {
+        setError("Bootstrap stopped: the fit is not shown. Fit again to start the draws anew.");
+        return;
+      }
       learn(run, request.options, base);
       setShown({ key: JSON.stringify({ modelId, options: request.options }), run, modelTitle: model?.title ?? modelId, xName: cols.x, yName: cols.y });
     } catch (err) {
@@ -173,10 +206,22 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
               setSaved(null);
             }}
           />
+          <BootstrapFields
+            value={bootstrapDraft}
+            onChange={(v) => {
+              setBootstrapDraft(v);
+              setSaved(null);
+            }}
+          />
           <div className="mt-4 flex flex-wrap items-center gap-3">
             <Button type="button" onClick={() => void fit()} disabled={busy !== null || !model}>
               {busy === "fit" ? "Fitting…" : "Fit"}
             </Button>
+            {stopDraws ? (
+              <Button type="button" variant="quiet" onClick={() => stopDraws.abort()}>
+                Stop bootstrap
+              </Button>
+            ) : null}
             <Button type="button" variant="quiet" onClick={() => void save()} disabled={busy !== null || !shown || stale}>
               {busy === "save" ? "Saving…" : "Save run"}
             </Button>
@@ -188,6 +233,11 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
                   : "Save stores exactly the fit shown, with a derived version."}
             </span>
           </div>
+          {draws ? (
+            <div className="mt-3 max-w-xl">
+              <BatchProgress done={draws.done} total={draws.total} failed={0} label="Bootstrap progress" noun="draws" />
+            </div>
+          ) : null}
           {error ? <Notice ok={false}>{error}</Notice> : null}
           {saved ? (
             <Notice ok>
@@ -265,6 +315,14 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
       </section>
     </div>
   );
+}
+
+/** The bootstrap settings added to the built options (an error in them wins). */
+function withBootstrap(built: BuildResult, draft: BootstrapDraft): BuildResult {
+  if (!("options" in built)) return built;
+  const b = bootstrapSettings(draft);
+  if ("error" in b) return { error: b.error };
+  return b.settings ? { options: { ...built.options, bootstrap: b.settings } } : built;
 }
 
 /** The typed fit window added to the built options as xRange (an error in the window wins). */
