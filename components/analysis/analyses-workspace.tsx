@@ -5,6 +5,7 @@ import type { ModelInfo } from "./api";
 import { BatchRunner } from "./batch-runner";
 import { orderModels } from "./fit-options";
 import type { BatchDataset } from "./batch-types";
+import { GlobalFit } from "./global-fit";
 import { PopulationStatistics } from "./population-statistics";
 
 /** The batch of fits and the population statistics of the same model, refreshed when a batch ends. */
@@ -58,6 +59,14 @@ export function AnalysesWorkspace({
             mayRun={mayRun}
             onFinished={() => setRefreshKey((k) => k + 1)}
           />
+        </Sheet>
+      </section>
+      <section aria-labelledby="global-heading">
+        <Sheet>
+          <h2 id="global-heading" className="mb-3 text-lg font-semibold">
+            Global fit
+          </h2>
+          <GlobalFit manuscriptId={manuscriptId} datasets={datasets} models={models} mayRun={mayRun} />
         </Sheet>
       </section>
       <section aria-labelledby="statistics-heading">

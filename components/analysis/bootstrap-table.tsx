@@ -25,12 +25,12 @@ function Row({ item }: { item: Interval }) {
             <span aria-hidden className="font-bold">
               ⚠{" "}
             </span>
-            {formatNumber(item.ratio, 2)}× the standard error
+            {formatNumber(item.ratio, 2)}× — they disagree
           </span>
         ) : (
           <span>
             <span aria-hidden>✓ </span>
-            {formatNumber(item.ratio, 2)}× the standard error
+            {formatNumber(item.ratio, 2)}× — they agree
           </span>
         )}
       </td>
@@ -54,7 +54,7 @@ export function BootstrapTable({ bootstrap }: { bootstrap: Bootstrap }) {
               <th className="py-1.5 pr-3">68 % interval</th>
               <th className="py-1.5 pr-3">95 % interval</th>
               <th className="py-1.5 pr-3">Unit</th>
-              <th className="py-1.5">68 % half-width</th>
+              <th className="py-1.5">68 % half-width ÷ standard error</th>
             </tr>
           </thead>
           <tbody className="divide-y divide-rule/70">

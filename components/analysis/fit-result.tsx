@@ -173,7 +173,6 @@ export function FitResultView({
           </table>
         </div>
         {result.derived?.length ? <DerivedTable items={result.derived} /> : null}
-        {result.bootstrap ? <BootstrapTable bootstrap={result.bootstrap} /> : null}
         {result.quality ? <QualityFindings quality={result.quality} /> : null}
         {result.verdicts?.map((v) => (
           <p key={v} className={`text-sm font-medium ${v.startsWith("Single emitter") ? "text-good" : "text-warn"}`} data-testid="fit-verdict">
@@ -224,6 +223,11 @@ export function FitResultView({
         </p>
         <Warnings items={[...result.warnings, ...(result.bootstrap?.warnings ?? [])]} />
       </div>
+      {result.bootstrap ? (
+        <div className="lg:col-span-2">
+          <BootstrapTable bootstrap={result.bootstrap} />
+        </div>
+      ) : null}
     </div>
   );
 }

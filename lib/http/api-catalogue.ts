@@ -5,7 +5,7 @@ import { createManuscriptInput } from "@/lib/server/manuscripts";
 import { changeRoleInput, inviteInput } from "@/lib/server/members";
 import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schemas";
 import { houseStyleSchema } from "@/lib/figures/house-style";
-import { analysisInput, batchInput, calculatorInput, statisticsQuery } from "@/lib/server/analyses/schemas";
+import { analysisInput, batchInput, calculatorInput, globalInput, statisticsQuery } from "@/lib/server/analyses/schemas";
 import { scalingInput } from "@/lib/server/analyses/scaling";
 import { exportQuery } from "@/lib/server/export/export-figure";
 import { traceQuery } from "@/lib/server/figures/trace";
@@ -181,6 +181,15 @@ export const API_OPERATIONS: ApiOperation[] = [
     summary:
       "Fit one model over several versions of a manuscript on all cores, storing each run; progress streams back as NDJSON (start, one result per version, end); closing the connection stops the batch",
     body: batchInput,
+    success: 200,
+  },
+  {
+    method: "POST",
+    path: "/api/analyses/global",
+    permission: "analysis.run",
+    summary:
+      "Global fit: one model over 2–50 versions of a manuscript at once, the parameters named in `shared` taking one value for all, the others one per version; one covariance for all; nothing is stored",
+    body: globalInput,
     success: 200,
   },
   {

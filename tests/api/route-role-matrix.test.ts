@@ -78,6 +78,9 @@ const FIXTURES: Record<string, Fixture> = {
   "POST /api/analyses/batch": async () => ({
     body: { manuscriptId: DEMO_MANUSCRIPT_ID, versionIds: [sample.fitVersionId], model: "relaxation", options: { x: "wait", y: "p" } },
   }),
+  "POST /api/analyses/global": async () => ({
+    body: { manuscriptId: DEMO_MANUSCRIPT_ID, versionIds: await twoT1Versions(), model: "relaxation", shared: ["S0"], options: { x: "wait", y: "p" } },
+  }),
   "POST /api/analyses/scaling": async () => ({ body: { manuscriptId: DEMO_MANUSCRIPT_ID, parameter: "T1", runs: await threeRuns() } }),
   "GET /api/analyses/{id}": async () => ({ params: { id: sample.analysisId } }),
   "GET /api/manuscripts/{id}/statistics": async () => ({ params: { id: DEMO_MANUSCRIPT_ID }, query: "model=relaxation&parameter=T1&groupBy=group" }),
@@ -174,6 +177,13 @@ async function commentBy(who: Caller): Promise<string> {
   const a = ["pi", "author", "reviewer"].includes(who) ? userOf(who) : PI;
   const t = await replyToThread({ id: a.id, email: a.email, name: a.name }, sample.threadId, { body: plainDoc(`by ${who}`) });
   return t.comments.at(-1)!.id;
+}
+
+/** The sample T1 version and a second upload of the same curve, for the global fit route. */
+async function twoT1Versions(): Promise<string[]> {
+  const upload = (await import("@/app/api/manuscripts/[id]/datasets/route")).POST;
+  const r = await call(upload, { method: "POST", token: tokens.author, params: { id: DEMO_MANUSCRIPT_ID }, rawBody: uploadForm(`t1-${newId()}.csv`, T1_CSV) });
+  return [sample.fitVersionId, r.json.id as string];
 }
 
 /** A fresh panel with one revision by the author, still a draft. */
@@ -298,6 +308,7 @@ const EXPECTED: Record<string, Row> = {
   "POST /api/analyses/preview":                       [200, 200,   403,     403,   404,     401],
   "POST /api/analyses/bootstrap":                     [200, 200,   403,     403,   404,     401],
   "POST /api/analyses/batch":                         [200, 200,   403,     403,   404,     401],
+  "POST /api/analyses/global":                        [200, 200,   403,     403,   404,     401],
   "POST /api/analyses/scaling":                       [200, 200,   403,     403,   404,     401],
   "GET /api/analyses/{id}":                           [200, 200,   200,     200,   404,     401],
   "GET /api/manuscripts/{id}/statistics":             [200, 200,   200,     200,   404,     401],

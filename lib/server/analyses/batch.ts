@@ -19,7 +19,7 @@ export type BatchEvent =
   | { type: "end"; done: number; failed: number; cancelled: number };
 
 /** Every version must belong to the manuscript; one that does not (or does not exist) is a 404 before anything runs. */
-async function checkVersions(manuscriptId: string, versionIds: string[]): Promise<void> {
+export async function checkVersions(manuscriptId: string, versionIds: string[]): Promise<void> {
   const unique = [...new Set(versionIds)];
   if (unique.length !== versionIds.length) throw badRequest("versionIds: a version is listed twice.");
   const rows = await getDb()

@@ -37,12 +37,12 @@ const fitOnPool: Fitter = (input, data) =>
   fitInPool({ model: input.model, options: input.options, x: data.x, y: data.y, sigma: data.sigma, xUnit: data.xUnit });
 
 /** The fitted curve on the grid a stored run samples it on (log-spaced when x spans more than two decades). */
-export function curveFor(modelId: string, fit: ModelFitResult, x: Float64Array) {
+export function curveFor(modelId: string, fit: Pick<ModelFitResult, "values">, x: ArrayLike<number>) {
   let lo = Infinity,
     hi = -Infinity;
-  for (const v of x) {
-    if (v < lo) lo = v;
-    if (v > hi) hi = v;
+  for (let i = 0; i < x.length; i++) {
+    if (x[i] < lo) lo = x[i];
+    if (x[i] > hi) hi = x[i];
   }
   const log = lo > 0 && hi / lo > 100;
   return sampleCurve(modelId, fit.values, lo, hi, CURVE_POINTS, log);

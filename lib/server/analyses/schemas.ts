@@ -45,6 +45,18 @@ export const analysisInput = z.object({
 });
 export type AnalysisInput = z.infer<typeof analysisInput>;
 
+/** Global fit: one model over several versions at once, the named parameters shared by all (nothing is stored). */
+export const globalInput = z
+  .object({
+    manuscriptId: z.string().min(1, "manuscriptId is required").max(128),
+    versionIds: z.array(z.string().min(1).max(128)).min(2, "choose at least two versions").max(50, "at most 50 versions in one global fit"),
+    model: z.string().min(1, "model is required").max(NAME_MAX),
+    shared: z.array(z.string().min(1).max(NAME_MAX)).max(20),
+    options: fitOptions.omit({ bootstrap: true }),
+  })
+  .strict();
+export type GlobalInput = z.infer<typeof globalInput>;
+
 /** Batch: one model and one set of options over the current versions of several datasets of one manuscript. */
 export const batchInput = z
   .object({

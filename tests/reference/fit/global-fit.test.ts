@@ -8,7 +8,7 @@ import { globalFit, type GlobalDataset } from "@/lib/analysis/global-fit";
 
 const T1S = [2, 4, 8];
 /** Three T1 curves (ms) sharing S₀ = 0.7 and A = 0.3, with a hand-made wobble in place of noise. */
-const CURVES: GlobalDataset[] = T1S.map((t1, k) => {
+const CURVES: Array<GlobalDataset & { x: number[]; y: number[] }> = T1S.map((t1, k) => {
   const x = Array.from({ length: 30 }, (_, i) => 0.05 * 1.25 ** i);
   const y = x.map((t, i) => Number((0.7 + 0.3 * Math.exp(-t / t1) + 0.002 * Math.sin(7 * i + k)).toFixed(5)));
   return { label: `T1 = ${t1} ms`, x, y };
