@@ -40,7 +40,7 @@ function firstKind(datasets: BatchDataset[]): string {
  */
 export function GlobalFit({ manuscriptId, datasets, models, mayRun }: Props) {
   const [kind, setKind] = useState(() => firstKind(datasets));
-  const matching = datasets.filter((d) => d.kind === kind);
+  const matching = datasets.filter((d) => d.kind === kind).sort((a, b) => a.name.localeCompare(b.name, undefined, { numeric: true }));
   const [modelId, setModelId] = useState(() => (orderModels(models, kind).suggested[0] ?? models[0]).id);
   const [ticked, setTicked] = useState<Set<string>>(() => new Set(matching.slice(0, 3).map((d) => d.id)));
   const [cols, setCols] = useState(() => defaultColumns(matching[0]?.columns ?? []));
@@ -54,7 +54,7 @@ export function GlobalFit({ manuscriptId, datasets, models, mayRun }: Props) {
 
   function pickKind(k: string) {
     setKind(k);
-    const now = datasets.filter((d) => d.kind === k);
+    const now = datasets.filter((d) => d.kind === k).sort((a, b) => a.name.localeCompare(b.name, undefined, { numeric: true }));
     setTicked(new Set(now.slice(0, 3).map((d) => d.id)));
     setCols(defaultColumns(now[0]?.columns ?? []));
     const suggested = orderModels(models, k).suggested[0];
