@@ -1,4 +1,4 @@
-// kill -9 during an upload, and a fit run recorded with its derived version: the process storing a 1,000,000-row file is killed as soon as its
+// kill -9 during an upload, a batch of fits and a bundle export, and a fit run recorded with its derived version: the process storing a 1,000,000-row file is killed as soon as its
 // temporary part file appears. Afterwards no version of it exists, the audit chain is whole, and
 // the start-up sweeps (part files, then stored files nothing references) leave nothing behind.
 // The file's SHA-256 is computed here with node:crypto.
@@ -11,7 +11,7 @@ import path from "node:path";
 import { eq, inArray } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
-import { analyses, datasets, versions } from "@/db/schema";
+import { analyses, auditLog, datasets, versions } from "@/db/schema";
 import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import { env } from "@/lib/env";
 import { verifyAuditChain } from "@/lib/server/audit";
@@ -135,4 +135,78 @@ describe("kill -9 during an upload", () => {
     }
     expect((await verifyAuditChain(getDb())).ok).toBe(true);
   }, 120_000);
+});
+
+/** Every file under dir, relative, sorted (the database's own files left out: they change with every write). */
+function filesUnder(dir: string): string[] {
+  if (!fs.existsSync(dir)) return [];
+  return (fs.readdirSync(dir, { recursive: true, withFileTypes: true }) as fs.Dirent[])
+    .filter((e) => e.isFile() && !/\.(db|db-wal|db-shm|sqlite)$/.test(e.name))
+    .map((e) => path.relative(dir, path.join(e.parentPath, e.name)))
+    .sort();
+}
+
+describe("kill -9 during a bundle export", () => {
+  it("leaves no export record and no file; the next export is whole", async () => {
+    const { importDatasetFromBytes } = await import("@/lib/server/datasets/upload-dataset");
+    const { createFigure } = await import("@/lib/server/figures/figures");
+    const { addPanel } = await import("@/lib/server/figures/panels");
+    const { createRevision } = await import("@/lib/server/figures/revisions");
+    const { exportFigure } = await import("@/lib/server/export/export-figure");
+    const author = { id: "demo-author", email: "author@lab.example.org", name: "Tomás Ekberg" };
+    const pi = { id: "demo-pi", email: "pi@lab.example.org", name: "Mira Halvorsen" };
+    const rows = ["tau,signal"];
+    for (let i = 0; i < 200_000; i++) rows.push(`${i * 0.01},${(0.5 + 0.3 * Math.exp(-i / 60_000) + 0.01 * Math.sin(i)).toFixed(6)}`);
+    const version = await importDatasetFromBytes(author, DEMO_MANUSCRIPT_ID, "export-crash.csv", new TextEncoder().encode(`${rows.join("\n")}\n`), {
+      name: "Export crash sweep",
+    });
+    const figure = await createFigure(author, { manuscriptId: DEMO_MANUSCRIPT_ID, title: "Killed export" });
+    const panel = await addPanel(author, figure.id, { title: "Sweep" });
+    await createRevision(author, panel.id, {
+      spec: {
+        $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+        data: { name: "sweep" },
+        mark: "point",
+        encoding: { x: { field: "tau", type: "quantitative", title: "τ (µs)" }, y: { field: "signal", type: "quantitative", title: "signal (1)" } },
+      },
+      bindings: { sweep: { versionId: version.id } },
+      baseRevisionId: null,
+      message: "",
+    });
+    const exportsOf = async () =>
+      (
+        await getDb()
+          .select()
+          .from(auditLog)
+          .where(eq(auditLog.target, `figure:${figure.id}`))
+      ).filter((a) => a.action === "figure.export");
+    const filesBefore = filesUnder(env().uploadsDir);
+
+    const child = spawn(path.join("node_modules", ".bin", "tsx"), ["--conditions=react-server", "tests/support/export-child.ts", figure.id], {
+      cwd: process.cwd(),
+      env: process.env,
+      detached: true,
+      stdio: ["ignore", "pipe", "pipe"],
+    });
+    const exited = once(child, "exit");
+    let seen = "";
+    await new Promise<void>((resolve) => {
+      child.stdout!.on("data", (d: Buffer) => {
+        seen += d.toString("utf8");
+        if (seen.includes("exporting")) resolve();
+      });
+    });
+    process.kill(-child.pid!, "SIGKILL");
+    await exited;
+    expect(seen).not.toContain("exported");
+
+    expect(await exportsOf()).toEqual([]);
+    expect((await verifyAuditChain(getDb())).ok).toBe(true);
+    expect(filesUnder(env().uploadsDir)).toEqual(filesBefore);
+
+    const { body } = await exportFigure(pi, figure.id, { format: "bundle", dpi: 300, colour: "rgb", text: "outlines", mark: "on" });
+    expect(body.byteLength).toBeGreaterThan(0);
+    expect(await exportsOf()).toHaveLength(1);
+    expect((await verifyAuditChain(getDb())).ok).toBe(true);
+  }, 180_000);
 });
