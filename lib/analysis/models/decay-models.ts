@@ -4,6 +4,7 @@
  * Jarmola et al., PRL 108, 197601 (2012) (both from memory). x is the free-evolution
  * or wait time in the x column's unit, y the signal in the y column's unit.
  */
+import { tableExp } from "../special/table-exp";
 import { guessDecay } from "./guess/decay-guess";
 import { sortByX, xScale } from "./guess/signal-features";
 import type { CurveSweep } from "../fit/curve-problem";
@@ -55,22 +56,27 @@ function stretchedDecaySweep(t: Float64Array, y: Float64Array, weight: Float64Ar
     const n = p[3];
     const logTime = Math.log(time);
     const dTime = (a * n) / time;
+    // The four Jacobian columns as views: one store each per point, no index arithmetic.
+    const jS0 = jac.subarray(0, m);
+    const jA = jac.subarray(m, 2 * m);
+    const jTime = jac.subarray(2 * m, 3 * m);
+    const jN = jac.subarray(3 * m, 4 * m);
     for (let i = 0; i < m; i++) {
       const w = weight[i];
-      jac[i] = w;
+      jS0[i] = w;
       if (t[i] > 0) {
         const logU = logT[i] - logTime;
-        const un = Math.exp(n * logU);
-        const we = w * Math.exp(-un);
+        const un = tableExp(n * logU);
+        const we = w * tableExp(-un);
         residuals[i] = (s0 - y[i]) * w + a * we;
-        jac[m + i] = we;
-        jac[2 * m + i] = dTime * we * un;
-        jac[3 * m + i] = -a * we * un * logU;
+        jA[i] = we;
+        jTime[i] = dTime * we * un;
+        jN[i] = -a * we * un * logU;
       } else {
         residuals[i] = (s0 + a - y[i]) * w;
-        jac[m + i] = w;
-        jac[2 * m + i] = 0;
-        jac[3 * m + i] = 0;
+        jA[i] = w;
+        jTime[i] = 0;
+        jN[i] = 0;
       }
     }
   };
