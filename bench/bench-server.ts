@@ -213,7 +213,8 @@ export async function startBenchServer(opts: BenchServerOptions): Promise<BenchS
     const build = await buildIfStale();
     lock = await holdBuildLockShared();
     sink = await startMailSink({ port: opts.smtpPort, dir: benchEnv.MAIL_SINK_DIR, quiet: true });
-    server = spawnNext(["start", "-p", String(opts.appPort)], benchEnv);
+    // BENCH_SERVER_NODE_ARGS: flags for the server's node (e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof" to profile it under load).
+    server = spawnNext(["start", "-p", String(opts.appPort)], benchEnv, (process.env.BENCH_SERVER_NODE_ARGS ?? "").split(" ").filter(Boolean));
     const t0 = performance.now();
     await waitForHttp(`${base}/api/health`, 90_000);
     const readyMs = performance.now() - t0;

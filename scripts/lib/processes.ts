@@ -5,8 +5,8 @@ import path from "node:path";
 const nextBin = () => path.join(process.cwd(), "node_modules", "next", "dist", "bin", "next");
 
 /** Runs next in its own process group so that stopping it stops next-server too. */
-export function spawnNext(args: string[], env: Record<string, string> = {}): ChildProcess {
-  const child = spawn(process.execPath, [nextBin(), ...args], {
+export function spawnNext(args: string[], env: Record<string, string> = {}, nodeArgs: string[] = []): ChildProcess {
+  const child = spawn(process.execPath, [...nodeArgs, nextBin(), ...args], {
     stdio: "inherit",
     detached: true,
     env: { ...process.env, NEXT_TELEMETRY_DISABLED: "1", ...env },
