@@ -32,6 +32,8 @@ const DURATION_MS = 10_000;
 const ROUNDS = 5;
 const SAMPLE_MS = 5_000;
 const GOAL_RATIO = 2;
+const SERVICE_WARMUP = 20;
+const SERVICE_REQUESTS = 100;
 const MIX: Array<[string, number]> = [
   ["board", 35],
   ["rows", 25],
@@ -121,6 +123,30 @@ export async function benchLoadMix(): Promise<Record<string, unknown>> {
       request,
     });
 
+    // What each kind costs the server alone: one client, requests one after another, after a warm-up.
+    const service: Record<string, { requests: number; meanMs: number; p50Ms: number; p95Ms: number }> = {};
+    for (const [kind] of MIX) {
+      const times: number[] = [];
+      for (let seq = 0; seq < SERVICE_WARMUP + SERVICE_REQUESTS; seq++) {
+        let request: LoadRequest;
+        do request = mixed(seq * 31 + times.length, seq, "service");
+        while (request.kind !== kind);
+        const t0 = performance.now();
+        const res = await fetch(request.url, request.init);
+        await res.arrayBuffer();
+        if (seq >= SERVICE_WARMUP) times.push(performance.now() - t0);
+      }
+      times.sort((a, b) => a - b);
+      service[kind] = {
+        requests: times.length,
+        meanMs: round(times.reduce((a, b) => a + b, 0) / times.length, 2),
+        p50Ms: round(times[Math.floor(times.length / 2)]!, 2),
+        p95Ms: round(times[Math.floor(times.length * 0.95)]!, 2),
+      };
+    }
+    console.log("\n  service time by kind (one client, sequential):");
+    console.table(service);
+
     const phases: Record<string, { bare: LoadResult; mix: LoadResult }> = {};
     for (const clients of [32, 128]) {
       const [bare, mix] = await runInterleaved([target(clients, () => ({ url: `${base}/api/ping` })), target(clients, mixed)], ROUNDS);
@@ -197,6 +223,7 @@ export async function benchLoadMix(): Promise<Record<string, unknown>> {
           },
         ]),
       ),
+      serviceTime: service,
       soak: soakReport,
       goals,
       build: srv.build,

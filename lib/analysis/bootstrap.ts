@@ -23,7 +23,7 @@ export interface BootstrapSettings {
 }
 
 /** Above this ratio (either way) between the bootstrap's 68 % half-width and the standard error, the two disagree. */
-export const DISAGREEMENT_FACTOR = 1.5;
+const DISAGREEMENT_FACTOR = 1.5;
 /** ±1σ of a normal distribution as a central probability: 68.27 %. */
 const ONE_SIGMA_TAILS: [number, number] = [0.158655253931457, 0.841344746068543];
 const TWO_SIDED_95: [number, number] = [0.025, 0.975];

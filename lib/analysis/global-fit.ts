@@ -31,7 +31,7 @@ export interface GlobalFitInput {
 }
 
 /** One entry of the global parameter vector: a shared parameter, or a local one of one dataset. */
-export interface GlobalParam {
+interface GlobalParam {
   name: string;
   /** Index of the dataset for a local parameter; null for a shared one. */
   dataset: number | null;
@@ -45,7 +45,7 @@ export interface GlobalParam {
   bounds: [number, number];
 }
 
-export interface GlobalDatasetResult {
+interface GlobalDatasetResult {
   label: string;
   /** Every model parameter's value for this dataset (shared, local and fixed). */
   values: Record<string, number>;
