@@ -5,7 +5,7 @@ import { createManuscriptInput } from "@/lib/server/manuscripts";
 import { changeRoleInput, inviteInput } from "@/lib/server/members";
 import { metadataInput, plotQuery, rowsQuery } from "@/lib/server/datasets/schemas";
 import { houseStyleSchema } from "@/lib/figures/house-style";
-import { analysisInput, batchInput, calculatorInput, globalInput, statisticsQuery } from "@/lib/server/analyses/schemas";
+import { analysisInput, batchInput, calculatorInput, globalInput, comparisonInput, statisticsQuery } from "@/lib/server/analyses/schemas";
 import { scalingInput } from "@/lib/server/analyses/scaling";
 import { exportQuery } from "@/lib/server/export/export-figure";
 import { traceQuery } from "@/lib/server/figures/trace";
@@ -190,6 +190,15 @@ export const API_OPERATIONS: ApiOperation[] = [
     summary:
       "Global fit: one model over 2–50 versions of a manuscript at once, the parameters named in `shared` taking one value for all, the others one per version; one covariance for all; nothing is stored",
     body: globalInput,
+    success: 200,
+  },
+  {
+    method: "POST",
+    path: "/api/analyses/compare",
+    permission: "analysis.run",
+    summary:
+      "Model comparison: 2–4 candidates (models, or one model with parameters held in `fixed`) fitted to the same columns of one version; χ²ᵣ, AIC with ΔAIC and Akaike weights, BIC, an F-test for each nested pair, residuals, and the preferred candidate with the reason; nothing is stored",
+    body: comparisonInput,
     success: 200,
   },
   {

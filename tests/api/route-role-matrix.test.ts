@@ -81,6 +81,16 @@ const FIXTURES: Record<string, Fixture> = {
   "POST /api/analyses/global": async () => ({
     body: { manuscriptId: DEMO_MANUSCRIPT_ID, versionIds: await twoT1Versions(), model: "relaxation", shared: ["S0"], options: { x: "wait", y: "p" } },
   }),
+  "POST /api/analyses/compare": async () => ({
+    body: {
+      versionId: sample.fitVersionId,
+      options: { x: "wait", y: "p" },
+      candidates: [
+        { label: "exponential", model: "relaxation" },
+        { label: "stretched", model: "relaxation_stretched" },
+      ],
+    },
+  }),
   "POST /api/analyses/scaling": async () => ({ body: { manuscriptId: DEMO_MANUSCRIPT_ID, parameter: "T1", runs: await threeRuns() } }),
   "GET /api/analyses/{id}": async () => ({ params: { id: sample.analysisId } }),
   "GET /api/manuscripts/{id}/statistics": async () => ({ params: { id: DEMO_MANUSCRIPT_ID }, query: "model=relaxation&parameter=T1&groupBy=group" }),
@@ -309,6 +319,7 @@ const EXPECTED: Record<string, Row> = {
   "POST /api/analyses/bootstrap":                     [200, 200,   403,     403,   404,     401],
   "POST /api/analyses/batch":                         [200, 200,   403,     403,   404,     401],
   "POST /api/analyses/global":                        [200, 200,   403,     403,   404,     401],
+  "POST /api/analyses/compare":                       [200, 200,   403,     403,   404,     401],
   "POST /api/analyses/scaling":                       [200, 200,   403,     403,   404,     401],
   "GET /api/analyses/{id}":                           [200, 200,   200,     200,   404,     401],
   "GET /api/manuscripts/{id}/statistics":             [200, 200,   200,     200,   404,     401],

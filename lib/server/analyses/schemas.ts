@@ -75,3 +75,22 @@ export const statisticsQuery = z.object({
 });
 
 export const calculatorInput = z.object({ inputs: z.record(z.string().max(NAME_MAX), z.unknown()) });
+
+/** Model comparison: two to four candidates fitted to the same columns of one version (nothing is stored). */
+const comparisonCandidate = z
+  .object({
+    label: z.string().trim().min(1, "give each candidate a label").max(NAME_MAX, `a label has at most ${NAME_MAX} characters`),
+    model: z.string().min(1, "model is required").max(NAME_MAX),
+    start: z.record(z.string().max(NAME_MAX), finite).optional(),
+    fixed: z.record(z.string().max(NAME_MAX), finite).optional(),
+    bounds: z.record(z.string().max(NAME_MAX), z.tuple([z.number(), z.number()])).optional(),
+  })
+  .strict();
+export const comparisonInput = z
+  .object({
+    versionId: z.string().min(1, "versionId is required").max(128),
+    options: fitOptions.pick({ x: true, y: true, sigma: true, xRange: true }),
+    candidates: z.array(comparisonCandidate).min(2, "compare at least two candidates").max(4, "compare at most four candidates"),
+  })
+  .strict();
+export type ComparisonInput = z.infer<typeof comparisonInput>;
