@@ -1,6 +1,7 @@
 import type { analysisCatalogue } from "@/lib/server/analyses/catalogue";
 import type { populationStatistics } from "@/lib/server/analyses/population";
 import type { previewGlobalFit } from "@/lib/server/analyses/global";
+import type { compareCandidates } from "@/lib/server/analyses/compare";
 import type { listAnalysesForVersion, previewAnalysis, runAnalysis } from "@/lib/server/analyses/run-analysis";
 import type { FitOptions } from "@/lib/server/analyses/schemas";
 import type { BatchEvent as ServerBatchEvent } from "@/lib/server/analyses/batch";
@@ -12,6 +13,7 @@ type Catalogue = ReturnType<typeof analysisCatalogue>;
 export type ModelInfo = Catalogue["items"][number];
 export type FitResult = Wire<Awaited<ReturnType<typeof previewAnalysis>>>;
 export type GlobalFitResult = Wire<Awaited<ReturnType<typeof previewGlobalFit>>>;
+export type ComparisonResult = Wire<Awaited<ReturnType<typeof compareCandidates>>>;
 export type SavedRun = Wire<Awaited<ReturnType<typeof runAnalysis>>>;
 /** One line of the batch route's NDJSON answer. */
 export type BatchEvent = Wire<ServerBatchEvent>;

@@ -13,6 +13,7 @@ import { buildOptions, defaultColumns, defaultsFrom, orderModels, type BuildResu
 import { FitResultView } from "./fit-result";
 import { FitWindowFields, NO_WINDOW, windowDraft, windowRange, type WindowDraft } from "./fit-window";
 import { ColumnSelects, ModelSelect } from "./model-and-columns";
+import { ModelComparison } from "./model-comparison";
 import { ParameterInputs } from "./parameter-inputs";
 import { StoredRuns } from "./stored-runs";
 
@@ -294,6 +295,16 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
           </Sheet>
         </section>
       ) : null}
+      {mayRun ? (
+        <ModelComparison
+          versionId={versionId}
+          kind={kind}
+          models={models}
+          modelId={modelId}
+          columns={comparisonColumns(cols, fitWindow)}
+          units={{ x: unitOf(cols.x), y: unitOf(cols.y) }}
+        />
+      ) : null}
       <section aria-labelledby="stored-runs-heading">
         <h2 id="stored-runs-heading" className="mb-2 text-lg font-semibold">
           Stored runs on this version
@@ -331,4 +342,14 @@ function withWindow(built: BuildResult, draft: WindowDraft): BuildResult {
   const w = windowRange(draft);
   if ("error" in w) return { error: w.error };
   return w.range ? { options: { ...built.options, xRange: w.range } } : built;
+}
+
+/** The columns and typed window the comparison fits, or what is wrong with the window. */
+function comparisonColumns(
+  cols: { x: string; y: string; sigma: string },
+  draft: WindowDraft,
+): Pick<FitOptions, "x" | "y" | "sigma" | "xRange"> | { error: string } {
+  const w = windowRange(draft);
+  if ("error" in w) return { error: w.error };
+  return { x: cols.x, y: cols.y, ...(cols.sigma ? { sigma: cols.sigma } : {}), ...(w.range ? { xRange: w.range } : {}) };
 }

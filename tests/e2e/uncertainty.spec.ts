@@ -33,3 +33,33 @@ test("the author asks for bootstrap intervals, watches the draws, and saves them
   await page.getByRole("button", { name: "Save run" }).click();
   await expect(page.getByRole("status").filter({ hasText: "Saved — derived version" })).toBeVisible({ timeout: 60_000 });
 });
+
+test("the author compares the echo with n free, n = 1 and n = 2 and sees which the data support", async ({ page }) => {
+  await signIn(page, "author@lab.example.org");
+  const res = await page.request.get(`/api/manuscripts/${DEMO_MANUSCRIPT}/datasets`);
+  const { items } = (await res.json()) as { items: ListedDataset[] };
+  const echo = items.find((d) => d.name === "Hahn echo, NV03 (sample K17)" && d.latestVersion)!;
+  await page.goto(`/versions/${echo.latestVersion!.id}/fit`);
+  await page.getByLabel("Model").selectOption("hahn_echo");
+
+  const compare = page.getByRole("region", { name: "Compare models" });
+  await expect(compare.getByLabel("Candidate 1", { exact: true })).toHaveValue("hahn_echo");
+  // The second candidate starts as the same echo with n held at 1.
+  await expect(compare.getByLabel("Hold fixed (candidate 2)")).toHaveValue("n");
+  await expect(compare.getByLabel("n held at (candidate 2)")).toHaveValue("1");
+  await compare.getByRole("button", { name: "Add candidate" }).click();
+  await compare.getByLabel("Hold fixed (candidate 3)").selectOption("n");
+  await compare.getByRole("button", { name: "Compare" }).click();
+  await expect(compare.getByRole("alert")).toContainText("Candidate 3: give the value n is held at");
+  await compare.getByLabel("n held at (candidate 3)").fill("2");
+  await compare.getByRole("button", { name: "Compare" }).click();
+
+  const verdict = compare.getByTestId("comparison-verdict");
+  await expect(verdict).toContainText("Preferred:", { timeout: 30_000 });
+  const ranked = compare.getByRole("table", { name: "Candidates ranked" });
+  await expect(ranked.getByRole("row")).toHaveCount(4);
+  await expect(ranked).toContainText("n = 1 (held)");
+  await expect(compare.getByRole("table", { name: "F-tests of nested candidates" }).getByRole("row")).toHaveCount(3);
+  await expect(compare.getByRole("img", { name: /^Residuals of / })).toHaveCount(3);
+  await shoot(page, "fit-model-comparison");
+});

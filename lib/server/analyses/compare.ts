@@ -2,6 +2,7 @@ import "server-only";
 import { FitInputError, getModel } from "@/lib/analysis";
 import { compareModels } from "@/lib/analysis/model-comparison";
 import { resolveUnit } from "@/lib/analysis/param-unit";
+import type { UnitRole } from "@/lib/analysis/models/types";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { badRequest } from "@/lib/errors";
 import { manuscriptOfVersion } from "../datasets/scope";
@@ -31,7 +32,7 @@ export async function compareCandidates(user: SessionUser, raw: ComparisonInput)
     if (err instanceof FitInputError) throw badRequest(`candidates: ${err.message}.`);
     throw err;
   }
-  const unit = (u: string) => resolveUnit(u, data.xUnit, data.yUnit);
+  const unit = (u: UnitRole) => resolveUnit(u, data.xUnit, data.yUnit);
   return {
     versionId: input.versionId,
     inputSha256: data.version.sha256,
