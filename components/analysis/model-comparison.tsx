@@ -93,7 +93,7 @@ export function ModelComparison({ versionId, kind, models, modelId, columns, uni
     <section aria-labelledby="compare-heading">
       <Sheet>
         <h2 id="compare-heading" className="text-lg font-semibold">
-          Compare models
+          Compare fits
         </h2>
         <p className="mb-3 mt-1 text-sm text-muted">
           Fit two to four candidates to the same columns and fit window as above — other models, or one model with a parameter held (n = 1, 2, 3 …) — and see

@@ -42,7 +42,7 @@ test("the author compares the echo with n free, n = 1 and n = 2 and sees which t
   await page.goto(`/versions/${echo.latestVersion!.id}/fit`);
   await page.getByLabel("Model").selectOption("hahn_echo");
 
-  const compare = page.getByRole("region", { name: "Compare models" });
+  const compare = page.getByRole("region", { name: "Compare fits" });
   await expect(compare.getByLabel("Candidate 1", { exact: true })).toHaveValue("hahn_echo");
   // The second candidate starts as the same echo with n held at 1.
   await expect(compare.getByLabel("Hold fixed (candidate 2)")).toHaveValue("n");
