@@ -61,7 +61,7 @@ export function AnalysesWorkspace({
           />
         </Sheet>
       </section>
-      <section aria-labelledby="global-heading">
+      <section id="global-fit" aria-labelledby="global-heading" className="scroll-mt-4">
         <Sheet>
           <h2 id="global-heading" className="mb-3 text-lg font-semibold">
             Global fit

@@ -297,6 +297,7 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
       ) : null}
       {mayRun ? (
         <ModelComparison
+          key={modelId}
           versionId={versionId}
           kind={kind}
           models={models}

@@ -1,7 +1,7 @@
 "use client";
 import { useState } from "react";
 import { sendJson } from "@/components/api-client";
-import { Button, Notice, Select, Sheet, TextInput } from "@/components/ui";
+import { Button, Field, Notice, Select, Sheet, TextInput } from "@/components/ui";
 import { axisTitle } from "@/lib/data/format";
 import type { ComparisonResult, FitOptions, ModelInfo } from "./api";
 import { orderModels } from "./fit-options";
@@ -106,45 +106,46 @@ export function ModelComparison({ versionId, kind, models, modelId, columns, uni
             return (
               <li key={i} className="flex flex-wrap items-end gap-3 rounded-sm border border-rule bg-paper px-3 py-2" data-testid="comparison-candidate">
                 <span className="pb-2 text-sm font-semibold tabular-nums">{i + 1}.</span>
-                <label className="min-w-64 flex-1 text-sm">
-                  <span className="mb-1 block font-medium">Candidate {i + 1}</span>
-                  <Select value={d.model} onChange={(e) => update(i, { model: e.target.value, hold: "", value: "" })}>
-                    {suggested.length ? (
-                      <optgroup label="Suggested">
-                        {suggested.map((m) => (
+                <div className="min-w-64 flex-1">
+                  <Field label={`Candidate ${i + 1}`}>
+                    <Select value={d.model} onChange={(e) => update(i, { model: e.target.value, hold: "", value: "" })}>
+                      {suggested.length ? (
+                        <optgroup label="Suggested">
+                          {suggested.map((m) => (
+                            <option key={m.id} value={m.id}>
+                              {m.title} ({m.id})
+                            </option>
+                          ))}
+                        </optgroup>
+                      ) : null}
+                      <optgroup label={suggested.length ? "Other models" : "Models"}>
+                        {others.map((m) => (
                           <option key={m.id} value={m.id}>
                             {m.title} ({m.id})
                           </option>
                         ))}
                       </optgroup>
-                    ) : null}
-                    <optgroup label={suggested.length ? "Other models" : "Models"}>
-                      {others.map((m) => (
-                        <option key={m.id} value={m.id}>
-                          {m.title} ({m.id})
+                    </Select>
+                  </Field>
+                </div>
+                <div className="w-48">
+                  <Field label={`Hold fixed (candidate ${i + 1})`}>
+                    <Select value={d.hold} onChange={(e) => update(i, { hold: e.target.value, value: e.target.value ? d.value : "" })}>
+                      <option value="">nothing, all free</option>
+                      {(model?.parameters ?? []).map((p) => (
+                        <option key={p.name} value={p.name}>
+                          {p.name}
                         </option>
                       ))}
-                    </optgroup>
-                  </Select>
-                </label>
-                <label className="w-48 text-sm">
-                  <span className="mb-1 block font-medium">Hold fixed (candidate {i + 1})</span>
-                  <Select value={d.hold} onChange={(e) => update(i, { hold: e.target.value, value: e.target.value ? d.value : "" })}>
-                    <option value="">nothing, all free</option>
-                    {(model?.parameters ?? []).map((p) => (
-                      <option key={p.name} value={p.name}>
-                        {p.name}
-                      </option>
-                    ))}
-                  </Select>
-                </label>
+                    </Select>
+                  </Field>
+                </div>
                 {d.hold ? (
-                  <label className="w-32 text-sm">
-                    <span className="mb-1 block font-medium">
-                      {d.hold} held at (candidate {i + 1})
-                    </span>
-                    <TextInput inputMode="decimal" value={d.value} onChange={(e) => update(i, { value: e.target.value })} />
-                  </label>
+                  <div className="w-32">
+                    <Field label={`${d.hold} held at (candidate ${i + 1})`}>
+                      <TextInput inputMode="decimal" value={d.value} onChange={(e) => update(i, { value: e.target.value })} />
+                    </Field>
+                  </div>
                 ) : null}
                 {drafts.length > 2 ? (
                   <Button

@@ -25,7 +25,7 @@ test("the author fits a Hahn echo, sees T2 in µs with χ²ᵣ, and saves the ru
   await expect(page.getByRole("heading", { level: 1 })).toContainText(echo!.name);
   await expect(page.getByText("Fits give estimates, not calibrations.")).toBeVisible();
 
-  await page.getByLabel("Model").selectOption("hahn_echo");
+  await page.getByLabel("Model", { exact: true }).selectOption("hahn_echo");
   await expect(page.getByTestId("model-formula")).toContainText("S(t) = S₀ + A·exp(−(t/T₂)ⁿ)");
   await expect(page.getByLabel("x column")).toHaveValue("tau");
   await expect(page.getByLabel("y column")).toHaveValue("signal");
@@ -97,7 +97,7 @@ test("the author runs the batch of echo fits and sees population statistics by g
   await page.goto(`/manuscripts/${DEMO_MANUSCRIPT}`);
   await page.getByRole("link", { name: "Analyses", exact: true }).click();
   await expect(page.getByRole("heading", { level: 1, name: "Analyses" })).toBeVisible();
-  await expect(page.getByLabel("Model")).toHaveValue("hahn_echo");
+  await expect(page.getByLabel("Model", { exact: true })).toHaveValue("hahn_echo");
   await expect(page.getByLabel("Measurement kind")).toHaveValue("hahn_echo");
 
   await page.getByRole("button", { name: "Run 12 fits" }).click();

@@ -3,7 +3,13 @@ import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
 
 test("the author fits the CPMG series of one centre together, sharing S0 and A", async ({ page }) => {
   await signIn(page, "author@lab.example.org");
-  await page.goto(`/manuscripts/${DEMO_MANUSCRIPT}/analyses`);
+  // From one curve's fit page to the global fit over the series.
+  const res = await page.request.get(`/api/manuscripts/${DEMO_MANUSCRIPT}/datasets`);
+  const { items } = (await res.json()) as { items: Array<{ kind: string; latestVersion: { id: string } | null }> };
+  const cpmg = items.find((d) => d.kind === "decoupling" && d.latestVersion)!;
+  await page.goto(`/versions/${cpmg.latestVersion!.id}/fit`);
+  await page.getByRole("link", { name: "Global fit over several datasets" }).click();
+  await expect(page).toHaveURL(/\/analyses#global-fit$/);
   const section = page.getByRole("region", { name: "Global fit" });
   await section.getByLabel("Measurement kind for the global fit").selectOption("decoupling");
   await section.getByLabel("Model for the global fit").selectOption("hahn_echo");

@@ -40,9 +40,17 @@ export default async function FitPage({ params, searchParams }: { params: Promis
           </>
         }
         actions={
-          <Link href={`/manuscripts/${dataset.manuscriptId}/analyses`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
-            Batch fits and statistics
-          </Link>
+          <>
+            <Link
+              href={`/manuscripts/${dataset.manuscriptId}/analyses#global-fit`}
+              className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper"
+            >
+              Global fit over several datasets
+            </Link>
+            <Link href={`/manuscripts/${dataset.manuscriptId}/analyses`} className="rounded-sm border border-rule bg-sheet px-3 py-1.5 text-sm hover:bg-paper">
+              Batch fits and statistics
+            </Link>
+          </>
         }
       />
       <EstimateCaution />
