@@ -98,7 +98,7 @@ test("the author runs the batch of echo fits and sees population statistics by g
   await page.getByRole("link", { name: "Analyses", exact: true }).click();
   await expect(page.getByRole("heading", { level: 1, name: "Analyses" })).toBeVisible();
   await expect(page.getByLabel("Model", { exact: true })).toHaveValue("hahn_echo");
-  await expect(page.getByLabel("Measurement kind")).toHaveValue("hahn_echo");
+  await expect(page.getByLabel("Measurement kind", { exact: true })).toHaveValue("hahn_echo");
 
   await page.getByRole("button", { name: "Run 12 fits" }).click();
   const bar = page.getByRole("progressbar", { name: "Batch fit progress" });
@@ -110,8 +110,8 @@ test("the author runs the batch of echo fits and sees population statistics by g
   await expect(results.getByText("✓").first()).toBeVisible();
   await expect(results.getByText("converged")).toHaveCount(12);
 
-  await expect(page.getByLabel("Parameter")).toHaveValue("T2");
-  await expect(page.getByLabel("Group by")).toHaveValue("group");
+  await expect(page.getByLabel("Parameter", { exact: true })).toHaveValue("T2");
+  await expect(page.getByLabel("Group by", { exact: true })).toHaveValue("group");
   await expect(page.getByTestId("statistics-summary")).toContainText("12 fitted values of T2 (µs) in 3 groups by group");
   const groups = page.getByRole("table", { name: "Statistics of T2 per group" });
   await expect(groups.getByRole("row")).toHaveCount(4);
@@ -123,7 +123,7 @@ test("the author runs the batch of echo fits and sees population statistics by g
   await expect(page.getByText(/Welch's t-test/)).toBeVisible();
   await shoot(page, "batch");
 
-  await page.getByLabel("Group by").selectOption("kind");
+  await page.getByLabel("Group by", { exact: true }).selectOption("kind");
   await expect(page.getByTestId("statistics-summary")).toContainText("in 1 group by kind");
 });
 
