@@ -96,7 +96,7 @@ export const decisions = sqliteTable(
       .references(() => users.id),
     createdAt: createdAt(),
   },
-  (t) => [index("decisions_panel").on(t.panelId)],
+  (t) => [index("decisions_panel").on(t.panelId), index("decisions_latest").on(t.panelId, t.userId, t.contentHash, t.createdAt)],
 );
 
 export const signoffs = sqliteTable(

@@ -121,7 +121,7 @@ function presentFigure(review: FigureReview, role: Role | null, warningCounts: M
 /** The manuscript's figures; archived ones only when `archived` asks for them (then only those). */
 export async function listFiguresForManuscript(user: SessionUser, manuscriptId: string, knownRole?: Role | null, archived = false) {
   const role = knownRole ?? (await authorize(user, "manuscript.read", manuscriptId));
-  const reviews = await loadReviewContext({ manuscriptId, archived });
+  const reviews = await loadReviewContext({ manuscriptId, archived }, undefined, "latest-on-current");
   const counts = await dataWarningCounts(reviews);
   return reviews.map((r) => presentFigure(r, role, counts));
 }

@@ -1,7 +1,7 @@
 import "server-only";
-import { and, eq, isNull } from "drizzle-orm";
+import { and, eq, inArray, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { comments, manuscripts, threads } from "@/db/schema";
+import { comments, figures, manuscripts, panels, threads } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
 import { membershipsForUser } from "../manuscripts";
 import { loadReviewContext } from "./review-context";
@@ -26,7 +26,7 @@ export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
   const items: QueueItem[] = [];
   for (const m of memberships) {
     const [ms] = await getDb().select({ title: manuscripts.title }).from(manuscripts).where(eq(manuscripts.id, m.manuscriptId));
-    for (const f of await loadReviewContext({ manuscriptId: m.manuscriptId })) {
+    for (const f of await loadReviewContext({ manuscriptId: m.manuscriptId }, undefined, "latest-on-current")) {
       const base = {
         manuscriptId: m.manuscriptId,
         manuscriptTitle: ms.title,
@@ -50,22 +50,31 @@ export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
         items.push({ kind: "signoff", ...base, state: f.state, since: new Date().toISOString(), what: `sign off figure ${f.figure.number}` });
     }
   }
-  const mentioned = await getDb()
-    .select({ c: comments, t: threads })
-    .from(comments)
-    .innerJoin(threads, eq(threads.id, comments.threadId))
-    .where(and(isNull(threads.resolvedAt), isNull(comments.deletedAt)));
+  // Per open thread of the caller's manuscripts: when they were last mentioned and last wrote, summed up in SQL.
+  const memberOf = memberships.map((m) => m.manuscriptId);
+  const lastMention = sql<number | null>`max(case when exists (select 1 from json_each(${comments.mentions}) where value = ${user.id}) then ${comments.createdAt} end)`;
+  const lastReply = sql<number | null>`max(case when ${comments.createdBy} = ${user.id} then ${comments.createdAt} end)`;
+  const perThread = memberOf.length
+    ? await getDb()
+        .select({ threadId: threads.id, panelId: threads.panelId, lastMention, lastReply })
+        .from(comments)
+        .innerJoin(threads, eq(threads.id, comments.threadId))
+        .innerJoin(panels, eq(panels.id, threads.panelId))
+        .innerJoin(figures, eq(figures.id, panels.figureId))
+        .where(and(isNull(threads.resolvedAt), isNull(comments.deletedAt), inArray(figures.manuscriptId, memberOf)))
+        .groupBy(threads.id)
+    : [];
   const byThread = new Map<string, { mentionAt: Date; repliedAt: Date | null; panelId: string }>();
-  for (const { c, t } of mentioned) {
-    const e = byThread.get(t.id) ?? { mentionAt: new Date(0), repliedAt: null, panelId: t.panelId };
-    if (c.mentions.includes(user.id) && c.createdAt > e.mentionAt) e.mentionAt = c.createdAt;
-    if (c.createdBy === user.id && (!e.repliedAt || c.createdAt > e.repliedAt)) e.repliedAt = c.createdAt;
-    byThread.set(t.id, e);
-  }
+  for (const t of perThread)
+    byThread.set(t.threadId, {
+      mentionAt: new Date(t.lastMention ?? 0),
+      repliedAt: t.lastReply === null ? null : new Date(t.lastReply),
+      panelId: t.panelId,
+    });
   const waiting = [...byThread.entries()].filter(([, e]) => e.mentionAt.getTime() > 0 && (!e.repliedAt || e.repliedAt < e.mentionAt));
   if (waiting.length) {
     const manuscriptIds = memberships.map((m) => m.manuscriptId);
-    for (const ctx of manuscriptIds.length ? await Promise.all(manuscriptIds.map((id) => loadReviewContext({ manuscriptId: id }))) : []) {
+    for (const ctx of manuscriptIds.length ? await Promise.all(manuscriptIds.map((id) => loadReviewContext({ manuscriptId: id }, undefined, "latest-on-current"))) : []) {
       for (const f of ctx)
         for (const p of f.panels)
           for (const [, e] of waiting.filter(([, e]) => e.panelId === p.panel.id)) {

@@ -1,5 +1,6 @@
 import "server-only";
-import { and, asc, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
+import { alias } from "drizzle-orm/sqlite-core";
+import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, notExists, or, sql } from "drizzle-orm";
 import { getDb, type Executor } from "@/db/client";
 import { decisions, figures, panels, revisions, signoffs, threads, users } from "@/db/schema";
 import { figureReviewState, panelReviewState, type ReviewState } from "@/lib/review/derive-state";
@@ -7,10 +8,65 @@ import { letterFor } from "../figures/scope";
 import { figureContentHash } from "../figures/figure-hash";
 
 /**
+ * Which decisions a review context carries: every one ever made (the figure page's history), or
+ * only each person's latest on each panel's current content (all that review states need; the
+ * board and the queue read this, so their cost does not grow with a long review history).
+ */
+type DecisionHistory = "all" | "latest-on-current";
+
+const laterDecision = alias(decisions, "later_decision");
+
+function allDecisions(db: Executor, panelIds: string[]) {
+  return db
+    .select({ d: decisions, name: users.name })
+    .from(decisions)
+    .innerJoin(users, eq(users.id, decisions.userId))
+    .where(inArray(decisions.panelId, panelIds))
+    .orderBy(asc(decisions.createdAt), sql`${decisions}.rowid`);
+}
+
+/** Each person's latest decision (by time, then by insertion) on each panel's current content hash. */
+function latestDecisionsOnCurrent(db: Executor, panelIds: string[]) {
+  return db
+    .select({ d: decisions, name: users.name })
+    .from(decisions)
+    .innerJoin(users, eq(users.id, decisions.userId))
+    .innerJoin(panels, eq(panels.id, decisions.panelId))
+    .innerJoin(revisions, eq(revisions.id, panels.currentRevisionId))
+    .where(
+      and(
+        inArray(decisions.panelId, panelIds),
+        eq(decisions.contentHash, revisions.contentHash),
+        notExists(
+          db
+            .select({ one: sql`1` })
+            .from(laterDecision)
+            .where(
+              and(
+                eq(laterDecision.panelId, decisions.panelId),
+                eq(laterDecision.userId, decisions.userId),
+                eq(laterDecision.contentHash, decisions.contentHash),
+                or(
+                  gt(laterDecision.createdAt, decisions.createdAt),
+                  and(eq(laterDecision.createdAt, decisions.createdAt), sql`${laterDecision}.rowid > ${decisions}.rowid`),
+                ),
+              ),
+            ),
+        ),
+      ),
+    )
+    .orderBy(asc(decisions.createdAt), sql`${decisions}.rowid`);
+}
+
+/**
  * Everything needed to derive review states for the figures of one manuscript (or one figure), in a
  * few queries; inside a transaction, pass it to see that transaction's own writes.
  */
-export async function loadReviewContext(where: { manuscriptId?: string; figureId?: string; archived?: boolean }, db: Executor = getDb()) {
+export async function loadReviewContext(
+  where: { manuscriptId?: string; figureId?: string; archived?: boolean },
+  db: Executor = getDb(),
+  history: DecisionHistory = "all",
+) {
   // A manuscript's figures leave out archived ones (or, asked for, list only those); one figure is found either way.
   const figs = await db
     .select()
@@ -34,14 +90,7 @@ export async function loadReviewContext(where: { manuscriptId?: string; figureId
   const revIds = ps.map((p) => p.currentRevisionId).filter((x): x is string => Boolean(x));
   const [revs, decs, signs, threadRows] = await Promise.all([
     revIds.length ? db.select().from(revisions).where(inArray(revisions.id, revIds)) : [],
-    panelIds.length
-      ? db
-          .select({ d: decisions, name: users.name })
-          .from(decisions)
-          .innerJoin(users, eq(users.id, decisions.userId))
-          .where(inArray(decisions.panelId, panelIds))
-          .orderBy(asc(decisions.createdAt))
-      : [],
+    panelIds.length ? (history === "all" ? allDecisions(db, panelIds) : latestDecisionsOnCurrent(db, panelIds)) : [],
     figIds.length ? db.select().from(signoffs).where(inArray(signoffs.figureId, figIds)).orderBy(desc(signoffs.createdAt)) : [],
     panelIds.length ? db.select({ panelId: threads.panelId, resolvedAt: threads.resolvedAt }).from(threads).where(inArray(threads.panelId, panelIds)) : [],
   ]);

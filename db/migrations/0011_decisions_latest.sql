@@ -1,0 +1,1 @@
+CREATE INDEX `decisions_latest` ON `decisions` (`panel_id`,`user_id`,`content_hash`,`created_at`);
