@@ -34,7 +34,7 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
     if (p.archivedAt) throw conflict("This panel is archived; restore it before deciding on it.");
     if (!p.reviewRequestedAt)
       throw conflict("This panel is a draft: comment on it freely, but approvals and requests for a revision wait until its author sends it to review.");
-    const [before] = await loadReviewContext({ figureId: p.figureId }, tx);
+    const [before] = await loadReviewContext({ figureId: p.figureId }, tx, "latest-on-current");
     await tx
       .insert(decisions)
       .values({ id, panelId, revisionId: rev.id, contentHash: rev.contentHash, decision: input.decision, note: input.note ?? "", userId: user.id });
@@ -45,7 +45,7 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
       target: `panel:${panelId}`,
       data: { revisionId: rev.id, contentHash: rev.contentHash, note: input.note ?? "", ...(input.acknowledgedWarnings ? { acknowledgedWarnings: true } : {}) },
     });
-    const [after] = await loadReviewContext({ figureId: p.figureId }, tx);
+    const [after] = await loadReviewContext({ figureId: p.figureId }, tx, "latest-on-current");
     await noticeDecision(tx, user, rev, input.decision, input.note ?? "", { before: before, after: after });
   });
   return { id, panelId, revisionId: input.revisionId, decision: input.decision };

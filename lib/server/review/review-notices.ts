@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, eq, isNull } from "drizzle-orm";
+import { and, asc, eq, isNull, ne } from "drizzle-orm";
 import type { Executor } from "@/db/client";
 import { comments, decisions, figures, manuscriptMembers, manuscripts, panels, threadFollows, type revisions } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
@@ -208,14 +208,15 @@ export async function noticeComment(
     lines: [`${actor.name} wrote on ${place.label}${named(place.panelTitle)}:`, `“${c.excerpt}”`],
   };
   await notify(tx, { ...common, kind: "mention", to: c.mentions, headline: `${actor.name} mentioned you on ${place.label}` });
+  // Everyone who wrote in the thread before (one row each, however long the thread).
   const earlier = await tx
-    .select({ id: comments.id, by: comments.createdBy, deletedAt: comments.deletedAt })
+    .selectDistinct({ by: comments.createdBy })
     .from(comments)
-    .where(eq(comments.threadId, c.threadId));
+    .where(and(eq(comments.threadId, c.threadId), ne(comments.id, c.id), isNull(comments.deletedAt)));
   const people = new Set((await members(tx, place.manuscriptId)).map((m) => m.userId));
   const choices = await tx.select().from(threadFollows).where(eq(threadFollows.threadId, c.threadId));
   const stopped = new Set(choices.filter((f) => !f.following).map((f) => f.userId));
-  const writers = earlier.filter((e) => e.id !== c.id && !e.deletedAt).map((e) => e.by);
+  const writers = earlier.map((e) => e.by);
   const followers = choices.filter((f) => f.following).map((f) => f.userId);
   const to = [...writers, ...followers].filter((id) => people.has(id) && !stopped.has(id) && !c.mentions.includes(id));
   await notify(tx, { ...common, kind: "reply", to, headline: `${actor.name} replied on ${place.label}` });
