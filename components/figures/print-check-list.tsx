@@ -2,6 +2,7 @@
 import { useQuery } from "@tanstack/react-query";
 import { fetchJson } from "@/components/api-client";
 import type { PrintCheck } from "@/lib/figures/print-check";
+import { KeepOlderVersion } from "./keep-older-version";
 
 /** The figure's print check (GET /api/figures/{id}/print-check), refetched when the figure hash changes. */
 function usePrintCheck(figureId: string, figureHash: string) {
@@ -16,7 +17,18 @@ function usePrintCheck(figureId: string, figureHash: string) {
  * The print check as a checklist: each rule with ✓ or ✕ and, for a failure, the reason per panel.
  * `failuresOnly` (the sign-off box) lists the failing rules alone under a one-line summary.
  */
-export function PrintCheckList({ figureId, figureHash, failuresOnly = false }: { figureId: string; figureHash: string; failuresOnly?: boolean }) {
+export function PrintCheckList({
+  figureId,
+  figureHash,
+  failuresOnly = false,
+  mayKeepOlder = false,
+}: {
+  figureId: string;
+  figureHash: string;
+  failuresOnly?: boolean;
+  /** Offer to keep an older bound version on purpose (those who may edit the figure). */
+  mayKeepOlder?: boolean;
+}) {
   const check = usePrintCheck(figureId, figureHash);
   if (check.isLoading) return <p className="text-xs text-muted">Print check: drawing the figure…</p>;
   if (check.isError) return <p className="text-xs text-bad">Print check: {check.error.message}</p>;
@@ -48,6 +60,7 @@ export function PrintCheckList({ figureId, figureHash, failuresOnly = false }: {
                     ))}
                   </ul>
                 ) : null}
+                {!i.ok && mayKeepOlder ? i.keep?.map((k) => <KeepOlderVersion key={`${k.panelId}|${k.dataset}|${k.number}`} older={k} />) : null}
               </div>
             </li>
           ))}

@@ -242,7 +242,7 @@ export function SignoffBox({ figureId, figureHash, reviewState, canSignOff, sign
             <p className="mb-2 text-xs text-muted">Not every panel is approved on its current revision; signing off now asks for a reason.</p>
           ) : null}
           <div className="mb-2">
-            <PrintCheckList figureId={figureId} figureHash={figureHash} failuresOnly />
+            <PrintCheckList figureId={figureId} figureHash={figureHash} failuresOnly mayKeepOlder />
           </div>
           <Button type="button" onClick={() => sign.mutate(false)} disabled={sign.isPending}>
             {sign.isPending ? "Signing off…" : "Sign off this figure"}

@@ -43,6 +43,17 @@ export interface PrintCheckItem {
   problems: string[];
   /** What was found when it passes (or why nothing was there to check). */
   detail?: string;
+  /** Latest data: the older versions that fail, each of which its panel could keep on purpose. */
+  keep?: OlderVersion[];
+}
+
+/** An older dataset version a panel is bound to, which a new revision's message can keep on purpose. */
+export interface OlderVersion {
+  panelId: string;
+  panel: string;
+  dataset: string;
+  number: number;
+  latest: number;
 }
 
 export interface PrintCheck {
@@ -620,6 +631,7 @@ export function checkRasterDpi(accepted: number[], min = MIN_RASTER_DPI): PrintC
 }
 
 export interface BoundVersion {
+  panelId: string;
   panel: string;
   /** Data name in the spec. */
   name: string;
@@ -639,6 +651,7 @@ export function keepsVersion(message: string, number: number): boolean {
 
 export function checkLatestVersions(bound: BoundVersion[]): PrintCheckItem {
   const problems: string[] = [];
+  const keep: OlderVersion[] = [];
   let kept = 0;
   for (const b of bound) {
     if (b.number >= b.latest) continue;
@@ -646,9 +659,11 @@ export function checkLatestVersions(bound: BoundVersion[]): PrintCheckItem {
       kept++;
       continue;
     }
+    if (!keep.some((k) => k.panelId === b.panelId && k.dataset === b.dataset && k.number === b.number))
+      keep.push({ panelId: b.panelId, panel: b.panel, dataset: b.dataset, number: b.number, latest: b.latest });
     const what = b.viaAnalysis ? `the fit bound as “${b.name}” was run on` : `“${b.name}” is bound to`;
     problems.push(
-      `panel ${b.panel}: ${what} ${quote(b.dataset)} version ${b.number}, but version ${b.latest} is the latest — rebind it, or save a revision whose message says “keep version ${b.number}: …”`,
+      `panel ${b.panel}: ${what} ${quote(b.dataset)} version ${b.number}, but version ${b.latest} is the latest — rebind it, or keep version ${b.number} on purpose with a reason (saved as a revision note: “keep version ${b.number}: …”)`,
     );
   }
   return {
@@ -656,6 +671,7 @@ export function checkLatestVersions(bound: BoundVersion[]): PrintCheckItem {
     label: "Every panel bound to its dataset's latest version (or kept on purpose)",
     ok: problems.length === 0,
     problems,
+    ...(keep.length ? { keep } : {}),
     detail: `${bound.length} bound version${bound.length === 1 ? "" : "s"}${kept ? `, ${kept} older one${kept === 1 ? "" : "s"} kept on purpose` : ""}`,
   };
 }

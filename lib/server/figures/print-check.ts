@@ -71,7 +71,7 @@ async function drawnFigure(review: FigureReview): Promise<Drawn | { error: strin
 }
 
 /** The bound versions of each panel (and the versions its fits ran on), with their dataset's latest number. */
-async function boundVersions(panels: Array<{ letter: string; bound: Record<string, BoundInput>; message: string }>): Promise<{
+async function boundVersions(panels: Array<{ id: string; letter: string; bound: Record<string, BoundInput>; message: string }>): Promise<{
   list: BoundVersion[];
   headers: Map<string, Record<string, string>>;
 }> {
@@ -110,7 +110,16 @@ async function boundVersions(panels: Array<{ letter: string; bound: Record<strin
       const viaAnalysis = b.kind === "analysis";
       const v = byId.get(viaAnalysis ? (inputOf.get(b.id) ?? b.versionId) : b.versionId);
       if (!v) continue;
-      list.push({ panel: p.letter, name, dataset: v.name, number: v.number, latest: latest.get(v.datasetId) ?? v.number, viaAnalysis, message: p.message });
+      list.push({
+        panelId: p.id,
+        panel: p.letter,
+        name,
+        dataset: v.name,
+        number: v.number,
+        latest: latest.get(v.datasetId) ?? v.number,
+        viaAnalysis,
+        message: p.message,
+      });
     }
   }
   return { list, headers: new Map(rows.map((r) => [r.id, r.parseInfo.headerMetadata ?? {}])) };
@@ -126,6 +135,7 @@ export async function printCheckOf(review: FigureReview): Promise<PrintCheck> {
   const fig = review.figure;
   const withRevision = review.panels.filter((p) => p.revision);
   const panels = withRevision.map((p) => ({
+    id: p.panel.id,
     letter: p.letter,
     title: p.panel.title,
     spec: JSON.parse(p.revision!.spec) as unknown,

@@ -217,13 +217,19 @@ describe("raster resolution and data versions", () => {
   });
 
   it("an older version fails unless the revision message keeps it on purpose", () => {
-    const old = { panel: "c", name: "spectrum", dataset: "PL spectrum", number: 1, latest: 2, viaAnalysis: false, message: "first cut" };
+    const old = { panelId: "p3", panel: "c", name: "spectrum", dataset: "PL spectrum", number: 1, latest: 2, viaAnalysis: false, message: "first cut" };
     expect(checkLatestVersions([old]).problems).toEqual([
-      "panel c: “spectrum” is bound to “PL spectrum” version 1, but version 2 is the latest — rebind it, or save a revision whose message says “keep version 1: …”",
+      "panel c: “spectrum” is bound to “PL spectrum” version 1, but version 2 is the latest — rebind it, or keep version 1 on purpose with a reason (saved as a revision note: “keep version 1: …”)",
+    ]);
+    // The same old version bound twice in one panel is offered for keeping once.
+    expect(checkLatestVersions([old, { ...old, name: "spectrum-fit", viaAnalysis: true }]).keep).toEqual([
+      { panelId: "p3", panel: "c", dataset: "PL spectrum", number: 1, latest: 2 },
     ]);
     expect(keepsVersion("Keep version 1: the dark-subtracted version 2 hides the NV⁰ line", 1)).toBe(true);
     expect(keepsVersion("keep v2", 1)).toBe(false);
-    expect(checkLatestVersions([{ ...old, message: "keeping v1 on purpose (raw counts)" }])).toMatchObject({ ok: true });
+    const kept = checkLatestVersions([{ ...old, message: "keeping v1 on purpose (raw counts)" }]);
+    expect(kept).toMatchObject({ ok: true });
+    expect(kept.keep).toBeUndefined();
     expect(checkLatestVersions([{ ...old, number: 2 }]).ok).toBe(true);
   });
 });

@@ -85,7 +85,7 @@ export function FigureWorkspace({ initial, members, manuscriptTitle }: { initial
             />
           </Side>
           <Side title="Print check">
-            <PrintCheckList figureId={figure.id} figureHash={figure.figureHash} />
+            <PrintCheckList figureId={figure.id} figureHash={figure.figureHash} mayKeepOlder={editable} />
           </Side>
           <Side title="Export">
             <ExportLinks figure={figure} />
