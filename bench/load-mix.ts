@@ -10,7 +10,9 @@
  * At 32 and at 128 clients, the mix and GET /api/ping alternate in 5 slices (2 s warm-up, 10 s
  * timed each), so other work on the machine weighs on both. Then a soak: the mix at 32 clients for
  * LOAD_SOAK_MS (10 minutes by default) with the server's resident memory sampled every 5 s; the
- * slope after the first fifth is the growth.
+ * slope after the first fifth is the growth. Each kind's service time (one client, one request
+ * after another) is measured before the load and after the soak, so what grows with the history
+ * the load leaves behind (comments, decisions) shows.
  *
  * Goals (issue 15): board p95 ≤ 2 × bare p95 at 32 clients; 0 errors at 128.
  */
@@ -124,28 +126,34 @@ export async function benchLoadMix(): Promise<Record<string, unknown>> {
     });
 
     // What each kind costs the server alone: one client, requests one after another, after a warm-up.
-    const service: Record<string, { requests: number; meanMs: number; p50Ms: number; p95Ms: number }> = {};
-    let drawn = 0;
-    for (const [kind] of MIX) {
-      const times: number[] = [];
-      for (let seq = 0; seq < SERVICE_WARMUP + SERVICE_REQUESTS; seq++) {
-        let request: LoadRequest;
-        do request = mixed(drawn++, seq, "service");
-        while (request.kind !== kind);
-        const t0 = performance.now();
-        const res = await fetch(request.url, request.init);
-        await res.arrayBuffer();
-        if (seq >= SERVICE_WARMUP) times.push(performance.now() - t0);
+    // Measured before the load and again after the soak, to show what grows with the history the load leaves.
+    type ServiceTimes = Record<string, { requests: number; meanMs: number; p50Ms: number; p95Ms: number }>;
+    const serviceTimes = async (phase: string): Promise<ServiceTimes> => {
+      const service: ServiceTimes = {};
+      let drawn = 0;
+      for (const [kind] of MIX) {
+        const times: number[] = [];
+        for (let seq = 0; seq < SERVICE_WARMUP + SERVICE_REQUESTS; seq++) {
+          let request: LoadRequest;
+          do request = mixed(drawn++, seq, phase);
+          while (request.kind !== kind);
+          const t0 = performance.now();
+          const res = await fetch(request.url, request.init);
+          await res.arrayBuffer();
+          if (seq >= SERVICE_WARMUP) times.push(performance.now() - t0);
+        }
+        times.sort((a, b) => a - b);
+        service[kind] = {
+          requests: times.length,
+          meanMs: round(times.reduce((a, b) => a + b, 0) / times.length, 2),
+          p50Ms: round(times[Math.floor(times.length / 2)]!, 2),
+          p95Ms: round(times[Math.floor(times.length * 0.95)]!, 2),
+        };
       }
-      times.sort((a, b) => a - b);
-      service[kind] = {
-        requests: times.length,
-        meanMs: round(times.reduce((a, b) => a + b, 0) / times.length, 2),
-        p50Ms: round(times[Math.floor(times.length / 2)]!, 2),
-        p95Ms: round(times[Math.floor(times.length * 0.95)]!, 2),
-      };
-    }
-    console.log("\n  service time by kind (one client, sequential):");
+      return service;
+    };
+    const service = await serviceTimes("service");
+    console.log("\n  service time by kind (one client, sequential), before the load:");
     console.table(service);
 
     const phases: Record<string, { bare: LoadResult; mix: LoadResult }> = {};
@@ -199,6 +207,9 @@ export async function benchLoadMix(): Promise<Record<string, unknown>> {
     };
     console.log("\n  soak, 32 clients:");
     console.table({ soak: soakReport });
+    const serviceAfter = await serviceTimes("service-after");
+    console.log("\n  service time by kind (one client, sequential), after the soak:");
+    console.table(serviceAfter);
 
     const board32 = phases["32"]!.mix.byKind.board!;
     const ratio = board32.p95 / phases["32"]!.bare.latencyMs.p95;
@@ -225,6 +236,7 @@ export async function benchLoadMix(): Promise<Record<string, unknown>> {
         ]),
       ),
       serviceTime: service,
+      serviceTimeAfterSoak: serviceAfter,
       soak: soakReport,
       goals,
       build: srv.build,
