@@ -18,18 +18,18 @@ interface CurrentRevision {
  * as a new revision whose note says “keep version N: why”. The content hash does not change, so
  * reviews and approvals stand; the reason is in the revision history and the trace.
  */
-export function KeepOlderVersion({ older }: { older: OlderVersion }) {
+export function KeepOlderVersion({ older, onKept }: { older: OlderVersion; onKept: (text: string) => void }) {
   const queryClient = useQueryClient();
   const [open, setOpen] = useState(false);
   const [reason, setReason] = useState("");
   const [busy, setBusy] = useState(false);
-  const [outcome, setOutcome] = useState<{ ok: boolean; text: string } | null>(null);
+  const [problem, setProblem] = useState<string | null>(null);
   const what = `version ${older.number} of “${older.dataset}” in panel ${older.panel}`;
 
   async function keep() {
-    if (!reason.trim()) return setOutcome({ ok: false, text: "Say why this version is kept: the reason is what a reader of the trace will see." });
+    if (!reason.trim()) return setProblem("Say why this version is kept: the reason is what a reader of the trace will see.");
     setBusy(true);
-    setOutcome(null);
+    setProblem(null);
     try {
       const panel = await fetchJson<{ currentRevision: CurrentRevision | null }>(`/api/panels/${older.panelId}`);
       const current = panel.currentRevision;
@@ -42,11 +42,11 @@ export function KeepOlderVersion({ older }: { older: OlderVersion }) {
         baseRevisionId: current.id,
         message: `keep version ${older.number}: ${reason.trim()}${earlier}`,
       });
-      setOutcome({ ok: true, text: `Kept: revision ${saved.number} of panel ${older.panel} records why; its content is unchanged, so reviews stand.` });
-      setOpen(false);
+      // The check passes now and this control goes away: the list above it says what happened.
+      onKept(`Kept: revision ${saved.number} of panel ${older.panel} records why; its content is unchanged, so reviews stand.`);
       await queryClient.invalidateQueries();
     } catch (err) {
-      setOutcome({ ok: false, text: (err as Error).message });
+      setProblem((err as Error).message);
     } finally {
       setBusy(false);
     }
@@ -72,9 +72,9 @@ export function KeepOlderVersion({ older }: { older: OlderVersion }) {
           Keep version {older.number} of “{older.dataset}” in panel {older.panel} on purpose…
         </Button>
       )}
-      {outcome ? (
-        <p role={outcome.ok ? "status" : "alert"} className={outcome.ok ? "mt-1 text-good" : "mt-1 text-bad"}>
-          {outcome.text}
+      {problem ? (
+        <p role="alert" className="mt-1 text-bad">
+          {problem}
         </p>
       ) : null}
     </div>

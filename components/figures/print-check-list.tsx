@@ -1,5 +1,6 @@
 "use client";
 import { useQuery } from "@tanstack/react-query";
+import { useState } from "react";
 import { fetchJson } from "@/components/api-client";
 import type { PrintCheck } from "@/lib/figures/print-check";
 import { KeepOlderVersion } from "./keep-older-version";
@@ -30,6 +31,7 @@ export function PrintCheckList({
   mayKeepOlder?: boolean;
 }) {
   const check = usePrintCheck(figureId, figureHash);
+  const [kept, setKept] = useState<string | null>(null);
   if (check.isLoading) return <p className="text-xs text-muted">Print check: drawing the figure…</p>;
   if (check.isError) return <p className="text-xs text-bad">Print check: {check.error.message}</p>;
   const items = check.data?.items ?? [];
@@ -60,11 +62,18 @@ export function PrintCheckList({
                     ))}
                   </ul>
                 ) : null}
-                {!i.ok && mayKeepOlder ? i.keep?.map((k) => <KeepOlderVersion key={`${k.panelId}|${k.dataset}|${k.number}`} older={k} />) : null}
+                {!i.ok && mayKeepOlder
+                  ? i.keep?.map((k) => <KeepOlderVersion key={`${k.panelId}|${k.dataset}|${k.number}`} older={k} onKept={setKept} />)
+                  : null}
               </div>
             </li>
           ))}
         </ul>
+      ) : null}
+      {kept ? (
+        <p role="status" className="mt-1 text-good">
+          {kept}
+        </p>
       ) : null}
     </div>
   );
