@@ -1,6 +1,6 @@
 import "server-only";
 import { alias } from "drizzle-orm/sqlite-core";
-import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, notExists, or, sql } from "drizzle-orm";
+import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, notExists, sql, type SQL } from "drizzle-orm";
 import { getDb, type Executor } from "@/db/client";
 import { decisions, figures, panels, revisions, signoffs, threads, users } from "@/db/schema";
 import { figureReviewState, panelReviewState, type ReviewState } from "@/lib/review/derive-state";
@@ -25,6 +25,21 @@ function allDecisions(db: Executor, panelIds: string[]) {
     .orderBy(asc(decisions.createdAt), sql`${decisions}.rowid`);
 }
 
+/** A later decision by the same person on the same panel and content than the outer one, given how it is later. */
+function laterProbe(db: Executor, later: SQL | undefined) {
+  return db
+    .select({ one: sql`1` })
+    .from(laterDecision)
+    .where(
+      and(
+        eq(laterDecision.panelId, decisions.panelId),
+        eq(laterDecision.userId, decisions.userId),
+        eq(laterDecision.contentHash, decisions.contentHash),
+        later,
+      ),
+    );
+}
+
 /** Each person's latest decision (by time, then by insertion) on each panel's current content hash. */
 function latestDecisionsOnCurrent(db: Executor, panelIds: string[]) {
   return db
@@ -37,22 +52,9 @@ function latestDecisionsOnCurrent(db: Executor, panelIds: string[]) {
       and(
         inArray(decisions.panelId, panelIds),
         eq(decisions.contentHash, revisions.contentHash),
-        notExists(
-          db
-            .select({ one: sql`1` })
-            .from(laterDecision)
-            .where(
-              and(
-                eq(laterDecision.panelId, decisions.panelId),
-                eq(laterDecision.userId, decisions.userId),
-                eq(laterDecision.contentHash, decisions.contentHash),
-                or(
-                  gt(laterDecision.createdAt, decisions.createdAt),
-                  and(eq(laterDecision.createdAt, decisions.createdAt), sql`${laterDecision}.rowid > ${decisions}.rowid`),
-                ),
-              ),
-            ),
-        ),
+        // Two probes rather than one with OR: each is a range on the decisions_latest index.
+        notExists(laterProbe(db, gt(laterDecision.createdAt, decisions.createdAt))),
+        notExists(laterProbe(db, and(eq(laterDecision.createdAt, decisions.createdAt), sql`${laterDecision}.rowid > ${decisions}.rowid`))),
       ),
     )
     .orderBy(asc(decisions.createdAt), sql`${decisions}.rowid`);
