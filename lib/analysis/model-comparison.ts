@@ -31,7 +31,7 @@ export interface ComparisonData {
   xUnit?: string | null;
 }
 
-export interface RankedCandidate {
+interface RankedCandidate {
   label: string;
   modelId: string;
   fit: ModelFitResult;
@@ -45,7 +45,7 @@ export interface RankedCandidate {
   eligible: boolean;
 }
 
-export interface NestedTest {
+interface NestedTest {
   /** Labels of the simpler candidate and of the one it is nested in. */
   simpler: string;
   fuller: string;

@@ -52,7 +52,9 @@ export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
   }
   // Per open thread of the caller's manuscripts: when they were last mentioned and last wrote, summed up in SQL.
   const memberOf = memberships.map((m) => m.manuscriptId);
-  const lastMention = sql<number | null>`max(case when exists (select 1 from json_each(${comments.mentions}) where value = ${user.id}) then ${comments.createdAt} end)`;
+  const lastMention = sql<
+    number | null
+  >`max(case when exists (select 1 from json_each(${comments.mentions}) where value = ${user.id}) then ${comments.createdAt} end)`;
   const lastReply = sql<number | null>`max(case when ${comments.createdBy} = ${user.id} then ${comments.createdAt} end)`;
   const perThread = memberOf.length
     ? await getDb()
@@ -74,7 +76,9 @@ export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
   const waiting = [...byThread.entries()].filter(([, e]) => e.mentionAt.getTime() > 0 && (!e.repliedAt || e.repliedAt < e.mentionAt));
   if (waiting.length) {
     const manuscriptIds = memberships.map((m) => m.manuscriptId);
-    for (const ctx of manuscriptIds.length ? await Promise.all(manuscriptIds.map((id) => loadReviewContext({ manuscriptId: id }, undefined, "latest-on-current"))) : []) {
+    for (const ctx of manuscriptIds.length
+      ? await Promise.all(manuscriptIds.map((id) => loadReviewContext({ manuscriptId: id }, undefined, "latest-on-current")))
+      : []) {
       for (const f of ctx)
         for (const p of f.panels)
           for (const [, e] of waiting.filter(([, e]) => e.panelId === p.panel.id)) {
