@@ -8,14 +8,15 @@ import { resolveUnit } from "@/lib/analysis/param-unit";
 import { returnWithRun } from "@/lib/figures/return-to";
 import type { BootstrapEvent, FitOptions, FitResult, ModelInfo, SavedRun, StoredRun } from "./api";
 import { BatchProgress } from "./batch-progress";
-import { BOOTSTRAP_OFF, BootstrapFields, bootstrapSettings, type BootstrapDraft } from "./bootstrap-fields";
-import { buildOptions, defaultColumns, defaultsFrom, orderModels, type BuildResult, type Column, type DefaultBounds, type ParamDraft } from "./fit-options";
-import { FitResultView } from "./fit-result";
-import { FitWindowFields, NO_WINDOW, windowDraft, windowRange, type WindowDraft } from "./fit-window";
+import { BOOTSTRAP_OFF, BootstrapFields, type BootstrapDraft } from "./bootstrap-fields";
+import { buildOptions, defaultColumns, defaultsFrom, orderModels, type Column, type DefaultBounds, type ParamDraft } from "./fit-options";
+import { FitWindowFields, NO_WINDOW, windowDraft, type WindowDraft } from "./fit-window";
 import { ColumnSelects, ModelSelect } from "./model-and-columns";
 import { ModelComparison } from "./model-comparison";
 import { ParameterInputs } from "./parameter-inputs";
+import { ShownFit, type Shown } from "./shown-fit";
 import { StoredRuns } from "./stored-runs";
+import { comparisonColumns, withBootstrap, withWindow } from "./workbench-options";
 
 interface Props {
   versionId: string;
@@ -26,14 +27,6 @@ interface Props {
   initialRuns: StoredRun[];
   /** The panel builder that sent the user here (a checked path); after saving, a link leads back with the new run. */
   returnTo?: string | null;
-}
-
-interface Shown {
-  key: string;
-  run: FitResult;
-  modelTitle: string;
-  xName: string;
-  yName: string;
 }
 
 /** Choose a model and columns, adjust the parameters, fit (nothing stored), then save the run with its derived version. */
@@ -159,6 +152,13 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
     setSaved(null);
   };
   const stale = shown !== null && shown.key !== currentKey;
+  /** A window drawn on the plot or taken from a stored run becomes the typed window. */
+  const useWindow = mayRun
+    ? (range: readonly [number, number]) => {
+        setFitWindow(windowDraft(range));
+        setSaved(null);
+      }
+    : undefined;
 
   return (
     <div className="space-y-6">
@@ -266,35 +266,7 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
           </p>
         </Sheet>
       )}
-      {shown ? (
-        <section aria-labelledby="fit-result-heading">
-          <Sheet>
-            <h2 id="fit-result-heading" className="mb-3 text-lg font-semibold">
-              {shown.modelTitle}
-              <span className="ml-2 text-sm font-normal text-muted">{"id" in shown.run ? "— stored run" : "— preview, not stored"}</span>
-              {stale ? (
-                <span className="ml-2 text-sm font-normal text-warn">
-                  <span aria-hidden>⚠ </span>settings changed since this fit
-                </span>
-              ) : null}
-            </h2>
-            <FitResultView
-              result={shown.run}
-              modelTitle={shown.modelTitle}
-              xName={shown.xName}
-              yName={shown.yName}
-              onWindow={
-                mayRun
-                  ? (range) => {
-                      setFitWindow(windowDraft(range));
-                      setSaved(null);
-                    }
-                  : undefined
-              }
-            />
-          </Sheet>
-        </section>
-      ) : null}
+      {shown ? <ShownFit shown={shown} stale={stale} onWindow={useWindow} /> : null}
       {mayRun ? (
         <ModelComparison
           key={modelId}
@@ -310,47 +282,8 @@ export function FitWorkbench({ versionId, kind, columns, models, mayRun, initial
         <h2 id="stored-runs-heading" className="mb-2 text-lg font-semibold">
           Stored runs on this version
         </h2>
-        <StoredRuns
-          runs={runs.data.items}
-          models={models}
-          versionId={versionId}
-          mayArchive={mayRun}
-          onUseWindow={
-            mayRun
-              ? (range) => {
-                  setFitWindow(windowDraft(range));
-                  setSaved(null);
-                }
-              : undefined
-          }
-        />
+        <StoredRuns runs={runs.data.items} models={models} versionId={versionId} mayArchive={mayRun} onUseWindow={useWindow} />
       </section>
     </div>
   );
-}
-
-/** The bootstrap settings added to the built options (an error in them wins). */
-function withBootstrap(built: BuildResult, draft: BootstrapDraft): BuildResult {
-  if (!("options" in built)) return built;
-  const b = bootstrapSettings(draft);
-  if ("error" in b) return { error: b.error };
-  return b.settings ? { options: { ...built.options, bootstrap: b.settings } } : built;
-}
-
-/** The typed fit window added to the built options as xRange (an error in the window wins). */
-function withWindow(built: BuildResult, draft: WindowDraft): BuildResult {
-  if (!("options" in built)) return built;
-  const w = windowRange(draft);
-  if ("error" in w) return { error: w.error };
-  return w.range ? { options: { ...built.options, xRange: w.range } } : built;
-}
-
-/** The columns and typed window the comparison fits, or what is wrong with the window. */
-function comparisonColumns(
-  cols: { x: string; y: string; sigma: string },
-  draft: WindowDraft,
-): Pick<FitOptions, "x" | "y" | "sigma" | "xRange"> | { error: string } {
-  const w = windowRange(draft);
-  if ("error" in w) return { error: w.error };
-  return { x: cols.x, y: cols.y, ...(cols.sigma ? { sigma: cols.sigma } : {}), ...(w.range ? { xRange: w.range } : {}) };
 }

@@ -6,6 +6,31 @@ import { orderModels, type Column } from "./fit-options";
 
 export const kindWords = (kind: string) => kind.replace(/_/g, " ");
 
+/** The models as a select's options: those made for this measurement first, then the others. */
+export function ModelOptions({ models, kind }: { models: readonly ModelInfo[]; kind: string }) {
+  const { suggested, others } = orderModels(models, kind);
+  return (
+    <>
+      {suggested.length ? (
+        <optgroup label={`Suggested for ${kindWords(kind)}`}>
+          {suggested.map((m) => (
+            <option key={m.id} value={m.id}>
+              {m.title} ({m.id})
+            </option>
+          ))}
+        </optgroup>
+      ) : null}
+      <optgroup label={suggested.length ? "Other models" : "Models"}>
+        {others.map((m) => (
+          <option key={m.id} value={m.id}>
+            {m.title} ({m.id})
+          </option>
+        ))}
+      </optgroup>
+    </>
+  );
+}
+
 /** The model (those made for this measurement first) and its formula. */
 export function ModelSelect({
   models,
@@ -20,28 +45,12 @@ export function ModelSelect({
   onChange: (id: string) => void;
   label?: string;
 }) {
-  const { suggested, others } = orderModels(models, kind);
   const model = models.find((m) => m.id === value);
   return (
     <div>
       <Field label={label}>
         <Select value={value} onChange={(e) => onChange(e.target.value)}>
-          {suggested.length ? (
-            <optgroup label={`Suggested for ${kindWords(kind)}`}>
-              {suggested.map((m) => (
-                <option key={m.id} value={m.id}>
-                  {m.title} ({m.id})
-                </option>
-              ))}
-            </optgroup>
-          ) : null}
-          <optgroup label={suggested.length ? "Other models" : "Models"}>
-            {others.map((m) => (
-              <option key={m.id} value={m.id}>
-                {m.title} ({m.id})
-              </option>
-            ))}
-          </optgroup>
+          <ModelOptions models={models} kind={kind} />
         </Select>
       </Field>
       {model ? (

@@ -4,8 +4,8 @@ import { sendJson } from "@/components/api-client";
 import { Button, Field, Notice, Select, Sheet, TextInput } from "@/components/ui";
 import { axisTitle } from "@/lib/data/format";
 import type { ComparisonResult, FitOptions, ModelInfo } from "./api";
-import { orderModels } from "./fit-options";
 import { ComparisonTables } from "./comparison-tables";
+import { ModelOptions } from "./model-and-columns";
 import { ResidualStrips } from "./residual-strips";
 
 const MAX_CANDIDATES = 4;
@@ -69,7 +69,6 @@ export function ModelComparison({ versionId, kind, models, modelId, columns, uni
   const [result, setResult] = useState<ComparisonResult | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
-  const { suggested, others } = orderModels(models, kind);
 
   const update = (i: number, change: Partial<CandidateDraft>) => setDrafts((all) => all.map((d, j) => (j === i ? { ...d, ...change } : d)));
 
@@ -109,22 +108,7 @@ export function ModelComparison({ versionId, kind, models, modelId, columns, uni
                 <div className="min-w-64 flex-1">
                   <Field label={`Candidate ${i + 1}`}>
                     <Select value={d.model} onChange={(e) => update(i, { model: e.target.value, hold: "", value: "" })}>
-                      {suggested.length ? (
-                        <optgroup label="Suggested">
-                          {suggested.map((m) => (
-                            <option key={m.id} value={m.id}>
-                              {m.title} ({m.id})
-                            </option>
-                          ))}
-                        </optgroup>
-                      ) : null}
-                      <optgroup label={suggested.length ? "Other models" : "Models"}>
-                        {others.map((m) => (
-                          <option key={m.id} value={m.id}>
-                            {m.title} ({m.id})
-                          </option>
-                        ))}
-                      </optgroup>
+                      <ModelOptions models={models} kind={kind} />
                     </Select>
                   </Field>
                 </div>

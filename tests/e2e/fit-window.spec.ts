@@ -1,22 +1,9 @@
 import { expect, test } from "./fixtures";
-import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
-
-interface ListedDataset {
-  id: string;
-  name: string;
-  kind: string;
-  tags: Record<string, string>;
-  latestVersion: { id: string } | null;
-}
+import { DEMO_MANUSCRIPT, openDemoEchoFit, shoot, signIn } from "./helpers";
 
 test("the author types a fit window, fits, and the stored run shows the window; points outside are drawn faded", async ({ page }) => {
   await signIn(page, "author@lab.example.org");
-  const res = await page.request.get(`/api/manuscripts/${DEMO_MANUSCRIPT}/datasets`);
-  const { items } = (await res.json()) as { items: ListedDataset[] };
-  // A demo echo (80 log-spaced τ from 1 to 2000 µs), by name: other tests upload echoes of their own.
-  const echo = items.find((d) => d.name === "Hahn echo, NV03 (sample K17)" && d.latestVersion)!;
-  await page.goto(`/versions/${echo.latestVersion!.id}/fit`);
-  await page.getByLabel("Model").selectOption("hahn_echo");
+  await openDemoEchoFit(page);
 
   // Typed by keyboard: a window that runs backwards is refused in words, naming the field.
   await page.getByLabel("Fit from (µs)").fill("400");

@@ -59,3 +59,12 @@ export function api(page: Page) {
     patch: async (url: string, data: unknown) => expectJson(await page.request.patch(url, { data, headers: headers() }), 200),
   };
 }
+
+/** The fit page of the demo echo "Hahn echo, NV03 (sample K17)" (80 log-spaced τ from 1 to 2000 µs), with the echo model chosen; found by name, as other tests upload echoes of their own. */
+export async function openDemoEchoFit(page: Page) {
+  const res = await page.request.get(`/api/manuscripts/${DEMO_MANUSCRIPT}/datasets`);
+  const { items } = (await res.json()) as { items: Array<{ name: string; latestVersion: { id: string } | null }> };
+  const echo = items.find((d) => d.name === "Hahn echo, NV03 (sample K17)" && d.latestVersion)!;
+  await page.goto(`/versions/${echo.latestVersion!.id}/fit`);
+  await page.getByLabel("Model", { exact: true }).selectOption("hahn_echo");
+}

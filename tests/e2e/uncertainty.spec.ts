@@ -1,19 +1,9 @@
 import { expect, test } from "./fixtures";
-import { DEMO_MANUSCRIPT, shoot, signIn } from "./helpers";
-
-interface ListedDataset {
-  id: string;
-  name: string;
-  latestVersion: { id: string } | null;
-}
+import { openDemoEchoFit, shoot, signIn } from "./helpers";
 
 test("the author asks for bootstrap intervals, watches the draws, and saves them with the run", async ({ page }) => {
   await signIn(page, "author@lab.example.org");
-  const res = await page.request.get(`/api/manuscripts/${DEMO_MANUSCRIPT}/datasets`);
-  const { items } = (await res.json()) as { items: ListedDataset[] };
-  const echo = items.find((d) => d.name === "Hahn echo, NV03 (sample K17)" && d.latestVersion)!;
-  await page.goto(`/versions/${echo.latestVersion!.id}/fit`);
-  await page.getByLabel("Model").selectOption("hahn_echo");
+  await openDemoEchoFit(page);
 
   await page.getByLabel("Bootstrap intervals as well").check();
   await page.getByLabel("Bootstrap draws").fill("50");
@@ -36,11 +26,7 @@ test("the author asks for bootstrap intervals, watches the draws, and saves them
 
 test("the author compares the echo with n free, n = 1 and n = 2 and sees which the data support", async ({ page }) => {
   await signIn(page, "author@lab.example.org");
-  const res = await page.request.get(`/api/manuscripts/${DEMO_MANUSCRIPT}/datasets`);
-  const { items } = (await res.json()) as { items: ListedDataset[] };
-  const echo = items.find((d) => d.name === "Hahn echo, NV03 (sample K17)" && d.latestVersion)!;
-  await page.goto(`/versions/${echo.latestVersion!.id}/fit`);
-  await page.getByLabel("Model").selectOption("hahn_echo");
+  await openDemoEchoFit(page);
 
   const compare = page.getByRole("region", { name: "Compare fits" });
   await expect(compare.getByLabel("Candidate 1", { exact: true })).toHaveValue("hahn_echo");
