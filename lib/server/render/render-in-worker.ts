@@ -207,6 +207,14 @@ export function renderFigureInWorker(panels: FigurePanelJob[], layout: FigureLay
   return runJob<RenderedFigure>({ kind: "figure", panels, layout, widthMm }, budget);
 }
 
+/** What a PDF or print raster may take: a figure near the vector cap takes pdfkit seconds and a few hundred MB. */
+const DRAW_BUDGET: RenderBudget = { timeoutMs: 120_000, maxOldGenerationSizeMb: 1024 };
+
+/** A PDF ("pdf") or print raster ("raster") drawn from a checked SVG in a worker, so the server never holds the drawing. */
+export function drawInWorker<T>(job: { kind: "pdf" | "raster"; svg: string; options: unknown }): Promise<T> {
+  return runJob<T>(job, DRAW_BUDGET);
+}
+
 /** Stops the idle workers (tests, graceful shutdown). */
 export async function stopRenderWorkers(): Promise<void> {
   const all = idle.splice(0);

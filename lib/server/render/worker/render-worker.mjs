@@ -8,6 +8,8 @@
  *
  * Messages in:  { id, kind: "panel", spec, data, size }
  *               { id, kind: "figure", panels: [{ letter, spec, data, span? }], layout, widthMm }
+ *               { id, kind: "pdf", svg, options }      (pdf-core.mjs)
+ *               { id, kind: "raster", svg, options }   (png-core.mjs: print PNG or TIFF)
  * Messages out: { type: "ready" } once, then { id, ok: true, result } | { id, ok: false, error: { code, message } }
  */
 import { renderSpecToSvgCore } from "./render-core.mjs";
@@ -16,6 +18,9 @@ import { cellWidthMm, composeFigureCore, gridPlacement } from "./compose-core.mj
 
 async function run(job) {
   if (job.kind === "panel") return renderSpecToSvgCore(job.spec, job.data, job.size);
+  // Loaded on first use: a worker that only renders panels never loads pdfkit, resvg or sharp.
+  if (job.kind === "pdf") return (await import("./pdf-core.mjs")).svgToPdfCore(job.svg, job.options);
+  if (job.kind === "raster") return (await import("./png-core.mjs")).printRasterCore(job.svg, job.options);
   if (job.kind === "figure") {
     const columns = job.layout?.columns ?? 1;
     const cells = gridPlacement(job.panels, columns);
