@@ -27,7 +27,7 @@ export interface BundleParseRecord {
 }
 
 /** One bound data name of a panel: the file its rows come from, the fit report for a fit output, and the rows drawn. */
-interface BundleBoundData {
+export interface BundleBoundData {
   file: string;
   /** The fit report (fits/….json) when the name is bound to a fit's output. */
   fit?: string;

@@ -6,7 +6,7 @@ import { analyses, versions } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
 import { canonicalJson } from "@/lib/figures/canonical-spec";
 import { sha256Hex } from "../crypto";
-import { loadBoundData } from "../figures/bindings";
+import { loadBoundTables } from "../figures/bindings";
 import { getRevision } from "../figures/revisions";
 import { houseStyleOf } from "../house-style";
 import { traceFigure, type FigureTrace } from "../figures/trace";
@@ -16,7 +16,8 @@ import type { FigureReview } from "../review/review-context";
 import { blobStore } from "../storage/store";
 import { DRAFT_MARK_TEXT } from "./draft-mark";
 import { fitReportText, type StoredFit } from "./fit-report";
-import { BUNDLE_PATHS, type BundleParseRecord, type BundlePanelData, type BundleRender } from "./bundle-layout";
+import { BUNDLE_PATHS, type BundleParseRecord, type BundleRender } from "./bundle-layout";
+import { panelDataJson } from "./panel-data-json";
 import { traceToProv, type RenderedFile } from "./prov";
 import { SOFTWARE } from "./software";
 import { sourceDataFiles } from "./source-data";
@@ -123,15 +124,15 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
       { name: `Data bound to panel ${p.letter}, revision ${p.revision.number}` },
     );
     specRefs.push(spec, bindings);
-    const rows = await loadBoundData(rev.bound);
-    const bound: BundlePanelData["data"] = {};
+    const tables = await loadBoundTables(rev.bound);
+    const bound: Parameters<typeof panelDataJson>[1] = {};
     const inputs = [];
     for (const input of p.inputs) {
       if (input.kind === "version") {
         const f = await versionFile(input.version);
         dataRefs.set(f["@id"], f);
         inputs.push(f);
-        bound[input.name] = { file: f["@id"], rows: rows[input.name] };
+        bound[input.name] = { described: { file: f["@id"] }, table: tables[input.name] };
         continue;
       }
       const a = input.analysis;
@@ -140,7 +141,7 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
       dataRefs.set(out["@id"], out);
       inputs.push(out);
       const base = `fits/${a.model}-${a.id}`;
-      bound[input.name] = { file: out["@id"], fit: `${base}.json`, output: input.output ?? null, rows: rows[input.name] };
+      bound[input.name] = { described: { file: out["@id"], fit: `${base}.json`, output: input.output ?? null }, table: tables[input.name] };
       if (entities.has(`#fit-${a.id}`)) continue;
       const run = runs.get(a.id)!;
       const stored: StoredFit = { ...a, createdBy: a.createdBy, input: input.input, derived: input.derived, result: run.result };
@@ -168,9 +169,9 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
         description: `Options: ${JSON.stringify(a.options)}`,
       });
     }
-    const data: BundlePanelData = { panel: p.letter, revision: p.revision.number, contentHash: p.revision.contentHash, data: bound };
+    const data = panelDataJson({ panel: p.letter, revision: p.revision.number, contentHash: p.revision.contentHash }, bound);
     specRefs.push(
-      addFile(BUNDLE_PATHS.panelData(p.letter), strToU8(JSON.stringify(data) + "\n"), "application/json", {
+      addFile(BUNDLE_PATHS.panelData(p.letter), data, "application/json", {
         name: `Rows drawn in panel ${p.letter}, revision ${p.revision.number}, full resolution`,
       }),
     );

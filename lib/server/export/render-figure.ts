@@ -2,11 +2,11 @@ import "server-only";
 import { getDb } from "@/db/client";
 import { revisions } from "@/db/schema";
 import { inArray } from "drizzle-orm";
-import type { TableRow } from "@/lib/data/table-rows";
+import { reduceForDisplay } from "@/lib/data/display-reduction";
+import { allRows, type RowTable } from "@/lib/data/table-rows";
 import { RenderError, renderFigureInWorker, type FigureLayout, type FigurePanelJob, type RenderedFigure } from "../render/render-in-worker";
 import { badRequest, unprocessable } from "@/lib/errors";
-import { loadBoundData } from "../figures/bindings";
-import { reduceRowsForDisplay } from "../figures/display-data";
+import { loadBoundTables } from "../figures/bindings";
 import type { FigureReview } from "../review/review-context";
 import { applyHouseStyle, describeHouseStyle, panelLetter, type HouseStyle } from "@/lib/figures/house-style";
 import { houseStyleOf } from "../house-style";
@@ -27,8 +27,8 @@ export interface FigureRender {
   houseStyle: string;
 }
 
-type PanelRows = Record<string, TableRow[]>;
-type PanelJob = FigurePanelJob & { data: PanelRows };
+type PanelTables = Record<string, RowTable>;
+type PanelJob = Omit<FigurePanelJob, "data"> & { data: PanelTables };
 
 /** Grid and panel letters as the house style sets them. */
 export function figureLayout(columns: number, style: HouseStyle): FigureLayout {
@@ -40,7 +40,7 @@ export function figureLayout(columns: number, style: HouseStyle): FigureLayout {
  * in the house case, its bound rows; when the figure shares y titles, a row's repeated titles left out.
  */
 export function figurePanelJobs(
-  panels: Array<{ letter: string; spec: unknown; data: PanelRows; span: number }>,
+  panels: Array<{ letter: string; spec: unknown; data: PanelTables; span: number }>,
   figure: { columns: number; shareYTitles: boolean },
   style: HouseStyle,
 ): PanelJob[] {
@@ -58,13 +58,16 @@ export function figurePanelJobs(
  * pass its cap, long series are reduced for display and drawn again (`reduced`).
  */
 export async function drawFigure(jobs: PanelJob[], layout: FigureLayout, widthMm: number): Promise<{ figure: RenderedFigure; reduced: boolean }> {
-  const reduced = () => jobs.map((j) => ({ ...j, data: Object.fromEntries(Object.entries(j.data).map(([k, rows]) => [k, reduceRowsForDisplay(rows).rows])) }));
+  // Records are made here, just before the worker takes them: only the kept rows when reduced.
+  const withRows = (rows: (t: RowTable) => FigurePanelJob["data"][string]): FigurePanelJob[] =>
+    jobs.map((j) => ({ ...j, data: Object.fromEntries(Object.entries(j.data).map(([k, t]) => [k, rows(t)])) }));
+  const reduced = () => withRows((t) => reduceForDisplay(t).rows);
   // A series this long cannot fit under the cap (every mark costs tens of bytes): reduced up front
   // rather than drawn in full, which can outlast the render budget, and then dropped.
-  if (jobs.some((j) => Object.values(j.data).some((rows) => rows.length > VECTOR_CAP_BYTES / BYTES_PER_MARK))) {
+  if (jobs.some((j) => Object.values(j.data).some((t) => t.length > VECTOR_CAP_BYTES / BYTES_PER_MARK))) {
     return { figure: await renderFigureInWorker(reduced(), layout, widthMm), reduced: true };
   }
-  const figure = await renderFigureInWorker(jobs, layout, widthMm);
+  const figure = await renderFigureInWorker(withRows(allRows), layout, widthMm);
   if (figure.svg.length <= VECTOR_CAP_BYTES) return { figure, reduced: false };
   return { figure: await renderFigureInWorker(reduced(), layout, widthMm), reduced: true };
 }
@@ -87,7 +90,7 @@ export async function renderFigureSvg(review: FigureReview): Promise<FigureRende
   const panels = await Promise.all(
     review.panels.map(async (p) => {
       const rev = revs.find((r) => r.id === p.revision!.id)!;
-      return { letter: p.letter, spec: JSON.parse(rev.spec) as unknown, data: await loadBoundData(rev.bound), span: p.panel.colSpan };
+      return { letter: p.letter, spec: JSON.parse(rev.spec) as unknown, data: await loadBoundTables(rev.bound), span: p.panel.colSpan };
     }),
   );
   const jobs = figurePanelJobs(panels, review.figure, style);

@@ -138,18 +138,17 @@ async function writeWorkbook(review: FigureReview, workbook: ExcelJS.stream.xlsx
     w.add(["Revision content hash", p.revision.contentHash]);
     w.add(["Every row the panel binds, at full resolution (never the display reduction); units in brackets in the column headers."]);
     w.blank();
-    await writeHeaderBlock(w, p.revision.bound, new Map(p.tables.map((t) => [t.name, t.rows.length])));
-    for (const t of p.tables) {
-      const columns = t.rows.length ? Object.keys(t.rows[0]) : [];
+    await writeHeaderBlock(w, p.revision.bound, new Map(p.tables.map((t) => [t.name, t.table.length])));
+    for (const { name, table, units } of p.tables) {
+      const columns = table.length ? table.names : [];
       w.blank();
-      w.add([`Data: ${t.name}`, `${t.rows.length} rows`], true);
+      w.add([`Data: ${name}`, `${table.length} rows`], true);
       w.add(
-        columns.map((c) => axisTitle(c, t.units[c])),
+        columns.map((c) => axisTitle(c, units[c])),
         true,
       );
-      for (let r = 0; r < t.rows.length; r++) {
-        const row = t.rows[r];
-        w.add(columns.map((c) => row[c]));
+      for (let r = 0; r < table.length; r++) {
+        w.add(columns.map((_, j) => table.cell(r, j)));
         if (r % FLOW_CHECK_ROWS === FLOW_CHECK_ROWS - 1) await w.keepPace();
       }
     }

@@ -4,8 +4,10 @@ import { inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { versions, type BoundInput } from "@/db/schema";
 import { axisTitle } from "@/lib/data/format";
-import { loadBoundData } from "../figures/bindings";
+import type { RowTable } from "@/lib/data/table-rows";
+import { loadBoundTables } from "../figures/bindings";
 import type { FigureReview } from "../review/review-context";
+import { Utf8Chunks } from "./utf8-chunks";
 
 /** Text a spreadsheet would take for a formula if typed in: it starts with =, +, -, @, a tab or a CR. */
 export function formulaLike(text: string): boolean {
@@ -24,12 +26,17 @@ export function csvCell(v: unknown): string {
   return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
-/** CSV with a header row; `units` names a column's unit, written into its header as "tau (µs)". */
-export function rowsToCsv(rows: Array<Record<string, unknown>>, units: Record<string, string | null> = {}): string {
-  if (!rows.length) return "";
-  const cols = Object.keys(rows[0]);
-  const header = cols.map((c) => csvCell(units[c] ? axisTitle(c, units[c]) : c));
-  return [header.join(","), ...rows.map((r) => cols.map((c) => csvCell(r[c])).join(","))].join("\n") + "\n";
+/** CSV with a header row (empty for a table without rows); `units` names a column's unit, written into its header as "tau (µs)". */
+export function tableToCsv(t: RowTable, units: Record<string, string | null> = {}): Uint8Array {
+  const out = new Utf8Chunks();
+  if (!t.length) return out.bytes();
+  out.push(t.names.map((c) => csvCell(units[c] ? axisTitle(c, units[c]) : c)).join(",") + "\n");
+  const cells = new Array<string>(t.names.length);
+  for (let i = 0; i < t.length; i++) {
+    for (let j = 0; j < cells.length; j++) cells[j] = csvCell(t.cell(i, j));
+    out.push(cells.join(",") + "\n");
+  }
+  return out.bytes();
 }
 
 /** Column units of the versions bound to a revision, by version id then column name. */
@@ -39,18 +46,18 @@ async function unitsOf(versionIds: string[]): Promise<Map<string, Record<string,
   return new Map(rows.map((v) => [v.id, Object.fromEntries(v.columns.map((c) => [c.name, c.unit]))]));
 }
 
-/** One data name of a panel: what it binds, every row at full resolution, and its columns' units by name. */
+/** One data name of a panel: what it binds, every row at full resolution (read from the parsed columns), and its columns' units by name. */
 interface BoundTable {
   name: string;
   bound: BoundInput;
-  rows: Array<Record<string, number | string | null>>;
+  table: RowTable;
   units: Record<string, string | null>;
 }
 
 /**
  * The data behind each panel of a figure, in figure order: the current revision (null before the
  * first) and, per data name, the rows it binds (never downsampled) with the units of their
- * columns. One panel is loaded at a time, so a writer holds one panel's rows.
+ * columns. One panel is loaded at a time, so a writer holds one panel's columns (no object per row).
  */
 export async function* panelSourceData(review: FigureReview): AsyncGenerator<{
   letter: string;
@@ -63,9 +70,9 @@ export async function* panelSourceData(review: FigureReview): AsyncGenerator<{
       yield { letter: p.letter, revision: null, tables: [] };
       continue;
     }
-    const data = await loadBoundData(rev.bound);
+    const data = await loadBoundTables(rev.bound);
     const units = await unitsOf(Object.values(rev.bound).map((b) => b.versionId));
-    const tables = Object.entries(data).map(([name, rows]) => ({ name, bound: rev.bound[name], rows, units: units.get(rev.bound[name].versionId) ?? {} }));
+    const tables = Object.entries(data).map(([name, table]) => ({ name, bound: rev.bound[name], table, units: units.get(rev.bound[name].versionId) ?? {} }));
     yield { letter: p.letter, revision: rev, tables };
   }
 }
@@ -84,10 +91,10 @@ export async function sourceDataFiles(review: FigureReview): Promise<Record<stri
       continue;
     }
     readme.push(`Panel ${p.letter} — revision ${p.revision.number}, content hash ${p.revision.contentHash}`);
-    for (const { name, bound: b, rows, units } of p.tables) {
+    for (const { name, bound: b, table, units } of p.tables) {
       const file = `figure-${review.figure.number}-panel-${p.letter}-${name}.csv`;
-      files[file] = strToU8(rowsToCsv(rows, units));
-      readme.push(`  ${file}: ${rows.length} rows from ${b.kind} ${b.id}${b.output ? ` (${b.output})` : ""}, source sha256 ${b.sha256}`);
+      files[file] = tableToCsv(table, units);
+      readme.push(`  ${file}: ${table.length} rows from ${b.kind} ${b.id}${b.output ? ` (${b.output})` : ""}, source sha256 ${b.sha256}`);
     }
   }
   files["README.txt"] = strToU8(readme.join("\n") + "\n");

@@ -16,8 +16,8 @@ import { getDb } from "@/db/client";
 import { panels, revisions, type BoundInput } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { notFound } from "@/lib/errors";
-import { loadBoundData } from "../figures/bindings";
-import { reduceRowsForDisplay } from "../figures/display-data";
+import { loadBoundTables } from "../figures/bindings";
+import { reduceForDisplay } from "@/lib/data/display-reduction";
 import { manuscriptOfFigure, manuscriptOfPanel } from "../figures/scope";
 import { renderFigureInWorker, renderSpecInWorker, type FigurePanelJob } from "../render/render-in-worker";
 import { svgToPng } from "../render/to-png";
@@ -110,8 +110,8 @@ function dpiFor(widthMm: number): number {
 
 /** Bound rows reduced as for the browser (extremes kept): a thumbnail needs no more, and renders faster. */
 async function thumbnailData(bound: Record<string, BoundInput>) {
-  const full = await loadBoundData(bound);
-  return Object.fromEntries(Object.entries(full).map(([name, rows]) => [name, reduceRowsForDisplay(rows).rows]));
+  const tables = await loadBoundTables(bound);
+  return Object.fromEntries(Object.entries(tables).map(([name, t]) => [name, reduceForDisplay(t).rows]));
 }
 
 const escapeXml = (s: string) => s.replace(/[<>&"']/g, (c) => ({ "<": "&lt;", ">": "&gt;", "&": "&amp;", '"': "&quot;", "'": "&apos;" })[c]!);

@@ -3,7 +3,7 @@ import { strFromU8 } from "fflate";
 import { storedParameters, parameterRows, type StoredParameter } from "@/lib/figures/fit-value";
 import { parseTable, type ParsedTable, type ParseOptions } from "@/lib/data/parse";
 import { summarizeColumn } from "@/lib/data/summary";
-import { tableRows, type TableRow } from "@/lib/data/table-rows";
+import { tableOfRows, tableRows, type TableRow } from "@/lib/data/table-rows";
 import { readHouseStyle } from "@/lib/figures/house-style";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { env } from "@/lib/env";
@@ -406,7 +406,7 @@ async function renderRows(record: BundleRender, panelRows: Map<string, BundlePan
       out.push({ item: `panel ${p.letter}`, check: "render", match: false, detail: spec.ok ? `${p.data} is missing or unreadable` : spec.error });
       continue;
     }
-    const rows = Object.fromEntries(Object.entries(data.data).map(([name, b]) => [name, b.rows]));
+    const rows = Object.fromEntries(Object.entries(data.data).map(([name, b]) => [name, tableOfRows(b.rows)]));
     panels.push({ letter: p.letter, spec: spec.value, data: rows, span: p.span });
   }
   if (out.length) return out;

@@ -3,7 +3,7 @@ import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { analyses, datasets, versions, type Binding, type BoundInput } from "@/db/schema";
 import { decodeColumnar } from "@/lib/data/columnar";
-import { tableRows } from "@/lib/data/table-rows";
+import { tableOf, tableOfRows, type RowTable } from "@/lib/data/table-rows";
 import { canonicalJson } from "@/lib/figures/canonical-spec";
 import { parameterRows, storedParameters } from "@/lib/figures/fit-value";
 import { sha256Hex } from "../crypto";
@@ -47,17 +47,17 @@ export function revisionContentHash(spec: unknown, bound: Record<string, BoundIn
 /** The `series` value of the rows each analysis output binds (the derived file is long format). */
 export const SERIES: Record<string, string> = { curve: "curve", residuals: "residual", data: "data" };
 
-/** The rows each data name resolves to (records keyed by column name), full resolution. */
-export async function loadBoundData(bound: Record<string, BoundInput>): Promise<Record<string, Array<Record<string, number | string | null>>>> {
-  const out: Record<string, Array<Record<string, number | string | null>>> = {};
+/** The table each data name resolves to, full resolution, read from the parsed columns (no object per row). */
+export async function loadBoundTables(bound: Record<string, BoundInput>): Promise<Record<string, RowTable>> {
+  const out: Record<string, RowTable> = {};
   for (const [name, b] of Object.entries(bound)) {
     if (b.output === "parameters") {
       const [a] = await getDb().select({ model: analyses.model, result: analyses.result }).from(analyses).where(eq(analyses.id, b.id));
-      out[name] = parameterRows(a.model, storedParameters(a.result));
+      out[name] = tableOfRows(parameterRows(a.model, storedParameters(a.result)));
       continue;
     }
     const [v] = await getDb().select({ sha: versions.sha256, fileName: versions.fileName }).from(versions).where(eq(versions.id, b.versionId));
-    out[name] = tableRows(decodeColumnar(await columnsFor(v.sha, v.fileName)), b.output ? SERIES[b.output] : null);
+    out[name] = tableOf(decodeColumnar(await columnsFor(v.sha, v.fileName)), b.output ? SERIES[b.output] : null);
   }
   return out;
 }
