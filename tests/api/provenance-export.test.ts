@@ -346,21 +346,27 @@ describe("the bundle as an RO-Crate 1.2", () => {
     }
   });
 
-  it("is deterministic: the same figure gives the same bytes, entries sorted, fixed timestamps", async () => {
+  it("is deterministic: the same figure gives the same bytes, fixed timestamps, the metadata naming every hash last", async () => {
     const again = await exportFile("format=bundle");
     expect(sha256(again)).toBe(sha256(bytes));
-    const names = Object.keys(files);
-    expect(names).toEqual([...names].sort());
-    // ZIP local file headers (APPNOTE.TXT 6.3 §4.3.7): signature 0x04034b50, version(2) flags(2) method(2) time(2) date(2)
-    // crc(4) compressed size(4) size(4) name length(2) extra length(2), name, extra, data. Walked one by one: one stamp for all.
+    // The zip is written as it is made, so sizes follow each entry; the central directory lists them all
+    // (APPNOTE.TXT 6.3 §4.3.16 end record: signature 0x06054b50, entry count at +10, directory offset at +16;
+    // §4.3.12 directory headers: signature 0x02014b50, time and date at +12, name length +28, extra +30,
+    // comment +32, name at +46). Walked one by one: one stamp for all.
     const view = Buffer.from(bytes);
+    const end = view.lastIndexOf(Buffer.from([0x50, 0x4b, 0x05, 0x06]));
+    const count = view.readUInt16LE(end + 10);
     const stamps = new Set<string>();
-    let entries = 0;
-    for (let at = 0; view.readUInt32LE(at) === 0x04034b50; entries++) {
-      stamps.add(view.subarray(at + 10, at + 14).toString("hex"));
-      at += 30 + view.readUInt16LE(at + 26) + view.readUInt16LE(at + 28) + view.readUInt32LE(at + 18);
+    const listed: string[] = [];
+    for (let at = view.readUInt32LE(end + 16), i = 0; i < count; i++) {
+      expect(view.readUInt32LE(at)).toBe(0x02014b50);
+      stamps.add(view.subarray(at + 12, at + 16).toString("hex"));
+      const nameLength = view.readUInt16LE(at + 28);
+      listed.push(view.toString("utf8", at + 46, at + 46 + nameLength));
+      at += 46 + nameLength + view.readUInt16LE(at + 30) + view.readUInt16LE(at + 32);
     }
-    expect(entries).toBe(names.length);
+    expect([...listed].sort()).toEqual(Object.keys(files).sort());
+    expect(listed.at(-1)).toBe("ro-crate-metadata.json");
     expect(stamps.size).toBe(1);
   });
 });

@@ -101,7 +101,7 @@ beforeAll(async () => {
     { data: { name: "params" }, transform: [{ filter: { field: "name", equal: "T2" } }], mark: "text", encoding: { text: { field: "text", type: "nominal" } } },
   ]);
   const [review] = await loadReviewContext({ figureId });
-  bytes = await sourceDataWorkbook(review!);
+  bytes = await (await sourceDataWorkbook(review!)).bytes();
   workbook = new ExcelJS.Workbook();
   await workbook.xlsx.load(bytes.slice().buffer); // a copy: exactly the file's bytes
 }, 120_000);

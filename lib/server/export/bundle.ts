@@ -20,7 +20,9 @@ import { BUNDLE_PATHS, type BundleParseRecord, type BundleRender } from "./bundl
 import { panelDataJson } from "./panel-data-json";
 import { traceToProv, type RenderedFile } from "./prov";
 import { SOFTWARE } from "./software";
-import { sourceDataFiles } from "./source-data";
+import { ExportBody } from "./export-body";
+import { sourceDataEntries } from "./source-data";
+import { ZipFileWriter } from "./zip-writer";
 
 /** RO-Crate 1.2 (https://w3id.org/ro/crate/1.2): the JSON-LD context and the version the metadata conforms to. */
 const RO_CRATE_CONTEXT = "https://w3id.org/ro/crate/1.2/context";
@@ -39,28 +41,46 @@ const iso = (d: Date | string) => new Date(d).toISOString();
  * CreateActions (instrument: the software and model at their versions; object: inputs; result: outputs;
  * agent: a Person by name); review decisions are AssessActions, sign-offs EndorseActions.
  *
- * Deterministic: the same figure, drawn for the same person, gives the same files. Nothing in it reads
+ * Deterministic: the same figure, drawn for the same person, gives the same bytes. Nothing in it reads
  * the clock: dates are those of the recorded events, and the PDF's creation date is the moment the
- * figure last changed. Paths come back sorted, so the zip lists them in one order.
+ * figure last changed; files are written in one order, each deflated in fixed blocks.
+ *
+ * Streamed: each file goes into the zip (a temporary file) as it is made, hashed on the way; raw
+ * files are copied from the store as a stream and the panels' rows are written in blocks, so
+ * memory does not grow with the data. ro-crate-metadata.json, which names every hash, comes last.
  */
-export async function bundleFiles(user: SessionUser, review: FigureReview, rendered: { svg: string; pdf: Uint8Array }): Promise<Record<string, Uint8Array>> {
+export async function writeBundle(user: SessionUser, review: FigureReview, rendered: { svg: string; pdf: Uint8Array }): Promise<ExportBody> {
+  const zip = new ZipFileWriter();
+  try {
+    await writeBundleFiles(zip, user, review, rendered);
+    return ExportBody.ofTempFile(zip.path, await zip.finish());
+  } catch (err) {
+    await zip.discard();
+    throw err;
+  }
+}
+
+type Content = Uint8Array | Iterable<Uint8Array> | AsyncIterable<Uint8Array>;
+
+async function writeBundleFiles(zip: ZipFileWriter, user: SessionUser, review: FigureReview, rendered: { svg: string; pdf: Uint8Array }): Promise<void> {
   const trace = await traceFigure(user, review.figure.id, { exports: false });
   const changedAt = lastChange(trace);
-  const files = new Map<string, Uint8Array>();
+  const files = new Set<string>();
   const entities = new Map<string, Entity>();
   const put = (e: Entity) => {
     if (!entities.has(e["@id"])) entities.set(e["@id"], e);
     return ref(e["@id"]);
   };
-  const addFile = (path: string, bytes: Uint8Array, encodingFormat: string, props: Record<string, unknown> = {}) => {
-    files.set(path, bytes);
+  const addFile = async (path: string, content: Content, encodingFormat: string, props: Record<string, unknown> = {}) => {
+    files.add(path);
+    const { sha256, byteSize } = await zip.add(path, content);
     return put({
       "@id": path,
       "@type": "File",
       name: path.split("/").pop()!,
-      contentSize: String(bytes.byteLength),
+      contentSize: String(byteSize),
       encodingFormat,
-      sha256: sha256Hex(bytes),
+      sha256,
       ...props,
     });
   };
@@ -88,7 +108,7 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
       columns: stored.columns,
       summary: stored.summary,
     };
-    return addFile(path, await blobStore().readAll(v.sha256), mediaTypeOf(v.fileName), {
+    return addFile(path, await blobStore().openRead(v.sha256), mediaTypeOf(v.fileName), {
       name: `${v.dataset}, version ${v.number}`,
       identifier: v.versionId,
       dateCreated: iso(v.createdAt),
@@ -113,11 +133,11 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
   for (const p of trace.panels) {
     if (!p.revision) continue;
     const rev = await getRevision(user, p.revision.id);
-    const spec = addFile(BUNDLE_PATHS.spec(p.letter), strToU8(canonicalJson(rev.spec)), "application/json", {
+    const spec = await addFile(BUNDLE_PATHS.spec(p.letter), strToU8(canonicalJson(rev.spec)), "application/json", {
       name: `Vega-Lite spec of panel ${p.letter}, revision ${p.revision.number}`,
       conformsTo: ref("https://vega.github.io/schema/vega-lite/v6.json"),
     });
-    const bindings = addFile(
+    const bindings = await addFile(
       `specs/panel-${p.letter}.bindings.json`,
       strToU8(JSON.stringify({ panel: p.letter, revision: p.revision, bound: rev.bound }, null, 2) + "\n"),
       "application/json",
@@ -145,10 +165,10 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
       if (entities.has(`#fit-${a.id}`)) continue;
       const run = runs.get(a.id)!;
       const stored: StoredFit = { ...a, createdBy: a.createdBy, input: input.input, derived: input.derived, result: run.result };
-      const reportJson = addFile(`${base}.json`, strToU8(JSON.stringify(stored, null, 2) + "\n"), "application/json", {
+      const reportJson = await addFile(`${base}.json`, strToU8(JSON.stringify(stored, null, 2) + "\n"), "application/json", {
         name: `Report of the ${a.model} fit (JSON)`,
       });
-      const reportText = addFile(`${base}.txt`, strToU8(fitReportText(stored)), "text/plain", { name: `Report of the ${a.model} fit` });
+      const reportText = await addFile(`${base}.txt`, strToU8(fitReportText(stored)), "text/plain", { name: `Report of the ${a.model} fit` });
       const model = put({
         "@id": `#model-${a.model}-${a.modelVersion}`,
         "@type": "SoftwareApplication",
@@ -171,7 +191,7 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
     }
     const data = panelDataJson({ panel: p.letter, revision: p.revision.number, contentHash: p.revision.contentHash }, bound);
     specRefs.push(
-      addFile(BUNDLE_PATHS.panelData(p.letter), data, "application/json", {
+      await addFile(BUNDLE_PATHS.panelData(p.letter), data, "application/json", {
         name: `Rows drawn in panel ${p.letter}, revision ${p.revision.number}, full resolution`,
       }),
     );
@@ -217,11 +237,11 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
     panels: review.panels.map((p) => ({ letter: p.letter, span: p.panel.colSpan, spec: BUNDLE_PATHS.spec(p.letter), data: BUNDLE_PATHS.panelData(p.letter) })),
   };
   specRefs.push(
-    addFile(BUNDLE_PATHS.render, strToU8(JSON.stringify(renderRecord, null, 2) + "\n"), "application/json", {
+    await addFile(BUNDLE_PATHS.render, strToU8(JSON.stringify(renderRecord, null, 2) + "\n"), "application/json", {
       name: "How figure.svg was drawn: width, grid, house style, and each panel's spec and rows",
     }),
   );
-  addFile(BUNDLE_PATHS.parsed, strToU8(JSON.stringify(parsed, null, 2) + "\n"), "application/json", {
+  await addFile(BUNDLE_PATHS.parsed, strToU8(JSON.stringify(parsed, null, 2) + "\n"), "application/json", {
     name: "Each data file as the application parsed it: format, columns, row count, column statistics",
   });
   const renderedFiles: RenderedFile[] = drawn.map(([path, bytes, encodingFormat]) => ({
@@ -230,10 +250,12 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
     encodingFormat,
     byteSize: bytes.byteLength,
   }));
-  const drawnRefs = drawn.map(([path, bytes, type]) => addFile(path, bytes, type, { name: `${title} (${path.split(".").pop()!.toUpperCase()})` }));
-  const sourceRefs = Object.entries(await sourceDataFiles(review)).map(([name, bytes]) =>
-    addFile(`source-data/${name}`, bytes, name.endsWith(".csv") ? "text/csv" : "text/plain"),
-  );
+  const drawnRefs = [];
+  for (const [path, bytes, type] of drawn) drawnRefs.push(await addFile(path, bytes, type, { name: `${title} (${path.split(".").pop()!.toUpperCase()})` }));
+  const sourceRefs = [];
+  for await (const { name, content } of sourceDataEntries(review)) {
+    sourceRefs.push(await addFile(`source-data/${name}`, content, name.endsWith(".csv") ? "text/csv" : "text/plain"));
+  }
   put({
     "@id": "#render",
     "@type": "CreateAction",
@@ -292,14 +314,16 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
   }
 
   const { exports: _leftOut, ...bundleTrace } = trace;
-  addFile("trace.json", strToU8(JSON.stringify(bundleTrace, null, 2) + "\n"), "application/json", { name: "Trace: raw file → analysis → revision → figure" });
+  await addFile("trace.json", strToU8(JSON.stringify(bundleTrace, null, 2) + "\n"), "application/json", {
+    name: "Trace: raw file → analysis → revision → figure",
+  });
   const prov = traceToProv(trace, { rendered: { files: renderedFiles, by: user } });
-  addFile("prov.json", strToU8(JSON.stringify(prov, null, 2) + "\n"), "application/json", {
+  await addFile("prov.json", strToU8(JSON.stringify(prov, null, 2) + "\n"), "application/json", {
     name: "Trace as W3C PROV-JSON",
     conformsTo: ref("https://www.w3.org/submissions/prov-json/"),
   });
 
-  const fileIds = [...files.keys()].sort();
+  const fileIds = [...files].sort();
   const crate = {
     "@context": RO_CRATE_CONTEXT,
     "@graph": [
@@ -318,8 +342,7 @@ export async function bundleFiles(user: SessionUser, review: FigureReview, rende
       ...[...entities.values()].filter((e) => e["@type"] !== "File"),
     ],
   };
-  files.set("ro-crate-metadata.json", strToU8(JSON.stringify(crate, null, 2) + "\n"));
-  return Object.fromEntries([...files.entries()].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)));
+  await zip.add("ro-crate-metadata.json", strToU8(JSON.stringify(crate, null, 2) + "\n"));
 }
 
 /** The latest recorded event of the figure's trace: the bundle's publication date and the PDF's creation date. */

@@ -9,10 +9,11 @@ import { svgToPdf } from "../render/to-pdf";
 import { printPng, printTiff } from "../render/to-print-raster";
 import { svgForExport } from "../render/svg-text";
 import { loadReviewContext } from "../review/review-context";
-import { bundleFiles } from "./bundle";
+import { writeBundle } from "./bundle";
+import { ExportBody } from "./export-body";
 import { DRAFT_MARK_TEXT, withDraftMark } from "./draft-mark";
 import { renderFigureSvg } from "./render-figure";
-import { sourceDataFiles, zip } from "./source-data";
+import { sourceDataZip } from "./source-data";
 import { sourceDataWorkbook } from "./source-data-xlsx";
 
 const FORMATS = ["svg", "pdf", "png", "tiff", "xlsx", "source-data", "bundle"] as const;
@@ -53,14 +54,14 @@ export async function exportFigure(user: SessionUser, figureId: string, raw: z.i
   const [review] = await loadReviewContext({ figureId });
   if (!review) throw notFound();
   const base = `figure-${review.figure.number}`;
-  let body: Uint8Array;
+  let body: ExportBody;
   let notes: string[] = [];
   let rendered: Awaited<ReturnType<typeof renderFigureSvg>> | undefined;
   // A figure not signed off on its current hash carries a visible mark unless the exporter opts out.
   const signedOff = review.state === "signed_off";
   const draftMarked = !signedOff && mark === "on";
   if (format === "source-data") {
-    body = zip(await sourceDataFiles(review));
+    body = await sourceDataZip(review);
   } else if (format === "xlsx") {
     body = await sourceDataWorkbook(review);
   } else {
@@ -69,34 +70,40 @@ export async function exportFigure(user: SessionUser, figureId: string, raw: z.i
     const svg = draftMarked ? withDraftMark(rendered.svg, review.figureHash) : rendered.svg;
     const status = draftMarked ? DRAFT_MARK_TEXT : signedOff ? "Signed off on this figure hash" : `${DRAFT_MARK_TEXT} (mark left out by the exporter)`;
     const description = `${status}; figure hash ${review.figureHash}`;
-    if (format === "svg") body = new TextEncoder().encode(svgForExport(svg, text));
-    else if (format === "png") body = (await printPng(svg, { dpi, colour, description })).bytes;
-    else if (format === "tiff") body = (await printTiff(svg, { dpi, colour })).bytes;
+    if (format === "svg") body = ExportBody.ofBytes(new TextEncoder().encode(svgForExport(svg, text)));
+    else if (format === "png") body = ExportBody.ofBytes((await printPng(svg, { dpi, colour, description })).bytes);
+    else if (format === "tiff") body = ExportBody.ofBytes((await printTiff(svg, { dpi, colour })).bytes);
     else {
       const title = `Figure ${review.figure.number}: ${review.figure.title}`;
       const pdf = new Uint8Array(await svgToPdf(svg, { title, subject: `${status}; figure hash ${review.figureHash}` }));
-      body = format === "pdf" ? pdf : zip(await bundleFiles(user, review, { svg, pdf }));
+      body = format === "pdf" ? ExportBody.ofBytes(pdf) : await writeBundle(user, review, { svg, pdf });
     }
   }
-  await getDb().transaction(async (tx) => {
-    await appendAudit(tx, {
-      actorId: user.id,
-      manuscriptId,
-      action: "figure.export",
-      target: `figure:${figureId}`,
-      data: {
-        format,
-        ...(format === "png" || format === "tiff" ? { dpi, colour } : {}),
-        ...(format === "svg" ? { text } : {}),
-        houseStyle: rendered?.houseStyle,
-        figureHash: review.figureHash,
-        bytes: body.byteLength,
-        signedOff,
-        draftMark: draftMarked,
-        ...(mark === "off" && !signedOff ? { draftMarkLeftOut: true } : {}),
-      },
+  try {
+    await getDb().transaction(async (tx) => {
+      await appendAudit(tx, {
+        actorId: user.id,
+        manuscriptId,
+        action: "figure.export",
+        target: `figure:${figureId}`,
+        data: {
+          format,
+          ...(format === "png" || format === "tiff" ? { dpi, colour } : {}),
+          ...(format === "svg" ? { text } : {}),
+          houseStyle: rendered?.houseStyle,
+          figureHash: review.figureHash,
+          bytes: body.byteLength,
+          signedOff,
+          draftMark: draftMarked,
+          ...(mark === "off" && !signedOff ? { draftMarkLeftOut: true } : {}),
+        },
+      });
     });
-  });
+  } catch (err) {
+    // Not recorded, so not handed out: the written file goes too.
+    await body.discard();
+    throw err;
+  }
   const raster = `${dpi}dpi${colour === "grey" ? "-grey" : ""}`;
   const ext = {
     svg: "svg",

@@ -1,7 +1,6 @@
 import "server-only";
 import { once } from "node:events";
-import { PassThrough } from "node:stream";
-import { buffer } from "node:stream/consumers";
+import fs from "node:fs";
 import { setImmediate as nextTurn } from "node:timers/promises";
 import ExcelJS from "exceljs";
 import { eq, inArray } from "drizzle-orm";
@@ -11,6 +10,8 @@ import { findModel } from "@/lib/analysis/models/registry";
 import { axisTitle } from "@/lib/data/format";
 import { parameterRows, storedParameters } from "@/lib/figures/fit-value";
 import type { FigureReview } from "../review/review-context";
+import { removeTemp, tempPath } from "../storage/blob-store";
+import { ExportBody } from "./export-body";
 import { formulaLike, panelSourceData } from "./source-data";
 
 type Cell = string | number | null | undefined;
@@ -167,17 +168,21 @@ async function writeWorkbook(review: FigureReview, workbook: ExcelJS.stream.xlsx
  * The figure's source data as journals ask for it: one .xlsx workbook, a sheet per panel with
  * exactly the rows it plots, units in the column headers and, above them, the dataset versions
  * (number, SHA-256) and fits (model, parameters ± standard errors, units) they come from. Written
- * with exceljs's streaming writer, one row at a time, so the workbook is never held as cells.
+ * with exceljs's streaming writer, one row at a time, into a temporary file, so the workbook is never held as cells or bytes.
  * Text is never a formula: every string is a string cell, and formula-like text (=, +, -, @, tab or
  * CR first) also gets the Text format; numbers are number cells.
  */
-export async function sourceDataWorkbook(review: FigureReview): Promise<Uint8Array> {
-  const out = new PassThrough();
-  const bytes = buffer(out);
-  const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({ stream: out, useStyles: true, useSharedStrings: true });
-  workbook.creator = "Prooflight";
-  workbook.title = `Source data for Figure ${review.figure.number}: ${review.figure.title}`;
-  await writeWorkbook(review, workbook);
-  await workbook.commit();
-  return new Uint8Array(await bytes);
+export async function sourceDataWorkbook(review: FigureReview): Promise<ExportBody> {
+  const file = tempPath();
+  try {
+    const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({ filename: file, useStyles: true, useSharedStrings: true });
+    workbook.creator = "Prooflight";
+    workbook.title = `Source data for Figure ${review.figure.number}: ${review.figure.title}`;
+    await writeWorkbook(review, workbook);
+    await workbook.commit();
+    return ExportBody.ofTempFile(file, (await fs.promises.stat(file)).size);
+  } catch (err) {
+    await removeTemp(file);
+    throw err;
+  }
 }

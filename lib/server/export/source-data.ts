@@ -1,5 +1,5 @@
 import "server-only";
-import { strToU8, zipSync } from "fflate";
+import { strToU8 } from "fflate";
 import { inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { versions, type BoundInput } from "@/db/schema";
@@ -7,7 +7,9 @@ import { axisTitle } from "@/lib/data/format";
 import type { RowTable } from "@/lib/data/table-rows";
 import { loadBoundTables } from "../figures/bindings";
 import type { FigureReview } from "../review/review-context";
-import { Utf8Chunks } from "./utf8-chunks";
+import { ExportBody } from "./export-body";
+import { utf8Blocks } from "./utf8-chunks";
+import { ZipFileWriter } from "./zip-writer";
 
 /** Text a spreadsheet would take for a formula if typed in: it starts with =, +, -, @, a tab or a CR. */
 export function formulaLike(text: string): boolean {
@@ -26,17 +28,19 @@ export function csvCell(v: unknown): string {
   return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
-/** CSV with a header row (empty for a table without rows); `units` names a column's unit, written into its header as "tau (µs)". */
-export function tableToCsv(t: RowTable, units: Record<string, string | null> = {}): Uint8Array {
-  const out = new Utf8Chunks();
-  if (!t.length) return out.bytes();
-  out.push(t.names.map((c) => csvCell(units[c] ? axisTitle(c, units[c]) : c)).join(",") + "\n");
+/** CSV with a header row (empty for a table without rows), in blocks; `units` names a column's unit, written into its header as "tau (µs)". */
+export function tableToCsv(t: RowTable, units: Record<string, string | null> = {}): Iterable<Uint8Array> {
+  return utf8Blocks(csvLines(t, units));
+}
+
+function* csvLines(t: RowTable, units: Record<string, string | null>): Generator<string> {
+  if (!t.length) return;
+  yield t.names.map((c) => csvCell(units[c] ? axisTitle(c, units[c]) : c)).join(",") + "\n";
   const cells = new Array<string>(t.names.length);
   for (let i = 0; i < t.length; i++) {
     for (let j = 0; j < cells.length; j++) cells[j] = csvCell(t.cell(i, j));
-    out.push(cells.join(",") + "\n");
+    yield cells.join(",") + "\n";
   }
-  return out.bytes();
 }
 
 /** Column units of the versions bound to a revision, by version id then column name. */
@@ -79,11 +83,10 @@ export async function* panelSourceData(review: FigureReview): AsyncGenerator<{
 
 /**
  * The per-figure source data journals ask for: one CSV per panel and data name, every point
- * (never downsampled), units in the column headers ("tau (µs)"), and a README naming each
- * file's origin by hash.
+ * (never downsampled), units in the column headers ("tau (µs)"), then a README naming each
+ * file's origin by hash. Each file is made as it is read.
  */
-export async function sourceDataFiles(review: FigureReview): Promise<Record<string, Uint8Array>> {
-  const files: Record<string, Uint8Array> = {};
+export async function* sourceDataEntries(review: FigureReview): AsyncGenerator<{ name: string; content: Iterable<Uint8Array> }> {
   const readme = [`Source data for Figure ${review.figure.number}: ${review.figure.title}`, `Figure hash: ${review.figureHash}`, ""];
   for await (const p of panelSourceData(review)) {
     if (!p.revision) {
@@ -93,14 +96,21 @@ export async function sourceDataFiles(review: FigureReview): Promise<Record<stri
     readme.push(`Panel ${p.letter} — revision ${p.revision.number}, content hash ${p.revision.contentHash}`);
     for (const { name, bound: b, table, units } of p.tables) {
       const file = `figure-${review.figure.number}-panel-${p.letter}-${name}.csv`;
-      files[file] = tableToCsv(table, units);
       readme.push(`  ${file}: ${table.length} rows from ${b.kind} ${b.id}${b.output ? ` (${b.output})` : ""}, source sha256 ${b.sha256}`);
+      yield { name: file, content: tableToCsv(table, units) };
     }
   }
-  files["README.txt"] = strToU8(readme.join("\n") + "\n");
-  return files;
+  yield { name: "README.txt", content: [strToU8(readme.join("\n") + "\n")] };
 }
 
-export function zip(files: Record<string, Uint8Array>): Uint8Array {
-  return zipSync(Object.fromEntries(Object.entries(files).map(([k, v]) => [k, [v, { level: 6, mtime: new Date("2000-01-01T00:00:00Z") }]])));
+/** The source data as a zip of CSV files, written to a temporary file as it is made. */
+export async function sourceDataZip(review: FigureReview): Promise<ExportBody> {
+  const zip = new ZipFileWriter();
+  try {
+    for await (const entry of sourceDataEntries(review)) await zip.add(entry.name, entry.content);
+    return ExportBody.ofTempFile(zip.path, await zip.finish());
+  } catch (err) {
+    await zip.discard();
+    throw err;
+  }
 }

@@ -1,37 +1,33 @@
 /**
- * Builds a large UTF-8 file from many small pieces of text, encoding about every megabyte, so a
- * million-row CSV or JSON file is held once, as bytes, rather than as a string and again as bytes.
+ * A large UTF-8 file made from many small pieces of text, encoded every 64 K characters as it is
+ * read, so a million-row CSV or JSON file is never held whole, neither as a string nor as bytes.
  */
-const FLUSH_CHARS = 1 << 20;
+const BLOCK_CHARS = 1 << 16;
 
-export class Utf8Chunks {
-  private readonly done: Uint8Array[] = [];
-  private pending: string[] = [];
-  private pendingChars = 0;
-  private readonly encoder = new TextEncoder();
-
-  push(text: string): void {
-    this.pending.push(text);
-    this.pendingChars += text.length;
-    if (this.pendingChars >= FLUSH_CHARS) this.flush();
-  }
-
-  private flush(): void {
-    if (this.pending.length) this.done.push(this.encoder.encode(this.pending.join("")));
-    this.pending = [];
-    this.pendingChars = 0;
-  }
-
-  /** The whole file as one byte array. */
-  bytes(): Uint8Array {
-    this.flush();
-    const out = new Uint8Array(this.done.reduce((n, c) => n + c.byteLength, 0));
-    let at = 0;
-    for (const c of this.done) {
-      out.set(c, at);
-      at += c.byteLength;
+export function* utf8Blocks(pieces: Iterable<string>): Generator<Uint8Array> {
+  const encoder = new TextEncoder();
+  let pending: string[] = [];
+  let chars = 0;
+  for (const piece of pieces) {
+    pending.push(piece);
+    chars += piece.length;
+    if (chars >= BLOCK_CHARS) {
+      yield encoder.encode(pending.join(""));
+      pending = [];
+      chars = 0;
     }
-    this.done.length = 0;
-    return out;
   }
+  if (pending.length) yield encoder.encode(pending.join(""));
+}
+
+/** The blocks as one byte array (small files, tests). */
+export function joinBlocks(blocks: Iterable<Uint8Array>): Uint8Array {
+  const parts = [...blocks];
+  const out = new Uint8Array(parts.reduce((n, c) => n + c.byteLength, 0));
+  let at = 0;
+  for (const c of parts) {
+    out.set(c, at);
+    at += c.byteLength;
+  }
+  return out;
 }

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { strFromU8 } from "fflate";
 import { tableOfRows } from "@/lib/data/table-rows";
 import { csvCell, tableToCsv } from "@/lib/server/export/source-data";
+import { joinBlocks } from "@/lib/server/export/utf8-chunks";
 
 describe("source-data CSV cells", () => {
   it("writes formula-looking text inert and numbers as they are", () => {
@@ -16,7 +17,7 @@ describe("source-data CSV cells", () => {
       '"say ""hi"""',
     ]);
     expect([-0.5, 1e-9, 0, null, undefined].map(csvCell)).toEqual(["-0.5", "1e-9", "0", "", ""]);
-    expect(strFromU8(tableToCsv(tableOfRows([{ t: -1, note: "=1+1" }])))).toBe("t,note\n-1,'=1+1\n");
-    expect(strFromU8(tableToCsv(tableOfRows([{ tau: 2, x: null }]), { tau: "µs" }))).toBe("tau (µs),x\n2,\n");
+    expect(strFromU8(joinBlocks(tableToCsv(tableOfRows([{ t: -1, note: "=1+1" }]))))).toBe("t,note\n-1,'=1+1\n");
+    expect(strFromU8(joinBlocks(tableToCsv(tableOfRows([{ tau: 2, x: null }]), { tau: "µs" })))).toBe("tau (µs),x\n2,\n");
   });
 });
