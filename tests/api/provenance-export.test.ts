@@ -367,6 +367,8 @@ describe("the bundle as an RO-Crate 1.2", () => {
     }
     expect([...listed].sort()).toEqual(Object.keys(files).sort());
     expect(listed.at(-1)).toBe("ro-crate-metadata.json");
+    // Written to a temporary file as it was made; nothing of it is left once it has been handed out.
+    expect(fs.readdirSync(path.join(process.env.UPLOADS_DIR!, "tmp"))).toEqual([]);
     expect(stamps.size).toBe(1);
   });
 });

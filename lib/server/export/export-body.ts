@@ -22,13 +22,15 @@ export class ExportBody {
     return new ExportBody(null, file, byteLength);
   }
 
-  /** The body of an HTTP answer; a temporary file is streamed from disk and removed when the stream closes. */
-  toResponseBody(): BodyInit {
+  /**
+   * The body of an HTTP answer. A temporary file is opened and removed at once: the open handle keeps
+   * its bytes readable to the end of the download, and nothing is left on disk whatever becomes of it.
+   */
+  async toResponseBody(): Promise<BodyInit> {
     if (this.held) return this.held as BodyInit;
-    const file = this.file!;
-    const stream = fs.createReadStream(file);
-    stream.once("close", () => void removeTemp(file));
-    return Readable.toWeb(stream) as ReadableStream<Uint8Array>;
+    const handle = await fs.promises.open(this.file!, "r");
+    await removeTemp(this.file!);
+    return Readable.toWeb(handle.createReadStream()) as ReadableStream<Uint8Array>;
   }
 
   /** The whole body in memory (tests, benches); a temporary file is removed. */

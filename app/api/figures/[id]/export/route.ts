@@ -8,6 +8,6 @@ export const GET = withPermission(
   { scope: ({ params }) => manuscriptOfFigure(params.id), query: exportQuery },
   async ({ user, params, query }) => {
     const { body, headers } = await exportFigure(user, params.id, query);
-    return new Response(body.toResponseBody(), { headers });
+    return new Response(await body.toResponseBody(), { headers });
   },
 );
