@@ -1,9 +1,11 @@
 import "server-only";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
 import { strFromU8 } from "fflate";
 import { storedParameters, parameterRows, type StoredParameter } from "@/lib/figures/fit-value";
-import { parseTable, type ParsedTable, type ParseOptions } from "@/lib/data/parse";
-import { summarizeColumn } from "@/lib/data/summary";
-import { tableOfRows, tableRows, type TableRow } from "@/lib/data/table-rows";
+import type { ParsedTable, ParseOptions } from "@/lib/data/parse";
+import { tableOf, tableOfRows, tableRows, type RowTable, type TableRow } from "@/lib/data/table-rows";
 import { readHouseStyle } from "@/lib/figures/house-style";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { env } from "@/lib/env";
@@ -12,6 +14,7 @@ import { fitColumns } from "../analyses/fit-data";
 import { curveFor, fitOrExplain } from "../analyses/run-analysis";
 import type { FitOptions } from "../analyses/schemas";
 import { sha256Hex } from "../crypto";
+import type { IngestJob } from "../datasets/ingest-in-child";
 import { SERIES } from "../figures/bindings";
 import { consumeRate } from "../limits/rate-limit";
 import { readFileBytes, removeTemp } from "../storage/blob-store";
@@ -20,6 +23,7 @@ import { acquireUploadSlot } from "../storage/upload-slots";
 import { DRAFT_MARK_TEXT, withDraftMark } from "./draft-mark";
 import { BUNDLE_PATHS, type BundleParseRecord, type BundlePanelData, type BundleRender } from "./bundle-layout";
 import { drawFigure, figureLayout, figurePanelJobs } from "./render-figure";
+import { reparseInChild } from "./reparse-in-child";
 import { unpackArchive } from "./safe-unzip";
 
 /** Fitted parameters and their standard errors must agree to this relative difference. */
@@ -88,34 +92,45 @@ export async function verifyBundle(zipBytes: Uint8Array): Promise<VerifyReport> 
   const parsedRecord = readJson(files, BUNDLE_PATHS.parsed);
   const tables = new Map<string, ParsedTable>();
   if (!parsedRecord.ok) rows.push({ item: BUNDLE_PATHS.parsed, check: "bundle", match: false, detail: parsedRecord.error });
-  else
-    for (const [path, rec] of Object.entries(parsedRecord.value as Record<string, BundleParseRecord>)) {
-      const { row, table } = parseRow(path, rec, files[path]);
-      rows.push(row);
-      if (table) tables.set(path, table);
+  else {
+    const dir = await fs.promises.mkdtemp(path.join(os.tmpdir(), "prooflight-verify-"));
+    try {
+      for (const [file, rec] of Object.entries(parsedRecord.value as Record<string, BundleParseRecord>)) {
+        const { row, table } = await parseRow(file, rec, files[file], dir);
+        rows.push(row);
+        if (table) tables.set(file, table);
+      }
+    } finally {
+      await fs.promises.rm(dir, { recursive: true, force: true });
     }
+  }
 
   // 3. The rows each panel was drawn from, read again from those files (or the fit report).
   const render = readJson(files, BUNDLE_PATHS.render);
   const renderRecord = render.ok ? (render.value as unknown as BundleRender) : null;
   if (!renderRecord) rows.push({ item: BUNDLE_PATHS.render, check: "bundle", match: false, detail: render.ok ? "" : render.error });
-  const panelRows = new Map<string, BundlePanelData>();
+  // One panel's recorded rows are held at a time; what is drawn again keeps the columns read again.
+  const panelTables = new Map<string, Record<string, RowTable>>();
   for (const panel of renderRecord?.panels ?? []) {
     const data = readJson(files, panel.data);
     if (!data.ok) {
       rows.push({ item: `panel ${panel.letter}`, check: "rows", match: false, detail: data.error });
       continue;
     }
-    const pd = data.value as unknown as BundlePanelData;
-    panelRows.set(panel.letter, pd);
-    for (const [name, b] of Object.entries(pd.data ?? {})) rows.push(boundRowsRow(`panel ${panel.letter} · ${name}`, b, tables, files));
+    const bound: Record<string, RowTable> = {};
+    for (const [name, b] of Object.entries((data.value as unknown as BundlePanelData).data ?? {})) {
+      const checked = boundRows(`panel ${panel.letter} · ${name}`, b, tables, files);
+      rows.push(checked.row);
+      bound[name] = checked.table;
+    }
+    panelTables.set(panel.letter, bound);
   }
 
   // 4. Every fit run again from its recorded model and options on the raw file it read.
   for (const fit of graph.filter((e) => e["@type"] === "CreateAction" && e["@id"].startsWith("#fit-"))) rows.push(fitRow(fit, entities, files, tables));
 
   // 5. The figure drawn again from the specs and rows, compared with figure.svg panel by panel.
-  if (renderRecord) rows.push(...(await renderRows(renderRecord, panelRows, files)));
+  if (renderRecord) rows.push(...(await renderRows(renderRecord, panelTables, files)));
 
   return report();
 }
@@ -177,56 +192,47 @@ function hashRow(e: Entity, bytes: Uint8Array | undefined): VerifyRow {
 }
 
 /** The parse options the application used for a file, from its record (format, delimiter and decimal mark as detected or chosen). */
-function parseOptionsOf(rec: BundleParseRecord): ParseOptions {
+function parseOptionsOf(rec: BundleParseRecord): IngestJob["options"] {
   return {
-    fileName: rec.fileName,
     format: rec.format as ParseOptions["format"],
     ...(rec.delimiter ? { delimiter: rec.delimiter as ParseOptions["delimiter"] } : {}),
     decimal: rec.decimal as ParseOptions["decimal"],
   };
 }
 
-function parseRow(path: string, rec: BundleParseRecord, bytes: Uint8Array | undefined): { row: VerifyRow; table?: ParsedTable } {
+/** A raw or derived file parsed again (in the ingest child, as at upload) and compared with the record of its parse. */
+async function parseRow(path: string, rec: BundleParseRecord, bytes: Uint8Array | undefined, dir: string): Promise<{ row: VerifyRow; table?: ParsedTable }> {
   if (!bytes) return { row: { item: path, check: "parse", match: false, detail: "missing from the zip" } };
-  let table: ParsedTable;
+  let parsed: Awaited<ReturnType<typeof reparseInChild>>;
   try {
-    table = parseTable(bytes, parseOptionsOf(rec));
+    parsed = await reparseInChild(bytes, rec.fileName, parseOptionsOf(rec), dir);
   } catch (err) {
     return { row: { item: path, check: "parse", match: false, detail: `does not parse: ${(err as Error).message}` } };
   }
+  const { described: d, table } = parsed;
   const diffs: string[] = [];
-  const same = (what: string, recorded: unknown, parsed: unknown) => {
-    if (JSON.stringify(recorded) !== JSON.stringify(parsed)) diffs.push(`${what}: recorded ${JSON.stringify(recorded)}, parsed ${JSON.stringify(parsed)}`);
+  const same = (what: string, recorded: unknown, again: unknown) => {
+    if (JSON.stringify(recorded) !== JSON.stringify(again)) diffs.push(`${what}: recorded ${JSON.stringify(recorded)}, parsed ${JSON.stringify(again)}`);
   };
-  same("format", rec.format, table.format);
-  same("encoding", rec.encoding, table.encoding);
-  same("delimiter", rec.delimiter, table.delimiter);
-  same("decimal mark", rec.decimal, table.decimal);
-  same("rows", rec.rowCount, table.rowCount);
+  same("format", rec.format, d.parseInfo.format);
+  same("encoding", rec.encoding, d.parseInfo.encoding);
+  same("delimiter", rec.delimiter, d.parseInfo.delimiter);
+  same("decimal mark", rec.decimal, d.parseInfo.decimal);
+  same("rows", rec.rowCount, d.rowCount);
   same(
     "columns",
     rec.columns.map((c) => [c.name, c.unit, c.type, ...(c.header === undefined ? [] : [c.header])]),
-    table.columns.map((c, i) => [c.name, c.unit, c.type, ...(rec.columns[i]?.header === undefined ? [] : [c.sourceHeader])]),
+    d.columns.map((c, i) => [c.name, c.unit, c.type, ...(rec.columns[i]?.header === undefined ? [] : [c.header])]),
   );
-  same("warnings", rec.warnings, table.warnings);
+  same("warnings", rec.warnings, d.parseInfo.warnings);
   const summaries = new Map(rec.summary.map((s) => [s.column, s]));
-  table.columns.forEach((c, i) => {
-    if (c.type !== "number") return;
-    const s = summarizeColumn(table.data[i] as Float64Array);
-    const fin = (v: number) => (Number.isFinite(v) ? v : null);
-    const r = summaries.get(c.name);
-    same(`column ${c.name} statistics`, r && [r.count, r.missing, r.min, r.max, r.mean, r.sd], [
-      s.count,
-      s.missing,
-      fin(s.min),
-      fin(s.max),
-      fin(s.mean),
-      fin(s.sd),
-    ]);
-  });
+  for (const s of d.summary) {
+    const r = summaries.get(s.column);
+    same(`column ${s.column} statistics`, r && [r.count, r.missing, r.min, r.max, r.mean, r.sd], [s.count, s.missing, s.min, s.max, s.mean, s.sd]);
+  }
   const detail = diffs.length
     ? diffs.join("; ")
-    : `${table.format}, ${table.columns.length} columns × ${table.rowCount} rows, statistics of ${summaries.size} numeric columns as recorded`;
+    : `${d.parseInfo.format}, ${d.columns.length} columns × ${d.rowCount} rows, statistics of ${summaries.size} numeric columns as recorded`;
   return { row: { item: path, check: "parse", match: diffs.length === 0, detail }, table };
 }
 
@@ -242,36 +248,49 @@ function fitReport(
   return v as never;
 }
 
-/** The first difference between two lists of rows, or null when they are identical. */
-function firstRowDifference(recorded: TableRow[], actual: TableRow[]): string | null {
+/** The first difference between the recorded rows and the rows read again, or null when they are identical. */
+function firstRowDifference(recorded: TableRow[], actual: RowTable): string | null {
   if (recorded.length !== actual.length) return `recorded ${recorded.length} rows, re-read ${actual.length}`;
+  const column = new Map(actual.names.map((n, j) => [n, j]));
   for (let i = 0; i < recorded.length; i++) {
-    const keys = [...new Set([...Object.keys(recorded[i]), ...Object.keys(actual[i])])];
-    for (const k of keys)
-      if (!Object.is(recorded[i][k] ?? null, actual[i][k] ?? null))
-        return `row ${i + 1}, ${k}: recorded ${JSON.stringify(recorded[i][k])}, re-read ${JSON.stringify(actual[i][k])}`;
+    for (const k of new Set([...Object.keys(recorded[i]), ...actual.names])) {
+      const j = column.get(k);
+      const again = j === undefined ? null : actual.cell(i, j);
+      if (!Object.is(recorded[i][k] ?? null, again)) return `row ${i + 1}, ${k}: recorded ${JSON.stringify(recorded[i][k])}, re-read ${JSON.stringify(again)}`;
+    }
   }
   return null;
 }
 
-function boundRowsRow(item: string, b: BundlePanelData["data"][string], tables: Map<string, ParsedTable>, files: Record<string, Uint8Array>): VerifyRow {
-  let actual: TableRow[];
+/**
+ * One bound name's recorded rows against the rows read again from its file (or fit report). The table
+ * to draw from: the one read again when they match (held as columns), else the recorded rows.
+ */
+function boundRows(
+  item: string,
+  b: Omit<BundlePanelData["data"][string], "rows"> & { rows?: unknown },
+  tables: Map<string, ParsedTable>,
+  files: Record<string, Uint8Array>,
+): { row: VerifyRow; table: RowTable } {
+  const recordedRows = Array.isArray(b.rows) ? (b.rows as TableRow[]) : [];
+  const recorded = () => tableOfRows(recordedRows);
+  let actual: RowTable;
   let source: string;
   if (b.output === "parameters") {
     const report = fitReport(files, b.fit ?? "");
-    if (typeof report === "string") return { item, check: "rows", match: false, detail: report };
-    actual = parameterRows(report.model, storedParameters(report.result));
+    if (typeof report === "string") return { row: { item, check: "rows", match: false, detail: report }, table: recorded() };
+    actual = tableOfRows(parameterRows(report.model, storedParameters(report.result)));
     source = `the parameters of ${b.fit}`;
   } else {
     const table = tables.get(b.file);
-    if (!table) return { item, check: "rows", match: false, detail: `${b.file} was not parsed` };
-    actual = tableRows(table, b.output ? SERIES[b.output] : null);
+    if (!table) return { row: { item, check: "rows", match: false, detail: `${b.file} was not parsed` }, table: recorded() };
+    actual = tableOf(table, b.output ? SERIES[b.output] : null);
     source = b.output ? `the ${b.output} rows of ${b.file}` : b.file;
   }
-  const diff = firstRowDifference(b.rows ?? [], actual);
+  const diff = firstRowDifference(recordedRows, actual);
   return diff
-    ? { item, check: "rows", match: false, detail: `${diff} (from ${source})` }
-    : { item, check: "rows", match: true, detail: `${actual.length} rows identical to ${source}` };
+    ? { row: { item, check: "rows", match: false, detail: `${diff} (from ${source})` }, table: recorded() }
+    : { row: { item, check: "rows", match: true, detail: `${actual.length} rows identical to ${source}` }, table: actual };
 }
 
 const refId = (v: unknown): string | undefined =>
@@ -341,7 +360,7 @@ function fitRow(action: Entity, entities: Map<string, Entity>, files: Record<str
     const points = tableRows(derived, SERIES.data);
     const pointDiff = firstRowDifference(
       points.map((r) => ({ x: r[x], y: r[y] })),
-      Array.from(data.x, (v, i) => ({ x: nullIfNaN(v), y: nullIfNaN(data.y[i]) })),
+      tableOfRows(Array.from(data.x, (v, i) => ({ x: nullIfNaN(v), y: nullIfNaN(data.y[i]) }))),
     );
     if (pointDiff) diffs.push(`fitted points in ${derivedPath} differ from ${inputPath}: ${pointDiff}`);
     const curve = tableRows(derived, SERIES.curve);
@@ -393,7 +412,7 @@ function panelParts(svg: string): { head: string; panels: Map<string, string> } 
   return { head: pieces[0] ?? "", panels };
 }
 
-async function renderRows(record: BundleRender, panelRows: Map<string, BundlePanelData>, files: Record<string, Uint8Array>): Promise<VerifyRow[]> {
+async function renderRows(record: BundleRender, panelTables: Map<string, Record<string, RowTable>>, files: Record<string, Uint8Array>): Promise<VerifyRow[]> {
   const out: VerifyRow[] = [];
   const stored = files[BUNDLE_PATHS.figureSvg];
   if (!stored) return [{ item: BUNDLE_PATHS.figureSvg, check: "render", match: false, detail: "missing from the bundle" }];
@@ -401,13 +420,12 @@ async function renderRows(record: BundleRender, panelRows: Map<string, BundlePan
   const panels = [];
   for (const p of record.panels) {
     const spec = readJson(files, p.spec);
-    const data = panelRows.get(p.letter);
+    const data = panelTables.get(p.letter);
     if (!spec.ok || !data) {
       out.push({ item: `panel ${p.letter}`, check: "render", match: false, detail: spec.ok ? `${p.data} is missing or unreadable` : spec.error });
       continue;
     }
-    const rows = Object.fromEntries(Object.entries(data.data).map(([name, b]) => [name, tableOfRows(b.rows)]));
-    panels.push({ letter: p.letter, spec: spec.value, data: rows, span: p.span });
+    panels.push({ letter: p.letter, spec: spec.value, data, span: p.span });
   }
   if (out.length) return out;
   const jobs = figurePanelJobs(panels, { columns: record.columns, shareYTitles: record.shareYTitles === true }, style);
