@@ -17,8 +17,8 @@
  * output would need lib/server/render/worker and those packages copied alongside).
  */
 import "server-only";
-import { fork, type ChildProcess } from "node:child_process";
 import path from "node:path";
+import { ChildPool, ranOutOfMemory, type PooledChild } from "../child-pool";
 import type { ComposedFigure, FigureLayout } from "./worker/compose-core.mjs";
 import type { BoundData, PhysicalSize, RenderedSvg } from "./worker/render-core.mjs";
 import { RenderError, type RenderErrorCode } from "./worker/render-error.mjs";
@@ -47,153 +47,39 @@ export type RenderedFigure = ComposedFigure & { warnings: string[] };
 
 const DEFAULT_TIMEOUT_MS = 10_000;
 const DEFAULT_HEAP_MB = 512;
-const STARTUP_TIMEOUT_MS = 20_000;
-const MAX_IDLE_WORKERS = 2;
-const JOBS_PER_WORKER = 100;
-/** An idle worker (≈ 100 MB) is stopped after this long without work. */
-const IDLE_MS = 60_000;
 
-function renderWorkerPath(root: string = process.cwd()): string {
-  return path.join(/* turbopackIgnore: true */ root, "lib", "server", "render", "worker", "render-worker.mjs");
-}
+const pool = new ChildPool({
+  script: () => path.join(/* turbopackIgnore: true */ process.cwd(), "lib", "server", "render", "worker", "render-worker.mjs"),
+  execArgv: (heapMb) => [`--max-old-space-size=${heapMb}`],
+  serialization: "advanced",
+  startupTimeoutMs: 20_000,
+  maxIdle: 2,
+  jobsPerChild: 100,
+  // An idle worker (≈ 100 MB) is stopped after this long without work.
+  idleMs: 60_000,
+});
 
-interface PooledWorker {
-  child: ChildProcess;
-  heapMb: number;
-  jobs: number;
-  ready: Promise<void>;
-  /** The tail of the child's stderr: tells an out-of-memory abort from other crashes. */
-  stderr: string;
-  idleTimer?: ReturnType<typeof setTimeout>;
-}
-
-type Reply = { type?: string; id?: number; ok?: boolean; result?: unknown; workMs?: number; error?: { code: RenderErrorCode; message: string } };
+type Reply = { id?: number; ok?: boolean; result?: unknown; workMs?: number; error?: { code: RenderErrorCode; message: string } };
 
 /** Time the last job spent rendering inside the worker, ms (the rest of its wall time is IPC). */
 export let lastWorkerRenderMs = 0;
 
-const idle: PooledWorker[] = [];
-let nextId = 1;
-
-function setRef(child: ChildProcess, on: boolean): void {
-  const channel = child.channel as { ref?: () => void; unref?: () => void } | null | undefined;
-  if (on) {
-    child.ref();
-    channel?.ref?.();
-  } else {
-    child.unref();
-    channel?.unref?.();
-  }
+function crashError(w: PooledChild, how: string): RenderError {
+  if (ranOutOfMemory(w)) return new RenderError("out-of-memory", `the render needed more than its ${w.heapMb} MB memory budget`);
+  return new RenderError("worker-failed", `the render worker ${how}`);
 }
 
-function spawn(heapMb: number): PooledWorker {
-  const child = fork(renderWorkerPath(), [], {
-    execArgv: [`--max-old-space-size=${heapMb}`],
-    env: { NODE_ENV: "production" },
-    serialization: "advanced",
-    stdio: ["ignore", "ignore", "pipe", "ipc"],
-  });
-  const pooled: PooledWorker = { child, heapMb, jobs: 0, ready: Promise.resolve(), stderr: "" };
-  child.stderr?.on("data", (d: Buffer) => {
-    pooled.stderr = (pooled.stderr + d.toString("utf8")).slice(-4000);
-  });
-  pooled.ready = new Promise<void>((resolve, reject) => {
-    const timer = setTimeout(() => reject(new RenderError("worker-failed", "the render worker did not start")), STARTUP_TIMEOUT_MS);
-    const onMessage = (m: Reply) => {
-      if (m?.type !== "ready") return;
-      clearTimeout(timer);
-      child.off("message", onMessage);
-      resolve();
-    };
-    child.on("message", onMessage);
-    child.once("error", (err) => {
-      clearTimeout(timer);
-      reject(new RenderError("worker-failed", `the render worker failed: ${err.message}`));
-    });
-    child.once("exit", (code, signal) => {
-      clearTimeout(timer);
-      reject(exitError(pooled, code, signal));
-    });
-  });
-  pooled.ready.catch(() => undefined); // observed by the job that awaits it
-  child.once("exit", () => {
-    const i = idle.indexOf(pooled);
-    if (i >= 0) idle.splice(i, 1);
-  });
-  return pooled;
-}
-
-function exitError(w: PooledWorker, code: number | null, signal: NodeJS.Signals | null): RenderError {
-  if (/heap out of memory|Allocation failed/i.test(w.stderr)) {
-    return new RenderError("out-of-memory", `the render needed more than its ${w.heapMb} MB memory budget`);
-  }
-  return new RenderError("worker-failed", `the render worker exited (${signal ?? code})`);
-}
-
-function acquire(heapMb: number): PooledWorker {
-  const i = idle.findIndex((w) => w.heapMb === heapMb);
-  if (i < 0) return spawn(heapMb);
-  const w = idle.splice(i, 1)[0];
-  clearTimeout(w.idleTimer);
-  return w;
-}
-
-function release(w: PooledWorker): void {
-  if (w.jobs < JOBS_PER_WORKER && idle.length < MAX_IDLE_WORKERS && w.child.connected) {
-    setRef(w.child, false); // an idle worker must not keep the server (or a test run) alive
-    w.idleTimer = setTimeout(() => {
-      const i = idle.indexOf(w);
-      if (i >= 0) idle.splice(i, 1);
-      w.child.kill("SIGKILL");
-    }, IDLE_MS);
-    w.idleTimer.unref();
-    idle.push(w);
-  } else {
-    w.child.kill("SIGKILL");
-  }
-}
-
-async function runJob<T>(job: Record<string, unknown>, budget: RenderBudget = {}): Promise<T> {
+function runJob<T>(job: Record<string, unknown>, budget: RenderBudget = {}): Promise<T> {
   const timeoutMs = budget.timeoutMs ?? DEFAULT_TIMEOUT_MS;
-  const pooled = acquire(budget.maxOldGenerationSizeMb ?? DEFAULT_HEAP_MB);
-  const { child } = pooled;
-  setRef(child, true);
-  try {
-    await pooled.ready;
-  } catch (err) {
-    child.kill("SIGKILL");
-    throw err;
-  }
-  pooled.jobs++;
-  const id = nextId++;
-  return new Promise<T>((resolve, reject) => {
-    let settled = false;
-    const finish = (fn: () => void, keep: boolean) => {
-      if (settled) return;
-      settled = true;
-      clearTimeout(timer);
-      child.off("message", onMessage);
-      child.off("exit", onExit);
-      if (keep) release(pooled);
-      else child.kill("SIGKILL");
-      fn();
-    };
-    const onMessage = (m: Reply) => {
-      if (m?.id !== id) return;
+  return pool.run<T, Reply>(job, budget.maxOldGenerationSizeMb ?? DEFAULT_HEAP_MB, timeoutMs, {
+    reply: (m) => {
       lastWorkerRenderMs = m.workMs ?? 0;
-      if (m.ok) finish(() => resolve(m.result as T), true);
-      else finish(() => reject(new RenderError(m.error?.code ?? "render-failed", m.error?.message ?? "render failed")), true);
-    };
-    const onExit = (code: number | null, signal: NodeJS.Signals | null) => finish(() => reject(exitError(pooled, code, signal)), false);
-    const timer = setTimeout(
-      () => finish(() => reject(new RenderError("timeout", `the render took longer than its budget of ${timeoutMs} ms`)), false),
-      timeoutMs,
-    );
-    child.on("message", onMessage);
-    child.once("exit", onExit);
-    child.send({ ...job, id }, (err) => {
-      if (err) finish(() => reject(new RenderError("worker-failed", `the job could not be sent: ${err.message}`)), false);
-    });
+      if (m.ok) return { value: m.result as T };
+      return { error: new RenderError(m.error?.code ?? "render-failed", m.error?.message ?? "render failed"), keep: true };
+    },
+    notStarted: (w, reason) => crashError(w, `did not start: ${reason.message}`),
+    exited: (w, code, signal) => crashError(w, `exited (${signal ?? code})`),
+    timedOut: () => new RenderError("timeout", `the render took longer than its budget of ${timeoutMs} ms`),
   });
 }
 
@@ -216,19 +102,6 @@ export function drawInWorker<T>(job: { kind: "pdf" | "raster"; svg: string; opti
 }
 
 /** Stops the idle workers (tests, graceful shutdown). */
-export async function stopRenderWorkers(): Promise<void> {
-  const all = idle.splice(0);
-  for (const w of all) clearTimeout(w.idleTimer);
-  await Promise.all(
-    all.map(
-      (w) =>
-        new Promise<void>((resolve) => {
-          if (w.child.exitCode !== null || w.child.signalCode !== null) return resolve();
-          w.child.once("exit", () => resolve());
-          // Idle workers are unref'd; without a ref the process may leave before the exit event arrives.
-          w.child.ref();
-          w.child.kill("SIGKILL");
-        }),
-    ),
-  );
+export function stopRenderWorkers(): Promise<void> {
+  return pool.stopIdle();
 }
