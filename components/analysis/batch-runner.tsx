@@ -1,10 +1,11 @@
 "use client";
 import { useRef, useState } from "react";
 import { postForEvents } from "@/components/api-client";
-import { Button, EmptyState, Field, Notice, Select } from "@/components/ui";
+import { Button, Field, Notice, Select } from "@/components/ui";
 import type { BatchEvent, ModelInfo } from "./api";
 import { BatchProgress } from "./batch-progress";
 import { BatchResults, type BatchOutcome } from "./batch-results";
+import { DatasetChecklist } from "./dataset-checklist";
 import type { BatchDataset } from "./batch-types";
 import { defaultColumns } from "./fit-options";
 import { ColumnSelects, kindWords, ModelSelect } from "./model-and-columns";
@@ -108,31 +109,14 @@ export function BatchRunner({ manuscriptId, datasets, models, model, onModel, ki
           <ColumnSelects columns={matching[0]?.columns ?? []} value={cols} onChange={setCols} />
         </div>
       </div>
-      {matching.length ? (
-        <fieldset className="rounded-sm border border-rule">
-          <legend className="ml-3 px-1 text-sm font-semibold">
-            Datasets to fit — current versions ({chosen.length} of {matching.length} ticked)
-          </legend>
-          <ul className="grid gap-x-6 gap-y-1 px-3 py-2 text-sm sm:grid-cols-2">
-            {matching.map((d) => (
-              <li key={d.id}>
-                <label className="flex items-baseline gap-2">
-                  <input type="checkbox" checked={!unticked.has(d.id)} disabled={running} onChange={(e) => toggle(d.id, e.target.checked)} />
-                  <span>
-                    {d.name}{" "}
-                    <span className="text-xs text-muted">
-                      v{d.versionNumber}
-                      {d.tags.group ? ` · ${d.tags.group}` : ""}
-                    </span>
-                  </span>
-                </label>
-              </li>
-            ))}
-          </ul>
-        </fieldset>
-      ) : (
-        <EmptyState title={`No ${kindWords(kind)} datasets`}>Upload measurements of this kind, or choose another kind.</EmptyState>
-      )}
+      <DatasetChecklist
+        legend={`Datasets to fit — current versions (${chosen.length} of ${matching.length} ticked)`}
+        kind={kind}
+        datasets={matching}
+        ticked={(id) => !unticked.has(id)}
+        onToggle={toggle}
+        disabled={running}
+      />
       {mayRun ? (
         <div className="flex flex-wrap items-center gap-3">
           <Button type="button" onClick={() => void run()} disabled={running || !chosen.length || !cols.x || !cols.y}>

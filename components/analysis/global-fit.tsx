@@ -1,11 +1,12 @@
 "use client";
 import { useState } from "react";
 import { ApiError, sendJson } from "@/components/api-client";
-import { Button, EmptyState, Field, Notice, Select, TextInput } from "@/components/ui";
+import { Button, Field, Notice, Select, TextInput } from "@/components/ui";
 import { resolveUnit } from "@/lib/analysis/param-unit";
 import type { GlobalFitResult, ModelInfo } from "./api";
 import type { BatchDataset } from "./batch-types";
 import { defaultColumns, orderModels } from "./fit-options";
+import { DatasetChecklist } from "./dataset-checklist";
 import { GlobalFitResultView } from "./global-fit-result";
 import { ColumnSelects, kindWords, ModelSelect } from "./model-and-columns";
 
@@ -136,27 +137,13 @@ export function GlobalFit({ manuscriptId, datasets, models, mayRun }: Props) {
           <ColumnSelects columns={matching[0]?.columns ?? []} value={cols} onChange={setCols} />
         </div>
       </div>
-      {matching.length ? (
-        <fieldset className="rounded-sm border border-rule">
-          <legend className="ml-3 px-1 text-sm font-semibold">
-            Datasets to fit together ({chosen.length} of {matching.length} ticked)
-          </legend>
-          <ul className="grid gap-x-6 gap-y-1 px-3 py-2 text-sm sm:grid-cols-2">
-            {matching.map((d) => (
-              <li key={d.id}>
-                <label className="flex items-baseline gap-2">
-                  <input type="checkbox" checked={ticked.has(d.id)} onChange={(e) => toggle(d.id, e.target.checked)} />
-                  <span>
-                    {d.name} <span className="text-xs text-muted">v{d.versionNumber}</span>
-                  </span>
-                </label>
-              </li>
-            ))}
-          </ul>
-        </fieldset>
-      ) : (
-        <EmptyState title={`No ${kindWords(kind)} datasets`}>Upload measurements of this kind, or choose another kind.</EmptyState>
-      )}
+      <DatasetChecklist
+        legend={`Datasets to fit together (${chosen.length} of ${matching.length} ticked)`}
+        kind={kind}
+        datasets={matching}
+        ticked={(id) => ticked.has(id)}
+        onToggle={toggle}
+      />
       <fieldset className="rounded-sm border border-rule">
         <legend className="ml-3 px-1 text-sm font-semibold">Parameters: shared by all, or held fixed</legend>
         <ul className="divide-y divide-rule/70 px-3 text-sm">
