@@ -55,8 +55,8 @@ function panelRows(entries: Record<string, Uint8Array>) {
     Object.entries(entries)
       .filter(([p]) => /^data\/panel-\w+\.json$/.test(p))
       .map(([p, b]) => {
-        const d = JSON.parse(strFromU8(b)) as { data: Record<string, { rows: unknown[] }> };
-        return [p, Object.fromEntries(Object.entries(d.data).map(([name, v]) => [name, v.rows]))];
+        const d = JSON.parse(strFromU8(b)) as { data: Record<string, { columns: string[]; values: unknown[][] }> };
+        return [p, Object.fromEntries(Object.entries(d.data).map(([name, v]) => [name, { columns: v.columns, values: v.values }]))];
       }),
   );
 }

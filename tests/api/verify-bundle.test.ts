@@ -218,6 +218,23 @@ describe("verifying a bundle", () => {
     );
   });
 
+  it("a drawn value changed in the panel's data file, its hash rewritten: the rows check names the row and column", async () => {
+    const file = "data/panel-a.json";
+    const data = JSON.parse(strFromU8(files[file]!));
+    const echo = data.data.echo as { columns: string[]; values: unknown[][] };
+    const signal = echo.columns.indexOf("signal");
+    const original = echo.values[signal]![4] as number;
+    echo.values[signal]![4] = original + 0.5;
+    const bytes = strToU8(JSON.stringify(data) + "\n");
+    const r = await verify(rezip({ [file]: bytes, "ro-crate-metadata.json": metadataFor(file, bytes) }));
+    expect(r.json.ok).toBe(false);
+    const rows = (r.json.rows as Row[]).find((x) => x.item === "panel a · echo")!;
+    expect(rows.match).toBe(false);
+    expect(rows.detail).toBe(`row 5, signal: recorded ${original + 0.5}, re-read ${original} (from ${rawPath()})`);
+    // Drawn from the recorded values, panel a no longer matches figure.svg either.
+    expect((r.json.rows as Row[]).find((x) => x.item === "panel a" && x.check === "render")!.match).toBe(false);
+  });
+
   it("a fit report's parameter changed: the report and the fit are named, with both numbers", async () => {
     const report = JSON.parse(strFromU8(files[reportPath()]!));
     const t2 = report.result.parameters.find((p: any) => p.name === "T2");

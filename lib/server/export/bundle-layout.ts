@@ -26,14 +26,19 @@ export interface BundleParseRecord {
   summary: StoredSummary[];
 }
 
-/** One bound data name of a panel: the file its rows come from, the fit report for a fit output, and the rows drawn. */
+/**
+ * One bound data name of a panel: the file its rows come from, the fit report for a fit output, and
+ * the rows drawn, column by column (`values[j][i]` is row i of `columns[j]`; a missing number is null),
+ * which reads back as a few arrays rather than an object per row.
+ */
 export interface BundleBoundData {
   file: string;
   /** The fit report (fits/….json) when the name is bound to a fit's output. */
   fit?: string;
   /** curve, data, residuals or parameters for a fit's output; absent for a dataset version. */
   output?: string | null;
-  rows: Array<Record<string, number | string | null>>;
+  columns: string[];
+  values: Array<Array<number | string | null>>;
 }
 
 /** data/panel-<letter>.json: the rows each data name of the panel's revision resolved to, at full resolution. */

@@ -5,7 +5,7 @@ import { panelDataJson } from "@/lib/server/export/panel-data-json";
 import { joinBlocks } from "@/lib/server/export/utf8-chunks";
 
 describe("a panel's data file in the bundle", () => {
-  it("is byte for byte what JSON.stringify writes for the same rows, without an object per row", () => {
+  it("is byte for byte what JSON.stringify writes for the same columns, without an object per row", () => {
     const parsed = {
       columns: [{ name: "tau" }, { name: "S" }, { name: "series" }] as never,
       data: [new Float64Array([0.5, 1, -0, 2e-7]), new Float64Array([1, NaN, 0.25, Infinity]), ["data", "curve", "data", "data"]],
@@ -21,7 +21,7 @@ describe("a panel's data file in the bundle", () => {
         empty: { described: { file: "raw/z.csv" }, table: tableOfRows([]) },
       },
     );
-    // The same content written out by hand as records, missing numbers as null.
+    // The same content written out by hand, column by column, missing numbers as null.
     const expected = {
       panel: "a",
       revision: 3,
@@ -31,23 +31,30 @@ describe("a panel's data file in the bundle", () => {
           file: "derived/x.csv",
           fit: "fits/e.json",
           output: "data",
-          rows: [
-            { tau: 0.5, S: 1, series: "data" },
-            { tau: 0, S: 0.25, series: "data" },
-            { tau: 2e-7, S: null, series: "data" },
+          columns: ["tau", "S", "series"],
+          values: [
+            [0.5, 0, 2e-7],
+            [1, 0.25, null],
+            ["data", "data", "data"],
           ],
         },
         raw: {
           file: "raw/y.csv",
-          rows: [
-            { tau: 0.5, S: 1, series: "data" },
-            { tau: 1, S: null, series: "curve" },
-            { tau: 0, S: 0.25, series: "data" },
-            { tau: 2e-7, S: null, series: "data" },
+          columns: ["tau", "S", "series"],
+          values: [
+            [0.5, 1, 0, 2e-7],
+            [1, null, 0.25, null],
+            ["data", "curve", "data", "data"],
           ],
         },
-        p: { file: "derived/x.csv", fit: "fits/e.json", output: "parameters", rows: params },
-        empty: { file: "raw/z.csv", rows: [] },
+        p: {
+          file: "derived/x.csv",
+          fit: "fits/e.json",
+          output: "parameters",
+          columns: ["symbol", "value", "unit", "note"],
+          values: [["T₂"], [41.5], ["µs"], ['say "hi"']],
+        },
+        empty: { file: "raw/z.csv", columns: [], values: [] },
       },
     };
     expect(strFromU8(joinBlocks(out))).toBe(JSON.stringify(expected) + "\n");

@@ -75,7 +75,7 @@ export function fitRow(action: Entity, entities: Map<string, Entity>, files: Rec
     const y = report.options.y;
     const points = tableRows(derived, SERIES.data);
     const pointDiff = firstRowDifference(
-      points.map((r) => ({ x: r[x], y: r[y] })),
+      tableOfRows(points.map((r) => ({ x: r[x], y: r[y] }))),
       tableOfRows(Array.from(data.x, (v, i) => ({ x: nullIfNaN(v), y: nullIfNaN(data.y[i]) }))),
     );
     if (pointDiff) diffs.push(`fitted points in ${derivedPath} differ from ${inputPath}: ${pointDiff}`);
