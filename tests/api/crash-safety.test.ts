@@ -181,6 +181,16 @@ describe("kill -9 during a bundle export", () => {
           .where(eq(auditLog.target, `figure:${figure.id}`))
       ).filter((a) => a.action === "figure.export");
     const filesBefore = filesUnder(env().uploadsDir);
+    // The bundle is written to a part file as it is made: killed while that file is being written.
+    const tmp = path.join(env().uploadsDir, "tmp");
+    fs.mkdirSync(tmp, { recursive: true });
+    const partAppeared = new Promise<void>((resolve) => {
+      const watcher = fs.watch(tmp, (_event, name) => {
+        if (!name?.endsWith(".part")) return;
+        watcher.close();
+        resolve();
+      });
+    });
 
     const child = spawn(path.join("node_modules", ".bin", "tsx"), ["--conditions=react-server", "tests/support/export-child.ts", figure.id], {
       cwd: process.cwd(),
@@ -190,21 +200,22 @@ describe("kill -9 during a bundle export", () => {
     });
     const exited = once(child, "exit");
     let seen = "";
-    await new Promise<void>((resolve) => {
-      child.stdout!.on("data", (d: Buffer) => {
-        seen += d.toString("utf8");
-        if (seen.includes("exporting")) resolve();
-      });
-    });
+    child.stdout!.on("data", (d: Buffer) => (seen += d.toString("utf8")));
+    await partAppeared;
     process.kill(-child.pid!, "SIGKILL");
     await exited;
+    expect(seen).toContain("exporting");
     expect(seen).not.toContain("exported");
 
     expect(await exportsOf()).toEqual([]);
     expect((await verifyAuditChain(getDb())).ok).toBe(true);
+    // The half-written bundle is left as a part file, which the start-up sweep takes: then nothing is left.
+    expect(fs.readdirSync(tmp).filter((n) => n.endsWith(".part")).length).toBeGreaterThan(0);
+    await sweepUploadTemp(0);
     expect(filesUnder(env().uploadsDir)).toEqual(filesBefore);
 
     const { body } = await exportFigure(pi, figure.id, { format: "bundle", dpi: 300, colour: "rgb", text: "outlines", mark: "on" });
+    expect((await body.bytes()).byteLength).toBe(body.byteLength);
     expect(body.byteLength).toBeGreaterThan(0);
     expect(await exportsOf()).toHaveLength(1);
     expect((await verifyAuditChain(getDb())).ok).toBe(true);
