@@ -37,7 +37,7 @@ function recordedTable(b: { columns?: unknown; values?: unknown }): RowTable | s
   const cols = values as unknown[][];
   const length = cols[0]?.length ?? 0;
   if (cols.some((c) => c.length !== length)) return "its columns hold different numbers of rows";
-  return { names: columns as string[], length, cell: (i, j) => (cols[j][i] ?? null) as number | string | null };
+  return { names: columns, length, cell: (i, j) => (cols[j][i] ?? null) as number | string | null };
 }
 
 /**
