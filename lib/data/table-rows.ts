@@ -39,9 +39,11 @@ export function tableOf(table: Pick<ParsedTable, "columns" | "data" | "rowCount"
   };
 }
 
-/** Rows already held as records (fitted parameters, a bundle's JSON): columns are the first row's keys. */
+/** Rows already held as records (fitted parameters, an older bundle's JSON): every key any row has is a column, in order of first appearance; a key a row lacks reads as null. */
 export function tableOfRows(rows: readonly TableRow[]): RowTable {
-  const names = Object.keys(rows[0] ?? {});
+  const keys = new Set<string>();
+  for (const row of rows) for (const k of Object.keys(row)) keys.add(k);
+  const names = [...keys];
   return { names, length: rows.length, cell: (i, j) => rows[i][names[j]] ?? null };
 }
 

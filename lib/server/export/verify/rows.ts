@@ -2,7 +2,7 @@
 import "server-only";
 import { storedParameters, parameterRows } from "@/lib/figures/fit-value";
 import type { ParsedTable } from "@/lib/data/parse";
-import { tableOf, tableOfRows, type RowTable } from "@/lib/data/table-rows";
+import { tableOf, tableOfRows, type RowTable, type TableRow } from "@/lib/data/table-rows";
 import { SERIES } from "../../figures/bindings";
 import type { BundlePanelData } from "../bundle-layout";
 import { type VerifyRow, fitReport } from "./common";
@@ -28,8 +28,16 @@ export function firstRowDifference(recorded: RowTable, actual: RowTable): string
   return null;
 }
 
-/** The recorded columns as a table, or why they cannot be read as one. */
-function recordedTable(b: { columns?: unknown; values?: unknown }): RowTable | string {
+/**
+ * The recorded columns as a table, or why they cannot be read as one. Bundles made before the data
+ * files were written column by column hold a list of records (`rows`), read as they are.
+ */
+function recordedTable(b: { columns?: unknown; values?: unknown; rows?: unknown }): RowTable | string {
+  if (b.columns === undefined && Array.isArray(b.rows)) {
+    const rows = b.rows as unknown[];
+    if (!rows.every((r) => r !== null && typeof r === "object" && !Array.isArray(r))) return "its rows are not a list of records";
+    return tableOfRows(rows as TableRow[]);
+  }
   const { columns, values } = b;
   if (!Array.isArray(columns) || !columns.every((c) => typeof c === "string")) return "its columns are not a list of names";
   if (!Array.isArray(values) || values.length !== columns.length || !values.every(Array.isArray))
@@ -46,7 +54,7 @@ function recordedTable(b: { columns?: unknown; values?: unknown }): RowTable | s
  */
 export function boundRows(
   item: string,
-  b: Omit<BundlePanelData["data"][string], "columns" | "values"> & { columns?: unknown; values?: unknown },
+  b: Omit<BundlePanelData["data"][string], "columns" | "values"> & { columns?: unknown; values?: unknown; rows?: unknown },
   tables: Map<string, ParsedTable>,
   files: Record<string, Uint8Array>,
 ): { row: VerifyRow; table: RowTable } {
