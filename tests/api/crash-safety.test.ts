@@ -37,14 +37,7 @@ describe("kill -9 during an upload", () => {
   it("leaves no version, a whole audit chain, and nothing after the sweeps", async () => {
     const versionsBefore = (await getDb().select().from(versions)).length;
     const tmp = path.join(env().uploadsDir, "tmp");
-    fs.mkdirSync(tmp, { recursive: true });
-    const partAppeared = new Promise<void>((resolve) => {
-      const watcher = fs.watch(tmp, (_event, name) => {
-        if (!name?.endsWith(".part")) return;
-        watcher.close();
-        resolve();
-      });
-    });
+    const partAppeared = partFileAppears(tmp);
     // Its own process group, so the kill takes tsx and the ingest child with it.
     const child = spawn(path.join("node_modules", ".bin", "tsx"), ["--conditions=react-server", "tests/support/upload-child.ts", file, DEMO_MANUSCRIPT_ID], {
       cwd: process.cwd(),
@@ -138,6 +131,18 @@ describe("kill -9 during an upload", () => {
 });
 
 /** Every file under dir, relative, sorted (the database's own files left out: they change with every write). */
+/** Resolves when a part file (an upload or an export being written) appears in `tmp`. */
+function partFileAppears(tmp: string): Promise<void> {
+  fs.mkdirSync(tmp, { recursive: true });
+  return new Promise<void>((resolve) => {
+    const watcher = fs.watch(tmp, (_event, name) => {
+      if (!name?.endsWith(".part")) return;
+      watcher.close();
+      resolve();
+    });
+  });
+}
+
 function filesUnder(dir: string): string[] {
   if (!fs.existsSync(dir)) return [];
   return (fs.readdirSync(dir, { recursive: true, withFileTypes: true }) as fs.Dirent[])
@@ -183,14 +188,7 @@ describe("kill -9 during a bundle export", () => {
     const filesBefore = filesUnder(env().uploadsDir);
     // The bundle is written to a part file as it is made: killed while that file is being written.
     const tmp = path.join(env().uploadsDir, "tmp");
-    fs.mkdirSync(tmp, { recursive: true });
-    const partAppeared = new Promise<void>((resolve) => {
-      const watcher = fs.watch(tmp, (_event, name) => {
-        if (!name?.endsWith(".part")) return;
-        watcher.close();
-        resolve();
-      });
-    });
+    const partAppeared = partFileAppears(tmp);
 
     const child = spawn(path.join("node_modules", ".bin", "tsx"), ["--conditions=react-server", "tests/support/export-child.ts", figure.id], {
       cwd: process.cwd(),
