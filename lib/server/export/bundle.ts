@@ -16,6 +16,7 @@ import type { FigureReview } from "../review/review-context";
 import { blobStore } from "../storage/store";
 import { DRAFT_MARK_TEXT } from "./draft-mark";
 import { fitReportText, type StoredFit } from "./fit-report";
+import { iso, lastChange, mediaTypeOf, putReviewActions, ref, type Entity } from "./crate-entities";
 import { BUNDLE_PATHS, type BundleParseRecord, type BundleRender } from "./bundle-layout";
 import { panelDataJson } from "./panel-data-json";
 import { traceToProv, type RenderedFile } from "./prov";
@@ -28,10 +29,7 @@ import { ZipFileWriter } from "./zip-writer";
 const RO_CRATE_CONTEXT = "https://w3id.org/ro/crate/1.2/context";
 const RO_CRATE_CONFORMS_TO = "https://w3id.org/ro/crate/1.2";
 
-type Entity = Record<string, unknown> & { "@id": string; "@type": string };
 type Version = Extract<FigureTrace["panels"][number]["inputs"][number], { kind: "version" }>["version"];
-const ref = (id: string) => ({ "@id": id });
-const iso = (d: Date | string) => new Date(d).toISOString();
 
 /**
  * The reproducibility bundle as an RO-Crate 1.2 (ro-crate-metadata.json): the figure drawn as SVG, PDF and
@@ -265,53 +263,7 @@ async function writeBundleFiles(zip: ZipFileWriter, user: SessionUser, review: F
     result: [...drawnRefs, ...sourceRefs],
     agent: personRef(user),
   });
-  const figureEntity = (hash: string) =>
-    put({
-      "@id": `#figure-${hash}`,
-      "@type": "CreativeWork",
-      name: `Figure ${review.figure.number} at hash ${hash.slice(0, 12)}${hash === review.figureHash ? "" : " (an earlier state)"}`,
-      identifier: hash,
-    });
-  figureEntity(review.figureHash);
-
-  for (const d of trace.decisions) {
-    const revision = put({
-      "@id": `#revision-${d.revisionId}`,
-      "@type": "CreativeWork",
-      name: `Panel ${d.panelLetter}, revision ${d.revisionNumber ?? "?"}`,
-      identifier: d.contentHash,
-    });
-    put({
-      "@id": `#decision-${d.id}`,
-      "@type": "AssessAction",
-      name: `Panel ${d.panelLetter}, revision ${d.revisionNumber ?? "?"}: ${d.decision === "approved" ? "approved" : "needs revision"}${d.stale ? " (stale)" : ""}`,
-      object: revision,
-      agent: personRef(d.by),
-      endTime: iso(d.createdAt),
-      ...(d.note ? { description: d.note } : {}),
-    });
-  }
-  for (const s of trace.signoffs) {
-    put({
-      "@id": `#signoff-${s.id}`,
-      "@type": "EndorseAction",
-      name: `Figure ${review.figure.number} signed off${s.withdrawn ? " (withdrawn)" : s.stale ? " (stale)" : ""}`,
-      object: figureEntity(s.figureHash),
-      agent: personRef(s.by),
-      endTime: iso(s.createdAt),
-      ...(s.reason ? { description: s.reason } : {}),
-    });
-    if (s.withdrawn)
-      put({
-        "@id": `#signoff-${s.id}-withdrawn`,
-        "@type": "AssessAction",
-        name: `Sign-off of Figure ${review.figure.number} withdrawn`,
-        object: ref(`#signoff-${s.id}`),
-        agent: personRef(s.withdrawn.by),
-        endTime: iso(s.withdrawn.at),
-        ...(s.withdrawn.reason ? { description: s.withdrawn.reason } : {}),
-      });
-  }
+  putReviewActions(trace, review, put, personRef);
 
   const { exports: _leftOut, ...bundleTrace } = trace;
   await addFile("trace.json", strToU8(JSON.stringify(bundleTrace, null, 2) + "\n"), "application/json", {
@@ -343,33 +295,4 @@ async function writeBundleFiles(zip: ZipFileWriter, user: SessionUser, review: F
     ],
   };
   await zip.add("ro-crate-metadata.json", strToU8(JSON.stringify(crate, null, 2) + "\n"));
-}
-
-/** The latest recorded event of the figure's trace: the bundle's publication date and the PDF's creation date. */
-function lastChange(trace: FigureTrace): Date {
-  const times: Array<Date | string> = [];
-  for (const p of trace.panels) {
-    if (p.revision) times.push(p.revision.createdAt);
-    for (const i of p.inputs) {
-      if (i.kind === "version") times.push(i.version.createdAt);
-      else times.push(i.analysis.createdAt, i.input.createdAt, i.derived.createdAt);
-    }
-  }
-  for (const d of trace.decisions) times.push(d.createdAt);
-  for (const s of trace.signoffs) times.push(s.createdAt, ...(s.withdrawn ? [s.withdrawn.at] : []));
-  return new Date(Math.max(0, ...times.map((t) => new Date(t).getTime())));
-}
-
-/** IANA media types of the files people upload (by extension); anything else is application/octet-stream. */
-function mediaTypeOf(fileName: string): string {
-  const ext = /\.([^.]+)$/.exec(fileName.toLowerCase())?.[1] ?? "";
-  const known: Record<string, string> = {
-    csv: "text/csv",
-    tsv: "text/tab-separated-values",
-    txt: "text/plain",
-    dat: "text/plain",
-    asc: "text/plain",
-    json: "application/json",
-  };
-  return known[ext] ?? "application/octet-stream";
 }
