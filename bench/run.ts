@@ -13,6 +13,7 @@ import { benchLoadMix } from "./load-mix";
 import { benchMail } from "./mail";
 import { benchRender } from "./render";
 import { benchReview } from "./review";
+import { benchServiceCost } from "./service-cost";
 
 const BENCHMARKS: Record<string, { what: string; run: () => Promise<Record<string, unknown>> }> = {
   fit: { what: "fitter throughput (one core)", run: benchFit },
@@ -24,6 +25,7 @@ const BENCHMARKS: Record<string, { what: string; run: () => Promise<Record<strin
     run: benchExport,
   },
   load: { what: "mixed workload (board, rows, queue, comments, decisions) at 32 and 128 clients beside a bare route, then a memory soak", run: benchLoadMix },
+  "service-cost": { what: "CPU, wall time and SQL statements per request of each load-mix kind, route handlers in process (no HTTP)", run: benchServiceCost },
   mail: { what: "digests for 1,000 people on 20 manuscripts after a month of activity: build, draw, send", run: benchMail },
 };
 

@@ -47,6 +47,12 @@ export const manuscripts = sqliteTable("manuscripts", {
     .notNull()
     .references(() => users.id),
   createdAt: createdAt(),
+  /**
+   * Raised by triggers (migration 0012) whenever anything the manuscript's overview reads changes:
+   * figures, panels, revisions, decisions, sign-offs, threads, members and their names, datasets.
+   * Every instance compares it with what it has cached, so a write anywhere is seen everywhere.
+   */
+  reviewStamp: integer("review_stamp").notNull().default(0),
 });
 
 export const manuscriptMembers = sqliteTable(

@@ -1,8 +1,8 @@
 import "server-only";
-import { asc, count, eq } from "drizzle-orm";
+import { asc, eq } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { datasets, labMembers, labs, manuscriptMembers, manuscripts, users, type Role } from "@/db/schema";
+import { labMembers, labs, manuscriptMembers, manuscripts, users, type Role } from "@/db/schema";
 import { authorize, authorizeLab, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "./audit";
 import { newId } from "./crypto";
@@ -77,18 +77,22 @@ export async function getManuscript(user: SessionUser, manuscriptId: string, kno
       labId: manuscripts.labId,
       labName: labs.name,
       createdAt: manuscripts.createdAt,
+      reviewStamp: manuscripts.reviewStamp,
     })
     .from(manuscripts)
     .innerJoin(labs, eq(labs.id, manuscripts.labId))
     .where(eq(manuscripts.id, manuscriptId));
   if (!m) throw notFound();
-  const { listFiguresForManuscript } = await import("./figures/figures");
-  const [[dataCount], members, figures] = await Promise.all([
-    getDb().select({ n: count() }).from(datasets).where(eq(datasets.manuscriptId, manuscriptId)),
-    listMembers(manuscriptId),
-    listFiguresForManuscript(user, manuscriptId, role),
-  ]);
-  return { ...m, role, members, figures, datasetCount: dataCount?.n ?? 0 };
+  const { reviewStamp, ...manuscript } = m;
+  const [{ overviewSnapshot }, { presentFigures }] = await Promise.all([import("./review/overview-snapshot"), import("./figures/figures")]);
+  const snapshot = await overviewSnapshot(manuscriptId, reviewStamp);
+  return {
+    ...manuscript,
+    role,
+    members: snapshot.members,
+    figures: presentFigures(snapshot.reviews, role, snapshot.warningCounts),
+    datasetCount: snapshot.datasetCount,
+  };
 }
 
 export async function getManuscriptTitle(manuscriptId: string): Promise<string> {

@@ -79,7 +79,7 @@ export async function getFigure(user: SessionUser, figureId: string) {
 }
 
 /** Data warnings (lib/server/figures/integrity) per current revision id, counted. */
-async function dataWarningCounts(reviews: FigureReview[]): Promise<Map<string, number>> {
+export async function dataWarningCounts(reviews: FigureReview[]): Promise<Map<string, number>> {
   const revs = reviews.flatMap((r) => r.panels.flatMap((p) => (p.revision ? [p.revision] : [])));
   const warnings = await warningsByRevision(revs);
   return new Map([...warnings].map(([id, w]) => [id, w.length]));
@@ -122,8 +122,12 @@ function presentFigure(review: FigureReview, role: Role | null, warningCounts: M
 export async function listFiguresForManuscript(user: SessionUser, manuscriptId: string, knownRole?: Role | null, archived = false) {
   const role = knownRole ?? (await authorize(user, "manuscript.read", manuscriptId));
   const reviews = await loadReviewContext({ manuscriptId, archived }, undefined, "latest-on-current");
-  const counts = await dataWarningCounts(reviews);
-  return reviews.map((r) => presentFigure(r, role, counts));
+  return presentFigures(reviews, role, await dataWarningCounts(reviews));
+}
+
+/** Figures as a member with `role` sees them; `reviews` may be shared (cached), so nothing in it is changed. */
+export function presentFigures(reviews: FigureReview[], role: Role | null, warningCounts: Map<string, number>) {
+  return reviews.map((r) => presentFigure(r, role, warningCounts));
 }
 
 /** Reorders panels; letters follow the new order. */

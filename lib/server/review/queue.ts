@@ -3,8 +3,8 @@ import { and, eq, inArray, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { comments, figures, manuscripts, panels, threads } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
-import { membershipsForUser } from "../manuscripts";
-import { loadReviewContext } from "./review-context";
+import { manuscriptMembers } from "@/db/schema";
+import { overviewSnapshot } from "./overview-snapshot";
 
 export interface QueueItem {
   kind: "review" | "mention" | "signoff" | "revise";
@@ -22,14 +22,18 @@ export interface QueueItem {
 
 /** "Waiting on me" across every manuscript the caller belongs to. */
 export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
-  const memberships = await membershipsForUser(user.id);
+  const memberships = await getDb()
+    .select({ manuscriptId: manuscriptMembers.manuscriptId, role: manuscriptMembers.role, title: manuscripts.title, reviewStamp: manuscripts.reviewStamp })
+    .from(manuscriptMembers)
+    .innerJoin(manuscripts, eq(manuscripts.id, manuscriptMembers.manuscriptId))
+    .where(eq(manuscriptMembers.userId, user.id));
+  const reviews = await Promise.all(memberships.map(async (m) => (await overviewSnapshot(m.manuscriptId, m.reviewStamp)).reviews));
   const items: QueueItem[] = [];
-  for (const m of memberships) {
-    const [ms] = await getDb().select({ title: manuscripts.title }).from(manuscripts).where(eq(manuscripts.id, m.manuscriptId));
-    for (const f of await loadReviewContext({ manuscriptId: m.manuscriptId }, undefined, "latest-on-current")) {
+  for (const [i, m] of memberships.entries()) {
+    for (const f of reviews[i]) {
       const base = {
         manuscriptId: m.manuscriptId,
-        manuscriptTitle: ms.title,
+        manuscriptTitle: m.title,
         figureId: f.figure.id,
         figureNumber: f.figure.number,
         figureTitle: f.figure.title,
@@ -74,30 +78,22 @@ export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
       panelId: t.panelId,
     });
   const waiting = [...byThread.entries()].filter(([, e]) => e.mentionAt.getTime() > 0 && (!e.repliedAt || e.repliedAt < e.mentionAt));
-  if (waiting.length) {
-    const manuscriptIds = memberships.map((m) => m.manuscriptId);
-    for (const ctx of manuscriptIds.length
-      ? await Promise.all(manuscriptIds.map((id) => loadReviewContext({ manuscriptId: id }, undefined, "latest-on-current")))
-      : []) {
-      for (const f of ctx)
-        for (const p of f.panels)
-          for (const [, e] of waiting.filter(([, e]) => e.panelId === p.panel.id)) {
-            const [ms] = await getDb().select({ title: manuscripts.title }).from(manuscripts).where(eq(manuscripts.id, f.figure.manuscriptId));
-            items.push({
-              kind: "mention",
-              manuscriptId: f.figure.manuscriptId,
-              manuscriptTitle: ms.title,
-              figureId: f.figure.id,
-              figureNumber: f.figure.number,
-              figureTitle: f.figure.title,
-              panelId: p.panel.id,
-              letter: p.letter,
-              state: p.state,
-              since: e.mentionAt.toISOString(),
-              what: `you were mentioned on panel ${p.letter}`,
-            });
-          }
-    }
-  }
+  for (const [i, m] of memberships.entries())
+    for (const f of reviews[i])
+      for (const p of f.panels)
+        for (const [, e] of waiting.filter(([, e]) => e.panelId === p.panel.id))
+          items.push({
+            kind: "mention",
+            manuscriptId: m.manuscriptId,
+            manuscriptTitle: m.title,
+            figureId: f.figure.id,
+            figureNumber: f.figure.number,
+            figureTitle: f.figure.title,
+            panelId: p.panel.id,
+            letter: p.letter,
+            state: p.state,
+            since: e.mentionAt.toISOString(),
+            what: `you were mentioned on panel ${p.letter}`,
+          });
   return items.sort((a, b) => a.since.localeCompare(b.since));
 }
