@@ -6,6 +6,7 @@ import { forbidden, unauthorized } from "@/lib/errors";
 import { toErrorResponse } from "./errors";
 import { readJsonBody } from "./read-json-body";
 import { resolveCaller } from "./request-user";
+import { withRequestMemo } from "@/lib/server/request-memo";
 
 type Params = Record<string, string>;
 type RouteContext = { params: Promise<Params> };
@@ -67,7 +68,8 @@ export function withPermission<B = undefined, Q = undefined>(
   /** Returns (or resolves to) a Response, or a value sent as JSON. */
   handler: (a: HandlerArgs<B, Q>) => unknown,
 ): RouteHandler {
-  const fn: RouteHandler = async (req, ctx) => {
+  const fn: RouteHandler = (req, ctx) => withRequestMemo(() => gated(req, ctx));
+  const gated: RouteHandler = async (req, ctx) => {
     try {
       const caller = await resolveCaller(req);
       if (!caller) throw unauthorized();

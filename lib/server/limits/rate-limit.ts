@@ -1,6 +1,6 @@
 import "server-only";
 import { and, count, eq, gt, lt, min } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Executor } from "@/db/client";
 import { rateEvents } from "@/db/schema";
 import { tooManyRequests } from "@/lib/errors";
 
@@ -20,9 +20,9 @@ interface RateCheck {
 }
 
 /** How the bucket stands now, without recording anything. Shared through the database, so every instance counts. */
-async function peekRate(rule: RateRule, now = Date.now()): Promise<RateCheck> {
+async function peekRate(rule: RateRule, now: number, db: Executor): Promise<RateCheck> {
   const since = new Date(now - rule.windowMs);
-  const [row] = await getDb()
+  const [row] = await db
     .select({ n: count(), oldest: min(rateEvents.at) })
     .from(rateEvents)
     .where(and(eq(rateEvents.bucket, rule.bucket), gt(rateEvents.at, since)));
@@ -32,13 +32,15 @@ async function peekRate(rule: RateRule, now = Date.now()): Promise<RateCheck> {
   return { allowed: false, retryAfterSeconds: Math.max(1, Math.ceil((oldest + rule.windowMs - now) / 1000)) };
 }
 
-/** Records one event under every rule, or throws 429 (with Retry-After) naming the first rule that is full. */
-export async function consumeRate(rules: RateRule[], now = Date.now()): Promise<void> {
+/**
+ * Records one event under every rule, or throws 429 (with Retry-After) naming the first rule that is
+ * full. Inside a write's transaction (`db`), the event is kept only if the write is, and both cost one commit.
+ */
+export async function consumeRate(rules: RateRule[], now = Date.now(), db: Executor = getDb()): Promise<void> {
   for (const rule of rules) {
-    const check = await peekRate(rule, now);
+    const check = await peekRate(rule, now, db);
     if (!check.allowed) throw tooManyRequests(`${rule.message} Try again in ${describeWait(check.retryAfterSeconds)}.`, check.retryAfterSeconds);
   }
-  const db = getDb();
   await db.insert(rateEvents).values(rules.map((r) => ({ bucket: r.bucket, at: new Date(now) })));
   // Old events are pruned now and then, not on every write.
   if (Math.random() > 0.02) return;

@@ -188,6 +188,19 @@ function smtpAnswer(err: unknown): { code: number | null; answer: string } {
   return { code, answer };
 }
 
+let soon: NodeJS.Timeout | undefined;
+/**
+ * Asks for a delivery run shortly after a write that may have made mail due. A burst of writes (a
+ * busy thread) shares one run instead of each starting its own; the worker's tick is the fallback.
+ */
+export function deliverOutboxSoon(delayMs = 250): void {
+  if (soon) return;
+  soon = setTimeout(() => {
+    soon = undefined;
+    void deliverOutbox().catch(() => undefined);
+  }, delayMs);
+}
+
 let timer: NodeJS.Timeout | undefined;
 /** Started once per server process (instrumentation); retries happen on the next tick. */
 export function startOutboxWorker(intervalMs = 5_000): void {

@@ -3,13 +3,14 @@ import { and, asc, eq, inArray } from "drizzle-orm";
 import { z } from "zod";
 import type { Transaction } from "@/db/client";
 import { getDb } from "@/db/client";
-import { commentEdits, comments, manuscriptMembers, revisions, threadFollows, threads, users } from "@/db/schema";
+import { commentEdits, comments, figures, manuscriptMembers, panels, revisions, threadFollows, threads, users } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
 import { badRequest, conflict, forbidden, notFound } from "@/lib/errors";
-import { deliverOutbox } from "../mail/outbox";
+import { deliverOutboxSoon } from "../mail/outbox";
 import { manuscriptOfPanel } from "../figures/scope";
+import { onceInRequest } from "../request-memo";
 import { commentExcerpt, prepareCommentBody } from "./comment-body";
 import { noticeComment } from "./review-notices";
 import { editCommentInput, newThreadInput, replyInput } from "./schemas";
@@ -23,10 +24,18 @@ async function memberIds(manuscriptId: string) {
   return new Set(rows.map((r) => r.id));
 }
 
-async function threadContext(threadId: string) {
-  const [t] = await getDb().select().from(threads).where(eq(threads.id, threadId));
-  if (!t) throw notFound();
-  return { thread: t, manuscriptId: await manuscriptOfPanel(t.panelId) };
+/** The panel and manuscript a thread belongs to (fixed once it is written, so asked once per request). */
+function threadContext(threadId: string): Promise<{ thread: { panelId: string }; manuscriptId: string }> {
+  return onceInRequest(`threadContext:${threadId}`, async () => {
+    const [t] = await getDb()
+      .select({ panelId: threads.panelId, manuscriptId: figures.manuscriptId })
+      .from(threads)
+      .innerJoin(panels, eq(panels.id, threads.panelId))
+      .innerJoin(figures, eq(figures.id, panels.figureId))
+      .where(eq(threads.id, threadId));
+    if (!t) throw notFound();
+    return { thread: { panelId: t.panelId }, manuscriptId: t.manuscriptId };
+  });
 }
 export const manuscriptOfThread = async (threadId: string) => (await threadContext(threadId)).manuscriptId;
 
@@ -78,7 +87,6 @@ export async function createThread(user: SessionUser, panelId: string, raw: z.in
   const input = newThreadInput.parse(raw);
   const again = await existingByClientKey(user, input.clientKey);
   if (again) return getThread(user, again.threadId);
-  await consumeRate([commentRateRule(user.id)]);
   const [rev] = await getDb().select({ panelId: revisions.panelId }).from(revisions).where(eq(revisions.id, input.revisionId));
   if (!rev || rev.panelId !== panelId) throw badRequest("revisionId: not a revision of this panel.");
   if (input.anchor?.type === "xrange" && !(input.anchor.x0 < input.anchor.x1)) throw badRequest("anchor: x0 must be below x1.");
@@ -87,6 +95,7 @@ export async function createThread(user: SessionUser, panelId: string, raw: z.in
   let raced = false;
   await getDb()
     .transaction(async (tx) => {
+      await consumeRate([commentRateRule(user.id)], Date.now(), tx);
       await tx.insert(threads).values({ id, panelId, revisionId: input.revisionId, anchor: input.anchor ?? null, createdBy: user.id });
       if (!(await insertComment(tx, user, id, panelId, manuscriptId, prepared, input.body, input.clientKey))) {
         raced = true;
@@ -97,7 +106,7 @@ export async function createThread(user: SessionUser, panelId: string, raw: z.in
       if (!raced) throw err;
     });
   if (raced) return getThread(user, (await existingByClientKey(user, input.clientKey))!.threadId);
-  void deliverOutbox().catch(() => undefined);
+  deliverOutboxSoon();
   return getThread(user, id);
 }
 
@@ -107,12 +116,12 @@ export async function replyToThread(user: SessionUser, threadId: string, raw: z.
   const input = replyInput.parse(raw);
   const again = await existingByClientKey(user, input.clientKey);
   if (again) return getThread(user, threadId);
-  await consumeRate([commentRateRule(user.id)]);
   const prepared = prepareCommentBody(input.body, await memberIds(manuscriptId));
   await getDb().transaction(async (tx) => {
+    await consumeRate([commentRateRule(user.id)], Date.now(), tx);
     await insertComment(tx, user, threadId, thread.panelId, manuscriptId, prepared, input.body, input.clientKey);
   });
-  void deliverOutbox().catch(() => undefined);
+  deliverOutboxSoon();
   return getThread(user, threadId);
 }
 

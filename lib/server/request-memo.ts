@@ -1,0 +1,25 @@
+import "server-only";
+import { AsyncLocalStorage } from "node:async_hooks";
+
+const store = new AsyncLocalStorage<Map<string, Promise<unknown>>>();
+
+/** Runs one request with its own memo (the route wrapper does this for every API request). */
+export function withRequestMemo<T>(run: () => Promise<T>): Promise<T> {
+  return store.run(new Map(), run);
+}
+
+/**
+ * Within one request, a lookup of something that never changes once written (which manuscript a
+ * panel or thread belongs to) runs once however many layers ask; outside a request it just runs.
+ * Not for anything a request may change, such as roles or states.
+ */
+export function onceInRequest<T>(key: string, load: () => Promise<T>): Promise<T> {
+  const memo = store.getStore();
+  if (!memo) return load();
+  let hit = memo.get(key) as Promise<T> | undefined;
+  if (!hit) {
+    hit = load();
+    memo.set(key, hit);
+  }
+  return hit;
+}
