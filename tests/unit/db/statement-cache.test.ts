@@ -1,0 +1,69 @@
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { createClient, type Client } from "@libsql/client";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { cacheStatements } from "@/db/statement-cache";
+
+// Reused prepared statements must answer exactly what fresh ones would: the expected rows are written by hand.
+let dir: string;
+let client: Client;
+beforeAll(async () => {
+  cacheStatements();
+  dir = fs.mkdtempSync(path.join(os.tmpdir(), "prooflight-statements-"));
+  client = createClient({ url: `file:${path.join(dir, "s.db")}` });
+  await client.execute("CREATE TABLE t (id INTEGER PRIMARY KEY, v TEXT NOT NULL UNIQUE)");
+});
+afterAll(() => {
+  client.close();
+  fs.rmSync(dir, { recursive: true, force: true });
+});
+
+const INSERT = "INSERT INTO t (id, v) VALUES (?, ?)";
+const SELECT = "SELECT id, v FROM t WHERE id >= ? ORDER BY id";
+const rows = async (from: number) => (await client.execute({ sql: SELECT, args: [from] })).rows.map((r) => [r.id, r.v]);
+
+describe("prepared statements kept per connection", () => {
+  it("the same SQL with other arguments, and after the table changed, reads the current rows", async () => {
+    await client.execute({ sql: INSERT, args: [1, "one"] });
+    expect(await rows(0)).toEqual([[1, "one"]]);
+    await client.execute({ sql: INSERT, args: [2, "two"] });
+    expect(await rows(0)).toEqual([
+      [1, "one"],
+      [2, "two"],
+    ]);
+    expect(await rows(2)).toEqual([[2, "two"]]);
+  });
+
+  it("a statement that failed (unique value) runs again with good arguments", async () => {
+    await expect(client.execute({ sql: INSERT, args: [3, "one"] })).rejects.toThrow(/UNIQUE/);
+    await client.execute({ sql: INSERT, args: [3, "three"] });
+    expect(await rows(3)).toEqual([[3, "three"]]);
+  });
+
+  it("a query that failed while stepping rows runs again", async () => {
+    const bad = "SELECT id, json_extract(v, '$.x') AS x FROM t WHERE id >= ?";
+    await expect(client.execute({ sql: bad, args: [1] })).rejects.toThrow(/JSON/i);
+    expect((await client.execute({ sql: bad, args: [99] })).rows).toEqual([]);
+  });
+
+  it("many requests at once with the same SQL each get their own answer", async () => {
+    const answers = await Promise.all([3, 1, 2, 3, 1].map((from) => rows(from)));
+    expect(answers.map((a) => a.length)).toEqual([1, 3, 2, 1, 3]);
+  });
+
+  it("a rolled-back transaction leaves nothing; a new connection after close reads the same rows", async () => {
+    const tx = await client.transaction("write");
+    await tx.execute({ sql: INSERT, args: [4, "four"] });
+    await tx.rollback();
+    expect((await rows(0)).length).toBe(3);
+    const url = `file:${path.join(dir, "s.db")}`;
+    client.close();
+    client = createClient({ url });
+    expect(await rows(0)).toEqual([
+      [1, "one"],
+      [2, "two"],
+      [3, "three"],
+    ]);
+  });
+});
