@@ -8,7 +8,7 @@ import { appendAudit } from "../audit";
 import { newId } from "../crypto";
 import { badRequest, conflict, forbidden, notFound } from "@/lib/errors";
 import { manuscriptOfFigure, manuscriptOfPanel } from "../figures/scope";
-import { loadReviewContext } from "./review-context";
+import { deriveReviews, loadReviewContext, loadReviewRows } from "./review-context";
 import { decisionInput, signoffInput } from "./schemas";
 import { noticeDecision, noticeSignoff } from "./review-notices";
 import { openIssuesOf } from "./review-edges";
@@ -34,10 +34,11 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
     if (p.archivedAt) throw conflict("This panel is archived; restore it before deciding on it.");
     if (!p.reviewRequestedAt)
       throw conflict("This panel is a draft: comment on it freely, but approvals and requests for a revision wait until its author sends it to review.");
-    const [before] = await loadReviewContext({ figureId: p.figureId }, tx, "latest-on-current");
-    await tx
+    const rows = await loadReviewRows({ figureId: p.figureId }, tx, "latest-on-current");
+    const [made] = await tx
       .insert(decisions)
-      .values({ id, panelId, revisionId: rev.id, contentHash: rev.contentHash, decision: input.decision, note: input.note ?? "", userId: user.id });
+      .values({ id, panelId, revisionId: rev.id, contentHash: rev.contentHash, decision: input.decision, note: input.note ?? "", userId: user.id })
+      .returning();
     await appendAudit(tx, {
       actorId: user.id,
       manuscriptId,
@@ -45,8 +46,12 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
       target: `panel:${panelId}`,
       data: { revisionId: rev.id, contentHash: rev.contentHash, note: input.note ?? "", ...(input.acknowledgedWarnings ? { acknowledgedWarnings: true } : {}) },
     });
-    const [after] = await loadReviewContext({ figureId: p.figureId }, tx, "latest-on-current");
-    await noticeDecision(tx, user, rev, input.decision, input.note ?? "", { before: before, after: after });
+    // The state after is derived from the rows already read plus this decision, which replaces the
+    // person's earlier one on this content (it is the latest; the rows hold only latest ones).
+    const [before] = deriveReviews(rows);
+    const others = rows.decs.filter(({ d }) => !(d.panelId === panelId && d.userId === user.id && d.contentHash === rev.contentHash));
+    const [after] = deriveReviews({ ...rows, decs: [...others, { d: made, name: user.name }] });
+    await noticeDecision(tx, user, rev, input.decision, input.note ?? "", { before, after });
   });
   return { id, panelId, revisionId: input.revisionId, decision: input.decision };
 }

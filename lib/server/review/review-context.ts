@@ -60,11 +60,8 @@ function latestDecisionsOnCurrent(db: Executor, panelIds: string[]) {
     .orderBy(asc(decisions.createdAt), sql`${decisions}.rowid`);
 }
 
-/**
- * Everything needed to derive review states for the figures of one manuscript (or one figure), in a
- * few queries; inside a transaction, pass it to see that transaction's own writes.
- */
-export async function loadReviewContext(
+/** The rows review states are derived from (deriveReviews), for a manuscript's figures or one figure. */
+export async function loadReviewRows(
   where: { manuscriptId?: string; figureId?: string; archived?: boolean },
   db: Executor = getDb(),
   history: DecisionHistory = "all",
@@ -96,7 +93,25 @@ export async function loadReviewContext(
     figIds.length ? db.select().from(signoffs).where(inArray(signoffs.figureId, figIds)).orderBy(desc(signoffs.createdAt)) : [],
     panelIds.length ? db.select({ panelId: threads.panelId, resolvedAt: threads.resolvedAt }).from(threads).where(inArray(threads.panelId, panelIds)) : [],
   ]);
+  return { figs, ps, revs, decs, signs, threadRows };
+}
 
+export type ReviewRows = Awaited<ReturnType<typeof loadReviewRows>>;
+
+/**
+ * Everything needed to derive review states for the figures of one manuscript (or one figure), in a
+ * few queries; inside a transaction, pass it to see that transaction's own writes.
+ */
+export async function loadReviewContext(
+  where: { manuscriptId?: string; figureId?: string; archived?: boolean },
+  db: Executor = getDb(),
+  history: DecisionHistory = "all",
+) {
+  return deriveReviews(await loadReviewRows(where, db, history));
+}
+
+/** Figures with their panels' and their own review states, from rows already read. */
+export function deriveReviews({ figs, ps, revs, decs, signs, threadRows }: ReviewRows) {
   return figs.map((f) => {
     const fPanels = ps.filter((p) => p.figureId === f.id);
     const figureHash = figureContentHash(
@@ -143,4 +158,4 @@ export async function loadReviewContext(
   });
 }
 
-export type FigureReview = Awaited<ReturnType<typeof loadReviewContext>>[number];
+export type FigureReview = ReturnType<typeof deriveReviews>[number];
