@@ -1,6 +1,7 @@
 import "server-only";
-import { and, eq } from "drizzle-orm";
+import { and, eq, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
+import { preparedQuery } from "@/db/prepared";
 import { labMembers, manuscriptMembers, type Role } from "@/db/schema";
 import { forbidden, notFound } from "@/lib/errors";
 import { isManuscriptAction, roleAllows, type Action, type ManuscriptAction } from "./policy";
@@ -13,12 +14,16 @@ export interface SessionUser {
   name: string;
 }
 
-async function roleOn(userId: string, manuscriptId: string): Promise<Role | null> {
-  const [m] = await getDb()
+const roleLookup = preparedQuery((db) =>
+  db
     .select({ role: manuscriptMembers.role })
     .from(manuscriptMembers)
-    .where(and(eq(manuscriptMembers.userId, userId), eq(manuscriptMembers.manuscriptId, manuscriptId)));
-  return m?.role ?? null;
+    .where(and(eq(manuscriptMembers.userId, sql.placeholder("userId")), eq(manuscriptMembers.manuscriptId, sql.placeholder("manuscriptId"))))
+    .prepare(),
+);
+
+async function roleOn(userId: string, manuscriptId: string): Promise<Role | null> {
+  return (await roleLookup().get({ userId, manuscriptId }))?.role ?? null;
 }
 
 const ACTION_WORDS: Record<ManuscriptAction, string> = {

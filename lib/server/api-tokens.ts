@@ -1,7 +1,8 @@
 import "server-only";
-import { and, desc, eq, isNull } from "drizzle-orm";
+import { and, desc, eq, isNull, sql } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
+import { preparedQuery } from "@/db/prepared";
 import { apiTokens, users } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
 import { appendAudit } from "./audit";
@@ -50,13 +51,18 @@ export async function revokeApiToken(user: SessionUser, tokenId: string): Promis
   });
 }
 
-export async function userForApiToken(token: string): Promise<SessionUser | null> {
-  const db = getDb();
-  const [row] = await db
+const tokenLookup = preparedQuery((db) =>
+  db
     .select({ tokenId: apiTokens.id, lastUsedAt: apiTokens.lastUsedAt, id: users.id, email: users.email, name: users.name })
     .from(apiTokens)
     .innerJoin(users, eq(users.id, apiTokens.userId))
-    .where(and(eq(apiTokens.tokenHash, sha256Hex(token)), isNull(apiTokens.revokedAt)));
+    .where(and(eq(apiTokens.tokenHash, sql.placeholder("hash")), isNull(apiTokens.revokedAt)))
+    .prepare(),
+);
+
+export async function userForApiToken(token: string): Promise<SessionUser | null> {
+  const db = getDb();
+  const row = await tokenLookup().get({ hash: sha256Hex(token) });
   if (!row) return null;
   // A write on every read would serialise all API traffic behind the disk; a minute's precision is enough.
   if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > LAST_USED_PRECISION_MS)

@@ -1,7 +1,8 @@
 import "server-only";
-import { asc, eq } from "drizzle-orm";
+import { asc, eq, sql } from "drizzle-orm";
 import { z } from "zod";
 import { getDb } from "@/db/client";
+import { preparedQuery } from "@/db/prepared";
 import { labMembers, labs, manuscriptMembers, manuscripts, users, type Role } from "@/db/schema";
 import { authorize, authorizeLab, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "./audit";
@@ -66,11 +67,8 @@ export async function listMembers(manuscriptId: string) {
     .orderBy(asc(users.name));
 }
 
-/** The manuscript with its figures, panels and derived review states (figures arrive with the figure work). */
-/** `knownRole` is the role the route gate already established for this request, so it is not looked up twice. */
-export async function getManuscript(user: SessionUser, manuscriptId: string, knownRole?: Role | null) {
-  const role = knownRole ?? (await authorize(user, "manuscript.read", manuscriptId));
-  const [m] = await getDb()
+const manuscriptRow = preparedQuery((db) =>
+  db
     .select({
       id: manuscripts.id,
       title: manuscripts.title,
@@ -81,7 +79,15 @@ export async function getManuscript(user: SessionUser, manuscriptId: string, kno
     })
     .from(manuscripts)
     .innerJoin(labs, eq(labs.id, manuscripts.labId))
-    .where(eq(manuscripts.id, manuscriptId));
+    .where(eq(manuscripts.id, sql.placeholder("id")))
+    .prepare(),
+);
+
+/** The manuscript with its figures, panels and derived review states (figures arrive with the figure work). */
+/** `knownRole` is the role the route gate already established for this request, so it is not looked up twice. */
+export async function getManuscript(user: SessionUser, manuscriptId: string, knownRole?: Role | null) {
+  const role = knownRole ?? (await authorize(user, "manuscript.read", manuscriptId));
+  const m = await manuscriptRow().get({ id: manuscriptId });
   if (!m) throw notFound();
   const { reviewStamp, ...manuscript } = m;
   const [{ overviewSnapshot }, { presentFigures }] = await Promise.all([import("./review/overview-snapshot"), import("./figures/figures")]);

@@ -96,7 +96,9 @@ export async function openRawVersion(user: SessionUser, versionId: string) {
 }
 
 export async function getVersionRows(user: SessionUser, versionId: string, offset: number, limit: number) {
-  const { v } = await loadVersion(user, versionId);
+  await authorize(user, "manuscript.read", await manuscriptOfVersion(versionId));
+  const [v] = await getDb().select({ sha256: versions.sha256, fileName: versions.fileName }).from(versions).where(eq(versions.id, versionId));
+  if (!v) throw notFound();
   const page = readRows(await columnsFor(v.sha256, v.fileName), offset, limit);
   const names = page.columns.map((c) => c.name);
   const rows: Array<Array<number | string | null>> = [];

@@ -1,6 +1,7 @@
 import "server-only";
 import { and, eq, inArray, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
+import { preparedQuery } from "@/db/prepared";
 import { comments, figures, manuscripts, panels, threads } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
 import { manuscriptMembers } from "@/db/schema";
@@ -20,13 +21,18 @@ export interface QueueItem {
   what: string;
 }
 
-/** "Waiting on me" across every manuscript the caller belongs to. */
-export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
-  const memberships = await getDb()
+const membershipsWithStamps = preparedQuery((db) =>
+  db
     .select({ manuscriptId: manuscriptMembers.manuscriptId, role: manuscriptMembers.role, title: manuscripts.title, reviewStamp: manuscripts.reviewStamp })
     .from(manuscriptMembers)
     .innerJoin(manuscripts, eq(manuscripts.id, manuscriptMembers.manuscriptId))
-    .where(eq(manuscriptMembers.userId, user.id));
+    .where(eq(manuscriptMembers.userId, sql.placeholder("userId")))
+    .prepare(),
+);
+
+/** "Waiting on me" across every manuscript the caller belongs to. */
+export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
+  const memberships = await membershipsWithStamps().all({ userId: user.id });
   const reviews = await Promise.all(memberships.map(async (m) => (await overviewSnapshot(m.manuscriptId, m.reviewStamp)).reviews));
   const items: QueueItem[] = [];
   for (const [i, m] of memberships.entries()) {
