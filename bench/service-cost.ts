@@ -7,7 +7,8 @@
  * A quick loop for work on the hot paths: it needs no build and runs in about half a minute. Route
  * modules import Next's client hooks, which the react-server condition the other benchmarks run
  * under leaves out, so this one runs in a child with `server-only` mapped to its empty module
- * (tsconfig.in-process.json), as the API tests do. SERVICE_KINDS=board,queue picks kinds.
+ * (tsconfig.in-process.json), as the API tests do. SERVICE_KINDS=board,queue picks kinds;
+ * SERVICE_HISTORY=n posts n comments and n/2 decisions first.
  */
 import { execFileSync } from "node:child_process";
 import fs from "node:fs";
@@ -132,6 +133,12 @@ async function measure(): Promise<Record<string, unknown>> {
       ];
     },
   };
+  // A review history first (untimed), as the load's soak leaves one: what grows with it shows.
+  const history = Number(process.env.SERVICE_HISTORY ?? 0);
+  for (let i = 0; i < history; i++) {
+    await (await send(...kinds.comment!(100_000 + i))).arrayBuffer();
+    if (i % 2 === 0) await (await send(...kinds.decision!(100_000 + i))).arrayBuffer();
+  }
   const result: Record<string, { cpuMs: number; wallMs: number; statements: number }> = {};
   const only = process.env.SERVICE_KINDS?.split(",");
   for (const [kind, make] of Object.entries(kinds).filter(([k]) => !only || only.includes(k))) {

@@ -1,3 +1,4 @@
+import { sql } from "drizzle-orm";
 import { index, integer, primaryKey, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { createdAt, id } from "./columns";
 import { panels, revisions, figures } from "./figures";
@@ -63,7 +64,15 @@ export const comments = sqliteTable(
     editedAt: integer("edited_at", { mode: "timestamp_ms" }),
     deletedAt: integer("deleted_at", { mode: "timestamp_ms" }),
   },
-  (t) => [index("comments_thread").on(t.threadId), uniqueIndex("comments_client_key").on(t.createdBy, t.clientKey)],
+  (t) => [
+    index("comments_thread").on(t.threadId),
+    uniqueIndex("comments_client_key").on(t.createdBy, t.clientKey),
+    // The review queue's mentions: only comments that mention someone, and each person's last word in a thread.
+    index("comments_mentioning")
+      .on(t.threadId, t.createdAt)
+      .where(sql`${t.mentions} <> '[]'`),
+    index("comments_thread_author").on(t.threadId, t.createdBy, t.createdAt),
+  ],
 );
 
 export const commentEdits = sqliteTable("comment_edits", {

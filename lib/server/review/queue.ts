@@ -60,30 +60,10 @@ export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
         items.push({ kind: "signoff", ...base, state: f.state, since: new Date().toISOString(), what: `sign off figure ${f.figure.number}` });
     }
   }
-  // Per open thread of the caller's manuscripts: when they were last mentioned and last wrote, summed up in SQL.
-  const memberOf = memberships.map((m) => m.manuscriptId);
-  const lastMention = sql<
-    number | null
-  >`max(case when exists (select 1 from json_each(${comments.mentions}) where value = ${user.id}) then ${comments.createdAt} end)`;
-  const lastReply = sql<number | null>`max(case when ${comments.createdBy} = ${user.id} then ${comments.createdAt} end)`;
-  const perThread = memberOf.length
-    ? await getDb()
-        .select({ threadId: threads.id, panelId: threads.panelId, lastMention, lastReply })
-        .from(comments)
-        .innerJoin(threads, eq(threads.id, comments.threadId))
-        .innerJoin(panels, eq(panels.id, threads.panelId))
-        .innerJoin(figures, eq(figures.id, panels.figureId))
-        .where(and(isNull(threads.resolvedAt), isNull(comments.deletedAt), inArray(figures.manuscriptId, memberOf)))
-        .groupBy(threads.id)
-    : [];
-  const byThread = new Map<string, { mentionAt: Date; repliedAt: Date | null; panelId: string }>();
-  for (const t of perThread)
-    byThread.set(t.threadId, {
-      mentionAt: new Date(t.lastMention ?? 0),
-      repliedAt: t.lastReply === null ? null : new Date(t.lastReply),
-      panelId: t.panelId,
-    });
-  const waiting = [...byThread.entries()].filter(([, e]) => e.mentionAt.getTime() > 0 && (!e.repliedAt || e.repliedAt < e.mentionAt));
+  const waiting = await mentionsAwaitingReply(
+    user.id,
+    memberships.map((m) => m.manuscriptId),
+  );
   for (const [i, m] of memberships.entries())
     for (const f of reviews[i])
       for (const p of f.panels)
@@ -102,4 +82,52 @@ export async function waitingOnMe(user: SessionUser): Promise<QueueItem[]> {
             what: `you were mentioned on panel ${p.letter}`,
           });
   return items.sort((a, b) => a.since.localeCompare(b.since));
+}
+
+/**
+ * Open threads of these manuscripts where the user was mentioned and has not written since, with
+ * the last mention. Read from the comments that mention anyone (a partial index), then the user's
+ * own last comment in just those threads, so the cost follows mentions, not the whole discussion.
+ */
+async function mentionsAwaitingReply(userId: string, manuscriptIds: string[]): Promise<Array<[string, { mentionAt: Date; panelId: string }]>> {
+  if (!manuscriptIds.length) return [];
+  const db = getDb();
+  const mentioned = await db
+    .select({ threadId: comments.threadId, panelId: threads.panelId, at: sql<number>`max(${comments.createdAt})` })
+    .from(comments)
+    .innerJoin(threads, eq(threads.id, comments.threadId))
+    .innerJoin(panels, eq(panels.id, threads.panelId))
+    .innerJoin(figures, eq(figures.id, panels.figureId))
+    .where(
+      and(
+        sql`${comments.mentions} <> '[]'`,
+        isNull(comments.deletedAt),
+        sql`exists (select 1 from json_each(${comments.mentions}) where value = ${userId})`,
+        isNull(threads.resolvedAt),
+        inArray(figures.manuscriptId, manuscriptIds),
+      ),
+    )
+    .groupBy(comments.threadId);
+  if (!mentioned.length) return [];
+  const replies = await db
+    .select({ threadId: comments.threadId, at: sql<number>`max(${comments.createdAt})` })
+    .from(comments)
+    .where(
+      and(
+        inArray(
+          comments.threadId,
+          mentioned.map((m) => m.threadId),
+        ),
+        eq(comments.createdBy, userId),
+        isNull(comments.deletedAt),
+      ),
+    )
+    .groupBy(comments.threadId);
+  const repliedAt = new Map(replies.map((r) => [r.threadId, r.at]));
+  return mentioned
+    .filter((m) => {
+      const replied = repliedAt.get(m.threadId);
+      return replied === undefined || replied < m.at;
+    })
+    .map((m) => [m.threadId, { mentionAt: new Date(m.at), panelId: m.panelId }]);
 }

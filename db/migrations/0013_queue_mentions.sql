@@ -1,0 +1,2 @@
+CREATE INDEX `comments_mentioning` ON `comments` (`thread_id`,`created_at`) WHERE "comments"."mentions" <> '[]';--> statement-breakpoint
+CREATE INDEX `comments_thread_author` ON `comments` (`thread_id`,`created_by`,`created_at`);
