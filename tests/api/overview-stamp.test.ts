@@ -1,8 +1,10 @@
 import { createClient, type Client } from "@libsql/client";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { getClient } from "@/db/client";
 import { DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import * as manuscript from "@/app/api/manuscripts/[id]/route";
 import * as queue from "@/app/api/review-queue/route";
+import * as approvals from "@/app/api/panels/[id]/approvals/route";
 import { seedDemoWithData } from "@/lib/server/demo/seed-demo";
 import { call, setupTestApp, type Who } from "./harness";
 
@@ -15,6 +17,18 @@ let tokens: Record<Who, string>;
 let other: Client;
 const board = async () => (await call(manuscript.GET, { token: tokens.pi, params: { id: DEMO_MANUSCRIPT_ID } })).json;
 const panelsOf = (b: any) => b.figures.flatMap((f: any) => f.panels);
+
+/** Counts the statements this process sends from now on. */
+function countStatements() {
+  const client = getClient();
+  const execute = client.execute.bind(client);
+  let n = 0;
+  client.execute = ((stmt: Parameters<Client["execute"]>[0]) => {
+    n++;
+    return execute(stmt);
+  }) as Client["execute"];
+  return { count: () => ((client.execute = execute as Client["execute"]), n) };
+}
 
 beforeAll(async () => {
   ({ tokens } = await setupTestApp());
@@ -84,5 +98,28 @@ describe("an overview kept in memory sees writes made elsewhere", () => {
     expect(panelsOf(await board()).find((p: any) => p.id === panel.id).approvedBy).toContain("demo-reviewer");
     const still = (await call(queue.GET, { token: tokens.reviewer })).json.items.filter((i: any) => i.kind === "review" && i.panelId === panel.id);
     expect(still).toEqual([]);
+  });
+});
+
+describe("a decision made here amends the kept overview in place", () => {
+  it("without reading the figures again, and equal to the overview read afresh", async () => {
+    await board(); // kept
+    const panel = panelsOf(await board()).find((p: any) => p.reviewState === "in_review" && p.currentRevision && !p.approvedBy.includes("demo-pi"));
+    expect(panel).toBeTruthy();
+    const r = await call(approvals.POST, {
+      method: "POST",
+      token: tokens.pi,
+      params: { id: panel.id },
+      body: { revisionId: panel.currentRevision.id, decision: "needs_revision", note: "units on the axis" },
+    });
+    expect(r.status).toBe(201);
+    const statements = countStatements();
+    const amended = await board();
+    // The caller's token, their role and the manuscript row: no figure, panel or decision was read.
+    expect(statements.count()).toBe(3);
+    expect(panelsOf(amended).find((p: any) => p.id === panel.id)).toMatchObject({ reviewState: "needs_revision", needsRevisionBy: ["demo-pi"] });
+    // A stamp raised by someone else forces a full read: it must say the same thing.
+    await other.execute({ sql: "UPDATE manuscripts SET review_stamp = review_stamp + 1 WHERE id = ?", args: [DEMO_MANUSCRIPT_ID] });
+    expect(await board()).toEqual(amended);
   });
 });

@@ -1,8 +1,8 @@
 import "server-only";
 import { eq } from "drizzle-orm";
 import { z } from "zod";
-import { getDb } from "@/db/client";
-import { decisions, panels, revisions, signoffs } from "@/db/schema";
+import { getDb, type Transaction } from "@/db/client";
+import { decisions, manuscripts, panels, revisions, signoffs } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
 import { newId } from "../crypto";
@@ -10,6 +10,7 @@ import { badRequest, conflict, forbidden, notFound } from "@/lib/errors";
 import { manuscriptOfFigure, manuscriptOfPanel } from "../figures/scope";
 import { deriveReviews, loadReviewContext, loadReviewRows } from "./review-context";
 import { decisionInput, signoffInput } from "./schemas";
+import { amendOverview } from "./overview-snapshot";
 import { noticeDecision, noticeSignoff } from "./review-notices";
 import { openIssuesOf } from "./review-edges";
 import { printCheckOf } from "../figures/print-check";
@@ -24,7 +25,8 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
   await authorize(user, "review.decide", manuscriptId);
   const input = decisionInput.parse(raw);
   const id = newId();
-  await getDb().transaction(async (tx) => {
+  const stampOf = async (tx: Transaction) => (await tx.select({ s: manuscripts.reviewStamp }).from(manuscripts).where(eq(manuscripts.id, manuscriptId)))[0].s;
+  const amend = await getDb().transaction(async (tx) => {
     const [p] = await tx.select().from(panels).where(eq(panels.id, panelId));
     const [rev] = await tx.select().from(revisions).where(eq(revisions.id, input.revisionId));
     if (!rev || rev.panelId !== panelId) throw badRequest("revisionId: not a revision of this panel.");
@@ -35,6 +37,7 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
     if (!p.reviewRequestedAt)
       throw conflict("This panel is a draft: comment on it freely, but approvals and requests for a revision wait until its author sends it to review.");
     const rows = await loadReviewRows({ figureId: p.figureId }, tx, "latest-on-current");
+    const from = await stampOf(tx);
     const [made] = await tx
       .insert(decisions)
       .values({ id, panelId, revisionId: rev.id, contentHash: rev.contentHash, decision: input.decision, note: input.note ?? "", userId: user.id })
@@ -52,7 +55,10 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
     const others = rows.decs.filter(({ d }) => !(d.panelId === panelId && d.userId === user.id && d.contentHash === rev.contentHash));
     const [after] = deriveReviews({ ...rows, decs: [...others, { d: made, name: user.name }] });
     await noticeDecision(tx, user, rev, input.decision, input.note ?? "", { before, after });
+    return { from, to: await stampOf(tx), after };
   });
+  // The kept overview takes the new state of this one figure instead of being read again.
+  if (amend.after) amendOverview(manuscriptId, amend.from, amend.to, amend.after);
   return { id, panelId, revisionId: input.revisionId, decision: input.decision };
 }
 

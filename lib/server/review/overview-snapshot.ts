@@ -17,6 +17,8 @@ export interface OverviewSnapshot {
 interface Entry {
   stamp: number;
   snapshot: Promise<OverviewSnapshot>;
+  /** Set once the load has finished. */
+  loaded?: OverviewSnapshot;
 }
 
 const MAX_MANUSCRIPTS = 500;
@@ -38,20 +40,47 @@ async function loadSnapshot(manuscriptId: string): Promise<OverviewSnapshot> {
  * entry kept under the stamp the caller read is never older than that read; a newer entry serves
  * too. Requests that miss together share one load. Callers must not change what they get.
  */
-export function overviewSnapshot(manuscriptId: string, stamp: number): Promise<OverviewSnapshot> {
+function cacheOfDb(): Map<string, Entry> {
   const db = getDb();
   let cache = caches.get(db);
   if (!cache) caches.set(db, (cache = new Map<string, Entry>()));
+  return cache;
+}
+
+export function overviewSnapshot(manuscriptId: string, stamp: number): Promise<OverviewSnapshot> {
+  const cache = cacheOfDb();
   const hit = cache.get(manuscriptId);
   if (hit && hit.stamp >= stamp) return hit.snapshot;
   const snapshot = loadSnapshot(manuscriptId);
   cache.delete(manuscriptId);
   if (cache.size >= MAX_MANUSCRIPTS) cache.delete(cache.keys().next().value!);
-  const entry = { stamp, snapshot };
+  const entry: Entry = { stamp, snapshot };
   cache.set(manuscriptId, entry);
   // A failed load is not kept: the next request tries again.
-  snapshot.catch(() => {
-    if (cache.get(manuscriptId) === entry) cache.delete(manuscriptId);
-  });
+  snapshot.then(
+    (loaded) => {
+      entry.loaded = loaded;
+    },
+    () => {
+      if (cache.get(manuscriptId) === entry) cache.delete(manuscriptId);
+    },
+  );
   return snapshot;
+}
+
+/**
+ * After a committed write that changed one figure and raised the stamp from `from` to `to`, with
+ * that figure's review as of `to` derived in the write's own transaction: a kept overview as of
+ * exactly `from` becomes the overview as of `to` without reading it all again. Nothing else changed
+ * between the two stamps (writes are serial and every one the overview reads raises the stamp),
+ * so the rest of it stands. Any other case is left to the next read.
+ */
+export function amendOverview(manuscriptId: string, from: number, to: number, figure: FigureReview): void {
+  const cache = cacheOfDb();
+  const entry = cache.get(manuscriptId);
+  if (!entry?.loaded || entry.stamp !== from || to !== from + 1) return;
+  const { loaded } = entry;
+  if (!loaded.reviews.some((r) => r.figure.id === figure.figure.id)) return;
+  const amended: OverviewSnapshot = { ...loaded, reviews: loaded.reviews.map((r) => (r.figure.id === figure.figure.id ? figure : r)) };
+  cache.set(manuscriptId, { stamp: to, snapshot: Promise.resolve(amended), loaded: amended });
 }
