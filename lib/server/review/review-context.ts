@@ -1,6 +1,5 @@
 import "server-only";
-import { alias } from "drizzle-orm/sqlite-core";
-import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, notExists, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, isNull, sql } from "drizzle-orm";
 import { getDb, type Executor } from "@/db/client";
 import { decisions, figures, panels, revisions, signoffs, threads, users } from "@/db/schema";
 import { figureReviewState, panelReviewState, type ReviewState } from "@/lib/review/derive-state";
@@ -14,8 +13,6 @@ import { figureContentHash } from "../figures/figure-hash";
  */
 type DecisionHistory = "all" | "latest-on-current";
 
-const laterDecision = alias(decisions, "later_decision");
-
 function allDecisions(db: Executor, panelIds: string[]) {
   return db
     .select({ d: decisions, name: users.name })
@@ -25,38 +22,40 @@ function allDecisions(db: Executor, panelIds: string[]) {
     .orderBy(asc(decisions.createdAt), sql`${decisions}.rowid`);
 }
 
-/** A later decision by the same person on the same panel and content than the outer one, given how it is later. */
-function laterProbe(db: Executor, later: SQL | undefined) {
-  return db
-    .select({ one: sql`1` })
-    .from(laterDecision)
-    .where(
-      and(
-        eq(laterDecision.panelId, decisions.panelId),
-        eq(laterDecision.userId, decisions.userId),
-        eq(laterDecision.contentHash, decisions.contentHash),
-        later,
-      ),
-    );
-}
-
-/** Each person's latest decision (by time, then by insertion) on each panel's current content hash. */
-function latestDecisionsOnCurrent(db: Executor, panelIds: string[]) {
+/**
+ * Each person's latest decision (by time, then by insertion) on each panel's current content hash.
+ * Who has decided on a panel is found by walking the decisions_latest index from one person to
+ * the next (a recursive skip over user ids), and each one's latest decision on the current hash is
+ * one seek in it, so the cost grows with the people deciding, not with how often they have.
+ */
+async function latestDecisionsOnCurrent(db: Executor, panelIds: string[]) {
+  const list = sql.join(
+    panelIds.map((id) => sql`${id}`),
+    sql`, `,
+  );
+  const latest = await db.all<{ id: string | null }>(sql`
+    WITH RECURSIVE deciders(panel_id, user_id) AS (
+      SELECT p.id, (SELECT min(d.user_id) FROM decisions d WHERE d.panel_id = p.id) FROM panels p WHERE p.id IN (${list})
+      UNION ALL
+      SELECT k.panel_id, (SELECT min(d.user_id) FROM decisions d WHERE d.panel_id = k.panel_id AND d.user_id > k.user_id)
+      FROM deciders k WHERE k.user_id IS NOT NULL
+    )
+    SELECT (
+      SELECT d.id FROM decisions d
+      WHERE d.panel_id = k.panel_id AND d.user_id = k.user_id AND d.content_hash = r.content_hash
+      ORDER BY d.created_at DESC, d.rowid DESC LIMIT 1
+    ) AS id
+    FROM deciders k
+    JOIN panels p ON p.id = k.panel_id
+    JOIN revisions r ON r.id = p.current_revision_id
+    WHERE k.user_id IS NOT NULL`);
+  const ids = latest.map((r) => r.id).filter((id): id is string => id !== null);
+  if (!ids.length) return [];
   return db
     .select({ d: decisions, name: users.name })
     .from(decisions)
     .innerJoin(users, eq(users.id, decisions.userId))
-    .innerJoin(panels, eq(panels.id, decisions.panelId))
-    .innerJoin(revisions, eq(revisions.id, panels.currentRevisionId))
-    .where(
-      and(
-        inArray(decisions.panelId, panelIds),
-        eq(decisions.contentHash, revisions.contentHash),
-        // Two probes rather than one with OR: each is a range on the decisions_latest index.
-        notExists(laterProbe(db, gt(laterDecision.createdAt, decisions.createdAt))),
-        notExists(laterProbe(db, and(eq(laterDecision.createdAt, decisions.createdAt), sql`${laterDecision}.rowid > ${decisions}.rowid`))),
-      ),
-    )
+    .where(inArray(decisions.id, ids))
     .orderBy(asc(decisions.createdAt), sql`${decisions}.rowid`);
 }
 
