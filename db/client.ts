@@ -5,7 +5,7 @@ import { createClient, type Client } from "@libsql/client";
 import { drizzle, type LibSQLDatabase } from "drizzle-orm/libsql";
 import { env } from "@/lib/env";
 import * as schema from "./schema";
-import { installConnectionHooks } from "./connection-hooks";
+import { cacheStatements } from "./statement-cache";
 
 export type Database = LibSQLDatabase<typeof schema>;
 export type Transaction = Parameters<Parameters<Database["transaction"]>[0]>[0];
@@ -30,8 +30,7 @@ export function getDb(): Database {
   if (handle && handle.url === url) return handle.db;
   handle?.client.close();
   ensureParentDir(url);
-  // FULL: a commit is on disk before it returns. NORMAL (opt-in): a power cut may undo the last commits.
-  if (url.startsWith("file:")) installConnectionHooks(() => (env().sqliteSynchronous === "normal" ? ["PRAGMA synchronous = NORMAL"] : []));
+  if (url.startsWith("file:")) cacheStatements();
   const client = createClient({ url, authToken: env().databaseAuthToken, timeout: 10_000 });
   handle = { url, client, db: drizzle(client, { schema }) };
   return handle.db;

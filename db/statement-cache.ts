@@ -8,9 +8,6 @@ type Close = (this: object) => unknown;
 let installed = false;
 
 /**
- * Installed once per process for `file:` databases; `setUp` names the statements each new
- * connection runs before its first use (per-connection PRAGMAs), read when that connection opens.
- *
  * The libSQL client for `file:` databases prepares (parses and plans) every statement anew on each
  * call, about a tenth of the CPU of a board read or a comment post. This keeps each connection's
  * last prepared statements by SQL text and hands them out again. That is safe because the client
@@ -18,7 +15,7 @@ let installed = false;
  * use twice at once, and SQLite resets a statement before it runs again, also after an error.
  * Closing a connection drops its statements.
  */
-export function installConnectionHooks(setUp: () => string[] = () => []): void {
+export function cacheStatements(): void {
   if (installed) return;
   installed = true;
   const proto = Database.prototype as unknown as { prepare: Prepare; close: Close };
@@ -27,10 +24,7 @@ export function installConnectionHooks(setUp: () => string[] = () => []): void {
   const caches = new WeakMap<object, Map<string, unknown>>();
   proto.prepare = function (sql) {
     let cache = caches.get(this);
-    if (!cache) {
-      caches.set(this, (cache = new Map<string, unknown>()));
-      for (const statement of setUp()) (prepare.call(this, statement) as { run(): unknown }).run();
-    }
+    if (!cache) caches.set(this, (cache = new Map<string, unknown>()));
     const hit = cache.get(sql);
     if (hit !== undefined) {
       cache.delete(sql); // most recently used goes last

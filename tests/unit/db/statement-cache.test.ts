@@ -3,15 +3,13 @@ import os from "node:os";
 import path from "node:path";
 import { createClient, type Client } from "@libsql/client";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { installConnectionHooks } from "@/db/connection-hooks";
+import { cacheStatements } from "@/db/statement-cache";
 
-// Reused prepared statements must answer exactly what fresh ones would (expected rows written by hand);
-// per-connection settings reach every pooled connection. SQLite's synchronous levels: 1 NORMAL, 2 FULL (sqlite.org/pragma.html#pragma_synchronous).
+// Reused prepared statements must answer exactly what fresh ones would: the expected rows are written by hand.
 let dir: string;
 let client: Client;
-let setUp: string[] = [];
 beforeAll(async () => {
-  installConnectionHooks(() => setUp);
+  cacheStatements();
   dir = fs.mkdtempSync(path.join(os.tmpdir(), "prooflight-statements-"));
   client = createClient({ url: `file:${path.join(dir, "s.db")}` });
   await client.execute("CREATE TABLE t (id INTEGER PRIMARY KEY, v TEXT NOT NULL UNIQUE)");
@@ -67,27 +65,5 @@ describe("prepared statements kept per connection", () => {
       [2, "two"],
       [3, "three"],
     ]);
-  });
-});
-
-describe("statements each new connection runs first", () => {
-  const synchronous = async (c: Client) => Number((await c.execute("PRAGMA synchronous")).rows[0]![0]);
-
-  it("none by default: SQLite's FULL (2) on the client's connections", async () => {
-    expect(await synchronous(client)).toBe(2);
-  });
-
-  it("NORMAL (1) on every connection opened after it is asked for, also a transaction's own", async () => {
-    setUp = ["PRAGMA synchronous = NORMAL"];
-    const other = createClient({ url: `file:${path.join(dir, "s.db")}` });
-    try {
-      expect(await synchronous(other)).toBe(1);
-      const tx = await other.transaction("write");
-      expect(Number((await tx.execute("PRAGMA synchronous")).rows[0]![0])).toBe(1);
-      await tx.rollback();
-    } finally {
-      other.close();
-      setUp = [];
-    }
   });
 });
