@@ -23,3 +23,8 @@ export function onceInRequest<T>(key: string, load: () => Promise<T>): Promise<T
   }
   return hit;
 }
+
+/** Runs `fn` outside any request's memo: work a request starts for later (a timer) is not part of it. */
+export function outsideRequest<T>(fn: () => T): T {
+  return store.exit(fn);
+}

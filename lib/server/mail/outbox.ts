@@ -1,4 +1,5 @@
 import "server-only";
+import { outsideRequest } from "../request-memo";
 import { and, asc, eq, lte, or, lt, isNull, isNotNull } from "drizzle-orm";
 import nodemailer, { type Transporter } from "nodemailer";
 import { getDb } from "@/db/client";
@@ -195,10 +196,12 @@ let soon: NodeJS.Timeout | undefined;
  */
 export function deliverOutboxSoon(delayMs = 250): void {
   if (soon) return;
-  soon = setTimeout(() => {
-    soon = undefined;
-    void deliverOutbox().catch(() => undefined);
-  }, delayMs);
+  soon = outsideRequest(() =>
+    setTimeout(() => {
+      soon = undefined;
+      void deliverOutbox().catch(() => undefined);
+    }, delayMs),
+  );
 }
 
 let timer: NodeJS.Timeout | undefined;

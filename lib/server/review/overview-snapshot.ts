@@ -34,6 +34,11 @@ async function loadSnapshot(manuscriptId: string): Promise<OverviewSnapshot> {
   return { reviews, warningCounts: await dataWarningCounts(reviews), members, datasetCount: dataCount?.n ?? 0 };
 }
 
+/** Data warnings that could not be worked out (a stored file unreadable for a moment) are left out of the counts. */
+function warningsComplete(s: OverviewSnapshot): boolean {
+  return s.reviews.every((r) => r.panels.every((p) => !p.revision || s.warningCounts.has(p.revision.id)));
+}
+
 /**
  * The overview of a manuscript as of `stamp`, its `review_stamp` read by the caller before asking.
  * Triggers raise the stamp in the same transaction as any write the overview depends on, so an
@@ -60,6 +65,8 @@ export function overviewSnapshot(manuscriptId: string, stamp: number): Promise<O
   snapshot.then(
     (loaded) => {
       entry.loaded = loaded;
+      // Not kept without every panel's data warnings: the next read tries them again.
+      if (!warningsComplete(loaded) && cache.get(manuscriptId) === entry) cache.delete(manuscriptId);
     },
     () => {
       if (cache.get(manuscriptId) === entry) cache.delete(manuscriptId);
