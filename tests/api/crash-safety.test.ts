@@ -127,6 +127,10 @@ describe("kill -9 during an upload", () => {
       for (const v of await getDb().select().from(versions).where(eq(versions.datasetId, d.id))) expect(v.derivedFromAnalysisId).not.toBeNull();
     }
     expect((await verifyAuditChain(getDb())).ok).toBe(true);
+    // A derived file the kill caught half-written is a part file, which the start-up sweep takes.
+    const tmp = path.join(env().uploadsDir, "tmp");
+    await sweepUploadTemp(0);
+    expect(fs.existsSync(tmp) ? fs.readdirSync(tmp).filter((n) => n.endsWith(".part")) : []).toEqual([]);
   }, 120_000);
 });
 
