@@ -1,5 +1,6 @@
 import "server-only";
 import { AsyncLocalStorage } from "node:async_hooks";
+import { notFound } from "@/lib/errors";
 
 const store = new AsyncLocalStorage<Map<string, Promise<unknown>>>();
 
@@ -27,4 +28,17 @@ export function onceInRequest<T>(key: string, load: () => Promise<T>): Promise<T
 /** Runs `fn` outside any request's memo: work a request starts for later (a timer) is not part of it. */
 export function outsideRequest<T>(fn: () => T): T {
   return store.exit(fn);
+}
+
+/**
+ * Which manuscript a thing belongs to (`find` answers its row, `m` the manuscript id), asked once
+ * per request: what a panel, figure, revision, dataset or version belongs to never changes. 404
+ * when there is no such thing, before any permission is checked.
+ */
+export function manuscriptOnceInRequest(what: string, id: string, find: () => Promise<Array<{ m: string }>>): Promise<string> {
+  return onceInRequest(`${what}:${id}`, async () => {
+    const [row] = await find();
+    if (!row) throw notFound();
+    return row.m;
+  });
 }
