@@ -4,7 +4,8 @@
  * workload beside a bare route in the same run:
  *
  *   board reads (GET /api/manuscripts/{id}) 35 %, rows paging (GET /api/versions/{id}/rows) 25 %,
- *   the review queue (GET /api/review-queue) 15 %, comments (POST …/comments) 15 %, review
+ *   the review queue (GET /api/review-queue) 15 %, comments (POST …/comments, as the app's pages post
+ *   them: `Prefer: return=minimal`, so the answer is the new comment, not its growing thread) 15 %, review
  *   decisions (POST /api/panels/{id}/approvals) 10 %; each request drawn from a seeded sequence.
  *
  * At 32 and at 128 clients, the mix and GET /api/ping alternate in 5 slices (2 s warm-up, 10 s
@@ -98,7 +99,7 @@ export async function benchLoadMix(): Promise<Record<string, unknown>> {
             url: `${base}/api/threads/${thread}/comments`,
             init: {
               method: "POST",
-              headers: json(commenters[c % 3]!),
+              headers: { ...json(commenters[c % 3]!), prefer: "return=minimal" },
               body: JSON.stringify({ body: doc(`load ${phase} ${seq} from client ${c}`), clientKey: `load-mix-${phase}-${seq}` }),
             },
           };

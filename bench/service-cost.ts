@@ -7,7 +7,9 @@
  * A quick loop for work on the hot paths: it needs no build and runs in about half a minute. Route
  * modules import Next's client hooks, which the react-server condition the other benchmarks run
  * under leaves out, so this one runs in a child with `server-only` mapped to its empty module
- * (tsconfig.in-process.json), as the API tests do. SERVICE_KINDS=board,queue picks kinds;
+ * (tsconfig.in-process.json), as the API tests do. Comments are posted as the app's pages post them
+ * (Prefer: return=minimal) and, as a kind of their own, with the whole thread read back as a script
+ * would. SERVICE_KINDS=board,queue picks kinds;
  * SERVICE_HISTORY=n posts n comments and n/2 decisions first.
  */
 import { execFileSync } from "node:child_process";
@@ -76,14 +78,14 @@ async function measure(): Promise<Record<string, unknown>> {
 
   const table = routes();
   const modules = new Map<string, Record<string, Handler>>();
-  const send = async (who: string, method: string, url: string, body?: unknown) => {
+  const send = async (who: string, method: string, url: string, body?: unknown, extra?: Record<string, string>) => {
     const pathname = url.split("?")[0]!;
     const route = table.find((r) => r.pattern.test(pathname));
     if (!route) throw new Error(`no route for ${pathname}`);
     if (!modules.has(route.file)) modules.set(route.file, (await import(route.file)) as Record<string, Handler>);
     const m = route.pattern.exec(pathname)!;
     const params = Object.fromEntries(route.names.map((n, i) => [n, decodeURIComponent(m[i + 1]!)]));
-    const headers = new Headers({ authorization: `Bearer ${tokens[who]}` });
+    const headers = new Headers({ ...extra, authorization: `Bearer ${tokens[who]}` });
     if (body !== undefined) headers.set("content-type", "application/json");
     const req = new Request(`http://localhost:3000${url}`, { method, headers, body: body === undefined ? undefined : JSON.stringify(body) });
     return modules.get(route.file)![method]!(req, { params: Promise.resolve(params) });
@@ -113,16 +115,20 @@ async function measure(): Promise<Record<string, unknown>> {
 
   const readers = [EMAIL.pi, EMAIL.author, EMAIL.reviewer, EMAIL.viewer];
   const doc = (text: string) => ({ type: "doc", content: [{ type: "paragraph", content: [{ type: "text", text }] }] });
-  const kinds: Record<string, (i: number) => [string, string, string, unknown?]> = {
+  // A comment as the app's pages post it (Prefer: return=minimal), and as a script that reads the whole thread back.
+  const reply = (i: number, extra?: Record<string, string>): [string, string, string, unknown, Record<string, string>?] => [
+    [EMAIL.pi, EMAIL.author, EMAIL.reviewer][i % 3]!,
+    "POST",
+    `/api/threads/${setup.threads[i % setup.threads.length]}/comments`,
+    { body: doc(`cost ${i}`), clientKey: `service-cost-${i}-${extra ? "minimal" : "whole"}` },
+    extra,
+  ];
+  const kinds: Record<string, (i: number) => [string, string, string, unknown?, Record<string, string>?]> = {
     board: (i) => [readers[i % 4]!, "GET", "/api/manuscripts/demo-manuscript"],
     rows: (i) => [readers[i % 4]!, "GET", `/api/versions/${setup.echoVersionId}/rows?offset=${(i * 7) % 60}&limit=20`],
     queue: (i) => [readers[i % 4]!, "GET", "/api/review-queue"],
-    comment: (i) => [
-      [EMAIL.pi, EMAIL.author, EMAIL.reviewer][i % 3]!,
-      "POST",
-      `/api/threads/${setup.threads[i % setup.threads.length]}/comments`,
-      { body: doc(`cost ${i}`), clientKey: `service-cost-${i}` },
-    ],
+    comment: (i) => reply(i, { prefer: "return=minimal" }),
+    "comment, whole thread back": (i) => reply(i),
     decision: (i) => {
       const panel = setup.panels[i % setup.panels.length]!;
       return [

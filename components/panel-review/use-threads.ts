@@ -73,7 +73,12 @@ export function useThreadActions(panelId: string, me: Me) {
 
   const reply = useMutation({
     mutationFn: (v: { threadId: string; body: JSONContent; text: string; clientKey: string }) =>
-      sendJson<ShownThread>(`/api/threads/${v.threadId}/comments`, "POST", { body: v.body, clientKey: v.clientKey }),
+      // Only the new comment comes back: the threads are read again once it settles.
+      fetchJson<ShownComment>(`/api/threads/${v.threadId}/comments`, {
+        method: "POST",
+        headers: { prefer: "return=minimal" },
+        body: JSON.stringify({ body: v.body, clientKey: v.clientKey }),
+      }),
     onMutate: async (v) => {
       const before = await snapshot();
       qc.setQueryData<ShownThread[]>(

@@ -26,6 +26,8 @@ export interface ApiOperation {
   body?: z.ZodType;
   multipart?: Record<string, string>;
   query?: z.ZodType;
+  /** Optional request headers the operation honours, with what each does. */
+  headers?: Record<string, string>;
   success: number;
 }
 
@@ -354,7 +356,15 @@ export const API_OPERATIONS: ApiOperation[] = [
     body: newThreadInput,
     success: 201,
   },
-  { method: "POST", path: "/api/threads/{id}/comments", permission: "comment.write", summary: "Reply in a thread", body: replyInput, success: 201 },
+  {
+    method: "POST",
+    path: "/api/threads/{id}/comments",
+    permission: "comment.write",
+    summary: "Reply in a thread: answers the whole thread, or only the new comment (with its threadId) when asked",
+    body: replyInput,
+    headers: { Prefer: "`return=minimal` (RFC 7240): answer only the new comment; the answer then carries `Preference-Applied: return=minimal`" },
+    success: 201,
+  },
   { method: "POST", path: "/api/threads/{id}/resolve", permission: "comment.write", summary: "Resolve (or reopen) a thread", body: resolveInput, success: 200 },
   {
     method: "POST",
@@ -464,7 +474,14 @@ export function buildOpenApi(): Record<string, unknown> {
       required: querySchema?.required?.includes(name) ?? false,
       schema,
     }));
-    const params = [...pathParams, ...queryParams];
+    const headerParams = Object.entries(op.headers ?? {}).map(([name, description]) => ({
+      name,
+      in: "header",
+      required: false,
+      description,
+      schema: { type: "string" },
+    }));
+    const params = [...pathParams, ...queryParams, ...headerParams];
     const requestBody = op.body
       ? { required: true, content: { "application/json": { schema: z.toJSONSchema(op.body, { io: "input" }) } } }
       : op.multipart

@@ -235,6 +235,37 @@ describe("comments", () => {
     expect((await post(resolve.POST, "viewer", { id: t.id }, { reopen: true })).status).toBe(403);
   });
 
+  it("with Prefer: return=minimal a reply answers only the new comment, and a retry the same one", async () => {
+    const t = (await post(threads.POST, "reviewer", { id: panelId }, { body: plainDoc("opening"), revisionId: rev1.id })).json;
+    const ask = (clientKey: string) =>
+      call(reply.POST, {
+        method: "POST",
+        token: tokens.author,
+        params: { id: t.id },
+        headers: { prefer: "return=minimal" },
+        body: { body: plainDoc("a <b>short</b> answer"), clientKey },
+      });
+    const r = await ask("minimal-1");
+    expect(r.status).toBe(201);
+    expect(r.headers.get("preference-applied")).toBe("return=minimal");
+    expect(r.json).toMatchObject({
+      threadId: t.id,
+      createdBy: "demo-author",
+      authorName: "Tomás Ekberg",
+      html: "<p>a &lt;b&gt;short&lt;/b&gt; answer</p>",
+      editedAt: null,
+    });
+    expect(r.json.comments).toBeUndefined();
+    const retry = await ask("minimal-1");
+    expect(retry.json.id).toBe(r.json.id);
+    const listed = (await call(threads.GET, { token: tokens.viewer, params: { id: panelId } })).json.items.find((x: any) => x.id === t.id);
+    expect(listed.comments.map((c: any) => c.id)).toEqual([t.comments[0].id, r.json.id]);
+    expect(listed.comments[1].createdAt).toBe(r.json.createdAt);
+    const whole = await post(reply.POST, "author", { id: t.id }, { body: plainDoc("and the whole thread back") });
+    expect(whole.headers.get("preference-applied")).toBeNull();
+    expect(whole.json.comments).toHaveLength(3);
+  });
+
   it("the activity log tells the story and its hash chain holds", async () => {
     const items = (await call(activity.GET, { token: tokens.viewer, params: { id: DEMO_MANUSCRIPT_ID } })).json.items;
     const texts = items.map((i: any) => `${i.actor} ${i.text}`);

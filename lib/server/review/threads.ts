@@ -55,12 +55,12 @@ async function insertComment(
     .insert(comments)
     .values({ id, threadId, body, html: prepared.html, mentions: prepared.mentions, clientKey: clientKey ?? null, createdBy: user.id })
     .onConflictDoNothing()
-    .returning({ id: comments.id });
+    .returning({ id: comments.id, createdAt: comments.createdAt });
   if (!inserted[0]) return null;
   await appendAudit(tx, { actorId: user.id, manuscriptId, action: "comment.create", target: `comment:${id}`, data: { threadId, mentions: prepared.mentions } });
   const excerpt = commentExcerpt(prepared.html, 300);
   await noticeComment(tx, user, { id, threadId, panelId, mentions: prepared.mentions, excerpt });
-  return id;
+  return inserted[0];
 }
 
 /** A retried post with the same clientKey answers the comment already stored instead of a duplicate. */
@@ -110,19 +110,53 @@ export async function createThread(user: SessionUser, panelId: string, raw: z.in
   return getThread(user, id);
 }
 
-export async function replyToThread(user: SessionUser, threadId: string, raw: z.infer<typeof replyInput>) {
+/** A reply; a retry with the same clientKey answers the comment stored the first time. */
+export async function postReply(user: SessionUser, threadId: string, raw: z.infer<typeof replyInput>) {
   const { thread, manuscriptId } = await threadContext(threadId);
   await authorize(user, "comment.write", manuscriptId);
   const input = replyInput.parse(raw);
   const again = await existingByClientKey(user, input.clientKey);
-  if (again) return getThread(user, threadId);
+  if (again) return ownCommentView(user, again);
   const prepared = prepareCommentBody(input.body, await memberIds(manuscriptId));
-  await getDb().transaction(async (tx) => {
+  const made = await getDb().transaction(async (tx) => {
     await consumeRate([commentRateRule(user.id)], Date.now(), tx);
-    await insertComment(tx, user, threadId, thread.panelId, manuscriptId, prepared, input.body, input.clientKey);
+    return insertComment(tx, user, threadId, thread.panelId, manuscriptId, prepared, input.body, input.clientKey);
   });
   deliverOutboxSoon();
+  if (!made) return ownCommentView(user, (await existingByClientKey(user, input.clientKey))!); // a concurrent retry stored it first
+  return ownCommentView(user, {
+    id: made.id,
+    threadId,
+    body: input.body,
+    html: prepared.html,
+    mentions: prepared.mentions,
+    createdAt: made.createdAt,
+    editedAt: null,
+  });
+}
+
+/** A reply answered with its whole thread. */
+export async function replyToThread(user: SessionUser, threadId: string, raw: z.infer<typeof replyInput>) {
+  await postReply(user, threadId, raw);
   return getThread(user, threadId);
+}
+
+/** One of the caller's own comments as a thread lists it, with its thread's id. */
+function ownCommentView(
+  user: SessionUser,
+  c: { id: string; threadId: string; body: unknown; html: string; mentions: string[]; createdAt: Date; editedAt: Date | null },
+) {
+  return {
+    id: c.id,
+    threadId: c.threadId,
+    body: c.body,
+    html: c.html,
+    mentions: c.mentions,
+    createdBy: user.id,
+    authorName: user.name,
+    createdAt: c.createdAt,
+    editedAt: c.editedAt,
+  };
 }
 
 export async function setThreadResolved(user: SessionUser, threadId: string, resolved: boolean) {
