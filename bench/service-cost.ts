@@ -2,7 +2,7 @@
  * What each request of the load mix costs the app itself, without HTTP and Next: the route
  * handlers called in this process (the way Next calls them) against a throw-away database with the
  * demo seed and the figure, panels and threads bench/review.ts sets up. For each kind: CPU ms and
- * wall ms per request (sequential, after a warm-up) and SQL statements per request.
+ * wall ms per request (sequential, after a warm-up), SQL statements and answer bytes per request.
  *
  * A quick loop for work on the hot paths: it needs no build and runs in about half a minute. Route
  * modules import Next's client hooks, which the react-server condition the other benchmarks run
@@ -145,16 +145,17 @@ async function measure(): Promise<Record<string, unknown>> {
     await (await send(...kinds.comment!(100_000 + i))).arrayBuffer();
     if (i % 2 === 0) await (await send(...kinds.decision!(100_000 + i))).arrayBuffer();
   }
-  const result: Record<string, { cpuMs: number; wallMs: number; statements: number }> = {};
+  const result: Record<string, { cpuMs: number; wallMs: number; statements: number; answerBytes: number }> = {};
   const only = process.env.SERVICE_KINDS?.split(",");
   for (const [kind, make] of Object.entries(kinds).filter(([k]) => !only || only.includes(k))) {
     for (let i = 0; i < WARMUP; i++) await (await send(...make(i))).arrayBuffer();
     statements = 0;
+    let bytes = 0;
     const c0 = process.cpuUsage();
     const t0 = performance.now();
     for (let i = WARMUP; i < WARMUP + REQUESTS; i++) {
       const res = await send(...make(i));
-      await res.arrayBuffer();
+      bytes += (await res.arrayBuffer()).byteLength;
       if (res.status >= 400) throw new Error(`${kind}: HTTP ${res.status}`);
     }
     const wall = performance.now() - t0;
@@ -163,6 +164,7 @@ async function measure(): Promise<Record<string, unknown>> {
       cpuMs: round((cpu.user + cpu.system) / 1000 / REQUESTS, 3),
       wallMs: round(wall / REQUESTS, 3),
       statements: round(statements / REQUESTS, 1),
+      answerBytes: Math.round(bytes / REQUESTS),
     };
   }
   console.table(result);

@@ -13,7 +13,9 @@ let installed = false;
  * last prepared statements by SQL text and hands them out again. That is safe because the client
  * runs a statement to completion (`all` or `run`) before it returns, so one statement is never in
  * use twice at once, and SQLite resets a statement before it runs again, also after an error.
- * Closing a connection drops its statements.
+ * Closing a connection drops its statements. A statement with a `*` column list is never kept: its
+ * columns are fixed when it is prepared, so a column added since (by a migration on any
+ * connection) would be missing from its answers.
  */
 export function cacheStatements(): void {
   if (installed) return;
@@ -23,6 +25,7 @@ export function cacheStatements(): void {
   const close = proto.close;
   const caches = new WeakMap<object, Map<string, unknown>>();
   proto.prepare = function (sql) {
+    if (hasWildcard(sql)) return prepare.call(this, sql);
     let cache = caches.get(this);
     if (!cache) caches.set(this, (cache = new Map<string, unknown>()));
     const hit = cache.get(sql);
@@ -31,7 +34,7 @@ export function cacheStatements(): void {
       cache.set(sql, hit);
       return hit;
     }
-    const stmt = prepare.call(this, sql);
+    const stmt = keepSettings(prepare.call(this, sql) as Statement);
     if (cache.size >= STATEMENTS_PER_CONNECTION) cache.delete(cache.keys().next().value!);
     cache.set(sql, stmt);
     return stmt;
@@ -41,3 +44,47 @@ export function cacheStatements(): void {
     return close.call(this);
   };
 }
+
+interface Statement {
+  raw(on?: boolean): Statement;
+  safeIntegers(on?: boolean): Statement;
+  columns(): unknown[];
+}
+
+/**
+ * The client sets raw and 64-bit integer mode and reads the result columns on every run, each a call
+ * into the native module (columns twice, building new objects): a kept statement answers these from
+ * what it last set or read (kept statements name their columns). `raw` on a statement that returns
+ * no rows throws, and keeps throwing.
+ */
+function keepSettings(stmt: Statement): Statement {
+  const { raw, safeIntegers, columns } = Object.getPrototypeOf(stmt) as Statement;
+  let rawOn: boolean | undefined;
+  let rawError: unknown;
+  let safeOn: boolean | undefined;
+  let cols: unknown[] | undefined;
+  stmt.raw = function (on = true) {
+    if (rawError) throw rawError;
+    if (rawOn !== on) {
+      try {
+        raw.call(this, on);
+      } catch (err) {
+        rawError = err;
+        throw err;
+      }
+      rawOn = on;
+    }
+    return this;
+  };
+  stmt.safeIntegers = function (on = true) {
+    if (safeOn !== on) safeIntegers.call(this, (safeOn = on));
+    return this;
+  };
+  stmt.columns = function () {
+    return (cols ??= columns.call(this));
+  };
+  return stmt;
+}
+
+/** `*` anywhere but in count(*): a column wildcard (or, kept out as well, a product). */
+const hasWildcard = (sql: string) => sql.replace(/count\(\s*\*\s*\)/gi, "").includes("*");

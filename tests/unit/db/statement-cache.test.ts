@@ -66,4 +66,24 @@ describe("prepared statements kept per connection", () => {
       [3, "three"],
     ]);
   });
+
+  it("a SELECT * kept from before a column was added answers the new column too", async () => {
+    await client.execute("CREATE TABLE w (id INTEGER PRIMARY KEY)");
+    await client.execute("INSERT INTO w (id) VALUES (1)");
+    expect((await client.execute("SELECT * FROM w")).columns).toEqual(["id"]);
+    await client.execute("ALTER TABLE w ADD COLUMN note TEXT NOT NULL DEFAULT 'x'");
+    const after = await client.execute("SELECT * FROM w");
+    expect(after.columns).toEqual(["id", "note"]);
+    expect(after.rows.map((r) => [r.id, r.note])).toEqual([[1, "x"]]);
+  });
+
+  it("a kept statement that returns no rows runs again and again, and reads stay rows", async () => {
+    for (const id of [10, 11, 12]) expect((await client.execute({ sql: INSERT, args: [id, `n${id}`] })).rowsAffected).toBe(1);
+    const read = await client.execute({ sql: SELECT, args: [11] });
+    expect(read.columns).toEqual(["id", "v"]);
+    expect(read.rows.map((r) => [r.id, r.v])).toEqual([
+      [11, "n11"],
+      [12, "n12"],
+    ]);
+  });
 });
