@@ -7,6 +7,7 @@ import { labMembers, labs, manuscriptMembers, manuscripts, users, type Role } fr
 import { authorize, authorizeLab, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "./audit";
 import { newId } from "./crypto";
+import { KeptJson } from "./kept-json";
 import { badRequest, notFound } from "@/lib/errors";
 
 export const createManuscriptInput = z.object({
@@ -85,20 +86,49 @@ const manuscriptRow = preparedQuery((db) =>
 
 /** The manuscript with its figures, panels and derived review states (figures arrive with the figure work). */
 /** `knownRole` is the role the route gate already established for this request, so it is not looked up twice. */
-export async function getManuscript(user: SessionUser, manuscriptId: string, knownRole?: Role | null) {
+async function manuscriptOverview(user: SessionUser, manuscriptId: string, knownRole?: Role | null) {
   const role = knownRole ?? (await authorize(user, "manuscript.read", manuscriptId));
   const m = await manuscriptRow().get({ id: manuscriptId });
   if (!m) throw notFound();
   const { reviewStamp, ...manuscript } = m;
-  const [{ overviewSnapshot }, { presentFigures }] = await Promise.all([import("./review/overview-snapshot"), import("./figures/figures")]);
-  const snapshot = await overviewSnapshot(manuscriptId, reviewStamp);
+  const { overviewSnapshot } = await import("./review/overview-snapshot");
+  return { manuscript: { ...manuscript, role }, snapshot: await overviewSnapshot(manuscriptId, reviewStamp) };
+}
+
+async function present({ manuscript, snapshot }: Awaited<ReturnType<typeof manuscriptOverview>>) {
+  const { presentFigures } = await import("./figures/figures");
   return {
     ...manuscript,
-    role,
     members: snapshot.members,
-    figures: presentFigures(snapshot.reviews, role, snapshot.warningCounts),
+    figures: presentFigures(snapshot.reviews, manuscript.role, snapshot.warningCounts),
     datasetCount: snapshot.datasetCount,
   };
+}
+
+export async function getManuscript(user: SessionUser, manuscriptId: string, knownRole?: Role | null) {
+  return present(await manuscriptOverview(user, manuscriptId, knownRole));
+}
+
+/** Serialised answers per kept overview, by the manuscript's own fields and the caller's role. */
+const keptAnswers = new WeakMap<object, Map<string, KeptJson>>();
+const KEPT_PER_OVERVIEW = 16;
+
+/**
+ * The manuscript as the API sends it, serialised (and compressed) once per kept overview and role
+ * rather than on each of the many reads a review round brings; the same as `getManuscript`.
+ */
+export async function getManuscriptJson(user: SessionUser, manuscriptId: string, knownRole?: Role | null): Promise<KeptJson> {
+  const overview = await manuscriptOverview(user, manuscriptId, knownRole);
+  let answers = keptAnswers.get(overview.snapshot);
+  if (!answers) keptAnswers.set(overview.snapshot, (answers = new Map()));
+  const key = JSON.stringify(overview.manuscript);
+  let answer = answers.get(key);
+  if (!answer) {
+    if (answers.size >= KEPT_PER_OVERVIEW) answers.clear();
+    answer = new KeptJson(JSON.stringify(await present(overview)));
+    answers.set(key, answer);
+  }
+  return answer;
 }
 
 export async function getManuscriptTitle(manuscriptId: string): Promise<string> {
