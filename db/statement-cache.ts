@@ -46,9 +46,9 @@ export function cacheStatements(): void {
 }
 
 interface Statement {
-  raw(on?: boolean): Statement;
-  safeIntegers(on?: boolean): Statement;
-  columns(): unknown[];
+  raw: (this: Statement, on?: boolean) => Statement;
+  safeIntegers: (this: Statement, on?: boolean) => Statement;
+  columns: (this: Statement) => unknown[];
 }
 
 /**
@@ -60,7 +60,7 @@ interface Statement {
 function keepSettings(stmt: Statement): Statement {
   const { raw, safeIntegers, columns } = Object.getPrototypeOf(stmt) as Statement;
   let rawOn: boolean | undefined;
-  let rawError: unknown;
+  let rawError: Error | undefined;
   let safeOn: boolean | undefined;
   let cols: unknown[] | undefined;
   stmt.raw = function (on = true) {
@@ -69,8 +69,7 @@ function keepSettings(stmt: Statement): Statement {
       try {
         raw.call(this, on);
       } catch (err) {
-        rawError = err;
-        throw err;
+        throw (rawError = err instanceof Error ? err : new Error(String(err)));
       }
       rawOn = on;
     }

@@ -8,8 +8,8 @@ export function prefersMinimal(req: Request): boolean {
   if (!header) return false;
   return header.split(",").some((pref) => {
     const [token] = pref.split(";");
-    const [name, value = ""] = token!.split("=").map((s) => s.trim());
-    return name!.toLowerCase() === "return" && value.replace(/^"(.*)"$/, "$1").toLowerCase() === "minimal";
+    const [name, value = ""] = token.split("=").map((s) => s.trim());
+    return name.toLowerCase() === "return" && value.replace(/^"(.*)"$/, "$1").toLowerCase() === "minimal";
   });
 }
 

@@ -8,10 +8,6 @@ export class KeptJson {
   #gzip?: Uint8Array<ArrayBuffer>;
   constructor(readonly text: string) {}
   get gzip(): Uint8Array<ArrayBuffer> {
-    if (!this.#gzip) {
-      const z = gzipSync(this.text);
-      this.#gzip = new Uint8Array(z.buffer as ArrayBuffer, z.byteOffset, z.byteLength);
-    }
-    return this.#gzip;
+    return (this.#gzip ??= gzipSync(this.text));
   }
 }

@@ -120,7 +120,7 @@ const KEPT_PER_OVERVIEW = 16;
 export async function getManuscriptJson(user: SessionUser, manuscriptId: string, knownRole?: Role | null): Promise<KeptJson> {
   const overview = await manuscriptOverview(user, manuscriptId, knownRole);
   let answers = keptAnswers.get(overview.snapshot);
-  if (!answers) keptAnswers.set(overview.snapshot, (answers = new Map()));
+  if (!answers) keptAnswers.set(overview.snapshot, (answers = new Map<string, KeptJson>()));
   const key = JSON.stringify(overview.manuscript);
   let answer = answers.get(key);
   if (!answer) {
