@@ -10,7 +10,7 @@
  * (tsconfig.in-process.json), as the API tests do. Comments are posted as the app's pages post them
  * (Prefer: return=minimal) and, as a kind of their own, with the whole thread read back as a script
  * would. SERVICE_KINDS=board,queue picks kinds;
- * SERVICE_HISTORY=n posts n comments and n/2 decisions first.
+ * SERVICE_HISTORY=n posts n comments and n/2 decisions first; SERVICE_SQL=1 prints one request's statements.
  */
 import { execFileSync } from "node:child_process";
 import fs from "node:fs";
@@ -100,9 +100,10 @@ async function measure(): Promise<Record<string, unknown>> {
 
   const client = getClient();
   let statements = 0;
+  let logged: string[] | null = null;
   const count = (target: { execute(s: InStatement): Promise<unknown> }) => {
     const orig = target.execute.bind(target);
-    target.execute = (s: InStatement) => (statements++, orig(s));
+    target.execute = (s: InStatement) => (statements++, logged?.push(typeof s === "string" ? s : s.sql), orig(s));
   };
   count(client as unknown as { execute(s: InStatement): Promise<unknown> });
   const origTx = client.transaction.bind(client);
@@ -160,6 +161,12 @@ async function measure(): Promise<Record<string, unknown>> {
     }
     const wall = performance.now() - t0;
     const cpu = process.cpuUsage(c0);
+    if (process.env.SERVICE_SQL) {
+      logged = [];
+      await (await send(...make(WARMUP + REQUESTS))).arrayBuffer();
+      console.log(`\n  ${kind}: the statements of one request\n${logged.map((q, i) => `  ${i + 1}. ${q}`).join("\n")}`);
+      logged = null;
+    }
     result[kind] = {
       cpuMs: round((cpu.user + cpu.system) / 1000 / REQUESTS, 3),
       wallMs: round(wall / REQUESTS, 3),

@@ -4,6 +4,7 @@ import { getDb } from "@/db/client";
 import { preparedQuery } from "@/db/prepared";
 import { labMembers, manuscriptMembers, type Role } from "@/db/schema";
 import { forbidden, notFound } from "@/lib/errors";
+import { onceInRequest } from "@/lib/server/request-memo";
 import { isManuscriptAction, roleAllows, type Action, type ManuscriptAction } from "./policy";
 
 export * from "./policy";
@@ -22,8 +23,11 @@ const roleLookup = preparedQuery((db) =>
     .prepare(),
 );
 
-async function roleOn(userId: string, manuscriptId: string): Promise<Role | null> {
-  return (await roleLookup().get({ userId, manuscriptId }))?.role ?? null;
+export const ROLE_MEMO_PREFIX = "role:";
+
+/** Asked once per request (the route's gate and the service behind it both ask); membership writes forget it. */
+function roleOn(userId: string, manuscriptId: string): Promise<Role | null> {
+  return onceInRequest(`${ROLE_MEMO_PREFIX}${userId}:${manuscriptId}`, async () => (await roleLookup().get({ userId, manuscriptId }))?.role ?? null);
 }
 
 const ACTION_WORDS: Record<ManuscriptAction, string> = {

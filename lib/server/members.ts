@@ -4,7 +4,8 @@ import { z } from "zod";
 import type { Transaction } from "@/db/client";
 import { getDb } from "@/db/client";
 import { invitations, manuscriptMembers, manuscripts, ROLES, users } from "@/db/schema";
-import { authorize, type SessionUser } from "@/lib/authz";
+import { authorize, ROLE_MEMO_PREFIX, type SessionUser } from "@/lib/authz";
+import { forgetInRequest } from "./request-memo";
 import { appendAudit } from "./audit";
 import { newId, newSecret, sha256Hex } from "./crypto";
 import { badRequest, conflict, notFound } from "@/lib/errors";
@@ -87,6 +88,7 @@ export async function changeMemberRole(user: SessionUser, manuscriptId: string, 
       .where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(manuscriptMembers.userId, memberId)));
     await appendAudit(tx, { actorId: user.id, manuscriptId, action: "member.role", target: `user:${memberId}`, data: { from: m.role, to: role } });
   });
+  forgetInRequest(ROLE_MEMO_PREFIX);
 }
 
 export async function removeMember(user: SessionUser, manuscriptId: string, memberId: string) {
@@ -96,6 +98,7 @@ export async function removeMember(user: SessionUser, manuscriptId: string, memb
     await tx.delete(manuscriptMembers).where(and(eq(manuscriptMembers.manuscriptId, manuscriptId), eq(manuscriptMembers.userId, memberId)));
     await appendAudit(tx, { actorId: user.id, manuscriptId, action: "member.remove", target: `user:${memberId}`, data: { role: m.role } });
   });
+  forgetInRequest(ROLE_MEMO_PREFIX);
 }
 
 export async function listPendingInvitations(user: SessionUser, manuscriptId: string) {
@@ -137,7 +140,7 @@ export const acceptInput = z.object({
 export async function acceptInvitation(input: z.infer<typeof acceptInput>): Promise<{ userId: string; manuscriptId: string; email: string }> {
   const { token, name, password } = acceptInput.parse(input);
   const pwHash = password ? await hashPassword(password) : null;
-  return getDb().transaction(async (tx) => {
+  const joined = await getDb().transaction(async (tx) => {
     const [inv] = await tx
       .update(invitations)
       .set({ acceptedAt: new Date() })
@@ -164,4 +167,6 @@ export async function acceptInvitation(input: z.infer<typeof acceptInput>): Prom
     });
     return { userId: account.id, manuscriptId: inv.manuscriptId, email: inv.email };
   });
+  forgetInRequest(ROLE_MEMO_PREFIX);
+  return joined;
 }

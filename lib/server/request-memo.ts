@@ -12,7 +12,8 @@ export function withRequestMemo<T>(run: () => Promise<T>): Promise<T> {
 /**
  * Within one request, a lookup of something that never changes once written (which manuscript a
  * panel or thread belongs to) runs once however many layers ask; outside a request it just runs.
- * Not for anything a request may change, such as roles or states.
+ * Not for anything a request may change, such as states; the caller's roles are kept, and every
+ * write of memberships forgets them (`forgetInRequest`).
  */
 export function onceInRequest<T>(key: string, load: () => Promise<T>): Promise<T> {
   const memo = store.getStore();
@@ -23,6 +24,12 @@ export function onceInRequest<T>(key: string, load: () => Promise<T>): Promise<T
     memo.set(key, hit);
   }
   return hit;
+}
+
+/** After a write that changes what lookups starting with `prefix` answer: they run again. */
+export function forgetInRequest(prefix: string): void {
+  const memo = store.getStore();
+  if (memo) for (const key of memo.keys()) if (key.startsWith(prefix)) memo.delete(key);
 }
 
 /** Runs `fn` outside any request's memo: work a request starts for later (a timer) is not part of it. */

@@ -1,7 +1,8 @@
 import "server-only";
 import { Readable } from "node:stream";
-import { and, asc, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
+import { preparedQuery } from "@/db/prepared";
 import { datasets, users, versions } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { decodeColumnar, readRows } from "@/lib/data/columnar";
@@ -95,9 +96,17 @@ export async function openRawVersion(user: SessionUser, versionId: string) {
   };
 }
 
+const versionFile = preparedQuery((db) =>
+  db
+    .select({ sha256: versions.sha256, fileName: versions.fileName })
+    .from(versions)
+    .where(eq(versions.id, sql.placeholder("id")))
+    .prepare(),
+);
+
 export async function getVersionRows(user: SessionUser, versionId: string, offset: number, limit: number) {
   await authorize(user, "manuscript.read", await manuscriptOfVersion(versionId));
-  const [v] = await getDb().select({ sha256: versions.sha256, fileName: versions.fileName }).from(versions).where(eq(versions.id, versionId));
+  const v = await versionFile().get({ id: versionId });
   if (!v) throw notFound();
   const page = readRows(await columnsFor(v.sha256, v.fileName), offset, limit);
   const names = page.columns.map((c) => c.name);

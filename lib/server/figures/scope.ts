@@ -1,28 +1,34 @@
 import "server-only";
-import { eq } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { eq, sql } from "drizzle-orm";
+import { preparedQuery } from "@/db/prepared";
 import { figures, panels, revisions } from "@/db/schema";
 import { manuscriptOnceInRequest } from "../request-memo";
 
+const id = sql.placeholder("id");
+const ofFigure = preparedQuery((db) => db.select({ m: figures.manuscriptId }).from(figures).where(eq(figures.id, id)).prepare());
+const ofPanel = preparedQuery((db) =>
+  db.select({ m: figures.manuscriptId }).from(panels).innerJoin(figures, eq(figures.id, panels.figureId)).where(eq(panels.id, id)).prepare(),
+);
+const ofRevision = preparedQuery((db) =>
+  db
+    .select({ m: figures.manuscriptId })
+    .from(revisions)
+    .innerJoin(panels, eq(panels.id, revisions.panelId))
+    .innerJoin(figures, eq(figures.id, panels.figureId))
+    .where(eq(revisions.id, id))
+    .prepare(),
+);
+
 export function manuscriptOfFigure(figureId: string): Promise<string> {
-  return manuscriptOnceInRequest("figure", figureId, () => getDb().select({ m: figures.manuscriptId }).from(figures).where(eq(figures.id, figureId)));
+  return manuscriptOnceInRequest("figure", figureId, () => ofFigure().all({ id: figureId }));
 }
 
 export function manuscriptOfPanel(panelId: string): Promise<string> {
-  return manuscriptOnceInRequest("panel", panelId, () =>
-    getDb().select({ m: figures.manuscriptId }).from(panels).innerJoin(figures, eq(figures.id, panels.figureId)).where(eq(panels.id, panelId)),
-  );
+  return manuscriptOnceInRequest("panel", panelId, () => ofPanel().all({ id: panelId }));
 }
 
 export function manuscriptOfRevision(revisionId: string): Promise<string> {
-  return manuscriptOnceInRequest("revision", revisionId, () =>
-    getDb()
-      .select({ m: figures.manuscriptId })
-      .from(revisions)
-      .innerJoin(panels, eq(panels.id, revisions.panelId))
-      .innerJoin(figures, eq(figures.id, panels.figureId))
-      .where(eq(revisions.id, revisionId)),
-  );
+  return manuscriptOnceInRequest("revision", revisionId, () => ofRevision().all({ id: revisionId }));
 }
 
 /** Panel letters follow the order: a, b, …, z, aa, ab … */

@@ -1,8 +1,9 @@
 import "server-only";
-import { and, asc, eq, inArray } from "drizzle-orm";
+import { and, asc, eq, inArray, sql } from "drizzle-orm";
 import { z } from "zod";
 import type { Transaction } from "@/db/client";
 import { getDb } from "@/db/client";
+import { preparedQuery } from "@/db/prepared";
 import { commentEdits, comments, figures, manuscriptMembers, panels, revisions, threadFollows, threads, users } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
@@ -19,20 +20,31 @@ import { consumeRate, type RateRule } from "../limits/rate-limit";
 
 const EDIT_WINDOW_MS = 15 * 60 * 1000;
 
+const memberRows = preparedQuery((db) =>
+  db
+    .select({ id: manuscriptMembers.userId })
+    .from(manuscriptMembers)
+    .where(eq(manuscriptMembers.manuscriptId, sql.placeholder("manuscriptId")))
+    .prepare(),
+);
 async function memberIds(manuscriptId: string) {
-  const rows = await getDb().select({ id: manuscriptMembers.userId }).from(manuscriptMembers).where(eq(manuscriptMembers.manuscriptId, manuscriptId));
-  return new Set(rows.map((r) => r.id));
+  return new Set((await memberRows().all({ manuscriptId })).map((r) => r.id));
 }
+
+const threadRow = preparedQuery((db) =>
+  db
+    .select({ panelId: threads.panelId, manuscriptId: figures.manuscriptId })
+    .from(threads)
+    .innerJoin(panels, eq(panels.id, threads.panelId))
+    .innerJoin(figures, eq(figures.id, panels.figureId))
+    .where(eq(threads.id, sql.placeholder("threadId")))
+    .prepare(),
+);
 
 /** The panel and manuscript a thread belongs to (fixed once it is written, so asked once per request). */
 function threadContext(threadId: string): Promise<{ thread: { panelId: string }; manuscriptId: string }> {
   return onceInRequest(`threadContext:${threadId}`, async () => {
-    const [t] = await getDb()
-      .select({ panelId: threads.panelId, manuscriptId: figures.manuscriptId })
-      .from(threads)
-      .innerJoin(panels, eq(panels.id, threads.panelId))
-      .innerJoin(figures, eq(figures.id, panels.figureId))
-      .where(eq(threads.id, threadId));
+    const t = await threadRow().get({ threadId });
     if (!t) throw notFound();
     return { thread: { panelId: t.panelId }, manuscriptId: t.manuscriptId };
   });
@@ -64,13 +76,16 @@ async function insertComment(
 }
 
 /** A retried post with the same clientKey answers the comment already stored instead of a duplicate. */
-async function existingByClientKey(user: SessionUser, clientKey?: string) {
-  if (!clientKey) return null;
-  const [c] = await getDb()
+const commentByClientKey = preparedQuery((db) =>
+  db
     .select()
     .from(comments)
-    .where(and(eq(comments.createdBy, user.id), eq(comments.clientKey, clientKey)));
-  return c ?? null;
+    .where(and(eq(comments.createdBy, sql.placeholder("userId")), eq(comments.clientKey, sql.placeholder("clientKey"))))
+    .prepare(),
+);
+async function existingByClientKey(user: SessionUser, clientKey?: string) {
+  if (!clientKey) return null;
+  return (await commentByClientKey().get({ userId: user.id, clientKey })) ?? null;
 }
 
 /** A retry with the same clientKey is answered above, before this counts. */
