@@ -4,7 +4,7 @@ import { getDb } from "@/db/client";
 import { preparedQuery } from "@/db/prepared";
 import { labMembers, manuscriptMembers, type Role } from "@/db/schema";
 import { forbidden, notFound } from "@/lib/errors";
-import { onceInRequest } from "@/lib/server/request-memo";
+import { onceInRequest } from "@/lib/request-memo";
 import { isManuscriptAction, roleAllows, type Action, type ManuscriptAction } from "./policy";
 
 export * from "./policy";

@@ -6,7 +6,7 @@ import { forbidden, unauthorized } from "@/lib/errors";
 import { toErrorResponse } from "./errors";
 import { readJsonBody } from "./read-json-body";
 import { resolveCaller } from "./request-user";
-import { withRequestMemo } from "@/lib/server/request-memo";
+import { withRequestMemo } from "@/lib/request-memo";
 
 type Params = Record<string, string>;
 type RouteContext = { params: Promise<Params> };

@@ -5,7 +5,7 @@ import type { Transaction } from "@/db/client";
 import { getDb } from "@/db/client";
 import { invitations, manuscriptMembers, manuscripts, ROLES, users } from "@/db/schema";
 import { authorize, ROLE_MEMO_PREFIX, type SessionUser } from "@/lib/authz";
-import { forgetInRequest } from "./request-memo";
+import { forgetInRequest } from "@/lib/request-memo";
 import { appendAudit } from "./audit";
 import { newId, newSecret, sha256Hex } from "./crypto";
 import { badRequest, conflict, notFound } from "@/lib/errors";

@@ -4,7 +4,7 @@ import { getClient } from "@/db/client";
 import { authorize } from "@/lib/authz";
 import { DEMO_ACCOUNTS, DEMO_MANUSCRIPT_ID } from "@/lib/demo-data/accounts";
 import { changeMemberRole, removeMember } from "@/lib/server/members";
-import { withRequestMemo } from "@/lib/server/request-memo";
+import { withRequestMemo } from "@/lib/request-memo";
 import { setupTestApp } from "./harness";
 
 /** Within one request the caller's role is asked once; a membership write in that request is seen at once. */

@@ -2,7 +2,7 @@ import "server-only";
 import { eq, sql } from "drizzle-orm";
 import { preparedQuery } from "@/db/prepared";
 import { datasets, versions } from "@/db/schema";
-import { manuscriptOnceInRequest } from "../request-memo";
+import { manuscriptOnceInRequest } from "@/lib/request-memo";
 
 const id = sql.placeholder("id");
 const ofDataset = preparedQuery((db) => db.select({ m: datasets.manuscriptId }).from(datasets).where(eq(datasets.id, id)).prepare());

@@ -2,7 +2,7 @@ import "server-only";
 import { eq, sql } from "drizzle-orm";
 import { preparedQuery } from "@/db/prepared";
 import { figures, panels, revisions } from "@/db/schema";
-import { manuscriptOnceInRequest } from "../request-memo";
+import { manuscriptOnceInRequest } from "@/lib/request-memo";
 
 const id = sql.placeholder("id");
 const ofFigure = preparedQuery((db) => db.select({ m: figures.manuscriptId }).from(figures).where(eq(figures.id, id)).prepare());

@@ -1,5 +1,5 @@
 import "server-only";
-import { outsideRequest } from "../request-memo";
+import { outsideRequest } from "@/lib/request-memo";
 import { and, asc, eq, lte, or, lt, isNull, isNotNull } from "drizzle-orm";
 import nodemailer, { type Transporter } from "nodemailer";
 import { getDb } from "@/db/client";

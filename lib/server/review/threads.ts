@@ -11,7 +11,7 @@ import { newId } from "../crypto";
 import { badRequest, conflict, forbidden, notFound } from "@/lib/errors";
 import { deliverOutboxSoon } from "../mail/outbox";
 import { manuscriptOfPanel } from "../figures/scope";
-import { onceInRequest } from "../request-memo";
+import { onceInRequest } from "@/lib/request-memo";
 import { commentExcerpt, prepareCommentBody } from "./comment-body";
 import { noticeComment } from "./review-notices";
 import { editCommentInput, newThreadInput, replyInput } from "./schemas";
