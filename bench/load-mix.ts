@@ -162,6 +162,26 @@ export async function benchLoadMix(): Promise<Record<string, unknown>> {
     console.log("\n  service time by kind (one client, sequential), before the load:");
     console.table(service);
 
+    // LOAD_EACH_KIND=1: each kind alone at 32 clients first. The server is saturated, so 1/throughput
+    // is what one request of that kind costs it, Next's own handling included (the bare route's).
+    if (process.env.LOAD_EACH_KIND) {
+      const alone: Record<string, { rps: number; msPerRequest: number; p95: number; errors: number }> = {};
+      for (const [kind] of [["bare"], ...MIX]) {
+        let drawn = 0;
+        const one = (_seq: number, c: number, phase: string): LoadRequest => {
+          if (kind === "bare") return { url: `${base}/api/ping` };
+          let request: LoadRequest;
+          do request = mixed(drawn++, c, `alone-${phase}`);
+          while (request.kind !== kind);
+          return request;
+        };
+        const [r] = await runInterleaved([target(32, one, 5_000)], 1);
+        alone[kind] = { rps: r!.rps, msPerRequest: round(1000 / r!.rps, 2), p95: r!.latencyMs.p95, errors: r!.errors };
+      }
+      console.log("\n  each kind alone, 32 clients:");
+      console.table(alone);
+    }
+
     const phases: Record<string, { bare: LoadResult; mix: LoadResult }> = {};
     for (const clients of [32, 128]) {
       const [bare, mix] = await runInterleaved([target(clients, () => ({ url: `${base}/api/ping` })), target(clients, withProbe)], ROUNDS);

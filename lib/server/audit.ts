@@ -1,7 +1,8 @@
 import "server-only";
-import { desc, eq, asc } from "drizzle-orm";
+import { desc, eq, asc, sql } from "drizzle-orm";
 import { auditLog } from "@/db/schema";
 import type { Executor } from "@/db/client";
+import { preparedQuery } from "@/db/prepared";
 import { canonicalJson } from "@/lib/figures/canonical-spec";
 import { sha256Hex } from "./crypto";
 
@@ -20,8 +21,26 @@ function entryHash(prevHash: string, e: { at: number; actorId: string | null; ma
 }
 
 /** Appends inside the caller's write transaction, so the chain is serialised with the change it records. */
+const lastEntry = preparedQuery((db) => db.select({ hash: auditLog.hash }).from(auditLog).orderBy(desc(auditLog.seq)).limit(1).prepare());
+const p = (name: string) => sql.placeholder(name);
+const insertEntry = preparedQuery((db) =>
+  db
+    .insert(auditLog)
+    .values({
+      at: p("at"),
+      actorId: p("actorId"),
+      manuscriptId: p("manuscriptId"),
+      action: p("action"),
+      target: p("target"),
+      data: p("data"),
+      prevHash: p("prevHash"),
+      hash: p("hash"),
+    })
+    .prepare(),
+);
+
 export async function appendAudit(tx: Executor, input: AuditEntryInput): Promise<void> {
-  const [last] = await tx.select({ hash: auditLog.hash }).from(auditLog).orderBy(desc(auditLog.seq)).limit(1);
+  const last = await lastEntry(tx).get();
   const prevHash = last?.hash ?? GENESIS;
   const row = {
     at: Date.now(),
@@ -31,7 +50,7 @@ export async function appendAudit(tx: Executor, input: AuditEntryInput): Promise
     target: input.target,
     data: canonicalJson(input.data ?? {}),
   };
-  await tx.insert(auditLog).values({ ...row, at: new Date(row.at), prevHash, hash: entryHash(prevHash, row) });
+  await insertEntry(tx).run({ ...row, at: new Date(row.at), prevHash, hash: entryHash(prevHash, row) });
 }
 
 /** Re-walks the chain; answers the first entry whose link or content does not match. */

@@ -1,6 +1,7 @@
 import "server-only";
-import { and, count, eq, gt, lt, min } from "drizzle-orm";
+import { and, count, eq, gt, lt, min, sql } from "drizzle-orm";
 import { getDb, type Executor } from "@/db/client";
+import { preparedQuery } from "@/db/prepared";
 import { rateEvents } from "@/db/schema";
 import { tooManyRequests } from "@/lib/errors";
 
@@ -19,13 +20,23 @@ interface RateCheck {
   retryAfterSeconds: number;
 }
 
-/** How the bucket stands now, without recording anything. Shared through the database, so every instance counts. */
-async function peekRate(rule: RateRule, now: number, db: Executor): Promise<RateCheck> {
-  const since = new Date(now - rule.windowMs);
-  const [row] = await db
+const bucketSince = preparedQuery((db) =>
+  db
     .select({ n: count(), oldest: min(rateEvents.at) })
     .from(rateEvents)
-    .where(and(eq(rateEvents.bucket, rule.bucket), gt(rateEvents.at, since)));
+    .where(and(eq(rateEvents.bucket, sql.placeholder("bucket")), gt(rateEvents.at, sql.placeholder("since"))))
+    .prepare(),
+);
+const insertEvent = preparedQuery((db) =>
+  db
+    .insert(rateEvents)
+    .values({ bucket: sql.placeholder("bucket"), at: sql.placeholder("at") })
+    .prepare(),
+);
+
+/** How the bucket stands now, without recording anything. Shared through the database, so every instance counts. */
+async function peekRate(rule: RateRule, now: number, db: Executor): Promise<RateCheck> {
+  const row = await bucketSince(db).get({ bucket: rule.bucket, since: now - rule.windowMs }); // milliseconds, as the column stores them
   const n = row?.n ?? 0;
   if (n < rule.max) return { allowed: true, retryAfterSeconds: 0 };
   const oldest = row?.oldest instanceof Date ? row.oldest.getTime() : now;
@@ -41,7 +52,7 @@ export async function consumeRate(rules: RateRule[], now = Date.now(), db: Execu
     const check = await peekRate(rule, now, db);
     if (!check.allowed) throw tooManyRequests(`${rule.message} Try again in ${describeWait(check.retryAfterSeconds)}.`, check.retryAfterSeconds);
   }
-  await db.insert(rateEvents).values(rules.map((r) => ({ bucket: r.bucket, at: new Date(now) })));
+  for (const r of rules) await insertEvent(db).run({ bucket: r.bucket, at: new Date(now) });
   // Old events are pruned now and then, not on every write.
   if (Math.random() > 0.02) return;
   const longest = Math.max(...rules.map((r) => r.windowMs));
