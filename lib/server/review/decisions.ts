@@ -1,7 +1,8 @@
 import "server-only";
-import { eq } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { z } from "zod";
 import { getDb, type Transaction } from "@/db/client";
+import { preparedQuery } from "@/db/prepared";
 import { decisions, manuscripts, panels, revisions, signoffs } from "@/db/schema";
 import { authorize, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "../audit";
@@ -16,6 +17,11 @@ import { openIssuesOf } from "./review-edges";
 import { printCheckOf } from "../figures/print-check";
 import { printCheckFailures } from "@/lib/figures/print-check";
 
+const id = sql.placeholder("id");
+const panelById = preparedQuery((db) => db.select().from(panels).where(eq(panels.id, id)).prepare());
+const revisionById = preparedQuery((db) => db.select().from(revisions).where(eq(revisions.id, id)).prepare());
+const stampById = preparedQuery((db) => db.select({ s: manuscripts.reviewStamp }).from(manuscripts).where(eq(manuscripts.id, id)).prepare());
+
 /**
  * A review decision on a revision's content hash. Reviewers, the PI and authors other than the
  * revision's creator decide; nobody approves their own revision; only the current revision counts.
@@ -25,10 +31,10 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
   await authorize(user, "review.decide", manuscriptId);
   const input = decisionInput.parse(raw);
   const id = newId();
-  const stampOf = async (tx: Transaction) => (await tx.select({ s: manuscripts.reviewStamp }).from(manuscripts).where(eq(manuscripts.id, manuscriptId)))[0].s;
+  const stampOf = async (tx: Transaction) => (await stampById(tx).get({ id: manuscriptId }))!.s;
   const amend = await getDb().transaction(async (tx) => {
-    const [p] = await tx.select().from(panels).where(eq(panels.id, panelId));
-    const [rev] = await tx.select().from(revisions).where(eq(revisions.id, input.revisionId));
+    const p = (await panelById(tx).get({ id: panelId }))!;
+    const rev = await revisionById(tx).get({ id: input.revisionId });
     if (!rev || rev.panelId !== panelId) throw badRequest("revisionId: not a revision of this panel.");
     if (p.currentRevisionId !== rev.id)
       throw conflict(`Revision ${rev.number} is no longer current; review the current revision instead.`, { currentRevisionId: p.currentRevisionId });

@@ -1,6 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, inArray, isNotNull, isNull, sql } from "drizzle-orm";
 import { getDb, type Executor } from "@/db/client";
+import { preparedQuery } from "@/db/prepared";
 import { decisions, figures, panels, revisions, signoffs, threads, users } from "@/db/schema";
 import { figureReviewState, panelReviewState, type ReviewState } from "@/lib/review/derive-state";
 import { letterFor } from "../figures/scope";
@@ -59,6 +60,31 @@ async function latestDecisionsOnCurrent(db: Executor, panelIds: string[]) {
     .orderBy(asc(decisions.createdAt), sql`${decisions}.rowid`);
 }
 
+// One figure's rows (a decision reads them in its transaction) come from queries built once.
+const figureById = preparedQuery((db) =>
+  db
+    .select()
+    .from(figures)
+    .where(eq(figures.id, sql.placeholder("id")))
+    .prepare(),
+);
+const panelsOfFigure = preparedQuery((db) =>
+  db
+    .select()
+    .from(panels)
+    .where(and(eq(panels.figureId, sql.placeholder("id")), isNull(panels.archivedAt)))
+    .orderBy(asc(panels.position))
+    .prepare(),
+);
+const signoffsOfFigure = preparedQuery((db) =>
+  db
+    .select()
+    .from(signoffs)
+    .where(eq(signoffs.figureId, sql.placeholder("id")))
+    .orderBy(desc(signoffs.createdAt))
+    .prepare(),
+);
+
 /** The rows review states are derived from (deriveReviews), for a manuscript's figures or one figure. */
 export async function loadReviewRows(
   where: { manuscriptId?: string; figureId?: string; archived?: boolean },
@@ -66,30 +92,35 @@ export async function loadReviewRows(
   history: DecisionHistory = "all",
 ) {
   // A manuscript's figures leave out archived ones (or, asked for, list only those); one figure is found either way.
-  const figs = await db
-    .select()
-    .from(figures)
-    .where(
-      where.figureId
-        ? eq(figures.id, where.figureId)
-        : and(eq(figures.manuscriptId, where.manuscriptId!), where.archived ? isNotNull(figures.archivedAt) : isNull(figures.archivedAt)),
-    )
-    .orderBy(asc(figures.number));
-  const figIds = figs.map((f) => f.id);
-  // An archived panel has left its figure: no letter, no part of the figure hash or state.
-  const ps = figIds.length
-    ? await db
+  const figs = where.figureId
+    ? await figureById(db).all({ id: where.figureId })
+    : await db
         .select()
-        .from(panels)
-        .where(and(inArray(panels.figureId, figIds), isNull(panels.archivedAt)))
-        .orderBy(asc(panels.position))
-    : [];
+        .from(figures)
+        .where(and(eq(figures.manuscriptId, where.manuscriptId!), where.archived ? isNotNull(figures.archivedAt) : isNull(figures.archivedAt)))
+        .orderBy(asc(figures.number));
+  const figIds = figs.map((f) => f.id);
+  const one = figIds.length === 1 ? { id: figIds[0]! } : null;
+  // An archived panel has left its figure: no letter, no part of the figure hash or state.
+  const ps = one
+    ? await panelsOfFigure(db).all(one)
+    : figIds.length
+      ? await db
+          .select()
+          .from(panels)
+          .where(and(inArray(panels.figureId, figIds), isNull(panels.archivedAt)))
+          .orderBy(asc(panels.position))
+      : [];
   const panelIds = ps.map((p) => p.id);
   const revIds = ps.map((p) => p.currentRevisionId).filter((x): x is string => Boolean(x));
   const [revs, decs, signs, threadRows] = await Promise.all([
     revIds.length ? db.select().from(revisions).where(inArray(revisions.id, revIds)) : [],
     panelIds.length ? (history === "all" ? allDecisions(db, panelIds) : latestDecisionsOnCurrent(db, panelIds)) : [],
-    figIds.length ? db.select().from(signoffs).where(inArray(signoffs.figureId, figIds)).orderBy(desc(signoffs.createdAt)) : [],
+    one
+      ? signoffsOfFigure(db).all(one)
+      : figIds.length
+        ? db.select().from(signoffs).where(inArray(signoffs.figureId, figIds)).orderBy(desc(signoffs.createdAt))
+        : [],
     panelIds.length ? db.select({ panelId: threads.panelId, resolvedAt: threads.resolvedAt }).from(threads).where(inArray(threads.panelId, panelIds)) : [],
   ]);
   return { figs, ps, revs, decs, signs, threadRows };

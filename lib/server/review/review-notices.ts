@@ -1,6 +1,7 @@
 import "server-only";
-import { and, asc, eq, isNull, ne } from "drizzle-orm";
+import { and, asc, eq, isNull, ne, sql } from "drizzle-orm";
 import type { Executor } from "@/db/client";
+import { preparedQuery } from "@/db/prepared";
 import { comments, decisions, figures, manuscriptMembers, manuscripts, panels, threadFollows, type revisions } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
 import { env } from "@/lib/env";
@@ -11,19 +12,48 @@ import type { Change } from "./what-changed";
 
 type Rev = typeof revisions.$inferSelect;
 
-/** Where a panel sits, read in the event's transaction: "Figure 2b", its manuscript and members. */
-async function placeOfPanel(tx: Executor, panelId: string) {
-  const [row] = await tx
+const id = sql.placeholder("id");
+const panelPlaceRow = preparedQuery((db) =>
+  db
     .select({ figure: figures, title: manuscripts.title, panelTitle: panels.title })
     .from(panels)
     .innerJoin(figures, eq(figures.id, panels.figureId))
     .innerJoin(manuscripts, eq(manuscripts.id, figures.manuscriptId))
-    .where(eq(panels.id, panelId));
-  const siblings = await tx
+    .where(eq(panels.id, id))
+    .prepare(),
+);
+const panelsInOrder = preparedQuery((db) =>
+  db
     .select({ id: panels.id })
     .from(panels)
-    .where(and(eq(panels.figureId, row.figure.id), isNull(panels.archivedAt)))
-    .orderBy(asc(panels.position));
+    .where(and(eq(panels.figureId, id), isNull(panels.archivedAt)))
+    .orderBy(asc(panels.position))
+    .prepare(),
+);
+const figurePlaceRow = preparedQuery((db) =>
+  db
+    .select({ figure: figures, title: manuscripts.title })
+    .from(figures)
+    .innerJoin(manuscripts, eq(manuscripts.id, figures.manuscriptId))
+    .where(eq(figures.id, id))
+    .prepare(),
+);
+const memberRoles = preparedQuery((db) =>
+  db.select({ userId: manuscriptMembers.userId, role: manuscriptMembers.role }).from(manuscriptMembers).where(eq(manuscriptMembers.manuscriptId, id)).prepare(),
+);
+const earlierWriters = preparedQuery((db) =>
+  db
+    .selectDistinct({ by: comments.createdBy })
+    .from(comments)
+    .where(and(eq(comments.threadId, sql.placeholder("threadId")), ne(comments.id, sql.placeholder("commentId")), isNull(comments.deletedAt)))
+    .prepare(),
+);
+const followChoices = preparedQuery((db) => db.select().from(threadFollows).where(eq(threadFollows.threadId, id)).prepare());
+
+/** Where a panel sits, read in the event's transaction: "Figure 2b", its manuscript and members. */
+async function placeOfPanel(tx: Executor, panelId: string) {
+  const row = (await panelPlaceRow(tx).get({ id: panelId }))!;
+  const siblings = await panelsInOrder(tx).all({ id: row.figure.id });
   const letter = letterFor(siblings.findIndex((p) => p.id === panelId));
   return {
     figure: row.figure,
@@ -36,11 +66,7 @@ async function placeOfPanel(tx: Executor, panelId: string) {
 }
 
 async function placeOfFigure(tx: Executor, figureId: string) {
-  const [row] = await tx
-    .select({ figure: figures, title: manuscripts.title })
-    .from(figures)
-    .innerJoin(manuscripts, eq(manuscripts.id, figures.manuscriptId))
-    .where(eq(figures.id, figureId));
+  const row = (await figurePlaceRow(tx).get({ id: figureId }))!;
   return {
     figure: row.figure,
     manuscriptId: row.figure.manuscriptId,
@@ -50,8 +76,7 @@ async function placeOfFigure(tx: Executor, figureId: string) {
   };
 }
 
-const members = (tx: Executor, manuscriptId: string) =>
-  tx.select({ userId: manuscriptMembers.userId, role: manuscriptMembers.role }).from(manuscriptMembers).where(eq(manuscriptMembers.manuscriptId, manuscriptId));
+const members = (tx: Executor, manuscriptId: string) => memberRoles(tx).all({ id: manuscriptId });
 
 const named = (title: string) => (title ? ` “${title}”` : "");
 
@@ -209,12 +234,9 @@ export async function noticeComment(
   };
   await notify(tx, { ...common, kind: "mention", to: c.mentions, headline: `${actor.name} mentioned you on ${place.label}` });
   // Everyone who wrote in the thread before (one row each, however long the thread).
-  const earlier = await tx
-    .selectDistinct({ by: comments.createdBy })
-    .from(comments)
-    .where(and(eq(comments.threadId, c.threadId), ne(comments.id, c.id), isNull(comments.deletedAt)));
+  const earlier = await earlierWriters(tx).all({ threadId: c.threadId, commentId: c.id });
   const people = new Set((await members(tx, place.manuscriptId)).map((m) => m.userId));
-  const choices = await tx.select().from(threadFollows).where(eq(threadFollows.threadId, c.threadId));
+  const choices = await followChoices(tx).all({ id: c.threadId });
   const stopped = new Set(choices.filter((f) => !f.following).map((f) => f.userId));
   const writers = earlier.map((e) => e.by);
   const followers = choices.filter((f) => f.following).map((f) => f.userId);
