@@ -100,7 +100,7 @@ export async function loadReviewRows(
         .where(and(eq(figures.manuscriptId, where.manuscriptId!), where.archived ? isNotNull(figures.archivedAt) : isNull(figures.archivedAt)))
         .orderBy(asc(figures.number));
   const figIds = figs.map((f) => f.id);
-  const one = figIds.length === 1 ? { id: figIds[0]! } : null;
+  const one = figIds.length === 1 ? { id: figIds[0] } : null;
   // An archived panel has left its figure: no letter, no part of the figure hash or state.
   const ps = one
     ? await panelsOfFigure(db).all(one)
