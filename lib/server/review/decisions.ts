@@ -20,6 +20,21 @@ import { printCheckFailures } from "@/lib/figures/print-check";
 const id = sql.placeholder("id");
 const panelById = preparedQuery((db) => db.select().from(panels).where(eq(panels.id, id)).prepare());
 const revisionById = preparedQuery((db) => db.select().from(revisions).where(eq(revisions.id, id)).prepare());
+const decisionInsert = preparedQuery((db) =>
+  db
+    .insert(decisions)
+    .values({
+      id,
+      panelId: sql.placeholder("panelId"),
+      revisionId: sql.placeholder("revisionId"),
+      contentHash: sql.placeholder("contentHash"),
+      decision: sql.placeholder("decision"),
+      note: sql.placeholder("note"),
+      userId: sql.placeholder("userId"),
+    })
+    .returning()
+    .prepare(),
+);
 const stampById = preparedQuery((db) => db.select({ s: manuscripts.reviewStamp }).from(manuscripts).where(eq(manuscripts.id, id)).prepare());
 
 /**
@@ -44,10 +59,15 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
       throw conflict("This panel is a draft: comment on it freely, but approvals and requests for a revision wait until its author sends it to review.");
     const rows = await loadReviewRows({ figureId: p.figureId }, tx, "latest-on-current");
     const from = await stampOf(tx);
-    const [made] = await tx
-      .insert(decisions)
-      .values({ id, panelId, revisionId: rev.id, contentHash: rev.contentHash, decision: input.decision, note: input.note ?? "", userId: user.id })
-      .returning();
+    const made = (await decisionInsert(tx).get({
+      id,
+      panelId,
+      revisionId: rev.id,
+      contentHash: rev.contentHash,
+      decision: input.decision,
+      note: input.note ?? "",
+      userId: user.id,
+    }))!;
     await appendAudit(tx, {
       actorId: user.id,
       manuscriptId,

@@ -51,6 +51,23 @@ function threadContext(threadId: string): Promise<{ thread: { panelId: string };
 }
 export const manuscriptOfThread = async (threadId: string) => (await threadContext(threadId)).manuscriptId;
 
+const commentInsert = preparedQuery((db) =>
+  db
+    .insert(comments)
+    .values({
+      id: sql.placeholder("id"),
+      threadId: sql.placeholder("threadId"),
+      body: sql.placeholder("body"),
+      html: sql.placeholder("html"),
+      mentions: sql.placeholder("mentions"),
+      clientKey: sql.placeholder("clientKey"),
+      createdBy: sql.placeholder("createdBy"),
+    })
+    .onConflictDoNothing()
+    .returning({ id: comments.id, createdAt: comments.createdAt })
+    .prepare(),
+);
+
 async function insertComment(
   tx: Transaction,
   user: SessionUser,
@@ -63,16 +80,20 @@ async function insertComment(
 ) {
   const id = newId();
   // Two retries racing on a networked database meet at the unique (author, clientKey) index: the loser stores nothing.
-  const inserted = await tx
-    .insert(comments)
-    .values({ id, threadId, body, html: prepared.html, mentions: prepared.mentions, clientKey: clientKey ?? null, createdBy: user.id })
-    .onConflictDoNothing()
-    .returning({ id: comments.id, createdAt: comments.createdAt });
-  if (!inserted[0]) return null;
+  const inserted = await commentInsert(tx).get({
+    id,
+    threadId,
+    body,
+    html: prepared.html,
+    mentions: prepared.mentions,
+    clientKey: clientKey ?? null,
+    createdBy: user.id,
+  });
+  if (!inserted) return null;
   await appendAudit(tx, { actorId: user.id, manuscriptId, action: "comment.create", target: `comment:${id}`, data: { threadId, mentions: prepared.mentions } });
   const excerpt = commentExcerpt(prepared.html, 300);
   await noticeComment(tx, user, { id, threadId, panelId, mentions: prepared.mentions, excerpt });
-  return inserted[0];
+  return inserted;
 }
 
 /** A retried post with the same clientKey answers the comment already stored instead of a duplicate. */
