@@ -59,7 +59,7 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
       throw conflict("This panel is a draft: comment on it freely, but approvals and requests for a revision wait until its author sends it to review.");
     const rows = await loadReviewRows({ figureId: p.figureId }, tx, "latest-on-current");
     const from = await stampOf(tx);
-    const made = (await decisionInsert(tx).get({
+    const made = await decisionInsert(tx).get({
       id,
       panelId,
       revisionId: rev.id,
@@ -67,7 +67,7 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
       decision: input.decision,
       note: input.note ?? "",
       userId: user.id,
-    }))!;
+    });
     await appendAudit(tx, {
       actorId: user.id,
       manuscriptId,
