@@ -6,6 +6,12 @@ const STATEMENTS_PER_CONNECTION = 256;
 type Prepare = (this: object, sql: string) => unknown;
 type Close = (this: object) => unknown;
 let installed = false;
+let pragmas: string[] = [];
+
+/** Settings each connection of this process gets on its first statement (those opened before keep theirs). */
+export function setConnectionPragmas(list: string[]): void {
+  pragmas = list;
+}
 
 /**
  * The libSQL client for `file:` databases prepares (parses and plans) every statement anew on each
@@ -27,7 +33,10 @@ export function cacheStatements(): void {
   proto.prepare = function (sql) {
     if (hasWildcard(sql)) return prepare.call(this, sql);
     let cache = caches.get(this);
-    if (!cache) caches.set(this, (cache = new Map<string, unknown>()));
+    if (!cache) {
+      caches.set(this, (cache = new Map<string, unknown>()));
+      for (const p of pragmas) (this as unknown as { exec(sql: string): void }).exec(p);
+    }
     const hit = cache.get(sql);
     if (hit !== undefined) {
       cache.delete(sql); // most recently used goes last
