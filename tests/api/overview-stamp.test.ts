@@ -18,16 +18,26 @@ let other: Client;
 const board = async () => (await call(manuscript.GET, { token: tokens.pi, params: { id: DEMO_MANUSCRIPT_ID } })).json;
 const panelsOf = (b: any) => b.figures.flatMap((f: any) => f.panels);
 
-/** Counts the statements this process sends from now on. */
+/** Counts the statements this process sends from now on, on the database and in transactions. */
 function countStatements() {
   const client = getClient();
   const execute = client.execute.bind(client);
-  let n = 0;
-  client.execute = ((stmt: Parameters<Client["execute"]>[0]) => {
-    n++;
-    return execute(stmt);
-  }) as Client["execute"];
-  return { count: () => ((client.execute = execute as Client["execute"]), n) };
+  const transaction = client.transaction.bind(client);
+  const seen: string[] = [];
+  const note = (stmt: unknown) => seen.push(typeof stmt === "string" ? stmt : (stmt as { sql: string }).sql);
+  client.execute = ((stmt: Parameters<Client["execute"]>[0]) => (note(stmt), execute(stmt))) as Client["execute"];
+  client.transaction = (async (mode) => {
+    const tx = await transaction(mode);
+    const txExecute = tx.execute.bind(tx);
+    tx.execute = ((stmt: Parameters<Client["execute"]>[0]) => (note(stmt), txExecute(stmt))) as typeof tx.execute;
+    return tx;
+  }) as Client["transaction"];
+  const stop = () => {
+    client.execute = execute as Client["execute"];
+    client.transaction = transaction as Client["transaction"];
+    return seen;
+  };
+  return { count: () => stop().length, statements: stop };
 }
 
 beforeAll(async () => {
@@ -106,6 +116,7 @@ describe("a decision made here amends the kept overview in place", () => {
     await board(); // kept
     const panel = panelsOf(await board()).find((p: any) => p.reviewState === "in_review" && p.currentRevision && !p.approvedBy.includes("demo-pi"));
     expect(panel).toBeTruthy();
+    const during = countStatements();
     const r = await call(approvals.POST, {
       method: "POST",
       token: tokens.pi,
@@ -113,6 +124,9 @@ describe("a decision made here amends the kept overview in place", () => {
       body: { revisionId: panel.currentRevision.id, decision: "needs_revision", note: "units on the axis" },
     });
     expect(r.status).toBe(201);
+    // The figure's review rows came from the kept overview: its decisions, sign-offs and threads were not read.
+    const sqls = during.statements();
+    expect(sqls.filter((q) => /WITH RECURSIVE deciders|from "signoffs"|from "threads"/i.test(q))).toEqual([]);
     const statements = countStatements();
     const amended = await board();
     // The caller's token, their role and the manuscript row: no figure, panel or decision was read.

@@ -11,7 +11,7 @@ import { badRequest, conflict, forbidden, notFound } from "@/lib/errors";
 import { manuscriptOfFigure, manuscriptOfPanel } from "../figures/scope";
 import { deriveReviews, loadReviewContext, loadReviewRows } from "./review-context";
 import { decisionInput, signoffInput } from "./schemas";
-import { amendOverview } from "./overview-snapshot";
+import { amendOverview, keptFigureRows } from "./overview-snapshot";
 import { noticeDecision, noticeSignoff } from "./review-notices";
 import { openIssuesOf } from "./review-edges";
 import { printCheckOf } from "../figures/print-check";
@@ -57,8 +57,8 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
     if (p.archivedAt) throw conflict("This panel is archived; restore it before deciding on it.");
     if (!p.reviewRequestedAt)
       throw conflict("This panel is a draft: comment on it freely, but approvals and requests for a revision wait until its author sends it to review.");
-    const rows = await loadReviewRows({ figureId: p.figureId }, tx, "latest-on-current");
     const from = await stampOf(tx);
+    const rows = keptFigureRows(manuscriptId, from, p.figureId) ?? (await loadReviewRows({ figureId: p.figureId }, tx, "latest-on-current"));
     const made = await decisionInsert(tx).get({
       id,
       panelId,
@@ -79,12 +79,13 @@ export async function recordDecision(user: SessionUser, panelId: string, raw: z.
     // person's earlier one on this content (it is the latest; the rows hold only latest ones).
     const [before] = deriveReviews(rows);
     const others = rows.decs.filter(({ d }) => !(d.panelId === panelId && d.userId === user.id && d.contentHash === rev.contentHash));
-    const [after] = deriveReviews({ ...rows, decs: [...others, { d: made, name: user.name }] });
+    const afterRows = { ...rows, decs: [...others, { d: made, name: user.name }] };
+    const [after] = deriveReviews(afterRows);
     await noticeDecision(tx, user, rev, input.decision, input.note ?? "", { before, after });
-    return { from, to: await stampOf(tx), after };
+    return { from, to: await stampOf(tx), after, afterRows };
   });
   // The kept overview takes the new state of this one figure instead of being read again.
-  if (amend.after) amendOverview(manuscriptId, amend.from, amend.to, amend.after);
+  if (amend.after) amendOverview(manuscriptId, amend.from, amend.to, amend.after, amend.afterRows);
   return { id, panelId, revisionId: input.revisionId, decision: input.decision };
 }
 

@@ -4,11 +4,13 @@ import { getDb, type Database } from "@/db/client";
 import { datasets } from "@/db/schema";
 import { dataWarningCounts } from "../figures/figures";
 import { listMembers } from "../manuscripts";
-import { loadReviewContext, type FigureReview } from "./review-context";
+import { deriveReviews, loadReviewRows, type FigureReview, type ReviewRows } from "./review-context";
 
 /** What a manuscript's overview and the review queue read, the same for every member (roles are applied after). */
 export interface OverviewSnapshot {
   reviews: FigureReview[];
+  /** The rows the reviews were derived from. */
+  rows: ReviewRows;
   warningCounts: Map<string, number>;
   members: Awaited<ReturnType<typeof listMembers>>;
   datasetCount: number;
@@ -26,12 +28,13 @@ const MAX_MANUSCRIPTS = 500;
 const caches = new WeakMap<Database, Map<string, Entry>>();
 
 async function loadSnapshot(manuscriptId: string): Promise<OverviewSnapshot> {
-  const [reviews, members, [dataCount]] = await Promise.all([
-    loadReviewContext({ manuscriptId }, undefined, "latest-on-current"),
+  const [rows, members, [dataCount]] = await Promise.all([
+    loadReviewRows({ manuscriptId }, undefined, "latest-on-current"),
     listMembers(manuscriptId),
     getDb().select({ n: count() }).from(datasets).where(eq(datasets.manuscriptId, manuscriptId)),
   ]);
-  return { reviews, warningCounts: await dataWarningCounts(reviews), members, datasetCount: dataCount?.n ?? 0 };
+  const reviews = deriveReviews(rows);
+  return { reviews, rows, warningCounts: await dataWarningCounts(reviews), members, datasetCount: dataCount?.n ?? 0 };
 }
 
 /** Data warnings that could not be worked out (a stored file unreadable for a moment) are left out of the counts. */
@@ -75,19 +78,50 @@ export function overviewSnapshot(manuscriptId: string, stamp: number): Promise<O
   return snapshot;
 }
 
+/** One figure's part of a manuscript's rows, as loadReviewRows reads it for that figure alone. */
+function figurePart(rows: ReviewRows, figureId: string): ReviewRows | null {
+  const figs = rows.figs.filter((f) => f.id === figureId);
+  if (!figs.length) return null;
+  const ps = rows.ps.filter((p) => p.figureId === figureId);
+  const panelIds = new Set(ps.map((p) => p.id));
+  const revIds = new Set(ps.map((p) => p.currentRevisionId));
+  return {
+    figs,
+    ps,
+    revs: rows.revs.filter((r) => revIds.has(r.id)),
+    decs: rows.decs.filter(({ d }) => panelIds.has(d.panelId)),
+    signs: rows.signs.filter((x) => x.figureId === figureId),
+    threadRows: rows.threadRows.filter((t) => panelIds.has(t.panelId)),
+  };
+}
+
+/**
+ * One figure's review rows from the kept overview, when it is the overview as of exactly `stamp`
+ * (read by the caller inside its transaction, so they are that transaction's rows); null otherwise
+ * (none kept, another stamp, or an archived figure the overview leaves out). Not to be changed.
+ */
+export function keptFigureRows(manuscriptId: string, stamp: number, figureId: string): ReviewRows | null {
+  const entry = cacheOfDb().get(manuscriptId);
+  if (!entry?.loaded || entry.stamp !== stamp) return null;
+  return figurePart(entry.loaded.rows, figureId);
+}
+
 /**
  * After a committed write that changed one figure and raised the stamp from `from` to `to`, with
- * that figure's review as of `to` derived in the write's own transaction: a kept overview as of
- * exactly `from` becomes the overview as of `to` without reading it all again. Nothing else changed
- * between the two stamps (writes are serial and every one the overview reads raises the stamp),
- * so the rest of it stands. Any other case is left to the next read.
+ * that figure's rows and review as of `to` derived in the write's own transaction: a kept overview
+ * as of exactly `from` becomes the overview as of `to` without reading it all again. Nothing else
+ * changed between the two stamps (writes are serial and every one the overview reads raises the
+ * stamp), so the rest of it stands. Any other case is left to the next read.
  */
-export function amendOverview(manuscriptId: string, from: number, to: number, figure: FigureReview): void {
+export function amendOverview(manuscriptId: string, from: number, to: number, figure: FigureReview, figureRows: ReviewRows): void {
   const cache = cacheOfDb();
   const entry = cache.get(manuscriptId);
   if (!entry?.loaded || entry.stamp !== from || to !== from + 1) return;
   const { loaded } = entry;
-  if (!loaded.reviews.some((r) => r.figure.id === figure.figure.id)) return;
-  const amended: OverviewSnapshot = { ...loaded, reviews: loaded.reviews.map((r) => (r.figure.id === figure.figure.id ? figure : r)) };
+  const id = figure.figure.id;
+  if (!loaded.reviews.some((r) => r.figure.id === id)) return;
+  const panelIds = new Set(figureRows.ps.map((p) => p.id));
+  const rows: ReviewRows = { ...loaded.rows, decs: [...loaded.rows.decs.filter(({ d }) => !panelIds.has(d.panelId)), ...figureRows.decs] };
+  const amended: OverviewSnapshot = { ...loaded, rows, reviews: loaded.reviews.map((r) => (r.figure.id === id ? figure : r)) };
   cache.set(manuscriptId, { stamp: to, snapshot: Promise.resolve(amended), loaded: amended });
 }
