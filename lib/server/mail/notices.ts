@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, eq, inArray, isNull, sql, TransactionRollbackError } from "drizzle-orm";
+import { and, asc, count, eq, inArray, isNull, lte, max, sql, TransactionRollbackError } from "drizzle-orm";
 import type { Executor } from "@/db/client";
 import { getDb } from "@/db/client";
 import { mailPreferences, notices, users } from "@/db/schema";
@@ -70,6 +70,9 @@ export async function notify(tx: Executor, n: Notice): Promise<number> {
  * in the transaction that enqueues it, so a crash leaves either both or neither, and a second
  * worker finds nothing left to take: no notice is lost and none is mailed twice.
  */
+/** A busy thread can leave hundreds of notices for one person in a window: a mail lists this many, then counts the rest. */
+const MAX_LISTED = 50;
+
 export async function flushNotices(now = Date.now()): Promise<number> {
   const db = getDb();
   const cutoff = now - env().mailCoalesceMs;
@@ -83,28 +86,21 @@ export async function flushNotices(now = Date.now()): Promise<number> {
   for (const { userId } of due) {
     const sent = await db
       .transaction(async (tx) => {
-        const pending = await tx
-          .select()
+        const mine = and(eq(notices.userId, userId), isNull(notices.mailId));
+        const [all] = await tx
+          .select({ n: count(), last: max(notices.createdAt) })
           .from(notices)
-          .where(and(eq(notices.userId, userId), isNull(notices.mailId)))
-          .orderBy(asc(notices.createdAt));
+          .where(mine);
         const [u] = await tx.select({ email: users.email }).from(users).where(eq(users.id, userId));
-        if (!pending.length || !u) return false;
-        const mailId = await enqueueMail(tx, noticesMail(u.email, userId, pending));
+        if (!all?.n || !all.last || !u) return false;
+        const listed = await tx.select().from(notices).where(mine).orderBy(asc(notices.createdAt)).limit(MAX_LISTED);
+        const unlistedKinds = all.n > listed.length ? (await tx.selectDistinct({ kind: notices.kind }).from(notices).where(mine)).map((k) => k.kind) : [];
+        const mailId = await enqueueMail(tx, noticesMail(u.email, userId, listed, { count: all.n - listed.length, kinds: unlistedKinds }));
         const taken = await tx
           .update(notices)
           .set({ mailId })
-          .where(
-            and(
-              inArray(
-                notices.id,
-                pending.map((p) => p.id),
-              ),
-              isNull(notices.mailId),
-            ),
-          )
-          .returning({ id: notices.id });
-        if (taken.length !== pending.length) tx.rollback(); // another worker took some of them: leave it to that one
+          .where(and(mine, lte(notices.createdAt, all.last)));
+        if (taken.rowsAffected !== all.n) tx.rollback(); // another worker took some of them: leave it to that one
         return true;
       })
       .catch((err: unknown) => {

@@ -47,27 +47,37 @@ interface NoticeRow {
 
 /**
  * One person's pending review notices as one mail: alone, the notice's own subject; several, how
- * many and what they are about. Each is listed with its link; the footer and the List-Unsubscribe
- * headers (RFC 2369, one-click per RFC 8058) turn off the kinds this mail carries.
+ * many and what they are about. Each is listed with its link, the first `items` of them when there
+ * were more (`more` says how many more, pointing to the activity page); the footer and the
+ * List-Unsubscribe headers (RFC 2369, one-click per RFC 8058) turn off `kinds`, those of all of them.
  */
-export function noticesMail(to: string, userId: string, items: NoticeRow[]): MailMessage {
+export function noticesMail(to: string, userId: string, items: NoticeRow[], more = { count: 0, kinds: [] as string[] }): MailMessage {
   const base = env().appUrl;
-  const kinds = [...new Set(items.map((i) => i.kind))].filter((k): k is NoticeKind => (NOTICE_KINDS as readonly string[]).includes(k));
+  const kinds = [...new Set([...items.map((i) => i.kind), ...more.kinds])].filter((k): k is NoticeKind => (NOTICE_KINDS as readonly string[]).includes(k));
   const token = unsubscribeToken(userId, kinds);
   const page = `${base}/unsubscribe?token=${encodeURIComponent(token)}`;
   const oneClick = `${base}/api/unsubscribe?token=${encodeURIComponent(token)}`;
   const settings = `${base}/settings/mail`;
   const what = kinds.map((k) => NOTICE_LABELS[k]).join(", ");
-  const single = items.length === 1;
-  const subject = single ? items[0].subject : severalSubject(items);
+  const single = items.length === 1 && more.count === 0;
+  const subject = single ? items[0].subject : severalSubject(items, more.count);
+  const manuscripts = [...new Set(items.map((i) => i.manuscriptId))];
+  const rest = more.count
+    ? {
+        headline: `…and ${more.count.toLocaleString("en-GB")} more`,
+        lines: ["Each manuscript's activity page lists everything that happened."],
+        href: manuscripts.length === 1 && manuscripts[0] ? `${base}/manuscripts/${manuscripts[0]}/activity` : `${base}/manuscripts`,
+      }
+    : null;
   const text = [
     ...items.map((i) => `${single ? "" : "• "}${i.headline}\n${i.body}\nOpen: ${i.href}\n`),
+    ...(rest ? [`• ${rest.headline}\n${rest.lines.join("\n")}\nOpen: ${rest.href}\n`] : []),
     `—\nStop mails about ${what}: ${page}\nChoose which mails you get: ${settings}\n`,
   ].join("\n");
   const view: NoticesView = {
     kind: "notices",
     heading: single ? items[0].headline : subject,
-    items: items.map((i) => ({ headline: single ? null : i.headline, lines: i.body.split("\n"), href: i.href })),
+    items: [...items.map((i) => ({ headline: single ? null : i.headline, lines: i.body.split("\n"), href: i.href })), ...(rest ? [rest] : [])],
     footer: { stop: { href: page, label: `Stop mails about ${what}` }, settings: { href: settings, label: "Choose which mails you get" } },
   };
   return {
@@ -80,11 +90,11 @@ export function noticesMail(to: string, userId: string, items: NoticeRow[]): Mai
   };
 }
 
-function severalSubject(items: NoticeRow[]): string {
+function severalSubject(items: NoticeRow[], more: number): string {
   const manuscripts = new Set(items.map((i) => i.manuscriptId));
   const about = items.map((i) => i.headline).join("; ");
   const where = manuscripts.size === 1 ? ` on ${items[0].subject.split(" — ").at(-1)}` : "";
-  const s = `${items.length} updates${where}: ${about}`;
+  const s = `${items.length + more} updates${where}: ${about}`;
   return s.length > 200 ? `${s.slice(0, 199).trimEnd()}…` : s;
 }
 
