@@ -1,8 +1,8 @@
 import "server-only";
-import { and, asc, eq, isNull, ne, sql } from "drizzle-orm";
+import { and, asc, eq, isNull, sql } from "drizzle-orm";
 import type { Executor } from "@/db/client";
 import { preparedQuery } from "@/db/prepared";
-import { comments, decisions, figures, manuscriptMembers, manuscripts, panels, threadFollows, type revisions } from "@/db/schema";
+import { decisions, figures, manuscriptMembers, manuscripts, panels, threadFollows, type revisions } from "@/db/schema";
 import type { SessionUser } from "@/lib/authz";
 import { env } from "@/lib/env";
 import { notify } from "../mail/notices";
@@ -41,13 +41,23 @@ const figurePlaceRow = preparedQuery((db) =>
 const memberRoles = preparedQuery((db) =>
   db.select({ userId: manuscriptMembers.userId, role: manuscriptMembers.role }).from(manuscriptMembers).where(eq(manuscriptMembers.manuscriptId, id)).prepare(),
 );
-const earlierWriters = preparedQuery((db) =>
-  db
-    .selectDistinct({ by: comments.createdBy })
-    .from(comments)
-    .where(and(eq(comments.threadId, sql.placeholder("threadId")), ne(comments.id, sql.placeholder("commentId")), isNull(comments.deletedAt)))
-    .prepare(),
-);
+/**
+ * Everyone with a comment in the thread other than `commentId` that is not deleted: the authors
+ * are walked one to the next on the (thread, author) index, so a long thread costs one seek per
+ * person who wrote in it, not one row per comment.
+ */
+async function earlierWriters(tx: Executor, threadId: string, commentId: string): Promise<string[]> {
+  const rows = await tx.all<{ author: string }>(sql`
+    WITH RECURSIVE w(author) AS (
+      SELECT (SELECT min(created_by) FROM comments WHERE thread_id = ${threadId})
+      UNION ALL
+      SELECT (SELECT min(created_by) FROM comments WHERE thread_id = ${threadId} AND created_by > w.author) FROM w WHERE w.author IS NOT NULL
+    )
+    SELECT author FROM w
+    WHERE author IS NOT NULL
+      AND EXISTS (SELECT 1 FROM comments c WHERE c.thread_id = ${threadId} AND c.created_by = w.author AND c.id <> ${commentId} AND c.deleted_at IS NULL)`);
+  return rows.map((r) => r.author);
+}
 const followChoices = preparedQuery((db) => db.select().from(threadFollows).where(eq(threadFollows.threadId, id)).prepare());
 
 /** Where a panel sits, read in the event's transaction: "Figure 2b", its manuscript and members. */
@@ -234,11 +244,10 @@ export async function noticeComment(
   };
   await notify(tx, { ...common, kind: "mention", to: c.mentions, headline: `${actor.name} mentioned you on ${place.label}` });
   // Everyone who wrote in the thread before (one row each, however long the thread).
-  const earlier = await earlierWriters(tx).all({ threadId: c.threadId, commentId: c.id });
+  const writers = await earlierWriters(tx, c.threadId, c.id);
   const people = new Set((await members(tx, place.manuscriptId)).map((m) => m.userId));
   const choices = await followChoices(tx).all({ id: c.threadId });
   const stopped = new Set(choices.filter((f) => !f.following).map((f) => f.userId));
-  const writers = earlier.map((e) => e.by);
   const followers = choices.filter((f) => f.following).map((f) => f.userId);
   const to = [...writers, ...followers].filter((id) => people.has(id) && !stopped.has(id) && !c.mentions.includes(id));
   await notify(tx, { ...common, kind: "reply", to, headline: `${actor.name} replied on ${place.label}` });
