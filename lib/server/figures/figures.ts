@@ -142,7 +142,7 @@ export function presentFiguresJson(reviews: FigureReview[], role: Role | null, w
   if (!byReview) figureJson.set(warningCounts, (byReview = new WeakMap()));
   const parts = reviews.map((r) => {
     let byRole = byReview.get(r);
-    if (!byRole) byReview.set(r, (byRole = new Map<Role | null, string>()));
+    if (!byRole) byReview.set(r, (byRole = new Map()));
     let text = byRole.get(role);
     if (text === undefined) byRole.set(role, (text = JSON.stringify(presentFigure(r, role, warningCounts))));
     return text;
