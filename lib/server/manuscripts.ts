@@ -105,14 +105,6 @@ async function present({ manuscript, snapshot }: Awaited<ReturnType<typeof manus
   };
 }
 
-/** `present` as JSON text, the same text JSON.stringify makes of it, with each figure's part kept. */
-async function presentJson({ manuscript, snapshot }: Awaited<ReturnType<typeof manuscriptOverview>>): Promise<string> {
-  const { presentFiguresJson } = await import("./figures/figures");
-  const head = JSON.stringify(manuscript);
-  const figures = presentFiguresJson(snapshot.reviews, manuscript.role, snapshot.warningCounts);
-  return `${head.slice(0, -1)},"members":${JSON.stringify(snapshot.members)},"figures":${figures},"datasetCount":${JSON.stringify(snapshot.datasetCount)}}`;
-}
-
 export async function getManuscript(user: SessionUser, manuscriptId: string, knownRole?: Role | null) {
   return present(await manuscriptOverview(user, manuscriptId, knownRole));
 }
@@ -133,7 +125,7 @@ export async function getManuscriptJson(user: SessionUser, manuscriptId: string,
   let answer = answers.get(key);
   if (!answer) {
     if (answers.size >= KEPT_PER_OVERVIEW) answers.clear();
-    answer = new KeptJson(await presentJson(overview));
+    answer = new KeptJson(JSON.stringify(await present(overview)));
     answers.set(key, answer);
   }
   return answer;

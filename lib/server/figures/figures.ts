@@ -130,26 +130,6 @@ export function presentFigures(reviews: FigureReview[], role: Role | null, warni
   return reviews.map((r) => presentFigure(r, role, warningCounts));
 }
 
-/** Each figure's JSON, by the warning counts and the review it was made from, and the role. */
-const figureJson = new WeakMap<Map<string, number>, WeakMap<FigureReview, Map<Role | null, string>>>();
-
-/**
- * `presentFigures` as JSON text, each figure serialised once per review object and role: a
- * decision amends one figure of a kept overview, and the others keep their text.
- */
-export function presentFiguresJson(reviews: FigureReview[], role: Role | null, warningCounts: Map<string, number>): string {
-  let byReview = figureJson.get(warningCounts);
-  if (!byReview) figureJson.set(warningCounts, (byReview = new WeakMap()));
-  const parts = reviews.map((r) => {
-    let byRole = byReview.get(r);
-    if (!byRole) byReview.set(r, (byRole = new Map()));
-    let text = byRole.get(role);
-    if (text === undefined) byRole.set(role, (text = JSON.stringify(presentFigure(r, role, warningCounts))));
-    return text;
-  });
-  return `[${parts.join(",")}]`;
-}
-
 /** Reorders panels; letters follow the new order. */
 export async function reorderPanels(user: SessionUser, figureId: string, raw: z.infer<typeof reorderInput>) {
   const manuscriptId = await manuscriptOfFigure(figureId);
