@@ -7,7 +7,6 @@ import { labMembers, labs, manuscriptMembers, manuscripts, users, type Role } fr
 import { authorize, authorizeLab, type SessionUser } from "@/lib/authz";
 import { appendAudit } from "./audit";
 import { newId } from "./crypto";
-import { KeptJson } from "./kept-json";
 import { badRequest, notFound } from "@/lib/errors";
 
 export const createManuscriptInput = z.object({
@@ -107,28 +106,6 @@ async function present({ manuscript, snapshot }: Awaited<ReturnType<typeof manus
 
 export async function getManuscript(user: SessionUser, manuscriptId: string, knownRole?: Role | null) {
   return present(await manuscriptOverview(user, manuscriptId, knownRole));
-}
-
-/** Serialised answers per kept overview, by the manuscript's own fields and the caller's role. */
-const keptAnswers = new WeakMap<object, Map<string, KeptJson>>();
-const KEPT_PER_OVERVIEW = 16;
-
-/**
- * The manuscript as the API sends it, serialised (and compressed) once per kept overview and role
- * rather than on each of the many reads a review round brings; the same as `getManuscript`.
- */
-export async function getManuscriptJson(user: SessionUser, manuscriptId: string, knownRole?: Role | null): Promise<KeptJson> {
-  const overview = await manuscriptOverview(user, manuscriptId, knownRole);
-  let answers = keptAnswers.get(overview.snapshot);
-  if (!answers) keptAnswers.set(overview.snapshot, (answers = new Map<string, KeptJson>()));
-  const key = JSON.stringify(overview.manuscript);
-  let answer = answers.get(key);
-  if (!answer) {
-    if (answers.size >= KEPT_PER_OVERVIEW) answers.clear();
-    answer = new KeptJson(JSON.stringify(await present(overview)));
-    answers.set(key, answer);
-  }
-  return answer;
 }
 
 export async function getManuscriptTitle(manuscriptId: string): Promise<string> {
