@@ -27,6 +27,20 @@ test("reviewer from a partner institute sees the demo manuscript with their role
   await shoot(page, "manuscript");
 });
 
+test("the manuscript's API answer reaches the browser gzip-compressed once", async ({ page }) => {
+  await signIn(page, "author@lab.example.org");
+  const answer = await page.evaluate(async (id) => {
+    const res = await fetch(`/api/manuscripts/${id}`);
+    return { status: res.status, encoding: res.headers.get("content-encoding"), body: await res.json() };
+  }, DEMO_MANUSCRIPT);
+  expect(answer.status).toBe(200);
+  // The browser undoes one layer of gzip; a second one would leave bytes that are not JSON.
+  expect(answer.encoding).toBe("gzip");
+  expect(answer.body.title).toMatch(MANUSCRIPT_TITLE);
+  expect(answer.body.role).toBe("author");
+  expect(answer.body.figures.length).toBeGreaterThan(0);
+});
+
 test("the outsider sees only their own lab's manuscript and gets 404 on the demo one", async ({ page, consoleGuard }) => {
   consoleGuard.allow(/status of 404 .*\/manuscripts\/demo-manuscript$/, "the outsider opens the demo manuscript");
   await signIn(page, "outsider@elsewhere.example.org");
