@@ -4,7 +4,6 @@ import type { Role } from "@/db/schema";
 import { env } from "@/lib/env";
 import { forbidden, unauthorized } from "@/lib/errors";
 import { toErrorResponse } from "./errors";
-import { jsonAnswer } from "./json-answer";
 import { readJsonBody } from "./read-json-body";
 import { resolveCaller } from "./request-user";
 import { withRequestMemo } from "@/lib/request-memo";
@@ -82,7 +81,7 @@ export function withPermission<B = undefined, Q = undefined>(
       const manuscriptId = options.scope ? await options.scope({ params, body, query, user: caller.user }) : undefined;
       const role = await authorize(caller.user, permission, manuscriptId);
       const out = await handler({ req, user: caller.user, role, params, body, query, manuscriptId });
-      return out instanceof Response ? out : jsonAnswer(req, out);
+      return out instanceof Response ? out : Response.json(out);
     } catch (err) {
       return toErrorResponse(err);
     }

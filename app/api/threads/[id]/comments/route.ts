@@ -1,6 +1,5 @@
 // Reply in a thread (Tiptap JSON body; the answer carries the sanitised HTML): the whole thread, or
 // with `Prefer: return=minimal` only the new comment (the thread grows with every reply).
-import { jsonAnswer } from "@/lib/http/json-answer";
 import { withPermission } from "@/lib/http/route";
 import { preferenceHeaders, prefersMinimal } from "@/lib/http/prefer";
 import { replyInput } from "@/lib/server/review/schemas";
@@ -12,6 +11,6 @@ export const POST = withPermission(
   async ({ req, user, params, body }) => {
     const minimal = prefersMinimal(req);
     const answer = minimal ? await postReply(user, params.id, body) : await replyToThread(user, params.id, body);
-    return jsonAnswer(req, answer, { status: 201, headers: preferenceHeaders(minimal) });
+    return Response.json(answer, { status: 201, headers: preferenceHeaders(minimal) });
   },
 );
