@@ -31,7 +31,7 @@ export function cacheStatements(): void {
   const close = proto.close;
   const caches = new WeakMap<object, Map<string, unknown>>();
   proto.prepare = function (sql) {
-    if (hasWildcard(sql)) return prepare.call(this, sql);
+    if (listsEveryColumn(sql)) return prepare.call(this, sql);
     let cache = caches.get(this);
     if (!cache) {
       caches.set(this, (cache = new Map<string, unknown>()));
@@ -94,5 +94,12 @@ function keepSettings(stmt: Statement): Statement {
   return stmt;
 }
 
-/** `*` anywhere but in count(*): a column wildcard (or, kept out as well, a product). */
-const hasWildcard = (sql: string) => sql.replace(/count\(\s*\*\s*\)/gi, "").includes("*");
+/**
+ * Whether the SQL lists columns with a wildcard: a `*` (or `t.*`) right after SELECT, DISTINCT, ALL,
+ * RETURNING or a comma. A product such as `unixepoch('subsec') * 1000` follows an operand, and
+ * count(*) follows a parenthesis, so statements with those are kept. Quoted text is skipped.
+ */
+export function listsEveryColumn(sql: string): boolean {
+  const code = sql.replace(/'(?:[^']|'')*'/g, "''");
+  return /(?:\bselect|\bdistinct|\ball|\breturning|,)\s*(?:(?:"[^"]*"|\w+)\s*\.\s*)?\*/i.test(code);
+}

@@ -3,7 +3,7 @@ import os from "node:os";
 import path from "node:path";
 import { createClient, type Client } from "@libsql/client";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { cacheStatements } from "@/db/statement-cache";
+import { cacheStatements, listsEveryColumn } from "@/db/statement-cache";
 
 // Reused prepared statements must answer exactly what fresh ones would: the expected rows are written by hand.
 let dir: string;
@@ -85,5 +85,23 @@ describe("prepared statements kept per connection", () => {
       [11, "n11"],
       [12, "n12"],
     ]);
+  });
+});
+
+// Which statements are never kept: those whose columns are fixed by a wildcard when prepared.
+describe("column wildcards", () => {
+  it.each([
+    ["SELECT * FROM w", true],
+    ['select "w".* from "w"', true],
+    ["select distinct * from w", true],
+    ["select w.id, * from w", true],
+    ["insert into t (id) values (?) returning *", true],
+    ["select count(*), min(at) from rate_events", false],
+    ["insert into c (id, created_at) values (?, (unixepoch('subsec') * 1000))", false],
+    ["select a, b * 2 from t", false],
+    ["select id from t where note = 'select *'", false],
+    ["select id, v from t", false],
+  ])("%s → %s", (sql, expected) => {
+    expect(listsEveryColumn(sql)).toBe(expected);
   });
 });
