@@ -1,7 +1,8 @@
 import "server-only";
-import { and, asc, count, eq, inArray, isNull, lte, max, sql, TransactionRollbackError } from "drizzle-orm";
+import { and, asc, count, eq, isNull, lte, max, sql, TransactionRollbackError } from "drizzle-orm";
 import type { Executor } from "@/db/client";
 import { getDb } from "@/db/client";
+import { preparedQuery } from "@/db/prepared";
 import { mailPreferences, notices, users } from "@/db/schema";
 import { env } from "@/lib/env";
 import { newId } from "../crypto";
@@ -32,6 +33,32 @@ export function shortTitle(title: string, max = 48): string {
   return `${(space > max / 2 ? cut.slice(0, space) : cut).replace(/[\s,;:.–—-]+$/, "")}…`;
 }
 
+/** The recipients' mail choices: one statement for any number of them (ids as a JSON array). */
+const preferencesOf = preparedQuery((db) =>
+  db
+    .select()
+    .from(mailPreferences)
+    .where(sql`${mailPreferences.userId} in (select value from json_each(${sql.placeholder("ids")}))`)
+    .prepare(),
+);
+
+const insertNotice = preparedQuery((db) =>
+  db
+    .insert(notices)
+    .values({
+      id: sql.placeholder("id"),
+      userId: sql.placeholder("userId"),
+      kind: sql.placeholder("kind"),
+      manuscriptId: sql.placeholder("manuscriptId"),
+      figureId: sql.placeholder("figureId"),
+      subject: sql.placeholder("subject"),
+      headline: sql.placeholder("headline"),
+      body: sql.placeholder("body"),
+      href: sql.placeholder("href"),
+    })
+    .prepare(),
+);
+
 /**
  * Writes one pending notice per recipient in the caller's transaction (so a notice exists exactly
  * when its event does). Never to the actor; not to whoever turned the kind off or unfollowed the
@@ -40,27 +67,28 @@ export function shortTitle(title: string, max = 48): string {
 export async function notify(tx: Executor, n: Notice): Promise<number> {
   const to = [...new Set(n.to)].filter((id) => id !== n.actorId);
   if (!to.length) return 0;
-  const prefs = await tx.select().from(mailPreferences).where(inArray(mailPreferences.userId, to));
+  const prefs = await preferencesOf(tx).all({ ids: JSON.stringify(to) });
   const wanted = to.filter((id) => {
     const p = prefs.find((x) => x.userId === id);
     if (!p) return true;
     const figureUnfollowed = n.figureId !== undefined && p.unfollowedFigures.includes(n.figureId);
     return !p.mutedKinds.includes(n.kind) && !p.unfollowed.includes(n.manuscriptId) && !figureUnfollowed;
   });
-  if (!wanted.length) return 0;
-  await tx.insert(notices).values(
-    wanted.map((userId) => ({
+  const subject = `${n.headline} — ${shortTitle(n.manuscriptTitle)}`;
+  const body = n.lines.join("\n");
+  for (const userId of wanted) {
+    await insertNotice(tx).run({
       id: newId(),
       userId,
       kind: n.kind,
       manuscriptId: n.manuscriptId,
       figureId: n.figureId ?? null,
-      subject: `${n.headline} — ${shortTitle(n.manuscriptTitle)}`,
+      subject,
       headline: n.headline,
-      body: n.lines.join("\n"),
+      body,
       href: n.href,
-    })),
-  );
+    });
+  }
   return wanted.length;
 }
 
