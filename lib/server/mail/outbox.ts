@@ -191,16 +191,19 @@ function smtpAnswer(err: unknown): { code: number | null; answer: string } {
 
 let soon: NodeJS.Timeout | undefined;
 /**
- * Asks for a delivery run shortly after a write that may have made mail due. A burst of writes (a
- * busy thread) shares one run instead of each starting its own; the worker's tick is the fallback.
+ * Asks for a delivery run once the notices a write just made fall due: after the coalescing window
+ * (MAIL_COALESCE_SECONDS) and a moment more, not at once, when there would be nothing to send yet.
+ * A burst of writes (a busy thread) shares one run instead of each starting its own; the worker's
+ * tick is the fallback.
  */
-export function deliverOutboxSoon(delayMs = 250): void {
+export function deliverOutboxSoon(delayMs = env().mailCoalesceMs + 250): void {
   if (soon) return;
-  soon = outsideRequest(() =>
-    setTimeout(() => {
-      soon = undefined;
-      void deliverOutbox().catch(() => undefined);
-    }, delayMs),
+  soon = outsideRequest(
+    () =>
+      setTimeout(() => {
+        soon = undefined;
+        void deliverOutbox().catch(() => undefined);
+      }, delayMs).unref(), // a script that posted a comment need not wait for it: the server's worker sends it
   );
 }
 
