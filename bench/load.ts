@@ -8,9 +8,15 @@
  * Latency is client side, from just before fetch() to the whole body read. A request counts as an
  * error when it throws (connection error, per-request timeout) or its status is not the expected
  * one; its latency is still recorded, so slow failures show in the percentiles.
+ *
+ * LOAD_TRACE=<file> appends one line per timed request (start time in ms since the epoch, clients,
+ * kind, latency in ms, tab-separated), to see when in a run the slow requests happen.
  */
+import fs from "node:fs";
 import type { Dispatcher } from "undici-types";
 import { percentile, round } from "./report";
+
+const TRACE_FILE = process.env.LOAD_TRACE;
 
 export interface LoadRequest {
   url: string;
@@ -81,6 +87,7 @@ interface Raw {
 /** One closed-loop slice of `durationMs`; `seq` numbers requests across the slices of one target. */
 async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationMs: number, kind: "warmup" | "timed", counter: { seq: number }): Promise<Raw> {
   const latencies: number[] = [];
+  const trace: string[] = [];
   const kinds: Raw["kinds"] = {};
   const statuses: Record<string, number> = {};
   const errorSamples: string[] = [];
@@ -109,6 +116,7 @@ async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationM
       }
       const ms = performance.now() - started;
       latencies.push(ms);
+      if (TRACE_FILE && kind === "timed") trace.push(`${round(performance.timeOrigin + started, 1)}\t${opts.connections}\t${requestKind ?? "bare"}\t${round(ms, 2)}`);
       if (requestKind) {
         kinds[requestKind] ??= { latencies: [], errors: 0 };
         kinds[requestKind].latencies.push(ms);
@@ -122,6 +130,7 @@ async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationM
     }
   };
   await Promise.all(Array.from({ length: opts.connections }, (_, c) => client(c)));
+  if (trace.length) fs.appendFileSync(TRACE_FILE!, trace.join("\n") + "\n");
   return { kinds, latencies, statuses, errors, errorSamples, bytes, elapsedMs: performance.now() - t0 };
 }
 
