@@ -1,7 +1,8 @@
 /**
  * A production server for the HTTP benchmarks: `next start` on a throw-away database (migrated and
  * seeded with the demo lab) with its own uploads and mail directories and ports, API tokens for
- * demo accounts, and the mail sink in this process.
+ * demo accounts, and the mail sink in a process of its own, as a relay would be: parsing and storing
+ * the server's mail in the load generator's process held up every request it was timing.
  *
  * - The build is made only when the sources are newer than .next, under the build lock
  *   (`flock /tmp/prooflight-build.lock next build`), after waiting for others' builds and servers.
@@ -60,6 +61,32 @@ export async function stopGroup(child: ChildProcess, graceMs = 10_000): Promise<
     }
     await waitForExit(child, 2_000);
   }
+}
+
+/** The mail sink (scripts/mail-sink.ts) in its own process group, once it listens. */
+async function startSinkProcess(port: number, env: Record<string, string>): Promise<ChildProcess> {
+  const child = spawn(path.join("node_modules", ".bin", "tsx"), ["--conditions=react-server", "scripts/mail-sink.ts"], {
+    env: { ...process.env, ...env },
+    stdio: ["ignore", "ignore", "inherit"],
+    detached: true,
+  });
+  // Also when the bench is stopped with Ctrl+C.
+  process.once("exit", () => {
+    try {
+      process.kill(-child.pid!, "SIGKILL");
+    } catch {
+      /* gone */
+    }
+  });
+  const until = Date.now() + 30_000;
+  while (!(await portOpen(port))) {
+    if (child.exitCode !== null || Date.now() > until) {
+      await stopGroup(child, 1_000);
+      throw new Error(`the mail sink did not start on port ${port}`);
+    }
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  return child;
 }
 
 async function waitWhile(what: string, busy: () => boolean, timeoutMs: number): Promise<boolean> {
@@ -164,7 +191,7 @@ export async function startBenchServer(opts: BenchServerOptions): Promise<BenchS
   const savedEnv = Object.fromEntries(Object.keys(benchEnv).map((k) => [k, process.env[k]]));
   let server: ChildProcess | undefined;
   let lock: ChildProcess | undefined;
-  let sink: { close(): Promise<void> } | undefined;
+  let sink: ChildProcess | undefined;
   let stopped = false;
   const stop = async () => {
     if (stopped) return;
@@ -174,7 +201,7 @@ export async function startBenchServer(opts: BenchServerOptions): Promise<BenchS
       lock.stdin!.end();
       await stopGroup(lock, 2_000);
     }
-    if (sink) await sink.close();
+    if (sink) await stopGroup(sink, 2_000);
     const { closeDb } = await import("@/db/client");
     closeDb();
     for (const [k, v] of Object.entries(savedEnv))
@@ -197,7 +224,6 @@ export async function startBenchServer(opts: BenchServerOptions): Promise<BenchS
     const { seedDemoWithData } = await import("@/lib/server/demo/seed-demo");
     const { findUserByEmail } = await import("@/lib/server/users");
     const { createApiToken } = await import("@/lib/server/api-tokens");
-    const { startMailSink } = await import("@/lib/server/mail/sink-server");
     const { spawnNext, waitForHttp } = await import("../scripts/lib/processes");
 
     await applyMigrations();
@@ -212,7 +238,7 @@ export async function startBenchServer(opts: BenchServerOptions): Promise<BenchS
 
     const build = await buildIfStale();
     lock = await holdBuildLockShared();
-    sink = await startMailSink({ port: opts.smtpPort, dir: benchEnv.MAIL_SINK_DIR, quiet: true });
+    sink = await startSinkProcess(opts.smtpPort, benchEnv);
     // BENCH_SERVER_NODE_ARGS: flags for the server's node (e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof" to profile it under load).
     server = spawnNext(["start", "-p", String(opts.appPort)], benchEnv, (process.env.BENCH_SERVER_NODE_ARGS ?? "").split(" ").filter(Boolean));
     const t0 = performance.now();
