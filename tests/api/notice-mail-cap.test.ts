@@ -1,4 +1,4 @@
-import { eq, isNull, sql } from "drizzle-orm";
+import { eq, isNull } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { mailOutbox, notices } from "@/db/schema";
@@ -49,50 +49,5 @@ describe("one mail for many notices", () => {
     expect(await getDb().select().from(notices).where(isNull(notices.mailId))).toEqual([]);
     const taken = await getDb().select({ mailId: notices.mailId }).from(notices).where(eq(notices.userId, "demo-reviewer"));
     expect(new Set(taken.map((n) => n.mailId))).toEqual(new Set([mail!.id]));
-  });
-
-  it("mails a flood of 1,200 notices in parts of 500, 500 and 200, oldest first, each notice once", async () => {
-    const t0 = Date.now() - 120_000;
-    const rows = Array.from({ length: 1200 }, (_, i) => ({
-      id: `flood-${String(i).padStart(4, "0")}`,
-      userId: "demo-pi",
-      kind: "reply",
-      manuscriptId: DEMO_MANUSCRIPT_ID,
-      subject: `Reply ${i} — A manuscript`,
-      headline: `Reply ${i}`,
-      body: `line ${i}`,
-      href: `${APP}/panels/f${i}`,
-      createdAt: new Date(t0 + i),
-    }));
-    for (let i = 0; i < rows.length; i += 400)
-      await getDb()
-        .insert(notices)
-        .values(rows.slice(i, i + 400));
-    const toPi = () => getDb().select().from(mailOutbox).where(eq(mailOutbox.to, "pi@lab.example.org")).orderBy(sql`rowid`);
-
-    // One part per delivery run: 500, then 500, then the last 200; a fourth run finds nothing.
-    expect(await flushNotices(Date.now())).toBe(1);
-    expect(await flushNotices(Date.now())).toBe(1);
-    expect(await flushNotices(Date.now())).toBe(1);
-    expect(await flushNotices(Date.now())).toBe(0);
-
-    const mails = await toPi();
-    expect(mails).toHaveLength(3);
-    const firstOpened = (text: string) => /^Open: (\S+)$/m.exec(text)![1];
-    expect(mails.map((m) => firstOpened(m.text))).toEqual([`${APP}/panels/f0`, `${APP}/panels/f500`, `${APP}/panels/f1000`]);
-    expect(mails[0]!.text).toContain("• …and 450 more\n");
-    expect(mails[2]!.text).toContain("• …and 150 more\n");
-
-    const taken = await getDb().select({ id: notices.id, mailId: notices.mailId }).from(notices).where(eq(notices.userId, "demo-pi"));
-    const partOf = (i: number) => taken.find((n) => n.id === `flood-${String(i).padStart(4, "0")}`)!.mailId;
-    expect([partOf(0), partOf(499), partOf(500), partOf(999), partOf(1000), partOf(1199)]).toEqual([
-      mails[0]!.id,
-      mails[0]!.id,
-      mails[1]!.id,
-      mails[1]!.id,
-      mails[2]!.id,
-      mails[2]!.id,
-    ]);
-    expect(taken.filter((n) => n.mailId === null)).toEqual([]);
   });
 });

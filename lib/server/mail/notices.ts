@@ -1,6 +1,6 @@
 import "server-only";
 import { setImmediate as nextTurn } from "node:timers/promises";
-import { and, asc, count, eq, isNull, sql, TransactionRollbackError } from "drizzle-orm";
+import { and, asc, count, eq, isNull, lte, max, sql, TransactionRollbackError } from "drizzle-orm";
 import type { Executor } from "@/db/client";
 import { getDb } from "@/db/client";
 import { preparedQuery } from "@/db/prepared";
@@ -93,20 +93,15 @@ export async function notify(tx: Executor, n: Notice): Promise<number> {
   return wanted.length;
 }
 
-/** A busy thread can leave hundreds of notices for one person in a window: a mail lists this many, then counts the rest. */
-const MAX_LISTED = 50;
-/**
- * A flood (a script posting thousands of replies) is mailed in parts of this many notices, the
- * oldest first, one part per delivery run: marking them all in one transaction held the server up.
- */
-const MAX_TAKEN = 500;
-
 /**
  * Turns each person's pending notices into one mail once the first of them is older than the
  * coalescing window (MAIL_COALESCE_SECONDS). Each person's notices are stamped with the mail's id
  * in the transaction that enqueues it, so a crash leaves either both or neither, and a second
  * worker finds nothing left to take: no notice is lost and none is mailed twice.
  */
+/** A busy thread can leave hundreds of notices for one person in a window: a mail lists this many, then counts the rest. */
+const MAX_LISTED = 50;
+
 export async function flushNotices(now = Date.now()): Promise<number> {
   const db = getDb();
   const cutoff = now - env().mailCoalesceMs;
@@ -122,23 +117,20 @@ export async function flushNotices(now = Date.now()): Promise<number> {
     if (i > 0) await nextTurn();
     const sent = await db
       .transaction(async (tx) => {
-        const oldest = sql`select rowid from ${notices} where ${notices.userId} = ${userId} and ${notices.mailId} is null order by ${notices.createdAt}, rowid limit ${MAX_TAKEN}`;
-        const taking = and(eq(notices.userId, userId), isNull(notices.mailId), sql`rowid in (${oldest})`);
+        const mine = and(eq(notices.userId, userId), isNull(notices.mailId));
         const [all] = await tx
-          .select({ n: count(), kinds: sql<string>`json_group_array(distinct ${notices.kind})` })
+          .select({ n: count(), last: max(notices.createdAt), kinds: sql<string>`json_group_array(distinct ${notices.kind})` })
           .from(notices)
-          .where(taking);
+          .where(mine);
         const [u] = await tx.select({ email: users.email }).from(users).where(eq(users.id, userId));
-        if (!all?.n || !u) return false;
-        const listed = await tx
-          .select()
-          .from(notices)
-          .where(taking)
-          .orderBy(asc(notices.createdAt), sql`rowid`)
-          .limit(MAX_LISTED);
+        if (!all?.n || !all.last || !u) return false;
+        const listed = await tx.select().from(notices).where(mine).orderBy(asc(notices.createdAt)).limit(MAX_LISTED);
         const unlistedKinds = all.n > listed.length ? (JSON.parse(all.kinds) as string[]) : [];
         const mailId = await enqueueMail(tx, noticesMail(u.email, userId, listed, { count: all.n - listed.length, kinds: unlistedKinds }));
-        const taken = await tx.update(notices).set({ mailId }).where(taking);
+        const taken = await tx
+          .update(notices)
+          .set({ mailId })
+          .where(and(mine, lte(notices.createdAt, all.last)));
         if (taken.rowsAffected !== all.n) tx.rollback(); // another worker took some of them: leave it to that one
         return true;
       })
