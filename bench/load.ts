@@ -116,7 +116,8 @@ async function phase(opts: LoadOptions, agent: Dispatcher | undefined, durationM
       }
       const ms = performance.now() - started;
       latencies.push(ms);
-      if (TRACE_FILE && kind === "timed") trace.push(`${round(performance.timeOrigin + started, 1)}\t${opts.connections}\t${requestKind ?? "bare"}\t${round(ms, 2)}`);
+      if (TRACE_FILE && kind === "timed")
+        trace.push(`${round(performance.timeOrigin + started, 1)}\t${opts.connections}\t${requestKind ?? "bare"}\t${round(ms, 2)}`);
       if (requestKind) {
         kinds[requestKind] ??= { latencies: [], errors: 0 };
         kinds[requestKind].latencies.push(ms);
